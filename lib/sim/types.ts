@@ -1,0 +1,68 @@
+// Public types of the simulation core. `railwise.result/1` is the JSON contract (DESIGN.md);
+// `SimResult` is the in-memory form with typed arrays (transferable from the worker).
+import type { Scenario } from "@/lib/schemas/scenario";
+
+export type SolverName = "exact" | "odex";
+
+export interface SimOptions {
+  /** Default "exact" (piecewise-exponential with event location); "odex" = GBS cross-check. */
+  solver?: SolverName;
+  /** Chatter hold-off in seconds; default 1 % of the run or of the input period, whichever is shorter. */
+  holdOff?: number;
+  /** Called with the completed fraction 0…1, throttled by the caller's needs. */
+  onProgress?: (fraction: number) => void;
+  /** Polled now and then; returning true aborts the run with a `SimCancelled` error. */
+  shouldCancel?: () => boolean;
+}
+
+export interface SimEvent {
+  time: number;
+  edge: "rising" | "falling";
+  /** Input (signal incl. noise) at the moment the output crossed mid-level. */
+  input: number;
+}
+
+export interface SimMetrics {
+  transitions: number;
+  upperThreshold: number | null;
+  lowerThreshold: number | null;
+  hysteresis: number | null;
+  chatter: number;
+  clippedFraction: number;
+  maxSlewRate: number;
+  period: number | null;
+  dutyCycle: number | null;
+  /** Extras beyond the contract. */
+  propagationDelay?: number | null;
+  riseTime?: number | null;
+  fallTime?: number | null;
+  holdOff?: number;
+}
+
+export interface SolverStats {
+  name: string;
+  steps: number;
+  evaluations: number;
+  wallMs: number;
+}
+
+export interface SimResult {
+  rails: { high: number; low: number };
+  t: Float64Array;
+  input: Float64Array;
+  output: Float64Array;
+  events: SimEvent[];
+  metrics: SimMetrics;
+  solver: SolverStats;
+}
+
+export interface ResultJson {
+  schema: "railwise.result/1";
+  rails: { high: number; low: number };
+  samples: { t: number[]; input: number[]; output: number[] };
+  events: SimEvent[];
+  metrics: SimMetrics;
+  solver: SolverStats;
+}
+
+export type SimulateFn = (scenario: Scenario, options?: SimOptions) => SimResult;
