@@ -1,0 +1,69 @@
+import { describe, expect, it } from "vitest";
+import { formatQuantity, formatRkm, parseQuantity } from "@/lib/design/notation";
+
+describe("RKM codes (IEC 60062)", () => {
+  it("parses the published examples", () => {
+    // IEC 60062 via REFERENCES.md [published]: 4K7 = 4.7 kΩ, 2R2 = 2.2 Ω, 1M0 = 1 MΩ, 470R = 470 Ω
+    expect(parseQuantity("4K7")).toBe(4700);
+    expect(parseQuantity("2R2")).toBe(2.2);
+    expect(parseQuantity("1M0")).toBe(1e6);
+    expect(parseQuantity("470R")).toBe(470);
+    // IEC 60062 capacitor letters (from memory): 4n7 = 4.7 nF, R47 = 0.47 Ω
+    expect(parseQuantity("4n7")).toBeCloseTo(4.7e-9, 20);
+    expect(parseQuantity("R47")).toBe(0.47);
+    expect(parseQuantity("4K7 Ω")).toBe(4700);
+  });
+
+  it("formats resistances as RKM and parses them back", () => {
+    // IEC 60062 examples [published]
+    expect(formatRkm(4700)).toBe("4K7");
+    expect(formatRkm(2.2)).toBe("2R2");
+    expect(formatRkm(1e6)).toBe("1M0");
+    expect(formatRkm(470)).toBe("470R");
+    // common practice, no source
+    expect(formatRkm(10_000)).toBe("10K");
+    expect(formatRkm(0.47)).toBe("R47");
+    expect(formatRkm(10_200)).toBe("10K2");
+    for (const r of [1, 1.5, 10, 47.5, 100, 953, 1000, 1020, 9090, 33_000, 249_000, 1_500_000]) {
+      expect(parseQuantity(formatRkm(r))).toBe(r);
+    }
+    expect(() => formatRkm(0)).toThrow();
+  });
+});
+
+describe("engineering notation", () => {
+  it("parses prefixes and unit suffixes", () => {
+    // SI prefixes (BIPM SI Brochure, 9th ed., table 7) [published]
+    expect(parseQuantity("4.7k")).toBe(4700);
+    expect(parseQuantity("100n")).toBeCloseTo(1e-7, 20);
+    expect(parseQuantity("2.2M")).toBe(2.2e6);
+    expect(parseQuantity("10u")).toBeCloseTo(1e-5, 20);
+    expect(parseQuantity("10µ")).toBeCloseTo(1e-5, 20);
+    expect(parseQuantity("10μ")).toBeCloseTo(1e-5, 20);
+    expect(parseQuantity("1m")).toBe(0.001);
+    expect(parseQuantity("100 nF")).toBeCloseTo(1e-7, 20);
+    expect(parseQuantity("4.7 kΩ")).toBe(4700);
+    expect(parseQuantity("10kohm")).toBe(10_000);
+    expect(parseQuantity("5V")).toBe(5);
+    expect(parseQuantity("1.5 Hz")).toBe(1.5);
+    expect(parseQuantity("-2.5")).toBe(-2.5);
+    expect(parseQuantity("1e3")).toBe(1000);
+    expect(parseQuantity(" 750p ")).toBeCloseTo(7.5e-10, 22);
+  });
+
+  it("returns null for text that is not a quantity", () => {
+    for (const bad of ["", "abc", "k", "4.7x", "1..2", "R", "--1", "4K7K"]) expect(parseQuantity(bad)).toBeNull();
+  });
+
+  it("formats with SI prefixes and significant figures", () => {
+    expect(formatQuantity(4700, "Ω")).toBe("4.7 kΩ");
+    expect(formatQuantity(1e-7, "F")).toBe("100 nF");
+    expect(formatQuantity(2.5, "V")).toBe("2.5 V");
+    expect(formatQuantity(-0.0012, "V")).toBe("-1.2 mV");
+    expect(formatQuantity(999.96, "Ω")).toBe("1 kΩ");
+    expect(formatQuantity(9618.03, "Hz", 4)).toBe("9.618 kHz");
+    expect(formatQuantity(0, "V")).toBe("0 V");
+    expect(formatQuantity(4700, "")).toBe("4.7k");
+    for (const v of [1, 4.7e3, 2.2e6, 1e-7, 3.3e-12]) expect(parseQuantity(formatQuantity(v, "Ω"))).toBeCloseTo(v, 20);
+  });
+});
