@@ -1,0 +1,99 @@
+// One Sequelize instance per process. Route handlers are re-evaluated on hot reload in
+// development, so the instance is cached on globalThis rather than in module scope
+// (a new connection per reload would leave WAL readers open and locks behind).
+import fs from "node:fs";
+import path from "node:path";
+import { Sequelize, Transaction, type Options } from "sequelize";
+
+export const DEFAULT_DATABASE_URL = "sqlite:./data/railwise.sqlite";
+
+/** SQLite waits this long for another writer before answering SQLITE_BUSY. */
+export const BUSY_TIMEOUT_MS = 10_000;
+
+export function databaseUrl(): string {
+  return process.env.DATABASE_URL?.trim() || DEFAULT_DATABASE_URL;
+}
+
+export type Dialect = "sqlite" | "postgres";
+
+export function dialectOf(url: string): Dialect {
+  if (/^postgres(ql)?:\/\//i.test(url)) return "postgres";
+  if (/^sqlite:/i.test(url)) return "sqlite";
+  throw new Error(`DATABASE_URL must start with "sqlite:" or "postgres://" (got "${url}")`);
+}
+
+/** `sqlite:./data/x.sqlite`, `sqlite:///abs/x.sqlite`, `sqlite:/abs/x.sqlite`, `sqlite::memory:` → storage path. */
+export function sqliteStorage(url: string): string {
+  let rest = url.replace(/^sqlite:/i, "");
+  if (rest === ":memory:") return rest;
+  if (rest.startsWith("//")) rest = rest.slice(2);
+  if (!rest) throw new Error("DATABASE_URL names no SQLite file");
+  return path.resolve(rest);
+}
+
+interface SqliteConnection {
+  exec(sql: string, cb: (err: Error | null) => void): void;
+}
+
+// Sequelize's SQLite dialect opens a fresh connection for every transaction and does not
+// run the connect hooks, so the pragmas are applied by wrapping getConnection itself.
+function applyPragmasOnEveryConnection(sequelize: Sequelize) {
+  const manager = sequelize.connectionManager as unknown as {
+    getConnection(options?: unknown): Promise<SqliteConnection>;
+  };
+  const original = manager.getConnection.bind(manager);
+  const ready = new WeakMap<object, Promise<void>>();
+  manager.getConnection = async (options?: unknown) => {
+    const connection = await original(options);
+    let pending = ready.get(connection);
+    if (!pending) {
+      pending = new Promise<void>((resolve, reject) =>
+        connection.exec(
+          `PRAGMA busy_timeout = ${BUSY_TIMEOUT_MS}; PRAGMA journal_mode = WAL; PRAGMA foreign_keys = ON; PRAGMA synchronous = NORMAL;`,
+          (err) => (err ? reject(err) : resolve()),
+        ),
+      );
+      ready.set(connection, pending);
+    }
+    await pending;
+    return connection;
+  };
+}
+
+export function createSequelize(url = databaseUrl()): Sequelize {
+  const common: Options = {
+    logging: process.env.RAILWISE_SQL_LOG ? console.log : false,
+    define: { freezeTableName: true },
+  };
+  if (dialectOf(url) === "postgres") {
+    // Needs the `pg` driver installed (`npm i pg`); same models and migrations.
+    return new Sequelize(url, { ...common, dialect: "postgres" });
+  }
+  const storage = sqliteStorage(url);
+  if (storage !== ":memory:") fs.mkdirSync(path.dirname(storage), { recursive: true });
+  const sequelize = new Sequelize({
+    ...common,
+    dialect: "sqlite",
+    storage,
+    // Writers take the lock when the transaction starts, so two read-then-write
+    // transactions cannot deadlock into SQLITE_BUSY (sequelize#10304).
+    transactionType: Transaction.TYPES.IMMEDIATE,
+    pool: { max: 1, min: 0, idle: 10_000 },
+  });
+  applyPragmasOnEveryConnection(sequelize);
+  return sequelize;
+}
+
+const globalKey = Symbol.for("railwise.sequelize");
+type GlobalWithDb = typeof globalThis & { [globalKey]?: { url: string; sequelize: Sequelize } };
+
+/** The process-wide instance for DATABASE_URL (created on first use). */
+export function getSequelize(): Sequelize {
+  const g = globalThis as GlobalWithDb;
+  const url = databaseUrl();
+  const cached = g[globalKey];
+  if (cached && cached.url === url) return cached.sequelize;
+  const sequelize = createSequelize(url);
+  g[globalKey] = { url, sequelize };
+  return sequelize;
+}

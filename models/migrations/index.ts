@@ -1,0 +1,12 @@
+// The ordered list of migrations. Listed explicitly (not globbed) so the same list runs
+// under tsx, vitest and the Next server without a TypeScript loader for dynamic requires.
+import type { QueryInterface } from "sequelize";
+import * as m0001 from "./0001-initial";
+
+export interface Migration {
+  name: string;
+  up(params: { context: QueryInterface }): Promise<void>;
+  down(params: { context: QueryInterface }): Promise<void>;
+}
+
+export const MIGRATIONS: Migration[] = [{ name: "0001-initial", ...m0001 }];
