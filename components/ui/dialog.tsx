@@ -1,0 +1,64 @@
+"use client";
+
+import { useEffect, useId, useRef, type ReactNode } from "react";
+
+export interface DialogProps {
+  open: boolean;
+  onClose: () => void;
+  title: ReactNode;
+  description?: ReactNode;
+  /** Buttons row at the bottom, right-aligned. */
+  footer?: ReactNode;
+  children?: ReactNode;
+  /** Width cap; forms want "md", confirmations "sm". */
+  size?: "sm" | "md";
+}
+
+/**
+ * Modal on the native <dialog> element: focus trap, Escape and the top layer come from the
+ * browser, so there is no portal or focus-lock code to maintain.
+ */
+export function Dialog({ open, onClose, title, description, footer, children, size = "md" }: DialogProps) {
+  const ref = useRef<HTMLDialogElement>(null);
+  const titleId = useId();
+
+  useEffect(() => {
+    const el = ref.current;
+    if (!el) return;
+    if (open && !el.open) el.showModal();
+    if (!open && el.open) el.close();
+  }, [open]);
+
+  return (
+    <dialog
+      ref={ref}
+      aria-labelledby={titleId}
+      onCancel={(e) => {
+        e.preventDefault();
+        onClose();
+      }}
+      onClick={(e) => {
+        // A click on the backdrop lands on the <dialog> itself.
+        if (e.target === ref.current) onClose();
+      }}
+      className={
+        "m-auto w-[calc(100%-2rem)] rounded-lg border border-paper-line bg-paper-card p-0 text-ink shadow-xl " +
+        "backdrop:bg-ink/30 " +
+        (size === "sm" ? "max-w-sm" : "max-w-lg")
+      }
+    >
+      {open && (
+        <div className="flex flex-col">
+          <div className="border-b border-paper-line px-5 py-3">
+            <h2 id={titleId} className="text-base font-semibold">
+              {title}
+            </h2>
+            {description && <p className="mt-0.5 text-[13px] text-ink-mute">{description}</p>}
+          </div>
+          {children && <div className="px-5 py-4">{children}</div>}
+          {footer && <div className="flex justify-end gap-2 border-t border-paper-line bg-paper/60 px-5 py-3">{footer}</div>}
+        </div>
+      )}
+    </dialog>
+  );
+}
