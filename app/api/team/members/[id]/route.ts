@@ -1,0 +1,32 @@
+import { errorResponse, readJson } from "@/lib/server/errors";
+import { CAN, requireMember, requireRole } from "@/lib/server/session";
+import { changeMemberRole, removeMember } from "@/lib/server/team";
+import { roleChangeSchema } from "@/lib/schemas/team";
+
+type Ctx = { params: Promise<{ id: string }> };
+
+// PATCH /api/team/members/:id – change a member's role (owner; the last owner stays owner → 409)
+export async function PATCH(request: Request, { params }: Ctx) {
+  try {
+    const member = await requireMember(request);
+    requireRole(member, CAN.manageTeam);
+    const { id } = await params;
+    const { role } = roleChangeSchema.parse(await readJson(request));
+    return Response.json(await changeMemberRole({ teamId: member.teamId, actorId: member.userId, memberId: id, role }));
+  } catch (err) {
+    return errorResponse(err);
+  }
+}
+
+// DELETE /api/team/members/:id – remove a member (owner; never the last owner → 409)
+export async function DELETE(request: Request, { params }: Ctx) {
+  try {
+    const member = await requireMember(request);
+    requireRole(member, CAN.manageTeam);
+    const { id } = await params;
+    await removeMember({ teamId: member.teamId, actorId: member.userId, memberId: id });
+    return new Response(null, { status: 204 });
+  } catch (err) {
+    return errorResponse(err);
+  }
+}

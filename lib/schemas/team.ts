@@ -1,0 +1,139 @@
+// Request bodies of the team side (members, invitations, run links, comments, sign-offs) and
+// the JSON shapes the routes answer. Shared by the route handlers and the client forms.
+import { z } from "zod";
+import { DECISIONS, ROLES, roleSchema, type Decision, type Role } from "./roles";
+
+export { roleSchema };
+export const ROLE_NAMES = ROLES;
+export type RoleName = Role;
+export type DecisionName = Decision;
+
+export const COMMENT_MAX = 2000;
+export const NOTE_MAX = 2000;
+export const PASSWORD_MIN = 10;
+export const INVITATION_TTL_HOURS = 72;
+export const LINK_MAX_DAYS = 365;
+
+export const roleChangeSchema = z.object({ role: roleSchema });
+
+export const emailSchema = z
+  .string({ error: "email must be text" })
+  .trim()
+  .toLowerCase()
+  .max(254, { message: "email must be at most 254 characters" })
+  .pipe(z.email({ message: "email must be an e-mail address" }));
+
+export const invitationCreateSchema = z.object({ email: emailSchema, role: roleSchema });
+
+export const personNameSchema = z
+  .string({ error: "name must be text" })
+  .trim()
+  .min(1, { message: "name must not be empty" })
+  .max(100, { message: "name must be at most 100 characters" });
+
+export const passwordSchema = z
+  .string({ error: "password must be text" })
+  .min(PASSWORD_MIN, { message: `password must be at least ${PASSWORD_MIN} characters` })
+  .max(200, { message: "password must be at most 200 characters" });
+
+export const invitationAcceptSchema = z.object({ name: personNameSchema, password: passwordSchema });
+
+// Plain text only: control characters other than newline and tab are dropped; nothing is
+// interpreted as markup (React escapes on display, mails are text/plain).
+const plainText = (field: string, max: number, min: number) =>
+  z
+    .string({ error: `${field} must be text` })
+    .transform((s) => s.replace(/\r\n?/g, "\n").replace(/[\u0000-\u0008\u000b-\u001f\u007f]/g, "").trim())
+    .pipe(
+      z
+        .string()
+        .min(min, { message: `${field} must not be empty` })
+        .max(max, { message: `${field} must be at most ${max} characters` }),
+    );
+
+export const commentCreateSchema = z.object({ body: plainText("body", COMMENT_MAX, 1) });
+
+export const signoffCreateSchema = z.object({
+  decision: z.enum(DECISIONS, { error: 'decision must be "approved" or "changes_requested"' }),
+  note: plainText("note", NOTE_MAX, 0).default(""),
+});
+
+/** Optional expiry: an ISO date-time in the future, or a number of days (≤ LINK_MAX_DAYS). */
+export const linkCreateSchema = z
+  .object({
+    expiresAt: z.iso.datetime({ offset: true, message: "expiresAt must be an ISO date-time such as 2030-01-31T12:00:00Z" }).nullable().optional(),
+    expiresInDays: z
+      .number({ error: "expiresInDays must be a number" })
+      .positive({ message: "expiresInDays must be greater than 0" })
+      .max(LINK_MAX_DAYS, { message: `expiresInDays must be at most ${LINK_MAX_DAYS}` })
+      .optional(),
+  })
+  .refine((b) => !(b.expiresAt && b.expiresInDays !== undefined), { message: "give expiresAt or expiresInDays, not both", path: ["expiresAt"] })
+  .refine((b) => !b.expiresAt || Date.parse(b.expiresAt) > Date.now(), { message: "expiresAt must be in the future", path: ["expiresAt"] })
+  .refine((b) => !b.expiresAt || Date.parse(b.expiresAt) <= Date.now() + LINK_MAX_DAYS * 86_400_000, {
+    message: `expiresAt must be within ${LINK_MAX_DAYS} days`,
+    path: ["expiresAt"],
+  });
+
+// ---- Response shapes ----
+export interface MemberJson {
+  id: string; // the member's user id
+  membershipId: string;
+  name: string;
+  email: string;
+  role: RoleName;
+  joinedAt: string;
+}
+
+export interface InvitationJson {
+  id: string;
+  email: string;
+  role: RoleName;
+  expiresAt: string;
+  createdAt: string;
+  invitedBy: string | null;
+  mailSent?: boolean;
+}
+
+export interface InvitationPreviewJson {
+  email: string;
+  role: RoleName;
+  teamName: string;
+  expiresAt: string;
+  existingAccount: boolean;
+}
+
+export interface RunLinkJson {
+  id: string;
+  runId: string;
+  expiresAt: string | null;
+  revokedAt: string | null;
+  createdAt: string;
+  createdBy: string | null;
+  state: "active" | "expired" | "revoked";
+  /** Only in the answer to the create: the token is stored hashed and never shown again. */
+  token?: string;
+  url?: string;
+}
+
+export interface CommentJson {
+  id: string;
+  runId: string;
+  body: string;
+  author: { id: string | null; name: string };
+  createdAt: string;
+}
+
+export interface SignoffJson {
+  id: string;
+  runId: string;
+  decision: DecisionName;
+  note: string;
+  reviewer: { id: string | null; name: string };
+  createdAt: string;
+}
+
+export const DECISION_LABEL: Record<DecisionName, string> = {
+  approved: "Approved",
+  changes_requested: "Changes requested",
+};

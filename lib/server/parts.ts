@@ -1,0 +1,103 @@
+import "server-only";
+import { UniqueConstraintError } from "sequelize";
+import { getModels, getSequelize } from "@/models";
+import { conflict, notFound } from "@/lib/server/errors";
+import { recordAudit } from "@/lib/server/audit";
+import type { PartProfileInput } from "@/lib/schemas/part";
+import type { OpAmp } from "@/lib/schemas/scenario";
+
+// Team part library: named op-amp parameter sets (the scenario's `opamp` object).
+
+export interface PartProfileJson {
+  id: string;
+  name: string;
+  opamp: OpAmp;
+  createdBy: string | null;
+  createdAt: string;
+  updatedAt: string;
+}
+
+type PartRow = { id: string; name: string; params: unknown; createdBy: unknown; createdAt: Date; updatedAt: Date };
+
+function partJson(row: PartRow): PartProfileJson {
+  return {
+    id: row.id,
+    name: row.name,
+    opamp: row.params as OpAmp,
+    createdBy: (row.createdBy as string | null) ?? null,
+    createdAt: new Date(row.createdAt).toISOString(),
+    updatedAt: new Date(row.updatedAt).toISOString(),
+  };
+}
+
+const duplicate = (name: string) => conflict(`A part profile named "${name}" already exists in your team.`);
+
+/** Names compare without regard to case, so "Fast comparator" and "fast comparator" do not both exist. */
+async function nameTaken(teamId: string, name: string, exceptId?: string): Promise<boolean> {
+  const rows = await getModels().PartProfile.findAll({ where: { teamId }, attributes: ["id", "name"] });
+  return rows.some((r) => r.name.toLowerCase() === name.toLowerCase() && r.id !== exceptId);
+}
+
+export async function listParts({ teamId }: { teamId: string }): Promise<PartProfileJson[]> {
+  const rows = await getModels().PartProfile.findAll({ where: { teamId }, order: [["name", "ASC"]] });
+  return rows.map(partJson);
+}
+
+export async function getPartOrThrow({ id, teamId }: { id: string; teamId: string }): Promise<PartProfileJson> {
+  const row = await getModels().PartProfile.findOne({ where: { id, teamId } });
+  if (!row) throw notFound("No such part profile in your team.");
+  return partJson(row);
+}
+
+export async function createPart({ teamId, actorId, part }: { teamId: string; actorId: string; part: PartProfileInput }): Promise<PartProfileJson> {
+  if (await nameTaken(teamId, part.name)) throw duplicate(part.name);
+  try {
+    const row = await getModels().PartProfile.create({ teamId, name: part.name, params: part.opamp, createdBy: actorId });
+    return partJson(row);
+  } catch (err) {
+    if (err instanceof UniqueConstraintError) throw duplicate(part.name);
+    throw err;
+  }
+}
+
+export async function updatePart({ id, teamId, part }: { id: string; teamId: string; part: PartProfileInput }): Promise<PartProfileJson> {
+  const row = await getModels().PartProfile.findOne({ where: { id, teamId } });
+  if (!row) throw notFound("No such part profile in your team.");
+  if (await nameTaken(teamId, part.name, id)) throw duplicate(part.name);
+  row.name = part.name;
+  row.params = part.opamp;
+  try {
+    await row.save();
+  } catch (err) {
+    if (err instanceof UniqueConstraintError) throw duplicate(part.name);
+    throw err;
+  }
+  return partJson(row);
+}
+
+export async function deletePart({ id, teamId, actorId }: { id: string; teamId: string; actorId: string }): Promise<void> {
+  await getSequelize().transaction(async (transaction) => {
+    const row = await getModels().PartProfile.findOne({ where: { id, teamId }, transaction });
+    if (!row) throw notFound("No such part profile in your team.");
+    await row.destroy({ transaction });
+    await recordAudit({ teamId, actorId, action: "part.deleted", targetType: "part_profile", targetId: id, details: { name: row.name } }, transaction);
+  });
+}
+
+/** All or nothing: a name already in the library refuses the whole file (409, names listed). */
+export async function importParts({ teamId, actorId, parts }: { teamId: string; actorId: string; parts: PartProfileInput[] }): Promise<PartProfileJson[]> {
+  const { PartProfile } = getModels();
+  return getSequelize().transaction(async (transaction) => {
+    const existing = await PartProfile.findAll({ where: { teamId }, attributes: ["name"], transaction });
+    const taken = new Set(existing.map((r) => r.name.toLowerCase()));
+    const clashes = parts.filter((p) => taken.has(p.name.toLowerCase())).map((p) => p.name);
+    if (clashes.length) throw conflict(`Already in the library: ${clashes.join(", ")}. Nothing was imported.`);
+    const rows = await PartProfile.bulkCreate(
+      parts.map((p) => ({ teamId, name: p.name, params: p.opamp, createdBy: actorId })),
+      { transaction },
+    );
+    await recordAudit({ teamId, actorId, action: "parts.imported", targetType: "part_profile", targetId: null, details: { count: rows.length } }, transaction);
+    return rows.map(partJson);
+  });
+}
+
