@@ -89,7 +89,7 @@ export interface RunRow extends Model<Attrs<RunRow>, Creation<RunRow>> {
   /** railwise.result/1 with decimated samples. */
   result: unknown;
   /** Optional study result (noise margin study, tolerance spread). */
-  study: CreationOptional<unknown | null>;
+  study?: unknown;
   createdBy: ForeignKey<string | null>;
   createdAt: CreationOptional<Date>;
 }
@@ -168,7 +168,7 @@ export interface AuditRow extends Model<Attrs<AuditRow>, Creation<AuditRow>> {
   action: string;
   targetType: string | null;
   targetId: string | null;
-  details: CreationOptional<unknown | null>;
+  details?: unknown;
   createdAt: CreationOptional<Date>;
 }
 

@@ -1,0 +1,76 @@
+import "server-only";
+// One error type with a code, and one translator at the edge of every route handler:
+// user error → 4xx with a message naming the field; anything unknown → logged + generic 500.
+import { ZodError } from "zod";
+import { describeIssues } from "@/lib/schemas/scenario";
+
+export interface IssueJson {
+  path: (string | number)[];
+  message: string;
+  code?: string;
+}
+
+export class AppError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly details?: unknown,
+  ) {
+    super(message);
+    this.name = "AppError";
+  }
+}
+
+export const badRequest = (message: string, issues?: IssueJson[]) => new AppError(400, "invalid_input", message, issues);
+export const unauthorized = (message = "Sign in to continue.") => new AppError(401, "unauthorized", message);
+export const forbidden = (message = "Your role does not allow this.") => new AppError(403, "forbidden", message);
+export const notFound = (message = "Not found.") => new AppError(404, "not_found", message);
+export const conflict = (message: string) => new AppError(409, "conflict", message);
+export const gone = (message: string) => new AppError(410, "gone", message);
+export const tooLarge = (message: string) => new AppError(413, "too_large", message);
+
+function zodIssues(err: ZodError): IssueJson[] {
+  return err.issues.map((i) => ({ path: i.path.map((p) => (typeof p === "symbol" ? String(p) : p)), message: i.message, code: i.code }));
+}
+
+/** Maps any thrown value to a JSON response. Use once, at the edge of each handler. */
+export function errorResponse(err: unknown): Response {
+  if (err instanceof AppError) {
+    const body: Record<string, unknown> = { error: err.code, message: err.message };
+    if (err.details !== undefined) body.issues = err.details;
+    return Response.json(body, { status: err.status });
+  }
+  if (err instanceof ZodError) {
+    const lines = describeIssues(err);
+    return Response.json(
+      { error: "invalid_input", message: `Invalid input: ${lines.join("; ")}`, issues: zodIssues(err) },
+      { status: 400 },
+    );
+  }
+  const name = err instanceof Error ? err.name : "";
+  // Driver errors that a user can cause (duplicate name, a reference to a row that is gone).
+  if (name === "SequelizeUniqueConstraintError") {
+    return Response.json({ error: "conflict", message: "That already exists." }, { status: 409 });
+  }
+  if (name === "SequelizeForeignKeyConstraintError") {
+    return Response.json({ error: "conflict", message: "A referenced item no longer exists." }, { status: 409 });
+  }
+  if (name === "SequelizeTimeoutError" || (err instanceof Error && /SQLITE_BUSY/.test(err.message))) {
+    console.error("[railwise] database busy:", err);
+    return Response.json({ error: "busy", message: "The database is busy; try again." }, { status: 503, headers: { "Retry-After": "1" } });
+  }
+  console.error("[railwise] unexpected error:", err);
+  return Response.json({ error: "internal", message: "Something went wrong on the server." }, { status: 500 });
+}
+
+/** Reads a JSON body; malformed or missing JSON is a 400, never a 500. */
+export async function readJson(request: Request): Promise<unknown> {
+  const text = await request.text();
+  if (!text.trim()) throw badRequest("The request body must be JSON (it was empty).");
+  try {
+    return JSON.parse(text) as unknown;
+  } catch {
+    throw badRequest("The request body is not valid JSON.");
+  }
+}

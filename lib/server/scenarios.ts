@@ -1,0 +1,190 @@
+import "server-only";
+// Scenarios with version history: every save stores a new scenario_versions row and moves the
+// scenario's current data forward; a restore is a save of an old version's data.
+import type { Transaction } from "sequelize";
+import { getModels, getSequelize } from "@/models";
+import type { Scenario } from "@/lib/schemas/scenario";
+import type { ScenarioCreate, ScenarioUpdate } from "@/lib/schemas/api";
+import { recordAudit } from "./audit";
+import { getBoardRowOrThrow } from "./boards";
+import { conflict, notFound } from "./errors";
+import { isId, iso, person, type PersonJson } from "./ids";
+import { latestDecisionsByScenario, type LatestDecisionJson } from "./review";
+
+export interface ScenarioJson {
+  id: string;
+  boardId: string;
+  name: string;
+  version: number;
+  scenario: Scenario;
+  createdAt: string;
+  updatedAt: string;
+  updatedBy: PersonJson;
+  latestDecision: LatestDecisionJson | null;
+}
+
+export interface ScenarioVersionJson {
+  version: number;
+  name: string;
+  note: string | null;
+  createdAt: string;
+  author: PersonJson;
+  scenario?: Scenario;
+}
+
+type Named = { name: string } | null | undefined;
+
+function scenarioJson(row: import("@/models").ScenarioRow, latest: LatestDecisionJson | null): ScenarioJson {
+  const updater = (row as unknown as { updater?: Named }).updater;
+  return {
+    id: row.id,
+    boardId: row.boardId as string,
+    name: row.name,
+    version: row.version,
+    scenario: row.data as Scenario,
+    createdAt: iso(row.createdAt)!,
+    updatedAt: iso(row.updatedAt)!,
+    updatedBy: person(row.updatedBy, updater),
+    latestDecision: latest,
+  };
+}
+
+const withUpdater = () => [{ model: getModels().User, as: "updater", attributes: ["name"] }];
+
+export async function listScenarios({ boardId, teamId }: { boardId: string; teamId: string }): Promise<ScenarioJson[]> {
+  await getBoardRowOrThrow({ id: boardId, teamId });
+  const rows = await getModels().Scenario.findAll({ where: { boardId, teamId }, order: [["name", "ASC"]], include: withUpdater() });
+  const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: rows.map((r) => r.id) });
+  return rows.map((r) => scenarioJson(r, decisions.get(r.id) ?? null));
+}
+
+async function scenarioRowOrThrow({ id, teamId, transaction }: { id: string; teamId: string; transaction?: Transaction }) {
+  const row = isId(id)
+    ? await getModels().Scenario.findOne({ where: { id, teamId }, include: withUpdater(), transaction })
+    : null;
+  if (!row) throw notFound("No such scenario in your team.");
+  return row;
+}
+
+export async function getScenarioOrThrow({ id, teamId }: { id: string; teamId: string }): Promise<ScenarioJson> {
+  const row = await scenarioRowOrThrow({ id, teamId });
+  const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: [row.id] });
+  return scenarioJson(row, decisions.get(row.id) ?? null);
+}
+
+/** The scenario's current document, for the server-side run. */
+export async function getScenarioDataOrThrow({ id, teamId }: { id: string; teamId: string }) {
+  const row = await scenarioRowOrThrow({ id, teamId });
+  return { id: row.id, name: row.name, version: row.version, scenario: row.data as Scenario };
+}
+
+export async function createScenario({
+  teamId,
+  actorId,
+  input,
+}: {
+  teamId: string;
+  actorId: string;
+  input: ScenarioCreate;
+}): Promise<ScenarioJson> {
+  const board = await getBoardRowOrThrow({ id: input.boardId, teamId });
+  const name = input.name ?? input.scenario.name ?? "Untitled scenario";
+  const data: Scenario = { ...input.scenario, name };
+  const id = await getSequelize().transaction(async (transaction) => {
+    const { Scenario: S, ScenarioVersion } = getModels();
+    const row = await S.create({ teamId, boardId: board.id, name, version: 1, data, updatedBy: actorId }, { transaction });
+    await ScenarioVersion.create({ scenarioId: row.id, version: 1, name, data, authorId: actorId, note: null }, { transaction });
+    return row.id;
+  });
+  return getScenarioOrThrow({ id, teamId });
+}
+
+async function saveVersion({
+  id,
+  teamId,
+  actorId,
+  name,
+  data,
+  note,
+  baseVersion,
+}: {
+  id: string;
+  teamId: string;
+  actorId: string;
+  name?: string;
+  data?: Scenario;
+  note?: string | null;
+  baseVersion?: number;
+}): Promise<ScenarioJson> {
+  await getSequelize().transaction(async (transaction) => {
+    const row = await scenarioRowOrThrow({ id, teamId, transaction });
+    if (baseVersion !== undefined && baseVersion !== row.version) {
+      throw conflict(`The scenario was saved by someone else meanwhile (now version ${row.version}, you edited version ${baseVersion}); reload and apply your change again.`);
+    }
+    const nextName = name ?? row.name;
+    const nextData: Scenario = { ...((data ?? row.data) as Scenario), name: nextName };
+    const version = row.version + 1;
+    await getModels().ScenarioVersion.create(
+      { scenarioId: row.id, version, name: nextName, data: nextData, authorId: actorId, note: note ?? null },
+      { transaction },
+    );
+    row.set({ name: nextName, data: nextData, version, updatedBy: actorId });
+    row.changed("data", true);
+    await row.save({ transaction });
+  });
+  return getScenarioOrThrow({ id, teamId });
+}
+
+export function updateScenario({ id, teamId, actorId, input }: { id: string; teamId: string; actorId: string; input: ScenarioUpdate }) {
+  return saveVersion({ id, teamId, actorId, name: input.name, data: input.scenario, note: input.note, baseVersion: input.baseVersion });
+}
+
+export async function deleteScenario({ id, teamId, actorId }: { id: string; teamId: string; actorId: string }): Promise<void> {
+  await getSequelize().transaction(async (transaction) => {
+    const row = await scenarioRowOrThrow({ id, teamId, transaction });
+    await row.destroy({ transaction });
+    await recordAudit({ teamId, actorId, action: "scenario.deleted", targetType: "scenario", targetId: id, details: { name: row.name } }, transaction);
+  });
+}
+
+export async function listScenarioVersions({ id, teamId }: { id: string; teamId: string }): Promise<ScenarioVersionJson[]> {
+  const row = await scenarioRowOrThrow({ id, teamId });
+  const { ScenarioVersion, User } = getModels();
+  const rows = await ScenarioVersion.findAll({
+    where: { scenarioId: row.id },
+    order: [["version", "DESC"]],
+    attributes: ["version", "name", "note", "createdAt", "authorId"],
+    include: [{ model: User, as: "author", attributes: ["name"] }],
+  });
+  return rows.map((v) => ({
+    version: v.version,
+    name: v.name,
+    note: v.note ?? null,
+    createdAt: iso(v.createdAt)!,
+    author: person(v.authorId, (v as unknown as { author?: Named }).author),
+  }));
+}
+
+export async function getScenarioVersionOrThrow({ id, teamId, version }: { id: string; teamId: string; version: number }): Promise<ScenarioVersionJson> {
+  const row = await scenarioRowOrThrow({ id, teamId });
+  const { ScenarioVersion, User } = getModels();
+  const v = await ScenarioVersion.findOne({
+    where: { scenarioId: row.id, version },
+    include: [{ model: User, as: "author", attributes: ["name"] }],
+  });
+  if (!v) throw notFound(`The scenario has no version ${version}.`);
+  return {
+    version: v.version,
+    name: v.name,
+    note: v.note ?? null,
+    createdAt: iso(v.createdAt)!,
+    author: person(v.authorId, (v as unknown as { author?: Named }).author),
+    scenario: v.data as Scenario,
+  };
+}
+
+/** Stores the old version's document as a new version (history is never rewritten). */
+export async function restoreScenarioVersion({ id, teamId, actorId, version }: { id: string; teamId: string; actorId: string; version: number }) {
+  const old = await getScenarioVersionOrThrow({ id, teamId, version });
+  return saveVersion({ id, teamId, actorId, name: old.name, data: old.scenario, note: `restored version ${version}` });
+}
