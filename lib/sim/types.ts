@@ -13,6 +13,8 @@ export interface SimOptions {
   onProgress?: (fraction: number) => void;
   /** Polled now and then; returning true aborts the run with a `SimCancelled` error. */
   shouldCancel?: () => boolean;
+  /** odex only: total step budget over the run (default 200,000). */
+  maxSteps?: number;
 }
 
 export interface SimEvent {

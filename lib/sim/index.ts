@@ -1,0 +1,175 @@
+// Simulation core entry point: pure TypeScript (no React, Next or database), shared by the web
+// worker, the CLIs, the server and the tests.
+import type { Scenario } from "@/lib/schemas/scenario";
+import type { ResultJson, SimOptions, SimResult, SolverName } from "./types";
+import { InputSignal, evaluateInputSignal } from "./signals";
+import { buildNetwork, outputLimits } from "./network";
+import { Recorder, defaultHoldOff, finishMetrics } from "./measure";
+import { ExactSolver, type ExactParams } from "./exact";
+import { runOdex } from "./odex-solver";
+import { noiseSegmentCount } from "./noise";
+
+export { SimCancelled, SimFailed } from "./errors";
+export { outputLimits } from "./network";
+export type * from "./types";
+
+/** Uniform sample times over [0, duration], both ends included. */
+export function sampleTimes(duration: number, points: number): Float64Array {
+  const t = new Float64Array(points);
+  const dt = duration / (points - 1);
+  for (let i = 0; i < points; i++) t[i] = i * dt;
+  t[points - 1] = duration;
+  return t;
+}
+
+/** The scenario's input signal (components + noise) at the given times. */
+export function evaluateInput(scenario: Scenario, t: Float64Array): Float64Array {
+  let tMax = scenario.run.duration;
+  for (let i = 0; i < t.length; i++) if (t[i] > tMax) tMax = t[i];
+  return evaluateInputSignal(new InputSignal(scenario, tMax), t);
+}
+
+export function simulate(scenario: Scenario, options: SimOptions = {}): SimResult {
+  const started = performance.now();
+  const solverName: SolverName = options.solver ?? scenario.run.solver ?? "exact";
+  const duration = scenario.run.duration;
+  const signal = new InputSignal(scenario, duration);
+  const net = buildNetwork(scenario);
+  const rails = outputLimits(scenario);
+  const op = scenario.opamp;
+  const td = op.propagationDelay ?? 0;
+  const t = sampleTimes(duration, scenario.run.points);
+  const output = new Float64Array(t.length);
+  const recorder = new Recorder(rails, signal, td);
+  const params: ExactParams = {
+    net,
+    signal,
+    rails,
+    openLoopGain: op.openLoopGain,
+    gainBandwidth: op.gainBandwidth,
+    slewRate: op.slewRate,
+    slewRateFall: op.slewRateFall ?? op.slewRate,
+    propagationDelay: td,
+    duration,
+    vo0: (scenario.run.initialOutput ?? "low") === "high" ? rails.high : rails.low,
+    vc0: 0,
+    sampleTimes: t,
+    output,
+    recorder,
+    trackVd: !net.amplifier,
+    onProgress: options.onProgress,
+    shouldCancel: options.shouldCancel,
+  };
+  let steps: number;
+  let evaluations: number;
+  if (solverName === "odex") {
+    ({ steps, evaluations } = runOdex({ ...params, maxSteps: options.maxSteps }));
+  } else {
+    const s = new ExactSolver(params);
+    s.run();
+    steps = s.steps;
+    evaluations = s.evaluations;
+  }
+  const holdOff = options.holdOff ?? scenario.run.holdOff ?? defaultHoldOff(duration, signal.longestPeriod);
+  const metrics = finishMetrics(recorder, { duration, holdOff, inverting: net.inverting, amplifier: net.amplifier });
+  const input = evaluateInputSignal(signal, t);
+  return {
+    rails,
+    t,
+    input,
+    output,
+    events: recorder.events,
+    metrics,
+    solver: { name: solverName, steps, evaluations, wallMs: performance.now() - started },
+  };
+}
+
+const plain = (a: Float64Array) => Array.from(a);
+
+export function toResultJson(result: SimResult): ResultJson {
+  return {
+    schema: "railwise.result/1",
+    rails: { ...result.rails },
+    samples: { t: plain(result.t), input: plain(result.input), output: plain(result.output) },
+    events: result.events.map((e) => ({ ...e })),
+    metrics: { ...result.metrics },
+    solver: { ...result.solver },
+  };
+}
+
+/** Samples as CSV with a header `t,input,output` (full double precision). */
+export function resultToCsv(result: SimResult): string {
+  const lines = ["t,input,output"];
+  for (let i = 0; i < result.t.length; i++) lines.push(`${result.t[i]},${result.input[i]},${result.output[i]}`);
+  return lines.join("\n") + "\n";
+}
+
+export interface RunLimits {
+  maxPoints: number;
+  maxNoiseSegments: number;
+  /** pwl points + capture samples over all components */
+  maxTablePoints: number;
+  /** breakpoints from periodic corners (pulse, triangle) and sine cycles over the run */
+  maxPeriodicCorners: number;
+  /** odex is only allowed when its work is bounded: at most this many input segments… */
+  maxOdexSegments: number;
+  /** …and at most this many closed-loop time constants over the run (stiffness). */
+  maxOdexStiffness: number;
+}
+
+export const DEFAULT_RUN_LIMITS: RunLimits = {
+  maxPoints: 200_000,
+  maxNoiseSegments: 2_000_000,
+  maxTablePoints: 200_000,
+  maxPeriodicCorners: 2_000_000,
+  maxOdexSegments: 20_000,
+  maxOdexStiffness: 1e5,
+};
+
+/** Reasons (plain language) why a server should refuse to run this scenario; empty when fine. */
+export function checkRunBounds(scenario: Scenario, limits: Partial<RunLimits> = {}): string[] {
+  const L = { ...DEFAULT_RUN_LIMITS, ...limits };
+  const reasons: string[] = [];
+  const T = scenario.run.duration;
+  const fmt = (n: number) => Math.round(n).toLocaleString("en");
+  if (scenario.run.points > L.maxPoints)
+    reasons.push(`run.points is ${fmt(scenario.run.points)}; runs are limited to ${fmt(L.maxPoints)} output points`);
+  const noise = scenario.input.noise;
+  let segments = 0;
+  if (noise && noise.rms > 0) {
+    segments = noiseSegmentCount(noise, T);
+    if (segments > L.maxNoiseSegments)
+      reasons.push(
+        `input.noise gives ${fmt(segments)} noise segments (2 × bandwidth × duration); the limit is ${fmt(L.maxNoiseSegments)}: lower the bandwidth or shorten the run`,
+      );
+  }
+  let table = 0;
+  let corners = 0;
+  for (const c of scenario.input.components) {
+    if (c.kind === "pwl") table += c.points.length;
+    else if (c.kind === "capture") table += c.samples.length;
+    else if (c.kind === "pulse") corners += (4 * T) / c.period;
+    else if (c.kind === "triangle") corners += 2 * T * c.frequency;
+    else if (c.kind === "sine") corners += 8 * T * c.frequency;
+  }
+  if (table > L.maxTablePoints)
+    reasons.push(`the pwl and capture components hold ${fmt(table)} points together; the limit is ${fmt(L.maxTablePoints)}`);
+  if (corners > L.maxPeriodicCorners)
+    reasons.push(
+      `the periodic components switch about ${fmt(corners)} times over the run; the limit is ${fmt(L.maxPeriodicCorners)}: lower the frequency or shorten the run`,
+    );
+  const solver = scenario.run.solver ?? "exact";
+  if (solver === "odex") {
+    const work = segments + table + corners;
+    if (work > L.maxOdexSegments)
+      reasons.push(`the odex solver restarts at every input corner; this run has about ${fmt(work)} (limit ${fmt(L.maxOdexSegments)}): use the exact solver`);
+    const op = scenario.opamp;
+    // Fastest rate of the model: the closed-loop/open-loop pole, bounded by 2π·GBW.
+    const stiffness = 2 * Math.PI * op.gainBandwidth * T;
+    if (stiffness > L.maxOdexStiffness)
+      reasons.push(
+        `the odex solver would need more than ${fmt(L.maxOdexStiffness)} steps for a ${T} s run at ${op.gainBandwidth} Hz gain-bandwidth (a stiff loop): use the exact solver`,
+      );
+  }
+  return reasons;
+}

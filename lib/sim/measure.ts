@@ -1,0 +1,183 @@
+// Measurements taken from the solution itself (never from the output sample grid), shared by
+// both solvers. Solvers report level crossings of the output and sign changes of the
+// differential input in time order; `finishMetrics` turns them into the Result JSON metrics.
+import type { SimEvent, SimMetrics } from "./types";
+import type { InputSignal } from "./signals";
+
+/** Monitored output levels: 10 %, 50 % (events) and 90 % of the output span. */
+export const LEVEL_10 = 0;
+export const LEVEL_MID = 1;
+export const LEVEL_90 = 2;
+/** Monitor id of the differential-input sign change. */
+export const MONITOR_VD = 3;
+
+export class Recorder {
+  readonly levels: Float64Array;
+  readonly events: SimEvent[] = [];
+  clippedTime = 0;
+  maxSlew = 0;
+
+  private lastL10Up = NaN;
+  private lastL90Down = NaN;
+  private riseStart = NaN;
+  private fallStart = NaN;
+  private riseSum = 0;
+  private riseCount = 0;
+  private fallSum = 0;
+  private fallCount = 0;
+  private lastVdCross = NaN;
+  private lastEventTime = -Infinity;
+  private delaySum = 0;
+  private delayCount = 0;
+
+  // Per-piece buffer so crossings of different monitors are dispatched in time order.
+  private readonly bufTime = new Float64Array(256);
+  private readonly bufCode = new Int32Array(256);
+  private bufLen = 0;
+
+  constructor(
+    private readonly rails: { high: number; low: number },
+    private readonly signal: InputSignal,
+    /** Transport delay added to the measured propagation delay (see DEVELOPERS notes). */
+    private readonly transportDelay: number,
+  ) {
+    const span = rails.high - rails.low;
+    this.levels = Float64Array.of(rails.low + 0.1 * span, (rails.high + rails.low) / 2, rails.low + 0.9 * span);
+  }
+
+  /** Queue a crossing: monitor 0..2 = output level, 3 = vd sign change; rising = now on the high side. */
+  push(time: number, monitor: number, rising: boolean): void {
+    if (this.bufLen === this.bufTime.length) this.flush();
+    this.bufTime[this.bufLen] = time;
+    this.bufCode[this.bufLen] = monitor * 2 + (rising ? 1 : 0);
+    this.bufLen++;
+  }
+
+  /** Dispatch queued crossings in time order (insertion sort: a piece holds only a few). */
+  flush(): void {
+    const n = this.bufLen;
+    const T = this.bufTime;
+    const C = this.bufCode;
+    for (let i = 1; i < n; i++) {
+      const t = T[i];
+      const c = C[i];
+      let j = i - 1;
+      while (j >= 0 && T[j] > t) {
+        T[j + 1] = T[j];
+        C[j + 1] = C[j];
+        j--;
+      }
+      T[j + 1] = t;
+      C[j + 1] = c;
+    }
+    for (let i = 0; i < n; i++) this.dispatch(T[i], C[i] >> 1, (C[i] & 1) === 1);
+    this.bufLen = 0;
+  }
+
+  private dispatch(time: number, monitor: number, rising: boolean): void {
+    switch (monitor) {
+      case LEVEL_10:
+        if (rising) this.lastL10Up = time;
+        else if (!Number.isNaN(this.fallStart)) {
+          this.fallSum += time - this.fallStart;
+          this.fallCount++;
+          this.fallStart = NaN;
+        }
+        break;
+      case LEVEL_90:
+        if (!rising) this.lastL90Down = time;
+        else if (!Number.isNaN(this.riseStart)) {
+          this.riseSum += time - this.riseStart;
+          this.riseCount++;
+          this.riseStart = NaN;
+        }
+        break;
+      case LEVEL_MID: {
+        this.events.push({ time, edge: rising ? "rising" : "falling", input: this.signal.valueAt(time) });
+        if (rising) {
+          this.riseStart = this.lastL10Up;
+          this.fallStart = NaN;
+        } else {
+          this.fallStart = this.lastL90Down;
+          this.riseStart = NaN;
+        }
+        if (!Number.isNaN(this.lastVdCross) && this.lastVdCross > this.lastEventTime) {
+          this.delaySum += time - this.lastVdCross + this.transportDelay;
+          this.delayCount++;
+        }
+        this.lastEventTime = time;
+        break;
+      }
+      case MONITOR_VD:
+        this.lastVdCross = time;
+        break;
+    }
+  }
+
+  riseTime(): number | null {
+    return this.riseCount ? this.riseSum / this.riseCount : null;
+  }
+  fallTime(): number | null {
+    return this.fallCount ? this.fallSum / this.fallCount : null;
+  }
+  propagationDelay(): number | null {
+    return this.delayCount ? this.delaySum / this.delayCount : null;
+  }
+}
+
+const mean = (xs: number[]): number | null => (xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null);
+
+export function defaultHoldOff(duration: number, longestPeriod: number | null): number {
+  return longestPeriod === null ? 0.01 * duration : Math.min(0.01 * duration, 0.01 * longestPeriod);
+}
+
+export function finishMetrics(
+  rec: Recorder,
+  opts: { duration: number; holdOff: number; inverting: boolean; amplifier: boolean },
+): SimMetrics {
+  const ev = rec.events;
+  // Output edges caused by the input crossing upward: rising for non-inverting stages,
+  // falling for inverting ones (DESIGN.md "Result JSON").
+  const upEdge = opts.inverting ? "falling" : "rising";
+  const upper = mean(ev.filter((e) => e.edge === upEdge).map((e) => e.input));
+  const lower = mean(ev.filter((e) => e.edge !== upEdge).map((e) => e.input));
+  let chatter = 0;
+  for (let i = 1; i < ev.length; i++) if (ev[i].time - ev[i - 1].time < opts.holdOff) chatter++;
+  const rising = ev.filter((e) => e.edge === "rising").map((e) => e.time);
+  let period: number | null = null;
+  let dutyCycle: number | null = null;
+  if (rising.length >= 2) {
+    const first = rising[0];
+    const last = rising[rising.length - 1];
+    period = (last - first) / (rising.length - 1);
+    // High time of each period: from its rising edge to the first falling edge after it.
+    let high = 0;
+    let riseAt = NaN;
+    for (const e of ev) {
+      if (e.time < first || e.time > last) continue;
+      if (e.edge === "rising") {
+        if (!Number.isNaN(riseAt)) high += e.time - riseAt;
+        riseAt = e.time;
+      } else if (!Number.isNaN(riseAt)) {
+        high += e.time - riseAt;
+        riseAt = NaN;
+      }
+    }
+    dutyCycle = high / (last - first);
+  }
+  return {
+    transitions: ev.length,
+    upperThreshold: upper,
+    lowerThreshold: lower,
+    hysteresis: upper !== null && lower !== null ? upper - lower : null,
+    chatter,
+    clippedFraction: Math.min(1, Math.max(0, rec.clippedTime / opts.duration)),
+    maxSlewRate: rec.maxSlew,
+    period,
+    dutyCycle,
+    propagationDelay: opts.amplifier ? null : rec.propagationDelay(),
+    riseTime: rec.riseTime(),
+    fallTime: rec.fallTime(),
+    holdOff: opts.holdOff,
+  };
+}

@@ -1,0 +1,155 @@
+// The general non-stiff solver: odex (Gragg–Bulirsch–Stoer extrapolation with dense output)
+// on the same behavioural model written as one ODE with clamps. It restarts at every input
+// breakpoint so the kinks of the input never sit inside a step; regime kinks (slew and rail
+// entry) are left to the step-size control. Crossings are located on the dense output.
+// Used as the independent cross-check of the exact solver; stiff closed loops are not its job
+// (it reports SimFailed when it runs out of steps).
+import { Outcome, Solver } from "./odex";
+import type { ExactParams } from "./exact";
+import { MONITOR_VD } from "./measure";
+import { SimCancelled, SimFailed } from "./errors";
+
+export interface OdexParams extends ExactParams {
+  /** Total step budget over the run (default 200,000). */
+  maxSteps?: number;
+  relativeTolerance?: number;
+}
+
+export interface OdexStats {
+  steps: number;
+  evaluations: number;
+}
+
+const SUBDIVISIONS = 4;
+
+export function runOdex(p: OdexParams): OdexStats {
+  const A0 = p.openLoopGain;
+  const wp = (2 * Math.PI * p.gainBandwidth) / A0;
+  const { alpha: al, beta: be, gamma: ga, delta: de, tauC } = p.net;
+  const twoD = tauC > 0;
+  const w = twoD ? 1 / tauC : 0;
+  const Voh = p.rails.high;
+  const Vol = p.rails.low;
+  const SR = p.slewRate;
+  const SRf = p.slewRateFall;
+  const td = p.propagationDelay;
+  const T = p.duration;
+  const sig = p.signal;
+  const rec = p.recorder;
+  const levels = rec.levels;
+  const n = twoD ? 3 : 2; // vo, [vc], clipped time
+  const iClip = n - 1;
+
+  const uSeen = (x: number) => (al === 0 ? 0 : sig.valueAt(Math.max(0, x - td)));
+  const rate = (x: number, vo: number, vc: number, u: number): number => {
+    const v = vo > Voh ? Voh : vo < Vol ? Vol : vo;
+    let f = wp * (A0 * (al * u + be * v + ga * vc + de) - v);
+    if (f > SR) f = SR;
+    else if (f < -SRf) f = -SRf;
+    if ((vo >= Voh && f > 0) || (vo <= Vol && f < 0)) f = 0;
+    return f;
+  };
+  let evaluations = 0;
+  const rhs = (x: number, y: number[]): number[] => {
+    evaluations++;
+    const u = uSeen(x);
+    const vo = y[0];
+    const vc = twoD ? y[1] : 0;
+    const v = vo > Voh ? Voh : vo < Vol ? Vol : vo;
+    const fl = wp * (A0 * (al * u + be * v + ga * vc + de) - v);
+    const held = (vo >= Voh && fl >= 0) || (vo <= Vol && fl <= 0) ? 1 : 0;
+    const dv = rate(x, vo, vc, u);
+    return twoD ? [dv, w * (v - vc), held] : [dv, held];
+  };
+
+  let wMax = 0;
+  if (al !== 0) for (let j = 0; j < sig.sineOmega.length; j++) wMax = Math.max(wMax, sig.sineOmega[j]);
+  const hMaxSine = wMax > 0 ? (2 * Math.PI) / wMax / 16 : Infinity;
+
+  const solver = new Solver(n);
+  solver.denseOutput = true;
+  solver.relativeTolerance = p.relativeTolerance ?? 1e-11;
+  const scaleV = Math.max(1, Math.abs(Voh), Math.abs(Vol));
+  solver.absoluteTolerance = twoD ? [1e-11 * scaleV, 1e-11 * scaleV, 1e-11 * T] : [1e-11 * scaleV, 1e-11 * T];
+
+  const budget = p.maxSteps ?? 200_000;
+  let steps = 0;
+  let y: number[] = twoD ? [p.vo0, p.vc0, 0] : [p.vo0, 0];
+  const sides = new Uint8Array(4);
+  for (let i = 0; i < 3; i++) sides[i] = p.vo0 >= levels[i] ? 1 : 0;
+  sides[MONITOR_VD] = al * uSeen(0) + be * p.vo0 + ga * p.vc0 + de >= 0 ? 1 : 0;
+  const ts = p.sampleTimes;
+  const out = p.output;
+  let sample = 0;
+  while (sample < ts.length && ts[sample] <= 0) out[sample++] = p.vo0;
+
+  const nextBreak = (t: number) => (al === 0 ? Infinity : t < td ? td : sig.nextBreak(t - td) + td);
+
+  let dense: ((c: number, x: number) => number) | undefined;
+  const voAt = (x: number) => dense!(0, x);
+  const vdAt = (x: number) => al * uSeen(x) + be * clampV(dense!(0, x)) + ga * (twoD ? dense!(1, x) : 0) + de;
+  const clampV = (v: number) => (v > Voh ? Voh : v < Vol ? Vol : v);
+
+  /** Bisection on the dense output for a sign change of g between a and b. */
+  const locate = (g: (x: number) => number, a: number, b: number, sa: boolean): number => {
+    for (let i = 0; i < 80 && b - a > 1e-15 * Math.max(1, Math.abs(b)); i++) {
+      const m = 0.5 * (a + b);
+      if (g(m) >= 0 === sa) a = m;
+      else b = m;
+    }
+    return b;
+  };
+
+  const solOut = (nr: number, xOld: number, x: number, yy: number[], d?: (c: number, x: number) => number) => {
+    if (x <= xOld || !d) return;
+    dense = d;
+    steps++;
+    // Crossings of the output levels and of vd's sign, at SUBDIVISIONS points per step.
+    for (let k = 1; k <= SUBDIVISIONS; k++) {
+      const a = xOld + ((x - xOld) * (k - 1)) / SUBDIVISIONS;
+      const b = k === SUBDIVISIONS ? x : xOld + ((x - xOld) * k) / SUBDIVISIONS;
+      for (let lv = 0; lv < 3; lv++) {
+        const gb = voAt(b) - levels[lv] >= 0;
+        if (gb !== (sides[lv] === 1)) {
+          const L = levels[lv];
+          rec.push(locate((s) => voAt(s) - L, a, b, sides[lv] === 1), lv, gb);
+          sides[lv] = gb ? 1 : 0;
+        }
+      }
+      if (p.trackVd) {
+        const sb = vdAt(b) >= 0;
+        if (sb !== (sides[MONITOR_VD] === 1)) {
+          rec.push(locate(vdAt, a, b, sides[MONITOR_VD] === 1), MONITOR_VD, sb);
+          sides[MONITOR_VD] = sb ? 1 : 0;
+        }
+      }
+    }
+    rec.flush();
+    while (sample < ts.length && ts[sample] <= x) out[sample++] = clampV(voAt(ts[sample]));
+    const r = Math.abs(rate(x, yy[0], twoD ? yy[1] : 0, uSeen(x)));
+    if (r > rec.maxSlew) rec.maxSlew = r;
+    if (p.shouldCancel && (steps & 255) === 0 && p.shouldCancel()) throw new SimCancelled();
+  };
+
+  let t = 0;
+  while (t < T) {
+    const tEnd = Math.min(T, nextBreak(t));
+    solver.maxSteps = Math.max(1, budget - steps);
+    solver.maxStepSize = Math.min(tEnd - t, hMaxSine, T / 100);
+    solver.initialStepSize = Math.min(1e-4, (tEnd - t) / 8);
+    const r = solver.solve(rhs, t, y, tEnd, solOut);
+    if (r.outcome === Outcome.MaxStepsExceeded || steps >= budget) {
+      throw new SimFailed(
+        `odex reached its step limit (${budget.toLocaleString("en")} steps) at t = ${t.toPrecision(4)} s of ${T} s; ` +
+          "this run is stiff: use the exact solver",
+      );
+    }
+    y = r.y.slice();
+    y[0] = clampV(y[0]);
+    t = tEnd;
+    p.onProgress?.(t / T);
+  }
+  while (sample < ts.length) out[sample++] = y[0];
+  rec.clippedTime = y[iClip];
+  return { steps, evaluations };
+}
