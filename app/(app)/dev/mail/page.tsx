@@ -1,0 +1,72 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { Card } from "@/components/ui/card";
+import { EmptyState } from "@/components/ui/empty-state";
+import { PageHeader } from "@/components/ui/page-header";
+import { listMailbox, mailboxVisible, mailDir } from "@/lib/server/mailbox";
+import { smtpUrl } from "@/lib/server/mail";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Mailbox" };
+
+/** Turn the URLs of a plain-text mail into links (invitation and run links are the point of most mails). */
+function Linkified({ text }: { text: string }) {
+  const parts = text.split(/(https?:\/\/[^\s]+)/g);
+  return (
+    <>
+      {parts.map((part, i) =>
+        /^https?:\/\//.test(part) ? (
+          <a key={i} href={part} className="break-all text-indigo underline underline-offset-2">
+            {part}
+          </a>
+        ) : (
+          <span key={i}>{part}</span>
+        ),
+      )}
+    </>
+  );
+}
+
+// Development mailbox: every mail the local SMTP sink received. Hidden in production when real
+// SMTP is configured (see lib/server/mailbox.ts mailboxVisible).
+export default async function MailboxPage() {
+  if (!mailboxVisible()) notFound();
+  const mails = await listMailbox();
+  return (
+    <div className="flex flex-col gap-4">
+      <PageHeader
+        title="Mailbox"
+        description={
+          <>
+            Mail caught by the local sink ({smtpUrl().replace(/\/\/[^@]*@/, "//")}), stored in <span className="font-mono">{mailDir()}</span>. Not
+            shown once real SMTP is configured in production.
+          </>
+        }
+      />
+      {mails.length === 0 ? (
+        <Card>
+          <EmptyState title="No mail yet">Invitations, comments and sign-off decisions land here.</EmptyState>
+        </Card>
+      ) : (
+        <Card padded={false} title={`${mails.length} message${mails.length === 1 ? "" : "s"}`}>
+          <ul className="divide-y divide-paper-line">
+            {mails.map((m) => (
+              <li key={m.id}>
+                <details className="group px-4 py-2.5">
+                  <summary className="flex cursor-pointer list-none flex-wrap items-baseline gap-x-4 gap-y-0.5">
+                    <span className="font-mono text-[12px] text-ink-mute">{m.receivedAt.replace("T", " ").slice(0, 19)} UTC</span>
+                    <span className="min-w-0 flex-1 truncate font-medium text-ink">{m.subject || "(no subject)"}</span>
+                    <span className="truncate text-[12px] text-ink-mute">to {m.to.join(", ")}</span>
+                  </summary>
+                  <pre className="mt-2 whitespace-pre-wrap rounded-md border border-paper-line bg-paper-sunk/50 p-3 font-sans text-[13px] text-ink">
+                    <Linkified text={m.text} />
+                  </pre>
+                </details>
+              </li>
+            ))}
+          </ul>
+        </Card>
+      )}
+    </div>
+  );
+}
