@@ -1,0 +1,189 @@
+// Design from spec: `design(spec)` → `railwise.design/1` (DESIGN.md) plus extras:
+// `errors` (target vs achieved), `reference` (how the reference is made), `assumptions`,
+// `warnings` and a seeded `monteCarlo` spread. Pure TypeScript: no React, Next or database.
+import { designSpecSchema, DESIGN_SCHEMA_ID, type DesignSpec } from "@/lib/schemas/design";
+import { describeIssues, type Stage } from "@/lib/schemas/scenario";
+import { SERIES_TOLERANCE, type SeriesName } from "./eseries";
+import { formatQuantity, formatRkm } from "./notation";
+import {
+  DEFAULT_HEADROOM_SPREAD,
+  FIGURE_NAMES,
+  monteCarlo,
+  worstCase,
+  type FigureName,
+  type Interval,
+  type MonteCarloResult,
+} from "./analysis";
+import { contextOf, DesignError, synthesize, type Role } from "./synthesis";
+
+export { worstCase, monteCarlo, stageFigures, thevenin, outputSwing, conditionsOf } from "./analysis";
+export type { Figures, FigureName, Interval, WorstCase, MonteCarloOptions, MonteCarloResult, SpreadOptions, ReferenceDivider } from "./analysis";
+export { DesignError } from "./synthesis";
+export { parseQuantity, formatQuantity, formatRkm } from "./notation";
+export { seriesValues, snapToSeries, seriesInRange, SERIES_TOLERANCE, SERIES_NAMES, type SeriesName } from "./eseries";
+
+export interface DesignPart {
+  ref: string;
+  role: Role;
+  value: number;
+  series: SeriesName;
+  /** RKM code for resistors (4K7), engineering notation for capacitors (100 nF). */
+  code: string;
+  tolerance: number;
+  /** Where the part sits. */
+  note: string;
+}
+
+export interface DesignResult {
+  schema: typeof DESIGN_SCHEMA_ID;
+  kind: DesignSpec["kind"];
+  stage: Stage;
+  parts: DesignPart[];
+  achieved: { upperThreshold: number | null; lowerThreshold: number | null; gain: number | null; hysteresis: number | null; frequency: number | null; dutyCycle: number | null };
+  worstCase: Record<FigureName, Interval | null>;
+  errors: Partial<Record<FigureName, { target: number; achieved: number; deviation: number; relative: number }>>;
+  reference: { mode: "given" | "auto" | "ground"; voltage: number; divider?: { rTop: number; rBottom: number; theveninResistance: number } };
+  assumptions: { tolerance: number; capacitorTolerance?: number; inputOffset: number; headroomSpread: number; range: { min: number; max: number }; maxError: number };
+  warnings: string[];
+  monteCarlo?: MonteCarloResult;
+}
+
+const ROLE_ORDER: Role[] = ["rInput", "rGround", "rReference", "rTop", "rBottom", "rFeedback", "rTiming", "cTiming"];
+const ROLE_NOTE: Record<Role, string> = {
+  rInput: "input to the summing pin",
+  rGround: "inverting pin to the reference",
+  rReference: "reference to the non-inverting pin",
+  rTop: "reference divider, positive supply to the reference node",
+  rBottom: "reference divider, reference node to the negative supply",
+  rFeedback: "output to the summing pin",
+  rTiming: "output to the capacitor node (inverting pin)",
+  cTiming: "capacitor node to 0 V",
+};
+
+/** Validate a spec (zod) and design it; throws DesignSpecError (bad fields) or DesignError (unreachable). */
+export function design(input: unknown): DesignResult {
+  const parsed = designSpecSchema.safeParse(input);
+  if (!parsed.success) throw new DesignSpecError(describeIssues(parsed.error));
+  const spec = parsed.data;
+  const ctx = contextOf(spec);
+  const best = synthesize(ctx);
+  const tolerance = spec.tolerance ?? SERIES_TOLERANCE[spec.series];
+  const capacitorTolerance = spec.capacitorTolerance ?? 0.05;
+  const headroomSpread = spec.headroomSpread ?? DEFAULT_HEADROOM_SPREAD;
+  const capSeries = (spec.capacitorSeries ?? "E6") as SeriesName;
+
+  const parts: DesignPart[] = [];
+  let rIndex = 0;
+  for (const role of ROLE_ORDER) {
+    const value = best.values[role];
+    if (value === undefined) continue;
+    const isCap = role === "cTiming";
+    parts.push({
+      ref: isCap ? "C1" : `R${++rIndex}`,
+      role,
+      value,
+      series: isCap ? capSeries : spec.series,
+      code: isCap ? formatQuantity(value, "F") : formatRkm(value),
+      tolerance: isCap ? capacitorTolerance : tolerance,
+      note: ROLE_NOTE[role],
+    });
+  }
+
+  const spreadOptions = { capacitorTolerance, headroomSpread, divider: best.divider };
+  const wc = worstCase(best.stage, spec.opamp, spec.supply, tolerance, spreadOptions);
+  const worst = {} as Record<FigureName, Interval | null>;
+  for (const n of FIGURE_NAMES) worst[n] = wc[n];
+
+  const errors: DesignResult["errors"] = {};
+  const window: Partial<Record<FigureName, Interval>> = {};
+  for (const [name, t] of Object.entries(ctx.targets) as [FigureName, { value: number; scale: number }][]) {
+    const a = best.figures[name]!;
+    errors[name] = { target: t.value, achieved: a, deviation: a - t.value, relative: (a - t.value) / t.scale };
+    window[name] = [t.value - ctx.maxError * t.scale, t.value + ctx.maxError * t.scale];
+  }
+
+  const warnings = [...ctx.warnings];
+  for (const [name, e] of Object.entries(errors)) {
+    if (Math.abs(e.relative) > ctx.maxError)
+      warnings.push(`${name}: the best ${spec.series} combination is ${(100 * Math.abs(e.relative)).toFixed(2)} % off the target (maxError ${(100 * ctx.maxError).toFixed(2)} %); a finer series would come closer`);
+  }
+  for (const [name, win] of Object.entries(window) as [FigureName, Interval][]) {
+    const w = worst[name];
+    if (w && (w[0] < win[0] || w[1] > win[1]))
+      warnings.push(`${name}: the worst case ${fmtRange(w)} leaves the ±${(100 * ctx.maxError).toFixed(1)} % window ${fmtRange(win)}; tighter tolerance or a lower-offset part would help`);
+  }
+  if (worst.hysteresis && best.figures.hysteresis! > 0 && worst.hysteresis[0] <= 0)
+    warnings.push("hysteresis: at a worst-case corner the deadband closes; the stage may chatter");
+  if (spec.kind === "relaxation-oscillator") {
+    if (worst.frequency && worst.frequency[0] <= 0) warnings.push("frequency: at a worst-case corner the switching points leave the output swing and the stage stops oscillating");
+    const { high, low } = ctx.cond;
+    const edge = (high - low) / Math.min(spec.opamp.slewRate, spec.opamp.slewRateFall ?? spec.opamp.slewRate);
+    const period = 1 / best.figures.frequency!;
+    if (edge > 0.01 * period)
+      warnings.push(`frequency: each output edge takes ${formatQuantity(edge, "s")} at the slew rate, ${(100 * edge / period).toFixed(1)} % of the period; the measured frequency will be lower`);
+  }
+
+  const mcSetting = spec.monteCarlo;
+  const mc =
+    mcSetting === false
+      ? undefined
+      : monteCarlo(best.stage, spec.opamp, spec.supply, {
+          ...spreadOptions,
+          tolerance,
+          draws: mcSetting?.draws ?? 2000,
+          seed: mcSetting?.seed ?? 1,
+          distribution: mcSetting?.distribution ?? "uniform",
+          bins: mcSetting?.bins ?? 20,
+          window,
+        });
+
+  const f = best.figures;
+  return {
+    schema: DESIGN_SCHEMA_ID,
+    kind: spec.kind,
+    stage: best.stage,
+    parts,
+    achieved: {
+      upperThreshold: f.upperThreshold,
+      lowerThreshold: f.lowerThreshold,
+      gain: f.gain,
+      hysteresis: f.hysteresis,
+      frequency: f.frequency,
+      dutyCycle: f.dutyCycle,
+    },
+    worstCase: worst,
+    errors,
+    reference: {
+      mode: best.referenceMode,
+      voltage: best.stage.reference,
+      ...(best.divider
+        ? { divider: { ...best.divider, theveninResistance: (best.divider.rTop * best.divider.rBottom) / (best.divider.rTop + best.divider.rBottom) } }
+        : {}),
+    },
+    assumptions: {
+      tolerance,
+      ...(spec.kind === "relaxation-oscillator" ? { capacitorTolerance } : {}),
+      inputOffset: Math.abs(spec.opamp.inputOffset),
+      headroomSpread,
+      range: ctx.range,
+      maxError: ctx.maxError,
+    },
+    warnings,
+    ...(mc ? { monteCarlo: mc } : {}),
+  };
+}
+
+function fmtRange([a, b]: Interval): string {
+  return `[${Number(a.toPrecision(4))}, ${Number(b.toPrecision(4))}]`;
+}
+
+export class DesignSpecError extends Error {
+  constructor(readonly issues: string[]) {
+    super(`Invalid design spec:\n  ${issues.join("\n  ")}`);
+    this.name = "DesignSpecError";
+  }
+}
+
+export function isDesignError(e: unknown): e is DesignError | DesignSpecError {
+  return e instanceof DesignError || e instanceof DesignSpecError;
+}
