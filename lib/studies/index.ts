@@ -1,0 +1,10 @@
+// Studies: noise margin and tolerance spread (pure TypeScript; no React, Next or database).
+export * from "./schema";
+export * from "./random";
+export * from "./stats";
+export * from "./noise-margin";
+export * from "./tolerance-spread";
+export * from "./capture-noise";
+export * from "./study";
+export * from "./saved";
+export * from "./corners";

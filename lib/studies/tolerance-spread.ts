@@ -1,0 +1,201 @@
+// Tolerance spread: a seeded Monte Carlo over resistor tolerance, input offset and output
+// headroom. Task 0 is the nominal stage; task i ≥ 1 is draw i with its own stream seeded from
+// (study seed, i). Each task simulates its perturbed scenario with lib/sim and measures the
+// figures a bench engineer would: switching points, gain, or period.
+import type { Scenario, Stage } from "@/lib/schemas/scenario";
+import type { SimResult, SimulateFn } from "@/lib/sim/types";
+import type { DrawOutput, Measure, ToleranceSpreadConfig } from "./schema";
+import { createStream, drawDeviation, taskSeed } from "./random";
+import { histogram, summarize, wilsonInterval, type Histogram, type Summary } from "./stats";
+
+/** Fixed draw order: a role absent from the stage still consumes its draw, so the stream of
+ * every other figure does not depend on the topology. */
+export const PART_ROLES = ["rInput", "rFeedback", "rReference", "rGround", "rTiming", "cTiming"] as const;
+export type PartRole = (typeof PART_ROLES)[number];
+
+// The spread model follows lib/design's worst case (so its corners bracket these draws):
+// each resistor (and cTiming) at nominal·(1 + tol·u), the input offset at offsetTolerance·u
+// around zero, each output headroom at nominal·(1 + headroomSpread·u), u ∈ [−1, 1].
+export interface Perturbation {
+  /** Relative deviation per part role (fraction, e.g. −0.0031). */
+  resistors: Partial<Record<PartRole, number>>;
+  inputOffset: number;
+  outputHeadroomHigh: number;
+  outputHeadroomLow: number;
+}
+
+export function toleranceTaskCount(config: ToleranceSpreadConfig): number {
+  return 1 + config.draws;
+}
+
+/** Deviations of task `index` (task 0: none). */
+export function drawPerturbation(scenario: Scenario, config: ToleranceSpreadConfig, index: number): Perturbation {
+  const { opamp, stage } = scenario;
+  if (index === 0) {
+    return { resistors: {}, inputOffset: opamp.inputOffset, outputHeadroomHigh: opamp.outputHeadroomHigh, outputHeadroomLow: opamp.outputHeadroomLow };
+  }
+  const s = createStream(taskSeed(config.seed, index));
+  const d = () => drawDeviation(s, config.distribution);
+  const resistors: Perturbation["resistors"] = {};
+  for (const role of PART_ROLES) {
+    const tol = role === "cTiming" ? (config.capacitorTolerance ?? config.resistorTolerance) : config.resistorTolerance;
+    const dev = d() * tol;
+    if (role in stage) resistors[role] = dev;
+  }
+  const inputOffset = d() * config.offsetTolerance;
+  const outputHeadroomHigh = opamp.outputHeadroomHigh * (1 + d() * config.headroomSpread);
+  const outputHeadroomLow = opamp.outputHeadroomLow * (1 + d() * config.headroomSpread);
+  return { resistors, inputOffset, outputHeadroomHigh, outputHeadroomLow };
+}
+
+/** True when the stage's output goes high for a high input (the probe then starts low). */
+function outputFollowsInput(stage: Stage): boolean {
+  switch (stage.kind) {
+    case "noninverting-amplifier":
+    case "schmitt-noninverting":
+      return true;
+    case "comparator":
+      return stage.inputAt !== "inverting";
+    default:
+      return false;
+  }
+}
+
+export function toleranceTaskScenario(scenario: Scenario, config: ToleranceSpreadConfig, index: number): Scenario {
+  const p = drawPerturbation(scenario, config, index);
+  const stage = { ...scenario.stage } as Record<string, unknown>;
+  for (const [role, dev] of Object.entries(p.resistors)) stage[role] = (stage[role] as number) * (1 + dev);
+  const opamp = { ...scenario.opamp, inputOffset: p.inputOffset, outputHeadroomHigh: p.outputHeadroomHigh, outputHeadroomLow: p.outputHeadroomLow };
+  // The spread of the parts is the question, not the noise: the probe never carries noise.
+  const { noise: _dropped, ...ownInput } = scenario.input;
+  let input: Scenario["input"] = ownInput;
+  let run = scenario.run;
+  if (config.probe.kind === "triangle") {
+    const { low, high } = config.probe;
+    // One sweep over the run: phase 270° starts the triangle at its minimum (DESIGN.md:
+    // a triangle equals its offset at t = 0 and rises first; the phase shifts it).
+    input = {
+      components: [{ kind: "triangle", amplitude: (high - low) / 2, offset: (high + low) / 2, frequency: 1 / scenario.run.duration, phase: 270 }],
+    };
+    run = { ...run, initialOutput: outputFollowsInput(scenario.stage) ? "low" : "high" };
+  }
+  return { ...scenario, stage: stage as Stage, opamp, input, run };
+}
+
+/**
+ * Small-signal gain: least-squares slope of output against input over the samples where the
+ * output stays clear of both limits (2 % of the swing), so clipping does not flatten it.
+ */
+export function measureGain(r: SimResult): number | null {
+  const { high, low } = r.rails;
+  const margin = 0.02 * (high - low);
+  let n = 0, sx = 0, sy = 0, sxx = 0, sxy = 0;
+  for (let i = 0; i < r.output.length; i++) {
+    const y = r.output[i];
+    if (y <= low + margin || y >= high - margin) continue;
+    const x = r.input[i];
+    n++; sx += x; sy += y; sxx += x * x; sxy += x * y;
+  }
+  if (n < 8) return null;
+  const den = n * sxx - sx * sx;
+  if (!(Math.abs(den) > 1e-300)) return null;
+  const g = (n * sxy - sx * sy) / den;
+  return Number.isFinite(g) ? g : null;
+}
+
+export function runToleranceTask(scenario: Scenario, config: ToleranceSpreadConfig, index: number, simulate: SimulateFn): DrawOutput {
+  const r = simulate(toleranceTaskScenario(scenario, config, index), config.holdOff ? { holdOff: config.holdOff } : undefined);
+  const want = new Set<Measure>(config.measures);
+  const m = r.metrics;
+  return {
+    upperThreshold: want.has("upperThreshold") ? m.upperThreshold : null,
+    lowerThreshold: want.has("lowerThreshold") ? m.lowerThreshold : null,
+    gain: want.has("gain") ? measureGain(r) : null,
+    period: want.has("period") ? m.period : null,
+  };
+}
+
+/** Figures worth measuring for a stage kind. */
+export function defaultMeasures(stage: Stage): Measure[] {
+  switch (stage.kind) {
+    case "noninverting-amplifier":
+    case "inverting-amplifier":
+      return ["gain"];
+    case "relaxation-oscillator":
+      return ["period"];
+    default:
+      return ["upperThreshold", "lowerThreshold"];
+  }
+}
+
+export interface MeasureSpread {
+  measure: Measure;
+  nominal: number | null;
+  summary: Summary;
+  /** Draws where the figure could not be measured (e.g. the stage never switched). */
+  missing: number;
+  histogram: Histogram;
+  /** Worst-case corners [min, max] from lib/design, when the caller supplies them. */
+  worstCase: [number, number] | null;
+  window: [number, number] | null;
+  inside: number | null;
+}
+
+export interface ToleranceSpreadSummary {
+  draws: number;
+  measures: MeasureSpread[];
+  /** Draws with every windowed figure measured and inside its window (null: no window set). */
+  inside: number | null;
+  insideShare: number | null;
+  insideLow: number | null;
+  insideHigh: number | null;
+}
+
+export type Corners = Partial<Record<Measure, [number, number]>>;
+
+export function summarizeToleranceSpread(config: ToleranceSpreadConfig, tasks: readonly DrawOutput[], corners: Corners = {}): ToleranceSpreadSummary {
+  if (tasks.length !== toleranceTaskCount(config)) {
+    throw new Error(`tolerance spread expects ${toleranceTaskCount(config)} task outputs, got ${tasks.length}`);
+  }
+  const nominal = tasks[0];
+  const draws = tasks.slice(1);
+  const measures: MeasureSpread[] = config.measures.map((measure) => {
+    const values: number[] = [];
+    for (const d of draws) {
+      const v = d[measure];
+      if (v !== null) values.push(v);
+    }
+    const summary = summarize(values);
+    const win = config.window[measure] ?? null;
+    const wc = corners[measure] ?? null;
+    // The axis spans the draws, the nominal, the corners and the window, so all show together.
+    const span = [...(summary.min !== null ? [summary.min, summary.max as number] : []), ...(nominal[measure] !== null ? [nominal[measure] as number] : []), ...(wc ?? []), ...(win ?? [])];
+    const lo = span.length ? Math.min(...span) : 0;
+    const hi = span.length ? Math.max(...span) : 1;
+    const pad = (hi - lo) * 0.04;
+    const hist = histogram(values, lo - pad, hi + pad, config.bins);
+    const inside = win ? values.filter((v) => v >= win[0] && v <= win[1]).length : null;
+    return { measure, nominal: nominal[measure], summary, missing: draws.length - values.length, histogram: hist, worstCase: wc, window: win, inside };
+  });
+  const windowed = config.measures.filter((m) => config.window[m]);
+  let inside: number | null = null;
+  if (windowed.length) {
+    inside = 0;
+    for (const d of draws) {
+      if (windowed.every((m) => {
+        const v = d[m];
+        const w = config.window[m] as [number, number];
+        return v !== null && v >= w[0] && v <= w[1];
+      })) inside++;
+    }
+  }
+  const ci = inside !== null ? wilsonInterval(inside, draws.length) : null;
+  return {
+    draws: draws.length,
+    measures,
+    inside,
+    insideShare: inside !== null ? inside / draws.length : null,
+    insideLow: ci?.low ?? null,
+    insideHigh: ci?.high ?? null,
+  };
+}

@@ -1,0 +1,48 @@
+// Determinism: the worker pool hands out contiguous task ranges; whatever the split (1 worker,
+// 2, 3, 7 …), the merged outputs must be identical, bit for bit. Run in-process here with the
+// same batch function the workers run.
+import { describe, expect, it } from "vitest";
+import { parseScenario } from "@/lib/schemas/scenario";
+import { simulate } from "@/lib/sim";
+import { DEMO_SCENARIOS } from "@/lib/demo/scenarios";
+import { noiseMarginConfigSchema, toleranceSpreadConfigSchema } from "@/lib/studies/schema";
+import { runStudyTasks, splitTasks, studyTaskCount, type StudyRequest, type TaskOutput } from "@/lib/studies/study";
+
+function runSplit(request: StudyRequest, workers: number): TaskOutput[] {
+  const total = studyTaskCount(request.config);
+  const ranges = splitTasks(total, Math.ceil(total / workers));
+  // Run the ranges in reverse, as a pool might finish them, then merge in task order.
+  const parts = ranges.map(() => [] as TaskOutput[]);
+  for (let j = ranges.length - 1; j >= 0; j--) parts[j] = runStudyTasks(request, ranges[j][0], ranges[j][1], simulate);
+  return parts.flat();
+}
+
+const bilge = parseScenario(DEMO_SCENARIOS.find((s) => s.key === "bilge-float")!.scenario);
+const battery = parseScenario(DEMO_SCENARIOS.find((s) => s.key === "battery-cutoff")!.scenario);
+
+describe("results do not depend on the number of workers", () => {
+  it("noise margin study", () => {
+    const request: StudyRequest = {
+      scenario: { ...battery, run: { ...battery.run, points: 1000 } },
+      config: noiseMarginConfigSchema.parse({ kind: "noise-margin", seed: 7, rmsFrom: 0.01, rmsTo: 0.06, levels: 3, seedsPerLevel: 6, bandwidth: 50, limit: 0.01 }),
+    };
+    const one = runSplit(request, 1);
+    expect(one).toHaveLength(19);
+    for (const w of [2, 3, 7, 19]) expect(runSplit(request, w)).toEqual(one);
+  });
+
+  it("tolerance spread", () => {
+    const request: StudyRequest = {
+      scenario: { ...bilge, run: { ...bilge.run, points: 1000 } },
+      config: toleranceSpreadConfigSchema.parse({
+        kind: "tolerance-spread", seed: 99, draws: 24, resistorTolerance: 0.05, offsetTolerance: 0.002, headroomSpread: 0.2,
+        distribution: "normal", probe: { kind: "triangle", low: 1, high: 4 }, measures: ["upperThreshold", "lowerThreshold"],
+      }),
+    };
+    const one = runSplit(request, 1);
+    expect(one).toHaveLength(25);
+    // Draws really differ from one another (the test would be empty otherwise).
+    expect(new Set(one.map((o) => (o as { upperThreshold: number }).upperThreshold)).size).toBeGreaterThan(20);
+    for (const w of [2, 5, 25]) expect(runSplit(request, w)).toEqual(one);
+  });
+});
