@@ -1,6 +1,7 @@
 "use client";
 
-import { useEffect, useId, useRef, type ReactNode } from "react";
+import { useEffect, useId, useRef, useState, type FormEvent, type ReactNode } from "react";
+import { Button } from "./button";
 
 export interface DialogProps {
   open: boolean;
@@ -60,5 +61,74 @@ export function Dialog({ open, onClose, title, description, footer, children, si
         </div>
       )}
     </dialog>
+  );
+}
+
+export interface FormDialogProps extends Omit<DialogProps, "footer"> {
+  submitLabel: string;
+  /** Label while the submit runs (default "Working…"). */
+  busyLabel?: string;
+  cancelLabel?: string;
+  /** "danger" for destructive confirmations. */
+  tone?: "primary" | "danger";
+  /**
+   * Runs on submit. Throw (e.g. the HttpError from sendJson, or an Error naming the field)
+   * to keep the dialog open with the message shown; resolve to let the caller close it.
+   */
+  onSubmit: () => Promise<void>;
+}
+
+/** A Dialog wrapping a form: Cancel + submit footer, busy state, and one place for the error message. */
+export function FormDialog({
+  submitLabel,
+  busyLabel = "Working…",
+  cancelLabel = "Cancel",
+  tone = "primary",
+  onSubmit,
+  children,
+  ...dialog
+}: FormDialogProps) {
+  const formId = useId();
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+
+  useEffect(() => {
+    if (dialog.open) setError(null);
+  }, [dialog.open]);
+
+  async function submit(e: FormEvent) {
+    e.preventDefault();
+    setBusy(true);
+    setError(null);
+    try {
+      await onSubmit();
+    } catch (err) {
+      setError(err instanceof Error ? err.message : String(err));
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <Dialog
+      {...dialog}
+      footer={
+        <>
+          <Button onClick={dialog.onClose}>{cancelLabel}</Button>
+          <Button variant={tone} type="submit" form={formId} disabled={busy}>
+            {busy ? busyLabel : submitLabel}
+          </Button>
+        </>
+      }
+    >
+      <form id={formId} onSubmit={submit} noValidate className="flex flex-col gap-3">
+        {children}
+        {error && (
+          <p role="alert" className="rounded-md border border-alert/30 bg-alert-soft px-3 py-2 text-[13px] text-alert">
+            {error}
+          </p>
+        )}
+      </form>
+    </Dialog>
   );
 }

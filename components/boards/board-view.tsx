@@ -1,0 +1,199 @@
+"use client";
+
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { Badge } from "@/components/ui/badge";
+import { Button } from "@/components/ui/button";
+import { Card } from "@/components/ui/card";
+import { EmptyState } from "@/components/ui/empty-state";
+import { formatDate, formatRelative } from "@/components/ui/format";
+import { LoadError, LoadingRows } from "@/components/ui/load-state";
+import { PageHeader } from "@/components/ui/page-header";
+import { Table, TBody, TD, TH, THead, TR } from "@/components/ui/table";
+import { useToast } from "@/components/ui/toast";
+import { STAGE_KIND_LABEL, STAGE_KIND_SHORT } from "@/components/scenario/stage-labels";
+import { HttpError, errorMessage } from "@/lib/client/fetcher";
+import { personName, useBoard, useScenarios, type LatestDecision, type ScenarioRecord } from "@/lib/client/hooks";
+import type { Supply } from "@/lib/schemas/scenario";
+import { DeleteScenarioDialog, NewScenarioDialog, RenameScenarioDialog } from "./scenario-dialogs";
+
+export interface BoardViewProps {
+  boardId: string;
+  /** Owner and designer: create, rename, delete. Reviewer and viewer read only. */
+  canEdit: boolean;
+}
+
+export function BoardView({ boardId, canEdit }: BoardViewProps) {
+  const router = useRouter();
+  const toast = useToast();
+  const board = useBoard(boardId);
+  const list = useScenarios(boardId);
+  const [creating, setCreating] = useState(false);
+  const [renaming, setRenaming] = useState<ScenarioRecord | null>(null);
+  const [deleting, setDeleting] = useState<ScenarioRecord | null>(null);
+
+  if (board.error instanceof HttpError && board.error.status === 404) {
+    return (
+      <Card>
+        <EmptyState title="Board not found" action={<Link className="text-copper hover:underline" href="/boards">Back to boards</Link>}>
+          It may have been deleted, or it belongs to another team.
+        </EmptyState>
+      </Card>
+    );
+  }
+
+  const scenarios = list.data?.items ?? [];
+
+  return (
+    <>
+      <PageHeader
+        eyebrow={
+          <Link href="/boards" className="hover:text-ink hover:underline">
+            Boards
+          </Link>
+        }
+        title={board.data?.name ?? (board.isLoading ? "…" : "Board")}
+        description={board.data?.description || undefined}
+        actions={
+          canEdit && (
+            <Button variant="primary" onClick={() => setCreating(true)} disabled={!list.data}>
+              New scenario
+            </Button>
+          )
+        }
+      />
+
+      {board.error && !(board.error instanceof HttpError && board.error.status === 404) && (
+        <div className="mb-3">
+          <LoadError message={errorMessage(board.error)} onRetry={() => void board.mutate()} />
+        </div>
+      )}
+
+      <Card
+        title="Scenarios"
+        description={list.data ? `${scenarios.length} on this board` : undefined}
+        padded={false}
+      >
+        {list.error ? (
+          <div className="p-4">
+            <LoadError message={errorMessage(list.error)} onRetry={() => void list.mutate()} />
+          </div>
+        ) : list.isLoading ? (
+          <LoadingRows rows={5} />
+        ) : scenarios.length === 0 ? (
+          <EmptyState
+            title="No scenarios on this board"
+            action={canEdit && <Button variant="primary" onClick={() => setCreating(true)}>New scenario</Button>}
+          >
+            A scenario is one stage with its supplies, part profile, input signal and run settings.
+          </EmptyState>
+        ) : (
+          <Table data-testid="scenario-table">
+            <THead>
+              <TR>
+                <TH>Name</TH>
+                <TH>Stage</TH>
+                <TH>Supplies</TH>
+                <TH>Updated</TH>
+                <TH numeric>Version</TH>
+                <TH>Latest decision</TH>
+                {canEdit && (
+                  <TH className="text-right">
+                    <span className="sr-only">Actions</span>
+                  </TH>
+                )}
+              </TR>
+            </THead>
+            <TBody>
+              {scenarios.map((s) => (
+                <TR key={s.id} className="hover:bg-paper/70">
+                  <TD className="min-w-48">
+                    <Link href={`/scenarios/${s.id}`} className="font-medium text-ink hover:text-copper-deep hover:underline">
+                      {s.name}
+                    </Link>
+                  </TD>
+                  <TD>
+                    <Badge tone="indigo" title={STAGE_KIND_LABEL[s.scenario.stage.kind]}>
+                      {STAGE_KIND_SHORT[s.scenario.stage.kind] ?? s.scenario.stage.kind}
+                    </Badge>
+                  </TD>
+                  <TD className="font-mono whitespace-nowrap">{formatSupply(s.scenario.supply)}</TD>
+                  <TD className="whitespace-nowrap">
+                    <span title={formatDate(s.updatedAt)}>{formatRelative(s.updatedAt)}</span>
+                    <span className="text-ink-mute"> · {personName(s.updatedBy)}</span>
+                  </TD>
+                  <TD numeric>v{s.version}</TD>
+                  <TD>
+                    <DecisionBadge decision={s.latestDecision} />
+                  </TD>
+                  {canEdit && (
+                    <TD className="text-right whitespace-nowrap">
+                      <Button size="sm" variant="ghost" onClick={() => setRenaming(s)} aria-label={`Rename ${s.name}`}>
+                        Rename
+                      </Button>
+                      <Button size="sm" variant="ghost" className="text-alert hover:text-alert" onClick={() => setDeleting(s)} aria-label={`Delete ${s.name}`}>
+                        Delete
+                      </Button>
+                    </TD>
+                  )}
+                </TR>
+              ))}
+            </TBody>
+          </Table>
+        )}
+      </Card>
+
+      {canEdit && (
+        <>
+          <NewScenarioDialog
+            open={creating}
+            boardId={boardId}
+            existing={scenarios}
+            onClose={() => setCreating(false)}
+            onCreated={(created) => {
+              setCreating(false);
+              toast.notify(`Scenario “${created.name}” created`, "success");
+              void list.mutate();
+              router.push(`/scenarios/${created.id}`);
+            }}
+          />
+          <RenameScenarioDialog
+            target={renaming}
+            onClose={() => setRenaming(null)}
+            onDone={(updated) => {
+              setRenaming(null);
+              toast.notify(`Renamed to “${updated.name}”`, "success");
+              void list.mutate();
+            }}
+          />
+          <DeleteScenarioDialog
+            target={deleting}
+            onClose={() => setDeleting(null)}
+            onDone={(gone) => {
+              setDeleting(null);
+              toast.notify(`Deleted “${gone.name}”`);
+              void list.mutate((cur) => (cur ? { items: cur.items.filter((x) => x.id !== gone.id) } : cur), { revalidate: true });
+            }}
+          />
+        </>
+      )}
+    </>
+  );
+}
+
+/** "±5 V" for a symmetric pair, "+5 V" for a single supply, else "+12 V / −5 V". */
+export function formatSupply(s: Supply): string {
+  const v = (x: number) => `${Number(x.toPrecision(4))}`;
+  if (s.negative === 0) return `+${v(s.positive)} V`;
+  if (s.negative === -s.positive) return `±${v(s.positive)} V`;
+  return `${s.positive >= 0 ? "+" : ""}${v(s.positive)} V / ${v(s.negative).replace("-", "−")} V`;
+}
+
+function DecisionBadge({ decision }: { decision?: LatestDecision | null }) {
+  if (!decision) return <span className="text-ink-faint">—</span>;
+  const d = String(decision.decision).replace(/_/g, "-");
+  if (d === "approved") return <Badge tone="moss">approved</Badge>;
+  if (d === "changes-requested") return <Badge tone="caution">changes requested</Badge>;
+  return <Badge>{d}</Badge>;
+}

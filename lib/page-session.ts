@@ -1,0 +1,44 @@
+import "server-only";
+import { getServerSession } from "next-auth";
+import { redirect } from "next/navigation";
+import { authOptions } from "@/lib/auth";
+
+export type MemberRole = "owner" | "designer" | "reviewer" | "viewer";
+
+export interface PageUser {
+  id: string;
+  name: string | null;
+  email: string | null;
+  role: MemberRole;
+  teamId: string;
+  teamName: string;
+}
+
+/** Roles that may create, edit and delete scenarios, runs, captures and part profiles (DESIGN.md). */
+export const EDITOR_ROLES: readonly MemberRole[] = ["owner", "designer"];
+
+export function canEdit(role: MemberRole): boolean {
+  return EDITOR_ROLES.includes(role);
+}
+
+/** The signed-in member for a server page, or null. Pages only decide what to show; route handlers enforce. */
+export async function getPageUser(): Promise<PageUser | null> {
+  const session = await getServerSession(authOptions);
+  const u = session?.user;
+  if (!u || !u.id || !u.role) return null;
+  return {
+    id: u.id,
+    name: u.name ?? null,
+    email: u.email ?? null,
+    role: u.role,
+    teamId: u.teamId,
+    teamName: u.teamName,
+  };
+}
+
+/** Same, but sends anyone without a session to the sign-in page. */
+export async function requirePageUser(): Promise<PageUser> {
+  const user = await getPageUser();
+  if (!user) redirect("/signin");
+  return user;
+}
