@@ -302,34 +302,29 @@ export class ExactSolver {
 
   // ---- regimes -----------------------------------------------------------------------------
 
-  /** Input coefficients of the piece starting at t (seen through the transport delay). */
-  private inputPiece(t: number, tEnd: number): void {
+  /**
+   * Input coefficients of the piece starting at t (seen through the transport delay);
+   * returns the end of the input piece in solver time.
+   */
+  private inputPiece(t: number): number {
     const U = this.U;
     const sig = this.p.signal;
     U.fill(0);
-    if (this.al === 0) return;
+    if (this.al === 0) return Infinity;
     const ts = t - this.td;
     if (ts < 0) {
       U[0] = sig.valueAt(0);
-      return;
+      return this.td;
     }
-    const mid = 0.5 * (t + tEnd) - this.td;
-    sig.affineAt(mid);
-    U[0] = sig.value - sig.slope * (mid - ts);
-    U[1] = sig.slope;
+    sig.piece(ts);
+    U[0] = sig.pieceValue;
+    U[1] = sig.pieceSlope;
     for (let j = 0; j < this.m; j++) {
       const ph = this.omega[j] * ts + sig.sinePhase[j];
       U[4 + 2 * j] = sig.sineAmp[j] * Math.cos(ph);
       U[5 + 2 * j] = sig.sineAmp[j] * Math.sin(ph);
     }
-  }
-
-  /** Next input breakpoint after t (in solver time, i.e. shifted by the transport delay). */
-  private nextInputBreak(t: number): number {
-    if (this.al === 0) return Infinity;
-    const ts = t - this.td;
-    if (ts < 0) return this.td;
-    return this.p.signal.nextBreak(ts) + this.td;
+    return sig.pieceEnd + this.td;
   }
 
   private uAt0(): number {
@@ -499,9 +494,34 @@ export class ExactSolver {
     // Initial sides of the monitors
     for (let i = 0; i < 3; i++) this.sides[i] = vo >= levels[i] ? 1 : 0;
     let guard = 0;
+    const fastRail = !this.twoD && this.m === 0;
     while (t < T) {
-      const tb = Math.min(T, this.nextInputBreak(t), this.m > 0 ? t + this.pieceCapSine : Infinity);
-      this.inputPiece(t, tb);
+      if (fastRail && (regime === RAIL_HIGH || regime === RAIL_LOW) && !needSelect) {
+        // Held at a rail (the bulk of a noisy comparator or Schmitt run): while the drive keeps
+        // pushing into the rail and vd keeps its sign, a piece needs no root finding at all.
+        const high = regime === RAIL_HIGH;
+        const V = high ? this.Voh : this.Vol;
+        const vdSide = this.sides[MONITOR_VD] === 1;
+        const A0V = V / this.A0;
+        while (t < T) {
+          const tb = Math.min(T, this.inputPiece(t));
+          const h = tb - t;
+          const a = this.al * U[0] + this.be * V + this.de;
+          const b = a + this.al * U[1] * h;
+          if (high ? a < A0V || b < A0V : a > A0V || b > A0V) break;
+          if (p.trackVd && b >= 0 !== vdSide) break;
+          while (sample < ts.length && ts[sample] <= tb) out[sample++] = V;
+          rec.clippedTime += h;
+          t = tb;
+          if ((++this.steps & 1023) === 0) {
+            if (p.shouldCancel?.()) throw new SimCancelled();
+            p.onProgress?.(t / T);
+          }
+        }
+        vo = V;
+        if (t >= T) break;
+      }
+      const tb = Math.min(T, this.inputPiece(t), this.m > 0 ? t + this.pieceCapSine : Infinity);
       if (needSelect) regime = this.select(vo, vc);
       if (this.steps === 0 && p.trackVd) {
         const vd0 = this.al * this.uAt0() + this.be * vo + this.ga * vc + this.de;

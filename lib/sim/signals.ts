@@ -100,12 +100,68 @@ export class InputSignal {
     }
   }
 
+  // Cache of the non-noise part: affine on [partsFrom, partsTo) through (partsRefT, partsRefV).
+  private partsFrom = NaN;
+  private partsTo = -Infinity;
+  private partsRefT = 0;
+  private partsRefV = 0;
+  private partsSlope = 0;
+  /** Set by `piece`: affine input (value at t, slope) valid up to pieceEnd. */
+  pieceValue = 0;
+  pieceSlope = 0;
+  pieceEnd = Infinity;
+
+  /**
+   * The affine piece of the piecewise-linear part that starts at t: sets pieceValue (value just
+   * after t), pieceSlope and pieceEnd (next breakpoint). The non-noise components are cached
+   * between their own breakpoints, so a noisy run costs one knot lookup per piece.
+   */
+  piece(t: number): void {
+    if (!(t >= this.partsFrom && t < this.partsTo)) {
+      const b = this.nextBreak(t, false);
+      const mid = b === Infinity ? t + 1 : 0.5 * (t + b);
+      this.affineAt(mid, false);
+      this.partsFrom = t;
+      this.partsTo = b;
+      this.partsRefT = mid;
+      this.partsRefV = this.value;
+      this.partsSlope = this.slope;
+    }
+    let v = this.partsRefV + this.partsSlope * (t - this.partsRefT);
+    let s = this.partsSlope;
+    let end = this.partsTo;
+    const kn = this.noise;
+    if (kn !== null) {
+      const dt = this.noiseDt;
+      let k = Math.floor(t / dt);
+      if (k < 0) k = 0;
+      if (k >= kn.length - 1) v += kn[kn.length - 1];
+      else {
+        let kb = (k + 1) * dt;
+        if (kb <= t) {
+          k += 1;
+          kb += dt;
+        }
+        if (k >= kn.length - 1) v += kn[kn.length - 1];
+        else {
+          const d = kn[k + 1] - kn[k];
+          v += kn[k] + d * (t / dt - k);
+          s += d / dt;
+          if (kb < end) end = kb;
+        }
+      }
+    }
+    this.pieceValue = v;
+    this.pieceSlope = s;
+    this.pieceEnd = end;
+  }
+
   get sineCount(): number {
     return this.sineAmp.length;
   }
 
   /** Value and slope of the piecewise-linear part (everything but the sines) at t → this.value/this.slope. */
-  affineAt(t: number): void {
+  affineAt(t: number, withNoise = true): void {
     let v = 0;
     let s = 0;
     for (let i = 0; i < this.parts.length; i++) {
@@ -173,7 +229,7 @@ export class InputSignal {
         }
       }
     }
-    if (this.noise !== null) {
+    if (withNoise && this.noise !== null) {
       const kn = this.noise;
       const x = t / this.noiseDt;
       let k = Math.floor(x);
@@ -204,7 +260,7 @@ export class InputSignal {
   }
 
   /** Smallest breakpoint of the piecewise-linear part strictly after t (Infinity if none). */
-  nextBreak(t: number): number {
+  nextBreak(t: number, withNoise = true): number {
     let best = Infinity;
     for (let i = 0; i < this.parts.length; i++) {
       const p = this.parts[i];
@@ -254,7 +310,7 @@ export class InputSignal {
       }
       if (b < best) best = b;
     }
-    if (this.noise !== null) {
+    if (withNoise && this.noise !== null) {
       const dt = this.noiseDt;
       let b = (Math.floor(t / dt) + 1) * dt;
       if (b <= t) b += dt;

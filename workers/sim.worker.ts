@@ -1,0 +1,40 @@
+// Simulation worker: a thin comlink `expose` around lib/sim. The scenario is validated again
+// here (a worker never trusts its caller's shape), progress is throttled to about 10 per
+// second, and the sample arrays are transferred, not copied.
+import * as Comlink from "comlink";
+import { parseScenario } from "@/lib/schemas/scenario";
+import { simulate } from "@/lib/sim";
+import type { SimResult, SolverName } from "@/lib/sim/types";
+
+export interface SimWorkerRunOptions {
+  solver?: SolverName;
+  holdOff?: number;
+}
+
+const PROGRESS_INTERVAL_MS = 100;
+
+const api = {
+  run(scenario: unknown, options: SimWorkerRunOptions = {}, onProgress?: (fraction: number) => void): SimResult {
+    const parsed = parseScenario(scenario);
+    let last = -Infinity;
+    const result = simulate(parsed, {
+      solver: options.solver,
+      holdOff: options.holdOff,
+      onProgress: onProgress
+        ? (f) => {
+            const now = performance.now();
+            if (now - last >= PROGRESS_INTERVAL_MS) {
+              last = now;
+              void onProgress(f);
+            }
+          }
+        : undefined,
+    });
+    if (onProgress) void onProgress(1);
+    return Comlink.transfer(result, [result.t.buffer, result.input.buffer, result.output.buffer] as ArrayBuffer[]);
+  },
+};
+
+export type SimWorkerApi = typeof api;
+
+Comlink.expose(api);
