@@ -1,12 +1,13 @@
 import type { Metadata } from "next";
-import { ScenarioReadView } from "@/components/scenario/scenario-read-view";
-import { requirePageUser } from "@/lib/page-session";
+import { ScenarioWorkbench } from "@/components/workbench/workbench";
+import { ScenarioReadOnly } from "@/components/workbench/scenario-readonly";
+import { canEdit, requirePageUser } from "@/lib/page-session";
 
 export const metadata: Metadata = { title: "Scenario" };
 
-// Thin on purpose: the workbench mounts here for owners/designers (canEdit from lib/page-session);
-// reviewers and viewers keep the read-only tables.
+// Owners and designers get the Workbench; reviewers and viewers the read-only tables and the
+// saved runs' plots. Route handlers enforce the roles again on every write.
 export default async function ScenarioPage({ params }: { params: Promise<{ id: string }> }) {
-  const [{ id }] = await Promise.all([params, requirePageUser()]);
-  return <ScenarioReadView scenarioId={id} />;
+  const [{ id }, user] = await Promise.all([params, requirePageUser()]);
+  return canEdit(user.role) ? <ScenarioWorkbench scenarioId={id} /> : <ScenarioReadOnly scenarioId={id} />;
 }

@@ -1,0 +1,200 @@
+"use client";
+// "Loop": output against input from the same run — the hysteresis loop of a trigger, the
+// transfer line and its clipping knees for a gain stage. uPlot supplies the frame, scales,
+// cursor and box zoom; the x–y path (input is not monotonic) is stroked in a draw hook, one
+// segment per pixel step, so a million samples stay cheap.
+import { useEffect, useRef } from "react";
+import type uPlot from "uplot";
+import { PlotToolbar, Readout, cursorItems } from "./plot-chrome";
+import { exportPlotPng } from "./export";
+import { PLOT_COLORS, axis, extent, hLine, siTicks, tagRight, useUPlot, vLine } from "./use-uplot";
+
+export interface LoopPlotProps {
+  input: Float64Array;
+  output: Float64Array;
+  t: Float64Array;
+  rails: { high: number; low: number };
+  thresholds?: { upper: number | null; lower: number | null } | null;
+  cursorIdx: number | null;
+  onCursor?: (idx: number | null) => void;
+  height?: number;
+  fileName?: string;
+}
+
+export function LoopPlot(props: LoopPlotProps) {
+  const { input, output, t, rails, thresholds, cursorIdx, onCursor, height = 300, fileName = "loop.png" } = props;
+  const box = useRef<HTMLDivElement>(null);
+  const marker = useRef<HTMLDivElement | null>(null);
+  const emitted = useRef<number | null>(null);
+  const cb = useRef(onCursor);
+  cb.current = onCursor;
+  const xr = useRef<[number, number]>([0, 1]);
+
+  const plot = useUPlot(
+    box,
+    (width) => {
+      if (input.length === 0) return null;
+      let [x0, x1] = extent(input);
+      if (!(x1 > x0)) [x0, x1] = [x0 - 0.5, x1 + 0.5];
+      const [o0, o1] = extent(output);
+      const y0 = Math.min(o0, rails.low);
+      const y1 = Math.max(o1, rails.high);
+      const pad = 0.04 * (x1 - x0);
+      xr.current = [x0 - pad, x1 + pad];
+      // A sorted stand-in series spanning the extents keeps uPlot's auto-ranging honest in any
+      // zoom window; it is never drawn.
+      const N = 64;
+      const fx = new Float64Array(N);
+      const fy = new Float64Array(N);
+      for (let i = 0; i < N; i++) {
+        fx[i] = x0 - pad + ((x1 - x0 + 2 * pad) * i) / (N - 1);
+        fy[i] = i % 2 ? y1 : y0;
+      }
+      const stride = Math.max(1, Math.ceil(input.length / 4000));
+      let frame = 0;
+      const opts: uPlot.Options = {
+        width,
+        height,
+        legend: { show: false },
+        scales: { x: { time: false, range: () => [xr.current[0], xr.current[1]] } },
+        cursor: { drag: { x: true, y: false, setScale: true }, points: { show: false } },
+        series: [{}, { label: "frame", stroke: "transparent", paths: () => null, points: { show: false } }],
+        axes: [
+          axis({ values: siTicks("V"), size: 34, label: "input", labelSize: 16 }),
+          axis({ values: siTicks("V"), size: 64, label: "output", labelSize: 16 }),
+        ],
+        hooks: {
+          ready: [
+            (u) => {
+              const m = document.createElement("div");
+              m.className = "rw-loop-marker";
+              m.style.cssText =
+                "position:absolute;width:9px;height:9px;margin:-5px 0 0 -5px;border-radius:50%;border:2px solid #8a3d1a;background:#fff;pointer-events:none;display:none";
+              u.over.appendChild(m);
+              marker.current = m;
+            },
+          ],
+          drawAxes: [
+            (u) => {
+              hLine(u, rails.high, PLOT_COLORS.rail, [2, 3]);
+              hLine(u, rails.low, PLOT_COLORS.rail, [2, 3]);
+              tagRight(u, rails.high, "Voh", PLOT_COLORS.rail);
+              tagRight(u, rails.low, "Vol", PLOT_COLORS.rail);
+              if (thresholds?.upper != null) vLine(u, thresholds.upper, PLOT_COLORS.threshold, [7, 4]);
+              if (thresholds?.lower != null) vLine(u, thresholds.lower, PLOT_COLORS.threshold, [7, 4]);
+            },
+          ],
+          draw: [(u) => drawLoop(u, input, output)],
+          setCursor: [
+            (u) => {
+              cancelAnimationFrame(frame);
+              frame = requestAnimationFrame(() => {
+                const { left, top } = u.cursor;
+                let idx: number | null = null;
+                if (left != null && top != null && left >= 0) {
+                  // Nearest sample on screen among an even subset (≤ 4000 candidates).
+                  let best = Infinity;
+                  for (let i = 0; i < input.length; i += stride) {
+                    const dx = u.valToPos(input[i], "x") - left;
+                    const dy = u.valToPos(output[i], "y") - top;
+                    const d = dx * dx + dy * dy;
+                    if (d < best) {
+                      best = d;
+                      idx = i;
+                    }
+                  }
+                }
+                if (idx === emitted.current) return;
+                emitted.current = idx;
+                placeMarker(u, idx);
+                cb.current?.(idx);
+              });
+            },
+          ],
+        },
+      };
+      return { opts, data: [fx, fy] as unknown as uPlot.AlignedData };
+    },
+    [input, output, rails.high, rails.low, thresholds?.upper, thresholds?.lower, height],
+  );
+
+  function placeMarker(u: uPlot, idx: number | null) {
+    const m = marker.current;
+    if (!m) return;
+    if (idx == null || idx >= input.length) {
+      m.style.display = "none";
+      return;
+    }
+    const x = u.valToPos(input[idx], "x");
+    const y = u.valToPos(output[idx], "y");
+    const inside = x >= 0 && y >= 0 && x <= u.over.clientWidth && y <= u.over.clientHeight;
+    m.style.display = inside ? "block" : "none";
+    m.style.left = `${x}px`;
+    m.style.top = `${y}px`;
+  }
+
+  useEffect(() => {
+    const u = plot.current;
+    if (!u || cursorIdx === emitted.current) return;
+    emitted.current = cursorIdx;
+    placeMarker(u, cursorIdx);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [cursorIdx, plot]);
+
+  const reset = () => plot.current?.setScale("x", { min: xr.current[0], max: xr.current[1] });
+  const i = cursorIdx != null && cursorIdx < input.length ? cursorIdx : null;
+
+  return (
+    <div className="min-w-0" data-testid="loop-plot">
+      <PlotToolbar
+        legend={[
+          { color: PLOT_COLORS.output, label: "output vs input" },
+          { color: PLOT_COLORS.threshold, label: "designed switching points", dashed: true },
+          { color: PLOT_COLORS.rail, label: "output limits", dashed: true },
+        ]}
+        onReset={reset}
+        onPng={() => plot.current && exportPlotPng(plot.current, "Loop — output against input", fileName)}
+      />
+      <div ref={box} className="min-w-0" />
+      <Readout
+        items={cursorItems(t, input, output, i)}
+        hint="ring follows the Trace cursor · drag to zoom the input axis"
+      />
+    </div>
+  );
+}
+
+function drawLoop(u: uPlot, input: Float64Array, output: Float64Array) {
+  const n = input.length;
+  if (!n) return;
+  const ctx = u.ctx;
+  const { left, top, width, height } = u.bbox;
+  // Pixel transform computed once; valToPos per point would be 10× slower on 1e6 samples.
+  const xMin = u.scales.x.min!;
+  const xMax = u.scales.x.max!;
+  const yMin = u.scales.y.min!;
+  const yMax = u.scales.y.max!;
+  const kx = width / (xMax - xMin);
+  const ky = height / (yMax - yMin);
+  ctx.save();
+  ctx.beginPath();
+  ctx.rect(left, top, width, height);
+  ctx.clip();
+  ctx.strokeStyle = PLOT_COLORS.output;
+  ctx.lineWidth = 1.6 * devicePixelRatio;
+  ctx.lineJoin = "round";
+  ctx.beginPath();
+  let px = Math.round(left + (input[0] - xMin) * kx);
+  let py = Math.round(top + (yMax - output[0]) * ky);
+  ctx.moveTo(px, py);
+  for (let i = 1; i < n; i++) {
+    const x = Math.round(left + (input[i] - xMin) * kx);
+    const y = Math.round(top + (yMax - output[i]) * ky);
+    if (x === px && y === py) continue;
+    ctx.lineTo(x, y);
+    px = x;
+    py = y;
+  }
+  ctx.stroke();
+  ctx.restore();
+}

@@ -1,0 +1,188 @@
+"use client";
+// "Trace": input (indigo) and output (copper) against time, with the output limits, the
+// designed switching points and the measured output edges marked. uPlot decimates the
+// Float64Array columns itself; we never thin them.
+import { useEffect, useRef } from "react";
+import type uPlot from "uplot";
+import type { SimEvent } from "@/lib/sim/types";
+import { PlotToolbar, Readout, cursorItems } from "./plot-chrome";
+import { exportPlotPng } from "./export";
+import { PLOT_COLORS, axis, hLine, siTicks, tagRight, useUPlot, wheelPan } from "./use-uplot";
+
+export interface TimePlotProps {
+  t: Float64Array;
+  input: Float64Array;
+  output: Float64Array;
+  rails: { high: number; low: number };
+  thresholds?: { upper: number | null; lower: number | null } | null;
+  events?: SimEvent[];
+  cursorIdx: number | null;
+  onCursor?: (idx: number | null) => void;
+  onFirstDraw?: () => void;
+  height?: number;
+  fileName?: string;
+}
+
+export function TimePlot(props: TimePlotProps) {
+  const { t, input, output, rails, thresholds, events = [], cursorIdx, onCursor, onFirstDraw, height = 300, fileName = "trace.png" } = props;
+  const box = useRef<HTMLDivElement>(null);
+  const emitted = useRef<number | null>(null);
+  const cb = useRef({ onCursor, onFirstDraw });
+  cb.current = { onCursor, onFirstDraw };
+
+  const plot = useUPlot(
+    box,
+    (width) => {
+      let first = true;
+      let frame = 0;
+      const opts: uPlot.Options = {
+        width,
+        height,
+        legend: { show: false },
+        scales: { x: { time: false } },
+        cursor: { drag: { x: true, y: false, setScale: true }, points: { size: 7 } },
+        series: [
+          {},
+          { label: "input", stroke: PLOT_COLORS.input, width: 1.4 },
+          { label: "output", stroke: PLOT_COLORS.output, width: 1.8 },
+        ],
+        axes: [axis({ values: siTicks("s"), size: 34 }), axis({ values: siTicks("V"), size: 64, label: "volts", labelSize: 16 })],
+        plugins: [wheelPan()],
+        hooks: {
+          drawAxes: [
+            (u) => {
+              hLine(u, rails.high, PLOT_COLORS.rail, [2, 3]);
+              hLine(u, rails.low, PLOT_COLORS.rail, [2, 3]);
+              tagRight(u, rails.high, "Voh", PLOT_COLORS.rail);
+              tagRight(u, rails.low, "Vol", PLOT_COLORS.rail);
+              if (thresholds?.upper != null) {
+                hLine(u, thresholds.upper, PLOT_COLORS.threshold, [7, 4]);
+                tagRight(u, thresholds.upper, "upper (designed)", PLOT_COLORS.threshold);
+              }
+              if (thresholds?.lower != null && thresholds.lower !== thresholds.upper) {
+                hLine(u, thresholds.lower, PLOT_COLORS.threshold, [7, 4]);
+                tagRight(u, thresholds.lower, "lower (designed)", PLOT_COLORS.threshold);
+              }
+            },
+          ],
+          draw: [
+            (u) => {
+              drawEvents(u, events);
+              if (first) {
+                first = false;
+                cb.current.onFirstDraw?.();
+              }
+            },
+          ],
+          setCursor: [
+            (u) => {
+              cancelAnimationFrame(frame);
+              frame = requestAnimationFrame(() => {
+                const idx = u.cursor.idx ?? null;
+                if (idx === emitted.current) return;
+                emitted.current = idx;
+                cb.current.onCursor?.(idx);
+              });
+            },
+          ],
+        },
+      };
+      return { opts, data: [t, input, output] as unknown as uPlot.AlignedData };
+    },
+    [t, input, output, rails.high, rails.low, thresholds?.upper, thresholds?.lower, events, height],
+  );
+
+  // A cursor set by the other plot moves ours (without echoing it back).
+  useEffect(() => {
+    const u = plot.current;
+    if (!u || cursorIdx === emitted.current) return;
+    emitted.current = cursorIdx;
+    if (cursorIdx == null || cursorIdx >= t.length) {
+      u.setCursor({ left: -10, top: -10 }, false);
+      return;
+    }
+    u.setCursor({ left: u.valToPos(t[cursorIdx], "x"), top: u.valToPos(output[cursorIdx], "y") }, false);
+  }, [cursorIdx, plot, t, output]);
+
+  const reset = () => plot.current?.setScale("x", { min: t[0], max: t[t.length - 1] });
+  const zoom = (f: number) => {
+    const u = plot.current;
+    if (!u) return;
+    const min = u.scales.x.min!;
+    const max = u.scales.x.max!;
+    const mid = (min + max) / 2;
+    u.setScale("x", { min: mid - ((mid - min) * f), max: mid + ((max - mid) * f) });
+  };
+  const pan = (f: number) => {
+    const u = plot.current;
+    if (!u) return;
+    const min = u.scales.x.min!;
+    const max = u.scales.x.max!;
+    const d = (max - min) * f;
+    u.setScale("x", { min: min + d, max: max + d });
+  };
+
+  const i = cursorIdx != null && cursorIdx < t.length ? cursorIdx : null;
+  return (
+    <div className="min-w-0" data-testid="trace-plot">
+      <PlotToolbar
+        legend={[
+          { color: PLOT_COLORS.input, label: "input" },
+          { color: PLOT_COLORS.output, label: "output" },
+          { color: PLOT_COLORS.threshold, label: "designed switching points", dashed: true },
+          { color: PLOT_COLORS.rail, label: "output limits", dashed: true },
+          { color: PLOT_COLORS.event, label: "measured edges", tick: true },
+        ]}
+        onZoomIn={() => zoom(0.5)}
+        onZoomOut={() => zoom(2)}
+        onPanLeft={() => pan(-0.25)}
+        onPanRight={() => pan(0.25)}
+        onReset={reset}
+        onPng={() => plot.current && exportPlotPng(plot.current, "Trace — input and output against time", fileName)}
+      />
+      <div ref={box} className="min-w-0" />
+      <Readout
+        items={cursorItems(t, input, output, i)}
+        hint="drag to zoom · wheel to zoom · Shift+drag to pan"
+      />
+    </div>
+  );
+}
+
+/** Measured edges: a tick at the top of the plot, up for rising, down for falling. */
+function drawEvents(u: uPlot, events: SimEvent[]) {
+  if (!events.length) return;
+  const ctx = u.ctx;
+  const r = devicePixelRatio;
+  const top = u.bbox.top;
+  const xMin = u.scales.x.min!;
+  const xMax = u.scales.x.max!;
+  ctx.save();
+  ctx.fillStyle = PLOT_COLORS.event;
+  ctx.strokeStyle = "rgba(138,61,26,0.25)";
+  ctx.lineWidth = r;
+  let lastX = -Infinity;
+  for (const e of events) {
+    if (e.time < xMin || e.time > xMax) continue;
+    const x = u.valToPos(e.time, "x", true);
+    if (x - lastX < 3 * r) continue; // dense edges (chatter): one mark per few pixels
+    lastX = x;
+    ctx.beginPath();
+    ctx.moveTo(x, top);
+    ctx.lineTo(x, top + u.bbox.height);
+    ctx.stroke();
+    ctx.beginPath();
+    if (e.edge === "rising") {
+      ctx.moveTo(x - 4 * r, top + 8 * r);
+      ctx.lineTo(x + 4 * r, top + 8 * r);
+      ctx.lineTo(x, top + 1 * r);
+    } else {
+      ctx.moveTo(x - 4 * r, top + 1 * r);
+      ctx.lineTo(x + 4 * r, top + 1 * r);
+      ctx.lineTo(x, top + 8 * r);
+    }
+    ctx.closePath();
+    ctx.fill();
+  }
+  ctx.restore();
+}

@@ -1,0 +1,100 @@
+"use client";
+// A value typed the way engineers write it — 4.7k, 100n, 2.2M, 10µ or RKM 4K7, 2R2 — with the
+// parsed value shown beside it. The text is local; only a value that parses reaches the store.
+import { useEffect, useId, useRef, useState } from "react";
+import { formatQuantity, parseQuantity } from "@/lib/design/notation";
+
+export interface QuantityFieldProps {
+  label: string;
+  value: number | undefined;
+  unit: string;
+  onCommit: (v: number) => void;
+  hint?: string;
+  /** Extra acceptance rule; return a message to reject. */
+  validate?: (v: number) => string | null;
+  disabled?: boolean;
+  name?: string;
+  /** Plain number fields (seed, points) skip engineering formatting. */
+  plain?: boolean;
+  digits?: number;
+  /** Optional parameters: an empty field clears the value. */
+  onClear?: () => void;
+  /** Shown while the optional field is empty. */
+  placeholder?: string;
+}
+
+function show(v: number | undefined, plain: boolean, digits: number): string {
+  if (v === undefined) return "";
+  if (plain) return String(v);
+  return formatQuantity(v, "", digits).replace(" ", "");
+}
+
+export function QuantityField({ label, value, unit, onCommit, hint, validate, disabled, name, plain = false, digits = 4, onClear, placeholder }: QuantityFieldProps) {
+  const id = useId();
+  const [text, setText] = useState(() => show(value, plain, digits));
+  const committed = useRef<number | undefined>(value);
+
+  // An outside change (design applied, version restored) replaces what the field shows.
+  useEffect(() => {
+    if (value !== committed.current) {
+      committed.current = value;
+      setText(show(value, plain, digits));
+    }
+  }, [value, plain, digits]);
+
+  const parsed = plain ? (text.trim() === "" ? null : Number(text)) : parseQuantity(text);
+  const valid = parsed !== null && Number.isFinite(parsed);
+  const empty = text.trim() === "";
+  const problem = empty && onClear ? null : !valid ? (empty ? "required" : "not a value") : validate ? validate(parsed) : null;
+
+  return (
+    <label htmlFor={id} className="grid grid-cols-[7.5rem_minmax(0,1fr)] items-center gap-x-2 py-0.5">
+      <span className="truncate text-[13px] text-ink-soft" title={hint}>
+        {label}
+        {hint ? <span className="ml-1 text-[11px] text-ink-faint">{hint}</span> : null}
+      </span>
+      <span className="flex min-w-0 items-center gap-2">
+        <input
+          id={id}
+          name={name ?? label}
+          data-field={name ?? label}
+          type="text"
+          inputMode="decimal"
+          spellCheck={false}
+          autoComplete="off"
+          disabled={disabled}
+          value={text}
+          placeholder={placeholder}
+          aria-invalid={problem ? true : undefined}
+          onChange={(e) => {
+            const t = e.target.value;
+            setText(t);
+            if (t.trim() === "" && onClear) {
+              committed.current = undefined;
+              onClear();
+              return;
+            }
+            const v = plain ? (t.trim() === "" ? null : Number(t)) : parseQuantity(t);
+            if (v !== null && Number.isFinite(v) && !(validate && validate(v))) {
+              committed.current = v;
+              onCommit(v);
+            }
+          }}
+          onBlur={() => {
+            if (!problem) setText(show(committed.current, plain, digits));
+          }}
+          className={`w-24 shrink-0 rounded border bg-white px-1.5 py-0.5 font-mono text-[13px] text-ink outline-none focus:border-indigo disabled:bg-paper-sunk disabled:text-ink-mute ${
+            problem ? "border-alert bg-alert-soft/40" : "border-paper-line"
+          }`}
+        />
+        <span
+          className={`min-w-0 truncate font-mono text-[12px] ${problem ? "text-alert" : "text-ink-mute"}`}
+          data-parsed={name ?? label}
+          aria-live="polite"
+        >
+          {problem ? problem : empty ? (placeholder ? "not set" : "") : plain ? (unit ? `${parsed} ${unit}` : "") : `= ${formatQuantity(parsed as number, unit, 4)}`}
+        </span>
+      </span>
+    </label>
+  );
+}

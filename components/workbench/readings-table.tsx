@@ -1,0 +1,125 @@
+// "Readings": every metric of a result with its unit, checks of measured against designed
+// figures, and warnings in plain words. Shared by the live workbench and the stored run page.
+import type { Scenario } from "@/lib/schemas/scenario";
+import type { SimMetrics, SolverStats } from "@/lib/sim/types";
+import { formatQuantity } from "@/lib/design/notation";
+import { cx } from "@/components/ui/cx";
+import type { Check, Warning } from "./readings-logic";
+
+const fmt = (v: number | null | undefined, unit: string, digits = 4) => (v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, digits));
+
+export function metricRows(m: SimMetrics, gain: number | null): [string, string, string?][] {
+  return [
+    ["Upper switching point", fmt(m.upperThreshold, "V"), "mean input at edges the rising input causes"],
+    ["Lower switching point", fmt(m.lowerThreshold, "V"), "mean input at edges the falling input causes"],
+    ["Deadband", fmt(m.hysteresis, "V"), "upper − lower"],
+    ["Output transitions", String(m.transitions)],
+    ["Chatter", String(m.chatter), m.holdOff != null ? `edges within ${fmt(m.holdOff, "s", 3)} of the previous` : "edges within the hold-off"],
+    ["Held at a limit", `${(100 * m.clippedFraction).toFixed(2)} %`, "share of the run"],
+    ["Fastest output slope", m.maxSlewRate > 0 ? `${(m.maxSlewRate / 1e6).toPrecision(3)} V/µs` : "0 V/µs"],
+    ["Period", fmt(m.period, "s")],
+    ["Frequency", m.period ? fmt(1 / m.period, "Hz") : "—"],
+    ["Duty cycle", m.dutyCycle == null ? "—" : `${(100 * m.dutyCycle).toFixed(2)} %`],
+    ["Propagation delay", fmt(m.propagationDelay, "s")],
+    ["Rise time 10–90 %", fmt(m.riseTime, "s")],
+    ["Fall time 90–10 %", fmt(m.fallTime, "s")],
+    ["Gain (linear region)", gain == null ? "—" : `${gain.toPrecision(5)} V/V`, "slope of output vs input away from the limits"],
+  ];
+}
+
+export function ReadingsTable({
+  metrics,
+  checks,
+  warnings,
+  gain,
+  solver,
+  scenario,
+}: {
+  metrics: SimMetrics;
+  checks: Check[];
+  warnings: Warning[];
+  gain: number | null;
+  solver?: SolverStats;
+  scenario?: Scenario;
+}) {
+  const rows = metricRows(metrics, gain);
+  return (
+    <div className="text-[13px]" data-testid="readings">
+      {checks.length ? (
+        <table className="mb-3 w-full border-collapse" data-testid="checks">
+          <caption className="mb-1 text-left text-[11.5px] font-semibold uppercase tracking-wider text-ink-mute">Checks against the design</caption>
+          <thead>
+            <tr className="border-b border-paper-line text-left text-[11.5px] text-ink-mute">
+              <th className="py-1 font-medium">figure</th>
+              <th className="py-1 text-right font-medium">designed</th>
+              <th className="py-1 text-right font-medium">measured</th>
+              <th className="py-1 pl-2 text-right font-medium">result</th>
+            </tr>
+          </thead>
+          <tbody>
+            {checks.map((c) => (
+              <tr key={c.label} className="border-b border-paper-line/70 last:border-0" data-check={c.label}>
+                <td className="py-1 pr-2 text-ink-soft">{c.label}</td>
+                <td className="py-1 text-right font-mono">{fmt(c.designed, c.unit)}</td>
+                <td className="py-1 text-right font-mono">{fmt(c.measured, c.unit)}</td>
+                <td className="py-1 pl-2 text-right">
+                  <span
+                    title={`allowed ± ${fmt(c.tolerance, c.unit, 2)}`}
+                    className={cx(
+                      "inline-block min-w-12 rounded px-1.5 text-center text-[11px] font-semibold",
+                      c.pass === true && "bg-moss-soft text-moss",
+                      c.pass === false && "bg-alert-soft text-alert",
+                      c.pass === null && "bg-paper-sunk text-ink-mute",
+                    )}
+                  >
+                    {c.pass === null ? "no edge" : c.pass ? "pass" : "fail"}
+                  </span>
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      ) : null}
+
+      {warnings.length ? (
+        <ul className="mb-3 space-y-1.5" data-testid="warnings">
+          {warnings.map((w, i) => (
+            <li
+              key={i}
+              className={cx(
+                "rounded border-l-[3px] px-2 py-1 text-[12.5px] leading-snug",
+                w.level === "alert" && "border-alert bg-alert-soft/60 text-ink",
+                w.level === "caution" && "border-caution bg-caution-soft/70 text-ink",
+                w.level === "note" && "border-ink-faint bg-paper-sunk/60 text-ink-soft",
+              )}
+            >
+              {w.text}
+            </li>
+          ))}
+        </ul>
+      ) : (
+        <p className="mb-3 rounded border-l-[3px] border-moss bg-moss-soft/60 px-2 py-1 text-[12.5px]">No warnings: no clipping, chatter, slew limiting or out-of-span input seen.</p>
+      )}
+
+      <table className="w-full border-collapse" data-testid="metrics">
+        <caption className="mb-1 text-left text-[11.5px] font-semibold uppercase tracking-wider text-ink-mute">Measured</caption>
+        <tbody>
+          {rows.map(([k, v, hint]) => (
+            <tr key={k} className="border-b border-paper-line/60 last:border-0" data-metric={k}>
+              <td className="py-[3px] pr-2 text-ink-soft" title={hint}>
+                {k}
+              </td>
+              <td className="py-[3px] text-right font-mono text-ink">{v}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {solver ? (
+        <p className="mt-2 text-[11px] text-ink-faint">
+          {solver.name} solver · {solver.steps.toLocaleString("en")} steps · {solver.wallMs.toFixed(0)} ms
+          {scenario ? ` · ${scenario.run.points.toLocaleString("en")} samples` : ""}
+        </p>
+      ) : null}
+    </div>
+  );
+}

@@ -1,0 +1,252 @@
+// The stage drawn from its numbers: a generated diagram (not an editor) in the Railwise style —
+// graphite wires, resistors as rounded bars with the value beneath, input in indigo, output in
+// copper, the reference as a moss tab. Pure SVG, server- and client-safe.
+import type { Scenario } from "@/lib/schemas/scenario";
+import { formatQuantity } from "@/lib/design/notation";
+import { STAGE_KIND_LABEL } from "@/components/scenario/stage-labels";
+
+const INK = "#3b4556";
+const MUTE = "#6b7587";
+const INDIGO = "#3b4fa8";
+const COPPER = "#b5562a";
+const MOSS = "#4d7a3a";
+
+type Pt = [number, number];
+
+function Wire({ pts, color = INK }: { pts: Pt[]; color?: string }) {
+  return <polyline points={pts.map((p) => p.join(",")).join(" ")} fill="none" stroke={color} strokeWidth={1.6} strokeLinejoin="round" />;
+}
+
+function Dot({ at }: { at: Pt }) {
+  return <circle cx={at[0]} cy={at[1]} r={3} fill={INK} />;
+}
+
+/** Horizontal or vertical resistor centred on `c`, 46 × 14, label and value outside it. */
+function Resistor({ c, vertical = false, role, ohms }: { c: Pt; vertical?: boolean; role: string; ohms: number }) {
+  const [x, y] = c;
+  const w = vertical ? 14 : 46;
+  const h = vertical ? 46 : 14;
+  const value = formatQuantity(ohms, "Ω", 3);
+  return (
+    <g data-role={role}>
+      <rect x={x - w / 2} y={y - h / 2} width={w} height={h} rx={4} fill="#eceee8" stroke={INK} strokeWidth={1.4} />
+      {vertical ? (
+        <>
+          <text x={x + 12} y={y - 3} fontSize={10} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
+            {role}
+          </text>
+          <text x={x + 12} y={y + 10} fontSize={11} fill={INK} fontFamily="var(--font-jb), monospace">
+            {value}
+          </text>
+        </>
+      ) : (
+        <>
+          <text x={x} y={y - 11} fontSize={10} fill={MUTE} textAnchor="middle" fontFamily="var(--font-plex), sans-serif">
+            {role}
+          </text>
+          <text x={x} y={y + 21} fontSize={11} fill={INK} textAnchor="middle" fontFamily="var(--font-jb), monospace">
+            {value}
+          </text>
+        </>
+      )}
+    </g>
+  );
+}
+
+function Capacitor({ c, farads }: { c: Pt; farads: number }) {
+  const [x, y] = c;
+  return (
+    <g data-role="cTiming">
+      <line x1={x - 11} y1={y - 4} x2={x + 11} y2={y - 4} stroke={INK} strokeWidth={2.4} />
+      <line x1={x - 11} y1={y + 4} x2={x + 11} y2={y + 4} stroke={INK} strokeWidth={2.4} />
+      <text x={x + 16} y={y - 2} fontSize={10} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
+        cTiming
+      </text>
+      <text x={x + 16} y={y + 11} fontSize={11} fill={INK} fontFamily="var(--font-jb), monospace">
+        {formatQuantity(farads, "F", 3)}
+      </text>
+    </g>
+  );
+}
+
+/** 0 V: a short bar with a shorter one below (our mark for the common return). */
+function Common({ at }: { at: Pt }) {
+  const [x, y] = at;
+  return (
+    <g>
+      <line x1={x - 10} y1={y} x2={x + 10} y2={y} stroke={INK} strokeWidth={1.8} />
+      <line x1={x - 5} y1={y + 4} x2={x + 5} y2={y + 4} stroke={INK} strokeWidth={1.8} />
+      <text x={x + 14} y={y + 4} fontSize={9} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
+        0 V
+      </text>
+    </g>
+  );
+}
+
+/** A terminal: open ring with a tag. `side` says where the tag goes. */
+function Terminal({ at, label, color, side }: { at: Pt; label: string; color: string; side: "left" | "right" | "below" }) {
+  const [x, y] = at;
+  const tx = side === "left" ? x - 8 : side === "right" ? x + 8 : x;
+  const ty = side === "below" ? y + 18 : y + 4;
+  const anchor = side === "left" ? "end" : side === "right" ? "start" : "middle";
+  return (
+    <g>
+      <circle cx={x} cy={y} r={4.5} fill="#fff" stroke={color} strokeWidth={2} />
+      <text x={tx} y={ty} fontSize={11} fontWeight={600} fill={color} textAnchor={anchor} fontFamily="var(--font-plex), sans-serif">
+        {label}
+      </text>
+    </g>
+  );
+}
+
+/** The reference: a moss tab carrying its voltage. */
+function Reference({ at, volts, side = "left" }: { at: Pt; volts: number; side?: "left" | "below" }) {
+  const [x, y] = at;
+  const text = `ref ${formatQuantity(volts, "V", 4)}`;
+  const w = 14 + text.length * 6.2;
+  const bx = side === "left" ? x - w : x - w / 2;
+  const by = side === "left" ? y - 9 : y + 2;
+  return (
+    <g data-role="reference">
+      <rect x={bx} y={by} width={w} height={18} rx={9} fill="#e2eddb" stroke={MOSS} strokeWidth={1.3} />
+      <text x={bx + w / 2} y={by + 12.5} fontSize={10.5} fill={MOSS} textAnchor="middle" fontFamily="var(--font-jb), monospace">
+        {text}
+      </text>
+    </g>
+  );
+}
+
+/** Op-amp body: left edge at x0 from y0−50 to y0+50, apex at x0+80; "−" pin above, "+" below. */
+function Amp({ x0, y0, supply }: { x0: number; y0: number; supply: Scenario["supply"] }) {
+  const apex: Pt = [x0 + 80, y0];
+  return (
+    <g>
+      <path d={`M${x0},${y0 - 50} L${apex[0]},${apex[1]} L${x0},${y0 + 50} Z`} fill="#fff" stroke={INK} strokeWidth={1.8} strokeLinejoin="round" />
+      <text x={x0 + 8} y={y0 - 21} fontSize={14} fill={INK} fontFamily="var(--font-jb), monospace">
+        −
+      </text>
+      <text x={x0 + 8} y={y0 + 31} fontSize={14} fill={INK} fontFamily="var(--font-jb), monospace">
+        +
+      </text>
+      <line x1={x0 + 40} y1={y0 - 30} x2={x0 + 40} y2={y0 - 44} stroke={MUTE} strokeWidth={1.2} />
+      <text x={x0 + 44} y={y0 - 42} fontSize={9.5} fill={MUTE} fontFamily="var(--font-jb), monospace">
+        {formatQuantity(supply.positive, "V", 3)}
+      </text>
+      <line x1={x0 + 40} y1={y0 + 30} x2={x0 + 40} y2={y0 + 44} stroke={MUTE} strokeWidth={1.2} />
+      <text x={x0 + 44} y={y0 + 50} fontSize={9.5} fill={MUTE} fontFamily="var(--font-jb), monospace">
+        {formatQuantity(supply.negative, "V", 3)}
+      </text>
+    </g>
+  );
+}
+
+export function StageDiagram({ scenario, className }: { scenario: Pick<Scenario, "stage" | "supply">; className?: string }) {
+  const st = scenario.stage;
+  const X0 = 290; // op-amp left edge
+  const Y0 = 122;
+  const NEG: Pt = [X0, Y0 - 25];
+  const POS: Pt = [X0, Y0 + 25];
+  const OUT: Pt = [X0 + 80, Y0];
+  const ON: Pt = [460, Y0]; // output node
+  const body: React.ReactNode[] = [];
+  const push = (n: React.ReactNode) => body.push(<g key={body.length}>{n}</g>);
+
+  // Output wire and terminal are common to every kind.
+  push(<Wire pts={[OUT, [530, Y0]]} color={COPPER} />);
+  push(<Terminal at={[534, Y0]} label="out" color={COPPER} side="below" />);
+
+  switch (st.kind) {
+    case "noninverting-amplifier": {
+      push(<Wire pts={[[40, POS[1]], POS]} color={INDIGO} />);
+      push(<Terminal at={[36, POS[1]]} label="in" color={INDIGO} side="below" />);
+      push(<Wire pts={[NEG, [240, NEG[1]], [240, 40], [ON[0], 40], ON]} />);
+      push(<Dot at={[240, NEG[1]]} />);
+      push(<Dot at={ON} />);
+      push(<Resistor c={[350, 40]} role="rFeedback" ohms={st.rFeedback} />);
+      push(<Wire pts={[[240, NEG[1]], [150, NEG[1]]]} />);
+      push(<Resistor c={[190, NEG[1]]} role="rGround" ohms={st.rGround} />);
+      push(<Reference at={[150, NEG[1]]} volts={st.reference} />);
+      break;
+    }
+    case "inverting-amplifier": {
+      push(<Wire pts={[[40, NEG[1]], [240, NEG[1]]]} color={INDIGO} />);
+      push(<Terminal at={[36, NEG[1]]} label="in" color={INDIGO} side="below" />);
+      push(<Resistor c={[150, NEG[1]]} role="rInput" ohms={st.rInput} />);
+      push(<Wire pts={[[240, NEG[1]], NEG]} />);
+      push(<Dot at={[240, NEG[1]]} />);
+      push(<Wire pts={[[240, NEG[1]], [240, 40], [ON[0], 40], ON]} />);
+      push(<Dot at={ON} />);
+      push(<Resistor c={[350, 40]} role="rFeedback" ohms={st.rFeedback} />);
+      push(<Wire pts={[POS, [240, POS[1]]]} />);
+      push(<Reference at={[240, POS[1]]} volts={st.reference} />);
+      break;
+    }
+    case "comparator": {
+      const inPin = st.inputAt === "inverting" ? NEG : POS;
+      const refPin = st.inputAt === "inverting" ? POS : NEG;
+      push(<Wire pts={[[40, inPin[1]], inPin]} color={INDIGO} />);
+      push(<Terminal at={[36, inPin[1]]} label="in" color={INDIGO} side="below" />);
+      push(<Wire pts={[refPin, [220, refPin[1]]]} />);
+      push(<Reference at={[220, refPin[1]]} volts={st.reference} />);
+      break;
+    }
+    case "schmitt-noninverting": {
+      push(<Wire pts={[[40, POS[1]], [240, POS[1]]]} color={INDIGO} />);
+      push(<Terminal at={[36, POS[1]]} label="in" color={INDIGO} side="below" />);
+      push(<Resistor c={[150, POS[1]]} role="rInput" ohms={st.rInput} />);
+      push(<Wire pts={[[240, POS[1]], POS]} />);
+      push(<Dot at={[240, POS[1]]} />);
+      push(<Wire pts={[[240, POS[1]], [240, 210], [ON[0], 210], ON]} />);
+      push(<Dot at={ON} />);
+      push(<Resistor c={[350, 210]} role="rFeedback" ohms={st.rFeedback} />);
+      push(<Wire pts={[NEG, [240, NEG[1]]]} />);
+      push(<Reference at={[240, NEG[1]]} volts={st.reference} />);
+      break;
+    }
+    case "schmitt-inverting":
+    case "relaxation-oscillator": {
+      if (st.kind === "schmitt-inverting") {
+        push(<Wire pts={[[40, NEG[1]], NEG]} color={INDIGO} />);
+        push(<Terminal at={[36, NEG[1]]} label="in" color={INDIGO} side="below" />);
+      } else {
+        // v− is the timing capacitor, charged from the output through rTiming.
+        push(<Wire pts={[NEG, [240, NEG[1]], [240, 40], [ON[0], 40], ON]} />);
+        push(<Resistor c={[350, 40]} role="rTiming" ohms={st.rTiming} />);
+        push(<Dot at={[240, NEG[1]]} />);
+        push(<Wire pts={[[240, NEG[1]], [80, NEG[1]], [80, 112]]} />);
+        push(<Capacitor c={[80, 116]} farads={st.cTiming} />);
+        push(<Wire pts={[[80, 120], [80, 140]]} />);
+        push(<Common at={[80, 140]} />);
+      }
+      push(<Wire pts={[POS, [240, POS[1]], [240, 210], [ON[0], 210], ON]} />);
+      push(<Dot at={[240, POS[1]]} />);
+      push(<Dot at={ON} />);
+      push(<Resistor c={[350, 210]} role="rFeedback" ohms={st.rFeedback} />);
+      push(<Wire pts={[[240, POS[1]], [150, POS[1]], [150, 175]]} />);
+      push(<Resistor c={[150, 197]} vertical role="rReference" ohms={st.rReference} />);
+      push(<Wire pts={[[150, 219], [150, 226]]} />);
+      push(<Reference at={[150, 226]} volts={st.reference} side="below" />);
+      break;
+    }
+  }
+
+  return (
+    <svg
+      viewBox="0 0 580 252"
+      role="img"
+      aria-label={`Diagram: ${STAGE_KIND_LABEL[st.kind]}`}
+      className={className}
+      data-testid="stage-diagram"
+      style={{ width: "100%", height: "auto", display: "block" }}
+    >
+      <defs>
+        <pattern id="rw-grid" width="10" height="10" patternUnits="userSpaceOnUse">
+          <path d="M10 0H0V10" fill="none" stroke="#eceee8" strokeWidth={0.6} />
+        </pattern>
+      </defs>
+      <rect x={0} y={0} width={580} height={252} fill="url(#rw-grid)" />
+      {body}
+      <Amp x0={X0} y0={Y0} supply={scenario.supply} />
+    </svg>
+  );
+}

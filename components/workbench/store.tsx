@@ -1,0 +1,198 @@
+"use client";
+// Workbench state: one zustand store per mounted workbench (context provider), edited through
+// immer. Waveforms (Float64Arrays, up to millions of samples) stay OUTSIDE immer state — immer
+// would walk and freeze them (immer#1190) — in a per-mount bank; the store holds only the key.
+import { createContext, useContext, useRef, type ReactNode } from "react";
+import { createStore, useStore, type StoreApi } from "zustand";
+import { immer } from "zustand/middleware/immer";
+import { useShallow } from "zustand/react/shallow";
+import type { Scenario } from "@/lib/schemas/scenario";
+import type { SimEvent, SimMetrics, SimResult, SolverStats } from "@/lib/sim/types";
+
+export type RunStatus = "idle" | "running" | "done" | "error" | "cancelled";
+export type SideTab = "stage" | "signal" | "spec";
+
+export interface ResultMeta {
+  rails: { high: number; low: number };
+  events: SimEvent[];
+  metrics: SimMetrics;
+  solver: SolverStats;
+  points: number;
+  inputMin: number;
+  inputMax: number;
+  /** Scenario the result was computed from (the draft may have moved on since). */
+  scenario: Scenario;
+  wallMs: number;
+}
+
+export interface WorkbenchState {
+  scenarioId: string;
+  version: number;
+  saved: Scenario;
+  draft: Scenario;
+  /** Name of the part profile last picked (overrides may have changed numbers since). */
+  partName: string | null;
+  status: RunStatus;
+  progress: number;
+  runError: string | null;
+  resultKey: number;
+  result: ResultMeta | null;
+  /** Sample index under the cursor, shared by the Trace and Loop plots. */
+  cursorIdx: number | null;
+  tab: SideTab;
+  notice: { tone: "ok" | "error"; text: string } | null;
+
+  edit: (recipe: (d: Scenario) => void) => void;
+  replaceDraft: (s: Scenario) => void;
+  markSaved: (s: Scenario, version: number) => void;
+  setPartName: (name: string | null) => void;
+  runStarted: () => void;
+  runProgress: (p: number) => void;
+  runFinished: (key: number, meta: ResultMeta) => void;
+  runFailed: (status: "error" | "cancelled", message: string | null) => void;
+  setCursor: (idx: number | null) => void;
+  setTab: (t: SideTab) => void;
+  setNotice: (n: WorkbenchState["notice"]) => void;
+}
+
+export interface WorkbenchInit {
+  scenarioId: string;
+  version: number;
+  scenario: Scenario;
+}
+
+export function createWorkbenchStore(init: WorkbenchInit) {
+  return createStore<WorkbenchState>()(
+    immer((set) => ({
+      scenarioId: init.scenarioId,
+      version: init.version,
+      saved: init.scenario,
+      draft: init.scenario,
+      partName: null,
+      status: "idle",
+      progress: 0,
+      runError: null,
+      resultKey: 0,
+      result: null,
+      cursorIdx: null,
+      tab: "stage",
+      notice: null,
+
+      edit: (recipe) =>
+        set((s) => {
+          recipe(s.draft as Scenario);
+        }),
+      replaceDraft: (sc) =>
+        set((s) => {
+          s.draft = sc;
+        }),
+      markSaved: (sc, version) =>
+        set((s) => {
+          s.saved = sc;
+          s.draft = sc;
+          s.version = version;
+        }),
+      setPartName: (name) =>
+        set((s) => {
+          s.partName = name;
+        }),
+      runStarted: () =>
+        set((s) => {
+          s.status = "running";
+          s.progress = 0;
+          s.runError = null;
+        }),
+      runProgress: (p) =>
+        set((s) => {
+          s.progress = p;
+        }),
+      runFinished: (key, meta) =>
+        set((s) => {
+          s.status = "done";
+          s.progress = 1;
+          s.resultKey = key;
+          // The meta holds small arrays (events) and plain numbers only; freezing it is cheap.
+          s.result = meta;
+          s.cursorIdx = null;
+        }),
+      runFailed: (status, message) =>
+        set((s) => {
+          s.status = status;
+          s.runError = message;
+        }),
+      setCursor: (idx) =>
+        set((s) => {
+          s.cursorIdx = idx;
+        }),
+      setTab: (t) =>
+        set((s) => {
+          s.tab = t;
+        }),
+      setNotice: (n) =>
+        set((s) => {
+          s.notice = n;
+        }),
+    })),
+  );
+}
+
+export type WorkbenchStore = ReturnType<typeof createWorkbenchStore>;
+
+/** Waveform buffers by result key, outside the store. */
+export class WaveformBank {
+  private items = new Map<number, SimResult>();
+  private next = 1;
+  put(result: SimResult): number {
+    // Keep only the latest run: old buffers can be tens of MB.
+    this.items.clear();
+    const key = this.next++;
+    this.items.set(key, result);
+    return key;
+  }
+  get(key: number): SimResult | undefined {
+    return this.items.get(key);
+  }
+}
+
+interface Ctx {
+  store: WorkbenchStore;
+  bank: WaveformBank;
+}
+
+const WorkbenchContext = createContext<Ctx | null>(null);
+
+export function WorkbenchProvider({ init, children }: { init: WorkbenchInit; children: ReactNode }) {
+  const ref = useRef<Ctx | null>(null);
+  if (ref.current === null) ref.current = { store: createWorkbenchStore(init), bank: new WaveformBank() };
+  return <WorkbenchContext.Provider value={ref.current}>{children}</WorkbenchContext.Provider>;
+}
+
+function useCtx(): Ctx {
+  const c = useContext(WorkbenchContext);
+  if (!c) throw new Error("Workbench components must be inside <WorkbenchProvider>");
+  return c;
+}
+
+export function useWb<T>(selector: (s: WorkbenchState) => T): T {
+  return useStore(useCtx().store, selector);
+}
+
+/** Object/array selectors: shallow-compared so a new object with equal fields does not re-render. */
+export function useWbShallow<T extends object>(selector: (s: WorkbenchState) => T): T {
+  return useStore(useCtx().store, useShallow(selector));
+}
+
+export function useWbApi(): StoreApi<WorkbenchState> {
+  return useCtx().store;
+}
+
+export function useBank(): WaveformBank {
+  return useCtx().bank;
+}
+
+/** The waveforms of the current result, or null. */
+export function useCurrentWaveforms(): SimResult | null {
+  const key = useWb((s) => s.resultKey);
+  const bank = useBank();
+  return key ? (bank.get(key) ?? null) : null;
+}

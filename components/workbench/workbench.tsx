@@ -1,0 +1,308 @@
+"use client";
+// The Workbench: the scenario screen for owners and designers. Left, the editor tabs (Stage,
+// Signal, From spec); right, the latest run (Trace, Loop, Readings); below, History and Runs.
+import Link from "next/link";
+import { useEffect, useMemo, useState } from "react";
+import { useSWRConfig } from "swr";
+import { downloadSamplesCsv } from "@/components/plots/export";
+import { LoadGate } from "@/components/ui/load-state";
+import { Badge } from "@/components/ui/badge";
+import { Button, buttonClasses } from "@/components/ui/button";
+import { SafetyCaution } from "@/components/safety-caution";
+import { ScenarioHeading } from "@/components/scenario/scenario-read-view";
+import { HttpError, errorMessage } from "@/lib/client/fetcher";
+import { runsKey, useBoard, useScenario, type ScenarioRecord } from "@/lib/client/hooks";
+import { parseScenario, scenarioSchema, describeIssues, type Scenario } from "@/lib/schemas/scenario";
+import { saveRun, saveScenario, scenarioKey, versionsKey } from "./api";
+import { Tabs } from "./controls";
+import { FromSpecPanel } from "./from-spec-panel";
+import { HistoryCard, RunsCard } from "./history-runs";
+import { LoopCard, ReadingsCard, TraceCard, slug } from "./result-panels";
+import { SignalPanel } from "./signal-panel";
+import { StagePanel } from "./stage-panel";
+import { WorkbenchProvider, useBank, useWb, useWbApi, type SideTab } from "./store";
+import { useRunner } from "./use-runner";
+
+/** Loads the scenario and mounts one workbench store for it. */
+export function ScenarioWorkbench({ scenarioId }: { scenarioId: string }) {
+  const { data, error, isLoading, mutate } = useScenario(scenarioId);
+  return (
+    <LoadGate notFoundTitle="Scenario not found" rows={8} data={data} error={error} isLoading={isLoading} onRetry={() => void mutate()}>
+      {(record) => <LoadedWorkbench record={record} />}
+    </LoadGate>
+  );
+}
+
+function LoadedWorkbench({ record }: { record: ScenarioRecord }) {
+  const init = useMemo(() => {
+    const parsed = scenarioSchema.safeParse(record.scenario);
+    return { scenarioId: record.id, version: record.version, scenario: parsed.success ? parsed.data : (record.scenario as Scenario) };
+    // The store is created once per mount; later SWR refreshes must not reset the editor.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [record.id]);
+  return (
+    <WorkbenchProvider init={init}>
+      <WorkbenchBody record={record} />
+    </WorkbenchProvider>
+  );
+}
+
+/** Full-bleed: the app shell caps pages at 1280 px, plots deserve the whole window. */
+const bleed = "relative w-[calc(100vw-2rem)] max-w-[1840px] left-1/2 -translate-x-1/2 sm:w-[calc(100vw-3rem)]";
+
+function WorkbenchBody({ record }: { record: ScenarioRecord }) {
+  const board = useBoard(record.boardId);
+  const tab = useWb((s) => s.tab);
+  const setTab = useWb((s) => s.setTab);
+  const name = useWb((s) => s.draft.name);
+  return (
+    <div className={bleed} data-testid="workbench">
+      <ScenarioHeading record={{ ...record, version: useWb((s) => s.version) }} boardName={board.data?.name} actions={<SummaryLink id={record.id} />} />
+      <SafetyCaution texts={[record.name, name, board.data?.name, board.data?.description]} className="mb-3" />
+      <RunBar />
+      <Notice />
+      <div className="mt-3 grid gap-3 lg:grid-cols-[minmax(360px,420px)_minmax(0,1fr)] 2xl:grid-cols-[440px_minmax(0,1fr)]">
+        <section className="min-w-0 self-start rounded-lg border border-paper-line bg-paper-card lg:sticky lg:top-3" aria-label="Editor">
+          <Tabs<SideTab>
+            label="Editor"
+            value={tab}
+            onChange={setTab}
+            tabs={[
+              { id: "stage", label: "Stage" },
+              { id: "signal", label: "Signal" },
+              { id: "spec", label: "From spec" },
+            ]}
+          />
+          <EditorTab />
+        </section>
+        <div className="grid min-w-0 content-start gap-3">
+          <TraceCard />
+          <div className="grid min-w-0 gap-3 xl:grid-cols-[minmax(0,1.15fr)_minmax(320px,1fr)]">
+            <LoopCard />
+            <ReadingsCard />
+          </div>
+          <div className="grid min-w-0 gap-3 xl:grid-cols-2">
+            <RunsCard action={<SaveRunControl />} />
+            <HistoryCard canEdit />
+          </div>
+        </div>
+      </div>
+    </div>
+  );
+}
+
+function EditorTab() {
+  const tab = useWb((s) => s.tab);
+  if (tab === "signal") return <SignalPanel />;
+  if (tab === "spec") return <FromSpecPanel />;
+  return <StagePanel />;
+}
+
+function SummaryLink({ id }: { id: string }) {
+  return (
+    <Link href={`/scenarios/${id}/summary`} className={buttonClasses("secondary", "sm")} target="_blank" rel="noopener">
+      Design summary
+    </Link>
+  );
+}
+
+function useDirty(): boolean {
+  const draft = useWb((s) => s.draft);
+  const saved = useWb((s) => s.saved);
+  return useMemo(() => draft !== saved && JSON.stringify(draft) !== JSON.stringify(saved), [draft, saved]);
+}
+
+function useSave() {
+  const api = useWbApi();
+  const { mutate } = useSWRConfig();
+  return async (): Promise<boolean> => {
+    const st = api.getState();
+    const parsed = scenarioSchema.safeParse(st.draft);
+    if (!parsed.success) {
+      st.setNotice({ tone: "error", text: `Not saved — ${describeIssues(parsed.error).join("; ")}` });
+      return false;
+    }
+    try {
+      const rec = await saveScenario(st.scenarioId, { scenario: parsed.data, baseVersion: st.version });
+      api.getState().markSaved(parseScenario(rec.scenario), rec.version);
+      await Promise.all([mutate(scenarioKey(st.scenarioId)), mutate(versionsKey(st.scenarioId))]);
+      api.getState().setNotice({ tone: "ok", text: `Saved as version ${rec.version}.` });
+      return true;
+    } catch (e) {
+      const conflict = e instanceof HttpError && e.status === 409;
+      api.getState().setNotice({
+        tone: "error",
+        text: conflict ? "Someone saved this scenario after you opened it. Reload to see their version (your edits stay here until you do)." : `Not saved — ${errorMessage(e)}`,
+      });
+      return false;
+    }
+  };
+}
+
+function RunBar() {
+  const { run, cancel } = useRunner();
+  const status = useWb((s) => s.status);
+  const progress = useWb((s) => s.progress);
+  const runError = useWb((s) => s.runError);
+  const result = useWb((s) => s.result);
+  const dirty = useDirty();
+  const save = useSave();
+  const [saving, setSaving] = useState(false);
+  const bank = useBank();
+  const resultKey = useWb((s) => s.resultKey);
+
+  // Ctrl+Enter / Cmd+Enter runs from anywhere on the page, fields included.
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      if (e.key === "Enter" && (e.ctrlKey || e.metaKey)) {
+        e.preventDefault();
+        (document.activeElement as HTMLElement | null)?.blur?.();
+        void run();
+      }
+      if (e.key === "Escape" && status === "running") cancel();
+    };
+    window.addEventListener("keydown", onKey);
+    return () => window.removeEventListener("keydown", onKey);
+  }, [run, cancel, status]);
+
+  const exportCsv = () => {
+    const wf = bank.get(resultKey);
+    if (!wf || !result) return;
+    downloadSamplesCsv(wf.t, wf.input, wf.output, `${slug(result.scenario.name ?? "scenario")}-samples.csv`);
+  };
+
+  const running = status === "running";
+  return (
+    <div className="flex flex-wrap items-center gap-2 rounded-lg border border-paper-line bg-paper-card px-3 py-2" data-testid="run-bar">
+      <Button variant="primary" size="sm" onClick={() => void run()} disabled={running} aria-keyshortcuts="Control+Enter" data-testid="run-button">
+        Run <kbd className="rounded bg-copper-deep/40 px-1 font-mono text-[10.5px]">Ctrl ↵</kbd>
+      </Button>
+      {running ? (
+        <Button size="sm" variant="secondary" onClick={cancel} data-testid="cancel-button">
+          Cancel
+        </Button>
+      ) : null}
+      <div className="flex min-w-[180px] flex-1 items-center gap-2">
+        <div
+          className="h-1.5 flex-1 overflow-hidden rounded-full bg-paper-sunk"
+          role="progressbar"
+          aria-label="Run progress"
+          aria-valuemin={0}
+          aria-valuemax={100}
+          aria-valuenow={Math.round(progress * 100)}
+        >
+          <div className={`h-full rounded-full ${status === "error" ? "bg-alert" : "bg-copper"}`} style={{ width: `${(running || status === "done" ? progress : 0) * 100}%` }} />
+        </div>
+        <span className="min-w-[11rem] text-[12px] text-ink-mute" data-testid="run-status">
+          {running
+            ? `Running… ${Math.round(progress * 100)} %`
+            : status === "done" && result
+              ? `Done in ${result.wallMs.toFixed(0)} ms · ${result.points.toLocaleString("en")} samples`
+              : status === "cancelled"
+                ? "Cancelled."
+                : status === "error"
+                  ? "Run failed."
+                  : "Not run yet."}
+        </span>
+      </div>
+      <span className="mx-1 h-5 w-px bg-paper-line" aria-hidden />
+      {dirty ? <Badge tone="caution">unsaved edits</Badge> : <Badge tone="moss">saved</Badge>}
+      <Button
+        size="sm"
+        variant="secondary"
+        disabled={!dirty || saving}
+        data-testid="save-button"
+        onClick={async () => {
+          setSaving(true);
+          await save();
+          setSaving(false);
+        }}
+      >
+        {saving ? "Saving…" : "Save"}
+      </Button>
+      <Button size="sm" variant="ghost" disabled={!result} onClick={exportCsv} title="Samples of the latest run as CSV">
+        CSV
+      </Button>
+      {runError ? <p className="basis-full text-[12.5px] text-alert" role="alert">{runError}</p> : null}
+    </div>
+  );
+}
+
+function SaveRunControl() {
+  const api = useWbApi();
+  const scenarioId = useWb((s) => s.scenarioId);
+  const dirty = useDirty();
+  const save = useSave();
+  const { mutate } = useSWRConfig();
+  const [label, setLabel] = useState("");
+  const [busy, setBusy] = useState(false);
+  return (
+    <form
+      className="flex items-center gap-1.5"
+      onSubmit={async (e) => {
+        e.preventDefault();
+        setBusy(true);
+        try {
+          if (dirty && !(await save())) return;
+          const rec = await saveRun(scenarioId, label.trim() || undefined);
+          await mutate(runsKey(scenarioId));
+          setLabel("");
+          api.getState().setNotice({ tone: "ok", text: `Run saved: /runs/${rec.id}` });
+        } catch (err) {
+          api.getState().setNotice({ tone: "error", text: `Run not saved — ${errorMessage(err)}` });
+        } finally {
+          setBusy(false);
+        }
+      }}
+    >
+      <input
+        aria-label="Run label"
+        placeholder="label (optional)"
+        value={label}
+        maxLength={120}
+        onChange={(e) => setLabel(e.target.value)}
+        className="h-7 w-40 rounded border border-paper-line bg-white px-2 text-[13px] outline-none focus:border-indigo"
+      />
+      <Button type="submit" size="sm" variant="primary" disabled={busy} data-testid="save-run-button" title={dirty ? "Saves your edits first, then the server re-runs and stores the scenario" : "The server re-runs the saved scenario and stores it"}>
+        {busy ? "Saving run…" : "Save run"}
+      </Button>
+    </form>
+  );
+}
+
+function Notice() {
+  const notice = useWb((s) => s.notice);
+  const setNotice = useWb((s) => s.setNotice);
+  useEffect(() => {
+    if (notice?.tone !== "ok") return;
+    const t = setTimeout(() => setNotice(null), 8000);
+    return () => clearTimeout(t);
+  }, [notice, setNotice]);
+  if (!notice) return null;
+  const runLink = notice.text.match(/\/runs\/([\w-]+)/);
+  return (
+    <div
+      role={notice.tone === "error" ? "alert" : "status"}
+      data-testid="workbench-notice"
+      className={`mt-2 flex items-start justify-between gap-3 rounded border-l-[3px] px-3 py-1.5 text-[13px] ${
+        notice.tone === "error" ? "border-alert bg-alert-soft/70" : "border-moss bg-moss-soft/70"
+      }`}
+    >
+      <span>
+        {runLink ? (
+          <>
+            Run saved.{" "}
+            <Link href={`/runs/${runLink[1]}`} className="font-medium text-copper-deep underline" data-testid="saved-run-link">
+              Open the run
+            </Link>
+          </>
+        ) : (
+          notice.text
+        )}
+      </span>
+      <button type="button" className="text-ink-mute hover:text-ink" onClick={() => setNotice(null)} aria-label="Dismiss">
+        ×
+      </button>
+    </div>
+  );
+}
