@@ -1,0 +1,56 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { Wordmark } from "@/components/layout/brand-mark";
+import { SharedRun } from "@/components/review/shared-run";
+import { AppError } from "@/lib/server/errors";
+import { runForLinkToken } from "@/lib/server/review";
+import type { RunRecord } from "@/lib/client/hooks";
+
+export const metadata: Metadata = { title: "Shared run", robots: { index: false, follow: false } };
+// Checked on every request: a revoked or expired link stops working at once.
+export const dynamic = "force-dynamic";
+
+// A run link: no session; shows that one run (plots, readings, scenario snapshot) and nothing else.
+export default async function SharedRunPage({ params }: { params: Promise<{ token: string }> }) {
+  const { token } = await params;
+  let run: RunRecord;
+  let expiresAt: string | null = null;
+  try {
+    const shared = await runForLinkToken({ token });
+    expiresAt = shared.link.expiresAt;
+    // Only the run itself crosses to the browser: no scenario or team ids, no author.
+    run = {
+      id: shared.id,
+      scenarioId: "",
+      label: shared.label,
+      createdAt: shared.createdAt,
+      createdBy: null,
+      scenario: shared.scenario as RunRecord["scenario"],
+      result: shared.result as RunRecord["result"],
+    };
+  } catch (err) {
+    // Unknown, revoked and expired links answer 404 (not-found.tsx beside this page says why
+    // in words); the API (/api/links/:token) tells revoked/expired apart with 410.
+    if (err instanceof AppError) notFound();
+    throw err;
+  }
+
+  return (
+    <div className="flex min-h-screen flex-col">
+      <header className="border-b border-paper-line bg-paper-card">
+        <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-2 px-4 py-2 sm:px-6">
+          <Wordmark />
+          <span className="text-[12px] text-ink-mute">
+            Read-only run link{expiresAt ? ` · valid until ${expiresAt.replace("T", " ").slice(0, 16)} UTC` : ""}
+          </span>
+        </div>
+      </header>
+      <main className="mx-auto w-full max-w-7xl flex-1 px-4 py-5 sm:px-6">
+        <SharedRun run={run} />
+      </main>
+      <footer className="mx-auto w-full max-w-7xl px-4 pb-5 text-[12px] text-ink-faint sm:px-6">
+        Railwise · behavioural simulation of op-amp stages; confirm on the bench before a board is built.
+      </footer>
+    </div>
+  );
+}

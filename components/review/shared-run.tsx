@@ -1,0 +1,9 @@
+"use client";
+
+import { RunView } from "@/components/run/run-view";
+import type { RunRecord } from "@/lib/client/hooks";
+
+/** The run behind a run link: RunView in its read-only "shared" mode, nothing else of the team. */
+export function SharedRun({ run }: { run: RunRecord }) {
+  return <RunView run={run} shared />;
+}
