@@ -15,6 +15,9 @@ export interface Conditions {
   offset: number;
   /** Open-loop gain A0 (V/V). */
   openLoopGain: number;
+  /** Output slew rates (V/s); when given, the oscillator's period includes the edges. */
+  slewRate?: number;
+  slewRateFall?: number;
 }
 
 export interface Figures {
@@ -36,14 +39,30 @@ export function outputSwing(opamp: OpAmp, supply: Supply): { high: number; low: 
 
 export function conditionsOf(opamp: OpAmp, supply: Supply): Conditions {
   const { high, low } = outputSwing(opamp, supply);
-  return { high, low, offset: opamp.inputOffset, openLoopGain: opamp.openLoopGain };
+  return {
+    high,
+    low,
+    offset: opamp.inputOffset,
+    openLoopGain: opamp.openLoopGain,
+    slewRate: opamp.slewRate,
+    slewRateFall: opamp.slewRateFall ?? opamp.slewRate,
+  };
 }
 
-/** Divider rTop from V+ to the node, rBottom from the node to V−, in Thevenin form. */
-export function thevenin(rTop: number, rBottom: number, supply: Supply): { voltage: number; resistance: number } {
-  const span = supply.positive - supply.negative;
+/**
+ * Divider rTop from its top end to the node, rBottom from the node to its bottom end, in Thevenin
+ * form. The ends default to the rails; in a split supply a divider may also run to 0 V.
+ */
+export function thevenin(
+  rTop: number,
+  rBottom: number,
+  supply: Supply,
+  ends: { top?: number; bottom?: number } = {},
+): { voltage: number; resistance: number } {
+  const top = ends.top ?? supply.positive;
+  const bottom = ends.bottom ?? supply.negative;
   return {
-    voltage: supply.negative + (span * rBottom) / (rTop + rBottom),
+    voltage: bottom + ((top - bottom) * rBottom) / (rTop + rBottom),
     resistance: (rTop * rBottom) / (rTop + rBottom),
   };
 }
@@ -66,6 +85,39 @@ export function oscillatorTiming(rc: number, upper: number, lower: number, high:
   if (!(lower > low && upper < high && upper > lower)) return null;
   const tHigh = rc * Math.log((high - lower) / (high - upper));
   const tLow = rc * Math.log((upper - low) / (lower - low));
+  return { tHigh, tLow, period: tHigh + tLow };
+}
+
+/**
+ * The same with slew-limited edges [derived: RC·dv/dt = vo − v solved for a linear output ramp,
+ * then the exponential of the settled half]: after the switch at VH the output ramps from Voh to
+ * Vol in te = (Voh − Vol)/SRfall while the capacitor follows; v(te) = Vol + s·τ + (VH − Voh − s·τ)·e^(−te/τ);
+ * then it decays from v(te) to VL. The rising half mirrors it.
+ */
+export function oscillatorTimingWithSlew(
+  rc: number,
+  upper: number,
+  lower: number,
+  high: number,
+  low: number,
+  slewRate: number,
+  slewRateFall: number,
+) {
+  if (!(lower > low && upper < high && upper > lower)) return null;
+  const swing = high - low;
+  // Falling half: starts at v = upper, output ramps down at slewRateFall.
+  const teF = swing / slewRateFall;
+  const sF = slewRateFall * rc;
+  const vF = low + sF + (upper - high - sF) * Math.exp(-teF / rc);
+  // Rising half: starts at v = lower, output ramps up at slewRate.
+  const teR = swing / slewRate;
+  const sR = slewRate * rc;
+  const vR = high - sR + (lower - low + sR) * Math.exp(-teR / rc);
+  // If the capacitor already crossed the far switching point during the edge, the closed form no
+  // longer holds (the stage is slew-dominated); fall back to the ideal timing.
+  if (!(vF > lower) || !(vR < upper)) return oscillatorTiming(rc, upper, lower, high, low);
+  const tLow = teF + rc * Math.log((vF - low) / (lower - low));
+  const tHigh = teR + rc * Math.log((high - vR) / (high - upper));
   return { tHigh, tLow, period: tHigh + tLow };
 }
 
@@ -102,7 +154,11 @@ export function stageFigures(stage: Stage, c: Conditions): Figures {
     }
     case "relaxation-oscillator": {
       const p = oscillatorSwitchingPoints(stage, c);
-      const timing = oscillatorTiming(stage.rTiming * stage.cTiming, p.upper, p.lower, c.high, c.low);
+      const rc = stage.rTiming * stage.cTiming;
+      const timing =
+        c.slewRate && c.slewRateFall
+          ? oscillatorTimingWithSlew(rc, p.upper, p.lower, c.high, c.low, c.slewRate, c.slewRateFall)
+          : oscillatorTiming(rc, p.upper, p.lower, c.high, c.low);
       if (!timing) return { ...NONE, frequency: 0, dutyCycle: null };
       return { ...NONE, frequency: 1 / timing.period, dutyCycle: timing.tHigh / timing.period };
     }
@@ -112,10 +168,13 @@ export function stageFigures(stage: Stage, c: Conditions): Figures {
 // ---------------------------------------------------------------------------------------------
 // Tolerance spread
 
-/** A reference divider from the rails that feeds the stage (its Thevenin form is in the stage). */
+/** A reference divider that feeds the stage (its Thevenin form is in the stage). */
 export interface ReferenceDivider {
   rTop: number;
   rBottom: number;
+  /** Voltages of the divider's ends; default the positive and negative supply. */
+  top?: number;
+  bottom?: number;
 }
 
 export interface SpreadOptions {
@@ -189,7 +248,7 @@ function spreadModel(stage: Stage, opamp: OpAmp, supply: Supply, tolerance: numb
     for (const role of RESISTOR_ROLES) if (role in w.r) st[role] = w.r[role];
     if (stage.kind === "relaxation-oscillator") st.cTiming = w.r.cTiming;
     if (divider) {
-      const th = thevenin(w.r.rTop, w.r.rBottom, supply);
+      const th = thevenin(w.r.rTop, w.r.rBottom, supply, divider);
       st.reference = th.voltage;
       if ("rReference" in stage) st.rReference = th.resistance;
     }
@@ -198,6 +257,8 @@ function spreadModel(stage: Stage, opamp: OpAmp, supply: Supply, tolerance: numb
       low: supply.negative + w.headroomLow,
       offset: w.offset,
       openLoopGain: opamp.openLoopGain,
+      slewRate: opamp.slewRate,
+      slewRateFall: opamp.slewRateFall ?? opamp.slewRate,
     });
   };
 

@@ -42,7 +42,12 @@ export interface DesignResult {
   achieved: { upperThreshold: number | null; lowerThreshold: number | null; gain: number | null; hysteresis: number | null; frequency: number | null; dutyCycle: number | null };
   worstCase: Record<FigureName, Interval | null>;
   errors: Partial<Record<FigureName, { target: number; achieved: number; deviation: number; relative: number }>>;
-  reference: { mode: "given" | "auto" | "ground"; voltage: number; divider?: { rTop: number; rBottom: number; theveninResistance: number } };
+  reference: {
+    mode: "given" | "auto" | "ground";
+    voltage: number;
+    /** rTop runs from `top` (V) to the reference node, rBottom from the node to `bottom` (V). */
+    divider?: { rTop: number; rBottom: number; top: number; bottom: number; theveninResistance: number };
+  };
   assumptions: { tolerance: number; capacitorTolerance?: number; inputOffset: number; headroomSpread: number; range: { min: number; max: number }; maxError: number };
   warnings: string[];
   monteCarlo?: MonteCarloResult;
@@ -59,6 +64,13 @@ const ROLE_NOTE: Record<Role, string> = {
   rTiming: "output to the capacitor node (inverting pin)",
   cTiming: "capacitor node to 0 V",
 };
+
+function noteOf(role: Role, divider: { top?: number; bottom?: number } | undefined, supply: { positive: number; negative: number }): string {
+  const name = (v: number) => (v === 0 ? "0 V" : v === supply.positive ? `the positive supply (${v} V)` : `the negative supply (${v} V)`);
+  if (role === "rTop" && divider) return `reference divider, ${name(divider.top ?? supply.positive)} to the reference node`;
+  if (role === "rBottom" && divider) return `reference divider, reference node to ${name(divider.bottom ?? supply.negative)}`;
+  return ROLE_NOTE[role];
+}
 
 /** Validate a spec (zod) and design it; throws DesignSpecError (bad fields) or DesignError (unreachable). */
 export function design(input: unknown): DesignResult {
@@ -85,7 +97,7 @@ export function design(input: unknown): DesignResult {
       series: isCap ? capSeries : spec.series,
       code: isCap ? formatQuantity(value, "F") : formatRkm(value),
       tolerance: isCap ? capacitorTolerance : tolerance,
-      note: ROLE_NOTE[role],
+      note: noteOf(role, best.divider, spec.supply),
     });
   }
 
@@ -157,7 +169,15 @@ export function design(input: unknown): DesignResult {
       mode: best.referenceMode,
       voltage: best.stage.reference,
       ...(best.divider
-        ? { divider: { ...best.divider, theveninResistance: (best.divider.rTop * best.divider.rBottom) / (best.divider.rTop + best.divider.rBottom) } }
+        ? {
+            divider: {
+              rTop: best.divider.rTop,
+              rBottom: best.divider.rBottom,
+              top: best.divider.top ?? spec.supply.positive,
+              bottom: best.divider.bottom ?? spec.supply.negative,
+              theveninResistance: (best.divider.rTop * best.divider.rBottom) / (best.divider.rTop + best.divider.rBottom),
+            },
+          }
         : {}),
     },
     assumptions: {

@@ -118,11 +118,32 @@ function pairsNear(ratio: number, ctx: SynthesisContext, limit = 24): [number, n
     .map(({ a, b }) => [a, b]);
 }
 
-/** Dividers rTop/rBottom from the rails whose Thevenin voltage is near `voltage`. */
+/**
+ * The ends a reference divider may use for a node voltage: the two rails, and in a split supply
+ * also 0 V and the rail on the voltage's side (far better ratio precision for a small voltage).
+ */
+export function dividerEnds(voltage: number, supply: Supply): { top: number; bottom: number }[] {
+  const ends = [{ top: supply.positive, bottom: supply.negative }];
+  if (supply.negative < 0 && supply.positive > 0) {
+    if (voltage > 0) ends.push({ top: supply.positive, bottom: 0 });
+    if (voltage < 0) ends.push({ top: 0, bottom: supply.negative });
+  }
+  return ends.filter((e) => voltage > e.bottom && voltage < e.top);
+}
+
+/** Dividers whose Thevenin voltage is near `voltage`, for every usable pair of ends. */
 function dividersNear(voltage: number, ctx: SynthesisContext, limit = 24): ReferenceDivider[] {
-  const { positive, negative } = ctx.supply;
-  const f = (voltage - negative) / (positive - negative);
-  return pairsNear((1 - f) / f, ctx, limit).map(([rTop, rBottom]) => ({ rTop, rBottom }));
+  const out: ReferenceDivider[] = [];
+  for (const { top, bottom } of dividerEnds(voltage, ctx.supply)) {
+    const f = (voltage - bottom) / (top - bottom);
+    for (const [rTop, rBottom] of pairsNear((1 - f) / f, ctx, limit)) out.push({ rTop, rBottom, top, bottom });
+  }
+  return out;
+}
+
+/** Thevenin form of a divider found by the search. */
+function theveninOf(d: ReferenceDivider, ctx: SynthesisContext) {
+  return thevenin(d.rTop, d.rBottom, ctx.supply, d);
 }
 
 function evaluate(
@@ -233,7 +254,7 @@ function comparator(ctx: SynthesisContext): Candidate {
   if (isGround(needed, ctx)) return evaluate(stageOf(0), {}, ctx, "ground");
   const best = pick(
     dividersNear(needed, ctx).map((d) => {
-      const th = thevenin(d.rTop, d.rBottom, ctx.supply);
+      const th = theveninOf(d, ctx);
       return evaluate(stageOf(th.voltage), { rTop: d.rTop, rBottom: d.rBottom }, ctx, "auto", d);
     }),
   );
@@ -272,7 +293,7 @@ function schmittNoninverting(ctx: SynthesisContext): Candidate {
       continue;
     }
     for (const d of dividersNear(need, ctx, 16)) {
-      const th = thevenin(d.rTop, d.rBottom, ctx.supply);
+      const th = theveninOf(d, ctx);
       cands.push(evaluate(stageOf(a, b, th.voltage), { rInput: a, rFeedback: b, rTop: d.rTop, rBottom: d.rBottom }, ctx, "auto", d));
     }
   }
@@ -314,18 +335,17 @@ function schmittInverting(ctx: SynthesisContext): Candidate {
   }
   // "auto": three resistors, rTop (V+ → node), rBottom (node → V−), rFeedback (output → node).
   requireReference(vth, "lowerThreshold", "upperThreshold", `thresholds ${L} V … ${U} V with output limits ${fmt(low)} V … ${fmt(high)} V`, ctx);
-  const { positive, negative } = ctx.supply;
-  const span = positive - negative;
   const { list } = ctx;
   let best: Candidate | null = null;
+  for (const { top, bottom } of dividerEnds(vth, ctx.supply))
   for (const rf of list) {
     const rth = rf * ratioIdeal;
-    const topIdeal = (rth * span) / (vth - negative);
-    const bottomIdeal = (rth * span) / (positive - vth);
+    const topIdeal = (rth * (top - bottom)) / (vth - bottom);
+    const bottomIdeal = (rth * (top - bottom)) / (top - vth);
     for (const i of around(topIdeal, list)) {
       for (const j of around(bottomIdeal, list)) {
-        const d = { rTop: list[i], rBottom: list[j] };
-        const th = thevenin(d.rTop, d.rBottom, ctx.supply);
+        const d = { rTop: list[i], rBottom: list[j], top, bottom };
+        const th = theveninOf(d, ctx);
         const c = evaluate(stageOf(th.resistance, rf, th.voltage), { rTop: d.rTop, rBottom: d.rBottom, rFeedback: rf }, ctx, "auto", d);
         if (Number.isFinite(c.error) && better(c, best)) best = c;
       }
@@ -368,7 +388,7 @@ function amplifier(ctx: SynthesisContext): Candidate {
   const dividers = isGround(mid, ctx) ? [null] : dividersNear(mid, ctx, 4);
   for (const [rF, rI] of pairs) {
     for (const d of dividers) {
-      const reference = d ? thevenin(d.rTop, d.rBottom, ctx.supply).voltage : 0;
+      const reference = d ? theveninOf(d, ctx).voltage : 0;
       const values = d ? { rInput: rI, rFeedback: rF, rTop: d.rTop, rBottom: d.rBottom } : { rInput: rI, rFeedback: rF };
       const c = evaluate({ kind: "inverting-amplifier", rInput: rI, rFeedback: rF, reference }, values, ctx, d ? "auto" : "ground", d ?? undefined);
       // The bias only has to be near the middle: rank by gain, then by how central the bias is.
@@ -431,7 +451,11 @@ function oscillator(ctx: SynthesisContext): Candidate {
     if (!Number.isFinite(dutyOf(k0, vth)) || Math.abs(dutyOf(k0, vth) - want) > 1e-6)
       throw new DesignError("duty", `duty ${want} is out of reach with the reference inside the supply`);
   }
-  if (ref !== "auto" || isGround(vth, ctx)) {
+  // Without a duty target, a split supply whose ideal reference is within 2 % of the span from
+  // 0 V (only the offset moves it) uses ground: two resistors fewer for a duty off by a hair.
+  const nearGround =
+    duty === undefined && negative < 0 && positive > 0 && Math.abs(vth) < 0.02 * (positive - negative);
+  if (ref !== "auto" || isGround(vth, ctx) || nearGround) {
     const fixed = ref === "auto" ? 0 : ref;
     let kIdeal = k0;
     if (duty !== undefined) {
@@ -446,14 +470,14 @@ function oscillator(ctx: SynthesisContext): Candidate {
       addNet({ stage: { kind: "relaxation-oscillator", rReference: a, rFeedback: b, reference: fixed }, values: { rReference: a, rFeedback: b }, mode: ref === "auto" ? "ground" : "given" });
     }
   } else {
-    const span = positive - negative;
     const { list } = ctx;
+    for (const { top, bottom } of dividerEnds(vth, ctx.supply))
     for (const rf of list) {
       const rth = (rf * k0) / (1 - k0);
-      for (const i of around((rth * span) / (vth - negative), list, 1)) {
-        for (const j of around((rth * span) / (positive - vth), list, 1)) {
-          const d = { rTop: list[i], rBottom: list[j] };
-          const th = thevenin(d.rTop, d.rBottom, ctx.supply);
+      for (const i of around((rth * (top - bottom)) / (vth - bottom), list, 1)) {
+        for (const j of around((rth * (top - bottom)) / (top - vth), list, 1)) {
+          const d = { rTop: list[i], rBottom: list[j], top, bottom };
+          const th = theveninOf(d, ctx);
           addNet({
             stage: { kind: "relaxation-oscillator", rReference: th.resistance, rFeedback: rf, reference: th.voltage },
             values: { rTop: d.rTop, rBottom: d.rBottom, rFeedback: rf },
@@ -477,12 +501,17 @@ function oscillator(ctx: SynthesisContext): Candidate {
   let fMax = 0;
   let best: Candidate | null = null;
   for (const { net } of shortlist) {
-    const p = stageFigures({ ...net.stage, rTiming: 1, cTiming: 1 }, ctx.cond);
-    const periodPerRc = 1 / p.frequency!;
+    const ideal = { ...ctx.cond, slewRate: undefined, slewRateFall: undefined };
+    const periodPerRc = 1 / stageFigures({ ...net.stage, rTiming: 1, cTiming: 1 }, ideal).frequency!;
+    // Slew-limited edges add a nearly constant time per period; correct the RC aim once for it.
+    const rc0 = 1 / (f * periodPerRc);
+    const withEdges = stageFigures({ ...net.stage, rTiming: rc0, cTiming: 1 }, ctx.cond).frequency;
+    const extra = withEdges ? 1 / withEdges - 1 / f : 0;
+    const rcAim = Math.max((1 / f - extra) / periodPerRc, rc0 * 1e-3);
     fMin = Math.min(fMin, 1 / (periodPerRc * list[list.length - 1] * caps[caps.length - 1]));
     fMax = Math.max(fMax, 1 / (periodPerRc * list[0] * caps[0]));
     for (const c of caps) {
-      const rIdeal = 1 / (f * c * periodPerRc);
+      const rIdeal = rcAim / c;
       for (const i of around(rIdeal, list)) {
         const stage: Stage = { ...net.stage, rTiming: list[i], cTiming: c };
         const cand = evaluate(stage, { ...net.values, rTiming: list[i], cTiming: c }, ctx, net.mode, net.divider);
