@@ -6,5 +6,6 @@ export * from "./noise-margin";
 export * from "./tolerance-spread";
 export * from "./capture-noise";
 export * from "./study";
+export * from "./grid";
 export * from "./saved";
 export * from "./corners";

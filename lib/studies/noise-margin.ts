@@ -11,6 +11,7 @@ import type { SimulateFn } from "@/lib/sim/types";
 import type { NoiseMarginConfig } from "./schema";
 import { taskSeed } from "./random";
 import { wilsonInterval } from "./stats";
+import { studyRunSettings } from "./grid";
 
 /** Rule of thumb: a deadband of at least 6.6 × rms keeps ~0.1 % of noise samples outside it
  * (REFERENCES.md, "Noise and hysteresis": erfc(6.6/(2√2)) = 0.097 %; common practice). */
@@ -21,11 +22,15 @@ export interface NoiseTaskOutput {
   hysteresis: number | null;
   upperThreshold: number | null;
   lowerThreshold: number | null;
+  /** The solver gave up on this run: left out of its level's count, and reported. */
+  failed?: true;
 }
 
 export interface NoiseLevelSummary {
   rms: number;
+  /** Seeds that ran to the end (failed runs are left out). */
   seeds: number;
+  failed: number;
   chattered: number;
   probability: number;
   low: number;
@@ -61,14 +66,21 @@ export function noiseLevels(config: NoiseMarginConfig): number[] {
 /** The scenario task `index` simulates: 0 = noise removed, else level-major, seed-minor. */
 export function noiseTaskScenario(scenario: Scenario, config: NoiseMarginConfig, index: number): Scenario {
   const { noise: _dropped, ...input } = scenario.input;
-  if (index === 0) return { ...scenario, input };
+  const run = studyRunSettings(scenario.run, false);
+  if (index === 0) return { ...scenario, input, run };
   const level = Math.floor((index - 1) / config.seedsPerLevel);
   const rms = noiseLevels(config)[level];
-  return { ...scenario, input: { ...input, noise: { rms, bandwidth: config.bandwidth, seed: taskSeed(config.seed, index) } } };
+  return { ...scenario, run, input: { ...input, noise: { rms, bandwidth: config.bandwidth, seed: taskSeed(config.seed, index) } } };
 }
 
 export function runNoiseTask(scenario: Scenario, config: NoiseMarginConfig, index: number, simulate: SimulateFn): NoiseTaskOutput {
-  const r = simulate(noiseTaskScenario(scenario, config, index), config.holdOff ? { holdOff: config.holdOff } : undefined);
+  let r;
+  try {
+    r = simulate(noiseTaskScenario(scenario, config, index), config.holdOff ? { holdOff: config.holdOff } : undefined);
+  } catch (err) {
+    if (!(err instanceof Error) || err.name === "SimCancelled" || index === 0) throw err;
+    return { transitions: 0, hysteresis: null, upperThreshold: null, lowerThreshold: null, failed: true };
+  }
   return {
     transitions: r.metrics.transitions,
     hysteresis: r.metrics.hysteresis,
@@ -78,6 +90,7 @@ export function runNoiseTask(scenario: Scenario, config: NoiseMarginConfig, inde
 }
 
 export function summarizeNoiseMargin(config: NoiseMarginConfig, tasks: readonly NoiseTaskOutput[]): NoiseMarginSummary {
+  if (tasks[0]?.failed) throw new Error("the noise-free reference run failed");
   if (tasks.length !== noiseTaskCount(config)) {
     throw new Error(`noise margin study expects ${noiseTaskCount(config)} task outputs, got ${tasks.length}`);
   }
@@ -86,9 +99,15 @@ export function summarizeNoiseMargin(config: NoiseMarginConfig, tasks: readonly 
   const S = config.seedsPerLevel;
   const levels: NoiseLevelSummary[] = rmsValues.map((rms, k) => {
     let chattered = 0;
-    for (let j = 0; j < S; j++) if (tasks[1 + k * S + j].transitions > reference.transitions) chattered++;
-    const { low, high } = wilsonInterval(chattered, S);
-    return { rms, seeds: S, chattered, probability: chattered / S, low, high };
+    let failed = 0;
+    for (let j = 0; j < S; j++) {
+      const t = tasks[1 + k * S + j];
+      if (t.failed) failed++;
+      else if (t.transitions > reference.transitions) chattered++;
+    }
+    const n = S - failed;
+    const { low, high } = wilsonInterval(chattered, n);
+    return { rms, seeds: n, failed, chattered, probability: n > 0 ? chattered / n : 0, low, high };
   });
   const largestUnder = (ok: (l: NoiseLevelSummary) => boolean): number | null => {
     let best: number | null = null;

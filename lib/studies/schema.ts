@@ -110,6 +110,8 @@ export const drawOutputSchema = z.object({
   lowerThreshold: nullableNumber,
   gain: nullableNumber,
   period: nullableNumber,
+  /** The solver gave up on this draw (counted and shown, never silently dropped). */
+  failed: z.literal(true).optional(),
 });
 export type DrawOutput = z.infer<typeof drawOutputSchema>;
 
@@ -119,6 +121,7 @@ export const noiseTaskOutputSchema = z.object({
   hysteresis: nullableNumber,
   upperThreshold: nullableNumber,
   lowerThreshold: nullableNumber,
+  failed: z.literal(true).optional(),
 });
 
 /**

@@ -6,6 +6,7 @@ import type { Scenario, Stage } from "@/lib/schemas/scenario";
 import type { SimResult, SimulateFn } from "@/lib/sim/types";
 import type { DrawOutput, Measure, ToleranceSpreadConfig } from "./schema";
 import { createStream, drawDeviation, taskSeed } from "./random";
+import { studyRunSettings } from "./grid";
 import { histogram, summarize, wilsonInterval, type Histogram, type Summary } from "./stats";
 
 /** Fixed draw order: a role absent from the stage still consumes its draw, so the stream of
@@ -79,6 +80,7 @@ export function toleranceTaskScenario(scenario: Scenario, config: ToleranceSprea
     };
     run = { ...run, initialOutput: outputFollowsInput(scenario.stage) ? "low" : "high" };
   }
+  run = studyRunSettings(run, config.measures.includes("gain"));
   return { ...scenario, stage: stage as Stage, opamp, input, run };
 }
 
@@ -104,7 +106,14 @@ export function measureGain(r: SimResult): number | null {
 }
 
 export function runToleranceTask(scenario: Scenario, config: ToleranceSpreadConfig, index: number, simulate: SimulateFn): DrawOutput {
-  const r = simulate(toleranceTaskScenario(scenario, config, index), config.holdOff ? { holdOff: config.holdOff } : undefined);
+  let r: SimResult;
+  try {
+    r = simulate(toleranceTaskScenario(scenario, config, index), config.holdOff ? { holdOff: config.holdOff } : undefined);
+  } catch (err) {
+    // A solver that gives up on one draw must not sink the study: count it, show it.
+    if (!(err instanceof Error) || err.name === "SimCancelled") throw err;
+    return { upperThreshold: null, lowerThreshold: null, gain: null, period: null, failed: true };
+  }
   const want = new Set<Measure>(config.measures);
   const m = r.metrics;
   return {
@@ -143,6 +152,8 @@ export interface MeasureSpread {
 
 export interface ToleranceSpreadSummary {
   draws: number;
+  /** Draws the solver gave up on (their figures count as missing). */
+  failed: number;
   measures: MeasureSpread[];
   /** Draws with every windowed figure measured and inside its window (null: no window set). */
   inside: number | null;
@@ -192,6 +203,7 @@ export function summarizeToleranceSpread(config: ToleranceSpreadConfig, tasks: r
   const ci = inside !== null ? wilsonInterval(inside, draws.length) : null;
   return {
     draws: draws.length,
+    failed: draws.filter((d) => d.failed).length,
     measures,
     inside,
     insideShare: inside !== null ? inside / draws.length : null,

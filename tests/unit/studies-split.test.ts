@@ -46,3 +46,33 @@ describe("results do not depend on the number of workers", () => {
     for (const w of [2, 5, 25]) expect(runSplit(request, w)).toEqual(one);
   });
 });
+
+describe("study tasks sample a coarse output grid", () => {
+  // Their figures come from located events, which must not depend on the output grid
+  // (DESIGN.md); check that on the tasks themselves against the scenario's own grid.
+  it("gives the same transitions and thresholds as the full grid", async () => {
+    const { noiseTaskScenario } = await import("@/lib/studies/noise-margin");
+    const { toleranceTaskScenario } = await import("@/lib/studies/tolerance-spread");
+    const noise = noiseMarginConfigSchema.parse({ kind: "noise-margin", seed: 3, rmsFrom: 0.02, rmsTo: 0.2, levels: 2, seedsPerLevel: 3, bandwidth: 500, limit: 0.01 });
+    const tol = toleranceSpreadConfigSchema.parse({
+      kind: "tolerance-spread", seed: 4, draws: 3, resistorTolerance: 0.05, offsetTolerance: 0.002, headroomSpread: 0.2,
+      distribution: "uniform", probe: { kind: "scenario" }, measures: ["upperThreshold", "lowerThreshold"],
+    });
+    for (let i = 0; i < 7; i++) {
+      const coarse = noiseTaskScenario(bilge, noise, i);
+      expect(coarse.run.points).toBe(257);
+      const a = simulate(coarse).metrics;
+      const b = simulate({ ...coarse, run: bilge.run }).metrics;
+      expect(a.transitions).toBe(b.transitions);
+      expect(a.upperThreshold).toBeCloseTo(b.upperThreshold as number, 9);
+      expect(a.lowerThreshold).toBeCloseTo(b.lowerThreshold as number, 9);
+    }
+    for (let i = 0; i < 4; i++) {
+      const coarse = toleranceTaskScenario(bilge, tol, i);
+      const a = simulate(coarse).metrics;
+      const b = simulate({ ...coarse, run: bilge.run }).metrics;
+      expect(a.upperThreshold).toBeCloseTo(b.upperThreshold as number, 9);
+      expect(a.lowerThreshold).toBeCloseTo(b.lowerThreshold as number, 9);
+    }
+  });
+});
