@@ -6,7 +6,7 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from "@/lib/demo/accounts";
 
 async function main() {
   const quiet = process.argv.includes("--quiet");
-  const skipSeed = process.argv.includes("--no-seed");
+  const skipSeed = process.argv.includes("--no-seed") || process.env.RAILWISE_HIDE_DEMO === "1";
   const sequelize = getSequelize();
   try {
     const applied = await migrate(sequelize);
@@ -15,7 +15,7 @@ async function main() {
       console.log(`database: ${databaseUrl()}`);
       console.log(`migrations applied: ${applied.length ? applied.join(", ") : "none pending"}`);
       console.log(`seed: ${report.created.length ? `${report.created.length} rows created` : "demo data already present"}`);
-      if (!skipSeed && process.env.NODE_ENV !== "production") {
+      if (!skipSeed) {
         console.log(`demo accounts (password "${DEMO_PASSWORD}"):`);
         for (const a of DEMO_ACCOUNTS) console.log(`  ${a.email.padEnd(30)} ${a.role.padEnd(9)} ${a.team}`);
       }
