@@ -493,6 +493,12 @@ export class ExactSolver {
     let regime = LINEAR;
     // Initial sides of the monitors
     for (let i = 0; i < 3; i++) this.sides[i] = vo >= levels[i] ? 1 : 0;
+    {
+      this.inputPiece(0);
+      const f0 = this.fLin(this.uAt0(), vo, vc);
+      const held = (vo >= this.Voh && f0 >= 0) || (vo <= this.Vol && f0 <= 0);
+      rec.startupDirection = held || f0 === 0 ? 0 : f0 > 0 ? 1 : -1;
+    }
     let guard = 0;
     const fastRail = !this.twoD && this.m === 0;
     while (t < T) {
@@ -592,6 +598,7 @@ export class ExactSolver {
         G[0] += this.de;
         this.monitor(G, MONITOR_VD, tx, t);
       }
+      if (rec.startupEnd === Infinity) this.startupCheck(regime, t);
       rec.flush();
 
       // Output samples inside the piece
@@ -600,11 +607,13 @@ export class ExactSolver {
         out[sample++] = v > this.Voh ? this.Voh : v < this.Vol ? this.Vol : v;
       }
 
-      // Clipping time and slew
+      // Clipping time and slew (the power-on transient does not count towards the slew rate)
       if (regime === RAIL_HIGH || regime === RAIL_LOW) rec.clippedTime += tx;
-      else if (regime === SLEW_UP) rec.maxSlew = Math.max(rec.maxSlew, this.SR);
-      else if (regime === SLEW_DOWN) rec.maxSlew = Math.max(rec.maxSlew, this.SRf);
-      else rec.maxSlew = Math.max(rec.maxSlew, this.maxAbs(F, tx, t));
+      else if (t + tx > rec.startupEnd) {
+        if (regime === SLEW_UP) rec.maxSlew = Math.max(rec.maxSlew, this.SR);
+        else if (regime === SLEW_DOWN) rec.maxSlew = Math.max(rec.maxSlew, this.SRf);
+        else rec.maxSlew = Math.max(rec.maxSlew, this.maxAbs(F, Math.max(0, rec.startupEnd - t), tx, t));
+      }
 
       // Advance
       let voN = this.valueAt(VO, tx);
@@ -636,12 +645,30 @@ export class ExactSolver {
     while (sample < ts.length) out[sample++] = vo;
   }
 
+  /** End the power-on transient when dvo/dt turns against its initial direction (see Recorder). */
+  private startupCheck(regime: number, t0: number): void {
+    const rec = this.p.recorder;
+    const dir = rec.startupDirection;
+    if (dir === 0 || regime === RAIL_HIGH || regime === RAIL_LOW) {
+      rec.startupEnd = t0;
+      return;
+    }
+    if (regime === SLEW_UP || regime === SLEW_DOWN) {
+      if ((regime === SLEW_UP ? 1 : -1) !== dir) rec.startupEnd = t0;
+      return;
+    }
+    const G = this.D; // scratch: −dir·F > 0 means moving back
+    for (let i = 0; i < this.nb; i++) G[i] = -dir * this.F[i];
+    const tau = this.firstExit(G, this.tx, t0);
+    if (tau === tau) rec.startupEnd = t0 + tau;
+  }
+
   /** max |c(τ)| over [0, tMax]: ends plus interior extrema located on the derivative. */
-  private maxAbs(c: Float64Array, tMax: number, t0: number): number {
-    let best = Math.max(Math.abs(this.valueAt(c, 0)), Math.abs(this.valueAt(c, tMax)));
+  private maxAbs(c: Float64Array, tMin: number, tMax: number, t0: number): number {
+    let best = Math.max(Math.abs(this.valueAt(c, tMin)), Math.abs(this.valueAt(c, tMax)));
     if (this.smooth) {
       const e = this.extremum(c, tMax);
-      if (e > 0) best = Math.max(best, Math.abs(this.valueAt(c, e)));
+      if (e > tMin) best = Math.max(best, Math.abs(this.valueAt(c, e)));
       if (e !== -1) return best;
     }
     // Derivative coefficients, then scan for its sign changes.
@@ -660,9 +687,9 @@ export class ExactSolver {
       D[4 + 2 * j] = -om * c[5 + 2 * j];
       D[5 + 2 * j] = om * c[4 + 2 * j];
     }
-    const chunk = Math.min(this.chunkFor(D, tMax), tMax / 4);
-    let a = 0;
-    let da = this.valueAt(D, 0);
+    const chunk = Math.min(this.chunkFor(D, tMax), (tMax - tMin) / 4);
+    let a = tMin;
+    let da = this.valueAt(D, tMin);
     while (a < tMax) {
       const b = Math.min(tMax, a + chunk);
       const db = this.valueAt(D, b);

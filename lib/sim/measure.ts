@@ -16,6 +16,17 @@ export class Recorder {
   readonly events: SimEvent[] = [];
   clippedTime = 0;
   maxSlew = 0;
+  /**
+   * End of the power-on transient: the output starts at the forced level (run.initialOutput)
+   * and the transient lasts while it keeps moving away from it, i.e. until dvo/dt first
+   * changes sign or the output is held at a rail. Edges before that are listed and counted as
+   * transitions, but they are not caused by the input, so thresholds, chatter, period and duty
+   * ignore them. Solvers set this before flushing the crossings of the piece where it happens.
+   */
+  startupEnd = Infinity;
+  /** Initial direction of the output (+1 up, −1 down, 0 none). */
+  startupDirection = 0;
+  startupEvents = 0;
 
   private lastL10Up = NaN;
   private lastL90Down = NaN;
@@ -94,6 +105,7 @@ export class Recorder {
         break;
       case LEVEL_MID: {
         this.events.push({ time, edge: rising ? "rising" : "falling", input: this.signal.valueAt(time) });
+        if (time < this.startupEnd) this.startupEvents++;
         if (rising) {
           this.riseStart = this.lastL10Up;
           this.fallStart = NaN;
@@ -135,7 +147,7 @@ export function finishMetrics(
   rec: Recorder,
   opts: { duration: number; holdOff: number; inverting: boolean; amplifier: boolean },
 ): SimMetrics {
-  const ev = rec.events;
+  const ev = rec.events.slice(rec.startupEvents);
   // Output edges caused by the input crossing upward: rising for non-inverting stages,
   // falling for inverting ones (DESIGN.md "Result JSON").
   const upEdge = opts.inverting ? "falling" : "rising";
@@ -166,7 +178,7 @@ export function finishMetrics(
     dutyCycle = high / (last - first);
   }
   return {
-    transitions: ev.length,
+    transitions: rec.events.length,
     upperThreshold: upper,
     lowerThreshold: lower,
     hysteresis: upper !== null && lower !== null ? upper - lower : null,

@@ -78,6 +78,11 @@ export function runOdex(p: OdexParams): OdexStats {
   const sides = new Uint8Array(4);
   for (let i = 0; i < 3; i++) sides[i] = p.vo0 >= levels[i] ? 1 : 0;
   sides[MONITOR_VD] = al * uSeen(0) + be * p.vo0 + ga * p.vc0 + de >= 0 ? 1 : 0;
+  {
+    const f0 = rate(0, p.vo0, p.vc0, uSeen(0));
+    rec.startupDirection = f0 > 0 ? 1 : f0 < 0 ? -1 : 0;
+    if (f0 === 0) rec.startupEnd = 0;
+  }
   const ts = p.sampleTimes;
   const out = p.output;
   let sample = 0;
@@ -104,6 +109,19 @@ export function runOdex(p: OdexParams): OdexStats {
     if (x <= xOld || !d) return;
     dense = d;
     steps++;
+    // End of the power-on transient (see Recorder): first subdivision point where dvo/dt
+    // no longer points away from the initial level.
+    if (rec.startupEnd === Infinity) {
+      for (let k = 1; k <= SUBDIVISIONS; k++) {
+        const b = k === SUBDIVISIONS ? x : xOld + ((x - xOld) * k) / SUBDIVISIONS;
+        const vb = d(0, b);
+        const rb = rate(b, vb, twoD ? d(1, b) : 0, uSeen(b));
+        if (rec.startupDirection === 0 || rb * rec.startupDirection <= 0) {
+          rec.startupEnd = b;
+          break;
+        }
+      }
+    }
     // Crossings of the output levels and of vd's sign, at SUBDIVISIONS points per step.
     for (let k = 1; k <= SUBDIVISIONS; k++) {
       const a = xOld + ((x - xOld) * (k - 1)) / SUBDIVISIONS;
@@ -125,9 +143,13 @@ export function runOdex(p: OdexParams): OdexStats {
       }
     }
     rec.flush();
-    while (sample < ts.length && ts[sample] <= x) out[sample++] = clampV(voAt(ts[sample]));
+    while (sample < ts.length && ts[sample] <= x) {
+      out[sample] = clampV(voAt(ts[sample]));
+      sample++;
+    }
     const r = Math.abs(rate(x, yy[0], twoD ? yy[1] : 0, uSeen(x)));
-    if (r > rec.maxSlew) rec.maxSlew = r;
+    if (r > rec.maxSlew && x > rec.startupEnd) rec.maxSlew = r;
+
     if (p.shouldCancel && (steps & 255) === 0 && p.shouldCancel()) throw new SimCancelled();
   };
 
