@@ -18,6 +18,8 @@ export interface Conditions {
   /** Output slew rates (V/s); when given, the oscillator's period includes the edges. */
   slewRate?: number;
   slewRateFall?: number;
+  /** Gain-bandwidth (Hz); when given with the slew rates, the regenerative start of each edge is included. */
+  gainBandwidth?: number;
 }
 
 export interface Figures {
@@ -46,6 +48,7 @@ export function conditionsOf(opamp: OpAmp, supply: Supply): Conditions {
     openLoopGain: opamp.openLoopGain,
     slewRate: opamp.slewRate,
     slewRateFall: opamp.slewRateFall ?? opamp.slewRate,
+    gainBandwidth: opamp.gainBandwidth,
   };
 }
 
@@ -89,10 +92,14 @@ export function oscillatorTiming(rc: number, upper: number, lower: number, high:
 }
 
 /**
- * The same with slew-limited edges [derived: RC·dv/dt = vo − v solved for a linear output ramp,
- * then the exponential of the settled half]: after the switch at VH the output ramps from Voh to
- * Vol in te = (Voh − Vol)/SRfall while the capacitor follows; v(te) = Vol + s·τ + (VH − Voh − s·τ)·e^(−te/τ);
- * then it decays from v(te) to VL. The rising half mirrors it.
+ * The same with real edges [derived from DESIGN.md's op-amp model, confirmed against lib/sim]:
+ * 1. Regenerative start: after v− crosses v+, vd = v+ − v− + Vos grows as e^(λt), λ = 2π·GBW·k
+ *    (positive feedback k), from the capacitor's slope c until 2π·GBW·|vd| reaches the slew rate
+ *    (|vd| = SR/(2π·GBW)): t1 = ln(1 + λ·vs/c)/λ, while the output moves Δ = (vs + c·t1)/k.
+ *    Treated as a pure delay t1 − Δ/SR of the ideal ramp.
+ * 2. Slew: the output ramps rail to rail in te = (Voh − Vol)/SR while RC·dv/dt = vo − v gives
+ *    v(te) = Vol + s·τ + (v0 − Voh − s·τ)·e^(−te/τ) (s = SR, τ = RC) for the falling half.
+ * 3. The settled exponential from v(te) to the other switching point. The rising half mirrors it.
  */
 export function oscillatorTimingWithSlew(
   rc: number,
@@ -102,22 +109,37 @@ export function oscillatorTimingWithSlew(
   low: number,
   slewRate: number,
   slewRateFall: number,
+  gainBandwidth?: number,
 ) {
   if (!(lower > low && upper < high && upper > lower)) return null;
   const swing = high - low;
-  // Falling half: starts at v = upper, output ramps down at slewRateFall.
+  const k = (upper - lower) / swing;
+  const startDelay = (slew: number, capSlope: number) => {
+    if (!gainBandwidth || !(capSlope > 0) || !(k > 0)) return 0;
+    const w = 2 * Math.PI * gainBandwidth;
+    const lambda = w * k;
+    const vs = slew / w;
+    const t1 = Math.log(1 + (lambda * vs) / capSlope) / lambda;
+    const moved = (vs + capSlope * t1) / k;
+    return Math.max(0, t1 - Math.min(moved, swing) / slew);
+  };
+  // Falling half: the switch at v = upper; the capacitor still charges toward Voh during the delay.
+  const dF = startDelay(slewRateFall, (high - upper) / rc);
+  const v0F = high - (high - upper) * Math.exp(-dF / rc);
   const teF = swing / slewRateFall;
   const sF = slewRateFall * rc;
-  const vF = low + sF + (upper - high - sF) * Math.exp(-teF / rc);
-  // Rising half: starts at v = lower, output ramps up at slewRate.
+  const vF = low + sF + (v0F - high - sF) * Math.exp(-teF / rc);
+  // Rising half: the switch at v = lower.
+  const dR = startDelay(slewRate, (lower - low) / rc);
+  const v0R = low + (lower - low) * Math.exp(-dR / rc);
   const teR = swing / slewRate;
   const sR = slewRate * rc;
-  const vR = high - sR + (lower - low + sR) * Math.exp(-teR / rc);
+  const vR = high - sR + (v0R - low + sR) * Math.exp(-teR / rc);
   // If the capacitor already crossed the far switching point during the edge, the closed form no
   // longer holds (the stage is slew-dominated); fall back to the ideal timing.
   if (!(vF > lower) || !(vR < upper)) return oscillatorTiming(rc, upper, lower, high, low);
-  const tLow = teF + rc * Math.log((vF - low) / (lower - low));
-  const tHigh = teR + rc * Math.log((high - vR) / (high - upper));
+  const tLow = dF + teF + rc * Math.log((vF - low) / (lower - low));
+  const tHigh = dR + teR + rc * Math.log((high - vR) / (high - upper));
   return { tHigh, tLow, period: tHigh + tLow };
 }
 
@@ -157,7 +179,7 @@ export function stageFigures(stage: Stage, c: Conditions): Figures {
       const rc = stage.rTiming * stage.cTiming;
       const timing =
         c.slewRate && c.slewRateFall
-          ? oscillatorTimingWithSlew(rc, p.upper, p.lower, c.high, c.low, c.slewRate, c.slewRateFall)
+          ? oscillatorTimingWithSlew(rc, p.upper, p.lower, c.high, c.low, c.slewRate, c.slewRateFall, c.gainBandwidth)
           : oscillatorTiming(rc, p.upper, p.lower, c.high, c.low);
       if (!timing) return { ...NONE, frequency: 0, dutyCycle: null };
       return { ...NONE, frequency: 1 / timing.period, dutyCycle: timing.tHigh / timing.period };
@@ -259,6 +281,7 @@ function spreadModel(stage: Stage, opamp: OpAmp, supply: Supply, tolerance: numb
       openLoopGain: opamp.openLoopGain,
       slewRate: opamp.slewRate,
       slewRateFall: opamp.slewRateFall ?? opamp.slewRate,
+      gainBandwidth: opamp.gainBandwidth,
     });
   };
 

@@ -406,6 +406,15 @@ function oscillator(ctx: SynthesisContext): Candidate {
   const { positive, negative } = ctx.supply;
   const ref = referenceSetting(ctx);
   const maxRatio = ctx.range.max / ctx.range.min;
+  // Slew-dominated stages are not relaxation oscillators any more: the closed form (and the
+  // stage) would be far off. Refuse when the two output edges fill more than 10 % of the period.
+  const edges = (high - low) / ctx.opamp.slewRate + (high - low) / (ctx.opamp.slewRateFall ?? ctx.opamp.slewRate);
+  if (edges * f > 0.1) {
+    throw new DesignError(
+      "frequency",
+      `at ${f} Hz the output edges (${fmt(edges * 1e6, 3)} µs per period at the part's slew rate) would fill ${fmt(100 * edges * f, 3)} % of the period (limit 10 %); choose a faster part profile or a frequency below ${fmt(0.1 / edges, 3)} Hz`,
+    );
+  }
 
   const dutyOf = (k: number, reference: number) => {
     const base = reference * (1 - k) + offset;
@@ -419,7 +428,8 @@ function oscillator(ctx: SynthesisContext): Candidate {
   const addNet = (net: Net) => {
     const d = dutyOf(net.stage.rReference / (net.stage.rReference + net.stage.rFeedback), net.stage.reference);
     if (!Number.isFinite(d)) return;
-    const dutyErr = duty === undefined ? 0 : Math.abs(d - duty) / duty;
+    // Without a duty target the network still aims at a square wave (duty 0.5).
+    const dutyErr = Math.abs(d - (duty ?? 0.5)) / (duty ?? 0.5);
     const k = net.stage.rReference / (net.stage.rReference + net.stage.rFeedback);
     nets.push({ net, dutyErr, pen: Math.abs(Math.log(k / OSCILLATOR_FEEDBACK_FRACTION)) });
   };

@@ -61,6 +61,7 @@ describe("npm run design", () => {
     ["negative tolerance", { ...BASE, tolerance: -0.01 }, /tolerance/],
     ["gain beyond the resistor range", { ...BASE, kind: "noninverting-amplifier", target: { gain: 5000 }, reference: 0 }, /gain: needs rFeedback\/rGround = 51\d\d(\.\d+)?, beyond what resistors/],
     ["frequency out of reach", { ...BASE, kind: "relaxation-oscillator", target: { frequency: 1e-4 } }, /frequency: .*outside what resistors/],
+    ["oscillator too fast for the slew rate", { ...BASE, kind: "relaxation-oscillator", target: { frequency: 20_000 } }, /frequency: at 20000 Hz the output edges .* fill 19\.\d+ % of the period/],
     ["wrong target for the kind", { ...BASE, target: { gain: 3 } }, /target\.gain does not apply to schmitt-inverting/],
     ["unknown series", { ...BASE, series: "E7" }, /series: series must be one of/],
     ["missing supply", { ...BASE, supply: undefined }, /supply/],

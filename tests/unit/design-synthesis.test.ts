@@ -107,6 +107,33 @@ describe("synthesis round trip through lib/sim (E24)", () => {
   }
 });
 
+describe("oscillator designs against the odex cross-check solver (slew and GBW included)", () => {
+  // odex (Gragg–Bulirsch–Stoer) is DESIGN.md's independent general solver; the oscillator is not
+  // stiff, so it serves as a second reference for the closed form with slew-limited edges.
+  const FAST: OpAmp = { openLoopGain: 1e5, gainBandwidth: 10e6, slewRate: 20e6, outputHeadroomHigh: 0.2, outputHeadroomLow: 0.2, inputOffset: 0.002 };
+  const cases: [string, DesignSpecInput][] = [
+    ["E192, 200 Hz, duty 0.3, 5 V", spec({ name: "", spec: { kind: "relaxation-oscillator", supply: SINGLE, series: "E192", target: { frequency: 200, duty: 0.3 } } })],
+    ["E24, 1 kHz, duty 0.3, ±5 V, fast part", spec({ name: "", spec: { kind: "relaxation-oscillator", supply: SPLIT, opamp: FAST, target: { frequency: 1000, duty: 0.3 } } })],
+    ["E24, 20 kHz, ±5 V, fast part", spec({ name: "", spec: { kind: "relaxation-oscillator", supply: SPLIT, opamp: FAST, target: { frequency: 20_000 } } })],
+    ["E24, 4 kHz, 5 V, edges 5 % of the period", spec({ name: "", spec: { kind: "relaxation-oscillator", supply: SINGLE, target: { frequency: 4000 } } })],
+  ];
+  for (const [name, s] of cases) {
+    it(name, () => {
+      const d = design(s);
+      expect(rel(d.achieved.frequency!, s.target.frequency!)).toBeLessThan(0.02);
+      const sc = parseScenario({
+        schema: "railwise.scenario/1", supply: s.supply, opamp: s.opamp, stage: d.stage,
+        input: { components: [{ kind: "dc", level: 0 }] },
+        run: { duration: 12 / d.achieved.frequency!, points: 4001, initialOutput: "high" },
+      });
+      const m = simulate(sc, { solver: "odex" }).metrics;
+      expect(m.period).not.toBeNull();
+      expect(rel(1 / m.period!, d.achieved.frequency!)).toBeLessThan(0.005);
+      expect(Math.abs(m.dutyCycle! - d.achieved.dutyCycle!)).toBeLessThan(0.005);
+    });
+  }
+});
+
 describe("sensor front ends into synthesis", () => {
   it("battery disconnect 11.4 V / 12.5 V through 100 k : 33 k, schmitt-noninverting on 5 V", () => {
     // DESIGN.md demo: cut at 11.4 V, reconnect at 12.5 V; voltage divider rule [published].
