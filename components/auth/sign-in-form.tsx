@@ -103,6 +103,7 @@ export function SignInForm({ callbackUrl, demoAccounts, demoPassword, initialErr
               <li key={a.email}>
                 <button
                   type="button"
+                  aria-label={`Use ${a.email} (${a.role}, ${a.team})`}
                   onClick={() => {
                     setEmail(a.email);
                     setPassword(demoPassword);

@@ -118,7 +118,7 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
                       {STAGE_KIND_SHORT[s.scenario.stage.kind] ?? s.scenario.stage.kind}
                     </Badge>
                   </TD>
-                  <TD className="font-mono whitespace-nowrap">{formatSupply(s.scenario.supply)}</TD>
+                  <TD className="whitespace-nowrap tabular-nums">{formatSupply(s.scenario.supply)}</TD>
                   <TD className="whitespace-nowrap">
                     <span title={formatDate(s.updatedAt)}>{formatRelative(s.updatedAt)}</span>
                     <span className="text-ink-mute"> · {personName(s.updatedBy)}</span>
@@ -132,7 +132,7 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
                       <Button size="sm" variant="ghost" onClick={() => setRenaming(s)} aria-label={`Rename ${s.name}`}>
                         Rename
                       </Button>
-                      <Button size="sm" variant="ghost" className="text-alert hover:text-alert" onClick={() => setDeleting(s)} aria-label={`Delete ${s.name}`}>
+                      <Button size="sm" variant="quiet-danger" onClick={() => setDeleting(s)} aria-label={`Delete ${s.name}`}>
                         Delete
                       </Button>
                     </TD>
@@ -182,12 +182,14 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
   );
 }
 
-/** "±5 V" for a symmetric pair, "+5 V" for a single supply, else "+12 V / −5 V". */
+/** "±5 V" for a symmetric pair, else "+5 V / 0 V", "+12 V / −5 V". */
 export function formatSupply(s: Supply): string {
-  const v = (x: number) => `${Number(x.toPrecision(4))}`;
-  if (s.negative === 0) return `+${v(s.positive)} V`;
-  if (s.negative === -s.positive) return `±${v(s.positive)} V`;
-  return `${s.positive >= 0 ? "+" : ""}${v(s.positive)} V / ${v(s.negative).replace("-", "−")} V`;
+  const v = (x: number) => {
+    const t = String(Number(x.toPrecision(4)));
+    return x > 0 ? `+${t}` : t.replace("-", "−");
+  };
+  if (s.negative < 0 && s.negative === -s.positive) return `±${String(Number(s.positive.toPrecision(4)))} V`;
+  return `${v(s.positive)} V / ${v(s.negative)} V`;
 }
 
 function DecisionBadge({ decision }: { decision?: LatestDecision | null }) {

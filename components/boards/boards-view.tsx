@@ -126,7 +126,7 @@ function NewBoardDialog({ open, onClose, onCreated }: { open: boolean; onClose: 
       onSubmit={create}
     >
       <Field label="Name" htmlFor="board-name">
-        <TextInput id="board-name" value={name} onChange={(e) => setName(e.target.value)} maxLength={200} autoFocus />
+        <TextInput id="board-name" value={name} onChange={(e) => setName(e.target.value)} maxLength={120} autoFocus />
       </Field>
       <Field label="Description" htmlFor="board-description" hint="Optional: what the board does and where it goes.">
         <TextArea id="board-description" value={description} onChange={(e) => setDescription(e.target.value)} maxLength={2000} rows={3} />

@@ -59,7 +59,7 @@ export function NewScenarioDialog({ open, boardId, existing, onClose, onCreated 
           id="scenario-name"
           value={name}
           onChange={(e) => setName(e.target.value)}
-          maxLength={200}
+          maxLength={120}
           placeholder="e.g. Pump dry-run cut-out"
           autoFocus
         />
@@ -108,6 +108,8 @@ export function RenameScenarioDialog({ target, onClose, onDone }: ScenarioTarget
       await sendJson<ScenarioRecord>(`/api/scenarios/${target.id}`, "PUT", {
         name: trimmed,
         scenario: { ...target.scenario, name: trimmed },
+        // Someone saved in between → 409 instead of silently overwriting their edit.
+        baseVersion: target.version,
       }),
     );
   }
@@ -115,7 +117,7 @@ export function RenameScenarioDialog({ target, onClose, onDone }: ScenarioTarget
   return (
     <FormDialog open={target !== null} onClose={onClose} size="sm" title="Rename scenario" submitLabel="Rename" busyLabel="Saving…" onSubmit={rename}>
       <Field label="Name" htmlFor="rename-name">
-        <TextInput id="rename-name" value={name} onChange={(e) => setName(e.target.value)} maxLength={200} autoFocus />
+        <TextInput id="rename-name" value={name} onChange={(e) => setName(e.target.value)} maxLength={120} autoFocus />
       </Field>
     </FormDialog>
   );

@@ -7,7 +7,7 @@ import { KeyValueTable, Table, TBody, TD, TH, THead, TR, type KeyValueRow } from
 import { Badge } from "@/components/ui/badge";
 import { formatQuantity, formatRkm } from "@/lib/design/notation";
 import type { InputComponent, Scenario, ScenarioInput } from "@/lib/schemas/scenario";
-import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL, STAGE_ROLE_ORDER, type StageRole } from "./stage-labels";
+import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL, STAGE_ROLE_ORDER, inputWhere, roleWhere, type StageRole } from "./stage-labels";
 
 const q = (v: number, unit: string, digits = 4) => formatQuantity(v, unit, digits);
 const volts = (v: number) => q(v, "V");
@@ -35,16 +35,17 @@ export function ScenarioTables({ scenario }: ScenarioTablesProps) {
 
 export function StageTable({ scenario }: ScenarioTablesProps) {
   const stage = scenario.stage as Record<string, unknown> & { kind: Scenario["stage"]["kind"] };
-  const rows: KeyValueRow[] = [];
+  const rows: KeyValueRow[] = [{ label: "Input enters", value: <span className="font-sans">{inputWhere(stage.kind, stage.inputAt === "inverting" ? "inverting" : "noninverting")}</span> }];
   for (const role of STAGE_ROLE_ORDER) {
     const v = stage[role];
     if (typeof v !== "number") continue;
-    rows.push({ label: <RoleLabel role={role} />, value: role === "cTiming" ? q(v, "F") : q(v, "Ω"), note: role === "cTiming" ? undefined : formatRkm(v) });
+    rows.push({
+      label: <RoleLabel role={role} where={roleWhere(stage.kind, role)} />,
+      value: role === "cTiming" ? q(v, "F") : q(v, "Ω"),
+      note: role === "cTiming" ? undefined : formatRkm(v),
+    });
   }
   rows.push({ label: "Reference", value: volts(typeof stage.reference === "number" ? stage.reference : 0) });
-  if (stage.kind === "comparator") {
-    rows.push({ label: "Input on", value: stage.inputAt === "inverting" ? "inverting pin (v−)" : "non-inverting pin (v+)" });
-  }
   const gain = idealGain(stage);
   if (gain !== null) rows.push({ label: "Ideal gain", value: `${Number(gain.toPrecision(4))} V/V`, note: "from the resistor ratio" });
   return (
@@ -54,11 +55,11 @@ export function StageTable({ scenario }: ScenarioTablesProps) {
   );
 }
 
-function RoleLabel({ role }: { role: StageRole }) {
-  const r = STAGE_ROLE_LABEL[role];
+function RoleLabel({ role, where }: { role: StageRole; where: string }) {
   return (
-    <span>
-      {r.name} <span className="text-[12px] text-ink-faint">{r.between}</span>
+    <span className="flex flex-col">
+      <span>{STAGE_ROLE_LABEL[role].name}</span>
+      <span className="text-[11px] leading-tight text-ink-faint">{where}</span>
     </span>
   );
 }
@@ -94,7 +95,8 @@ export function SupplyTable({ scenario }: ScenarioTablesProps) {
 export function PartProfileTable({ scenario }: ScenarioTablesProps) {
   const o = scenario.opamp;
   const rows: KeyValueRow[] = [
-    { label: "Open-loop gain", value: `${formatQuantity(o.openLoopGain, "V/V", 3)}`, note: `${(20 * Math.log10(o.openLoopGain)).toFixed(0)} dB` },
+    // Not "100 kV/V": a prefix on a ratio reads like kilovolts.
+    { label: "Open-loop gain", value: `${Math.round(o.openLoopGain).toLocaleString("en-US")} V/V`, note: `${(20 * Math.log10(o.openLoopGain)).toFixed(0)} dB` },
     { label: "Gain-bandwidth", value: q(o.gainBandwidth, "Hz") },
     { label: "Slew rate", value: `${num(o.slewRate / 1e6)} V/µs`, note: o.slewRateFall === undefined ? "both edges" : "rising" },
   ];

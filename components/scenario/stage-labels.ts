@@ -33,3 +33,34 @@ export const STAGE_ROLE_LABEL: Record<StageRole, { name: string; between: string
 };
 
 export const STAGE_ROLE_ORDER: StageRole[] = ["rInput", "rGround", "rReference", "rFeedback", "rTiming", "cTiming"];
+
+/** Exact position of a part in a given stage kind (DESIGN.md topologies), e.g. rFeedback of a Schmitt trigger: "output → v+". */
+export function roleWhere(kind: StageKind, role: StageRole): string {
+  const toPlus = kind === "schmitt-noninverting" || kind === "schmitt-inverting" || kind === "relaxation-oscillator";
+  switch (role) {
+    case "rFeedback":
+      return toPlus ? "output → v+" : "output → v−";
+    case "rInput":
+      return toPlus ? "input → v+" : "input → v−";
+    default:
+      return STAGE_ROLE_LABEL[role].between;
+  }
+}
+
+/** Where the input signal enters the stage, in words. */
+export function inputWhere(kind: StageKind, inputAt?: "noninverting" | "inverting"): string {
+  switch (kind) {
+    case "noninverting-amplifier":
+      return "v+ directly";
+    case "inverting-amplifier":
+      return "v− through R input";
+    case "comparator":
+      return inputAt === "inverting" ? "v− directly; reference on v+" : "v+ directly; reference on v−";
+    case "schmitt-noninverting":
+      return "v+ through R input; reference on v−";
+    case "schmitt-inverting":
+      return "v− directly";
+    case "relaxation-oscillator":
+      return "none: the stage runs by itself";
+  }
+}

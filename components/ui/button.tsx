@@ -2,7 +2,7 @@ import Link from "next/link";
 import type { ComponentProps } from "react";
 import { cx } from "./cx";
 
-export type ButtonVariant = "primary" | "secondary" | "ghost" | "danger";
+export type ButtonVariant = "primary" | "secondary" | "ghost" | "danger" | "quiet-danger";
 export type ButtonSize = "sm" | "md";
 
 const base =
@@ -14,6 +14,8 @@ const variants: Record<ButtonVariant, string> = {
   secondary: "bg-paper-card text-ink border border-paper-line hover:bg-paper-sunk",
   ghost: "text-ink-soft hover:bg-paper-sunk hover:text-ink",
   danger: "bg-paper-card text-alert border border-alert/40 hover:bg-alert-soft",
+  // Row actions such as Delete in a table: no border, red text.
+  "quiet-danger": "text-alert hover:bg-alert-soft",
 };
 
 const sizes: Record<ButtonSize, string> = {

@@ -121,7 +121,7 @@ export function FormDialog({
         </>
       }
     >
-      <form id={formId} onSubmit={submit} noValidate className="flex flex-col gap-3">
+      <form id={formId} onSubmit={submit} onChange={() => error && setError(null)} noValidate className="flex flex-col gap-3">
         {children}
         {error && (
           <p role="alert" className="rounded-md border border-alert/30 bg-alert-soft px-3 py-2 text-[13px] text-alert">

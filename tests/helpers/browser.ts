@@ -35,7 +35,8 @@ export async function signInPage(page: Page, url: string, email: string, passwor
   await page.locator("#password").fill(password);
   await Promise.all([
     page.waitForURL((u) => !u.pathname.startsWith("/signin"), { timeout: 30_000 }).catch(async (err) => {
-      const alert = await page.locator("[role=alert]").first().textContent().catch(() => null);
+      // Next renders an empty role=alert route announcer; the form's own alert is the one to read.
+      const alert = await page.locator("form [role=alert]").first().textContent({ timeout: 1000 }).catch(() => null);
       throw new Error(`sign-in as ${email} failed${alert ? `: ${alert}` : ""} (${String(err)})`);
     }),
     page.getByRole("button", { name: "Sign in", exact: true }).click(),
