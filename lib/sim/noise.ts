@@ -4,11 +4,11 @@
 // logarithm built from +, −, ×, ÷ only (IEEE 754 rounds those exactly): the same seed gives the
 // same samples bit for bit in Node, every browser and every worker.
 import { xoroshiro128plus } from "pure-rand/generator/xoroshiro128plus";
+import { uniformFloat64 } from "pure-rand/distribution/uniformFloat64";
 import type { Noise } from "@/lib/schemas/scenario";
 
 const SQRT_HALF = 0.7071067811865476;
 const LN2 = 0.6931471805599453;
-const TWO_POW_32 = 4294967296;
 
 /** Natural logarithm of x in (0, 1] with basic arithmetic only (deterministic everywhere). */
 export function portableLn(x: number): number {
@@ -39,9 +39,9 @@ export function fillStandardNormal(out: Float64Array, seed: number): Float64Arra
   const n = out.length;
   let i = 0;
   while (i < n) {
-    // Uniform in (−1, 1) from one 32-bit draw each (centre of the 2^32 cells, so never exactly 0 or ±1).
-    const u = (((rng.next() >>> 0) + 0.5) / TWO_POW_32) * 2 - 1;
-    const v = (((rng.next() >>> 0) + 0.5) / TWO_POW_32) * 2 - 1;
+    // Uniform in [−1, 1) with 53 random bits each (pure-rand's uniformFloat64).
+    const u = uniformFloat64(rng) * 2 - 1;
+    const v = uniformFloat64(rng) * 2 - 1;
     const s = u * u + v * v;
     if (s >= 1 || s === 0) continue;
     const f = Math.sqrt((-2 * portableLn(s)) / s);

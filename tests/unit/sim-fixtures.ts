@@ -16,6 +16,7 @@ export function scenario(partial: Record<string, unknown>): Scenario {
     schema: "railwise.scenario/1",
     supply: { positive: 5, negative: -5 },
     opamp: FAST_OPAMP,
+    stage: { kind: "comparator", reference: 0, inputAt: "noninverting" },
     input: { components: [{ kind: "dc", level: 0 }] },
     run: { duration: 1e-3, points: 1001 },
     ...partial,
