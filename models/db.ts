@@ -60,6 +60,21 @@ function applyPragmasOnEveryConnection(sequelize: Sequelize) {
   };
 }
 
+// SQLite has one writer at a time, and node-sqlite3 waits for a busy lock inside libuv's small
+// thread pool: many concurrent write transactions can fill the pool with waiters while the lock
+// holder cannot get a thread to commit (node-sqlite3#1039). Managed transactions of this process
+// therefore run one after another; reads outside transactions still run concurrently (WAL).
+function serializeManagedTransactions(sequelize: Sequelize) {
+  const original = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>;
+  let queue: Promise<unknown> = Promise.resolve();
+  (sequelize as unknown as { transaction: (...args: unknown[]) => Promise<unknown> }).transaction = (...args: unknown[]) => {
+    if (typeof args[args.length - 1] !== "function") return original(...args); // unmanaged: caller commits
+    const run = queue.then(() => original(...args));
+    queue = run.catch(() => undefined);
+    return run;
+  };
+}
+
 export function createSequelize(url = databaseUrl()): Sequelize {
   const common: Options = {
     logging: process.env.RAILWISE_SQL_LOG ? console.log : false,
@@ -81,6 +96,7 @@ export function createSequelize(url = databaseUrl()): Sequelize {
     pool: { max: 1, min: 0, idle: 10_000 },
   });
   applyPragmasOnEveryConnection(sequelize);
+  serializeManagedTransactions(sequelize);
   return sequelize;
 }
 

@@ -290,3 +290,24 @@ describe("runs", () => {
     await expectStatus(await as.designer.fetch("/api/runs"), 400);
   });
 });
+
+describe("concurrent saves", () => {
+  it("50 simultaneous saves of one scenario all land as versions, none lost", async () => {
+    const scenario = parseScenario(DEMO_SCENARIOS[0].scenario);
+    const created = await expectStatus(await as.designer.fetch("/api/scenarios", { method: "POST", ...json({ boardId, name: "Busy scenario", scenario }) }), 201);
+    const id = created.id as string;
+    const results = await Promise.all(
+      Array.from({ length: 50 }, (_, i) =>
+        (i % 2 ? as.designer : as.owner).fetch(`/api/scenarios/${id}`, { method: "PUT", ...json({ name: `Busy scenario ${i}` }) }),
+      ),
+    );
+    const statuses = await Promise.all(results.map(async (r) => (await r.text(), r.status)));
+    expect(statuses.filter((s) => s === 200)).toHaveLength(50);
+    const versions = (await expectStatus(await as.viewer.fetch(`/api/scenarios/${id}/versions`), 200)) as { items: { version: number; name: string }[] };
+    expect(versions.items).toHaveLength(51);
+    expect(new Set(versions.items.map((v) => v.version)).size).toBe(51);
+    expect(new Set(versions.items.map((v) => v.name)).size).toBe(51);
+    const final = await expectStatus(await as.viewer.fetch(`/api/scenarios/${id}`), 200);
+    expect(final.version).toBe(51);
+  });
+});
