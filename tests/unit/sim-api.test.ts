@@ -1,0 +1,93 @@
+import { describe, expect, it } from "vitest";
+import { checkRunBounds, outputLimits, resultToCsv, SimCancelled, simulate, toResultJson } from "@/lib/sim";
+import { scenario } from "./sim-fixtures";
+
+const schmitt = scenario({
+  supply: { positive: 12, negative: -12 },
+  opamp: { openLoopGain: 2e5, gainBandwidth: 1e6, slewRate: 1e6, outputHeadroomHigh: 1.5, outputHeadroomLow: 1, inputOffset: 0 },
+  stage: { kind: "schmitt-inverting", rReference: 10e3, rFeedback: 100e3, reference: 0 },
+  input: { components: [{ kind: "sine", amplitude: 3, frequency: 500 }] },
+  run: { duration: 0.004, points: 401 },
+});
+
+describe("sim API", () => {
+  it("outputLimits: Voh = V+ − headroomHigh, Vol = V− + headroomLow (DESIGN.md model)", () => {
+    expect(outputLimits(schmitt)).toEqual({ high: 10.5, low: -11 });
+  });
+
+  it("toResultJson follows railwise.result/1 and survives JSON", () => {
+    const r = simulate(schmitt);
+    const j = JSON.parse(JSON.stringify(toResultJson(r)));
+    expect(j.schema).toBe("railwise.result/1");
+    expect(j.rails).toEqual({ high: 10.5, low: -11 });
+    expect(j.samples.t[0]).toBe(0);
+    expect(j.samples.t[400]).toBe(0.004);
+    expect(j.samples.output).toHaveLength(401);
+    expect(Object.keys(j.metrics)).toEqual(
+      expect.arrayContaining(["transitions", "upperThreshold", "lowerThreshold", "hysteresis", "chatter", "clippedFraction", "maxSlewRate", "period", "dutyCycle"]),
+    );
+    expect(j.events[0]).toEqual({ time: expect.any(Number), edge: expect.stringMatching(/rising|falling/), input: expect.any(Number) });
+    expect(j.solver).toMatchObject({ name: "exact", steps: expect.any(Number), evaluations: expect.any(Number), wallMs: expect.any(Number) });
+    expect(resultToCsv(r).split("\n")[0]).toBe("t,input,output");
+  });
+
+  it("period and duty of a Schmitt trigger driven by a sine match the sine (common practice, no source)", () => {
+    const r = simulate(schmitt);
+    expect(r.metrics.period!).toBeCloseTo(0.002, 9);
+    expect(r.metrics.dutyCycle!).toBeCloseTo(0.5, 2);
+  });
+
+  it("a transport delay shifts every edge by exactly that delay and adds to the propagation delay", () => {
+    // Comparator with a propagation delay: the stage sees u(t − td) (see the developer notes).
+    const base = scenario({
+      stage: { kind: "comparator", reference: 0.3, inputAt: "noninverting" },
+      input: { components: [{ kind: "triangle", amplitude: 1, frequency: 1000 }] },
+      run: { duration: 0.003, points: 301 },
+    });
+    const td = 5e-6;
+    const a = simulate(base);
+    const b = simulate({ ...base, opamp: { ...base.opamp, propagationDelay: td } });
+    expect(b.events.length).toBe(a.events.length);
+    for (let i = 1; i < a.events.length; i++) expect(b.events[i].time - a.events[i].time).toBeCloseTo(td, 12);
+    expect(b.metrics.propagationDelay! - a.metrics.propagationDelay!).toBeCloseTo(td, 12);
+  });
+
+  it("chatter counts edges closer than the hold-off; the hold-off is settable", () => {
+    const noisy = scenario({
+      stage: { kind: "comparator", reference: 0, inputAt: "noninverting" },
+      input: { components: [{ kind: "triangle", amplitude: 1, frequency: 50 }], noise: { rms: 0.05, bandwidth: 1e5, seed: 1 } },
+      run: { duration: 0.04, points: 401 },
+    });
+    const r = simulate(noisy);
+    // default hold-off: min(1 % of the run, 1 % of the input period) = 0.2 ms
+    expect(r.metrics.holdOff).toBeCloseTo(2e-4, 15);
+    expect(r.metrics.chatter).toBeGreaterThan(0);
+    let expected = 0;
+    const ev = r.events.slice(1); // the first edge is the power-on edge
+    for (let i = 1; i < ev.length; i++) if (ev[i].time - ev[i - 1].time < 2e-4) expected++;
+    expect(r.metrics.chatter).toBe(expected);
+    expect(simulate(noisy, { holdOff: 1e-12 }).metrics.chatter).toBe(0);
+  });
+
+  it("shouldCancel aborts with SimCancelled", () => {
+    const long = scenario({
+      stage: { kind: "comparator", reference: 0, inputAt: "noninverting" },
+      input: { components: [{ kind: "dc", level: 0.5 }], noise: { rms: 0.01, bandwidth: 1e6, seed: 1 } },
+      run: { duration: 0.1, points: 101 },
+    });
+    expect(() => simulate(long, { shouldCancel: () => true })).toThrow(SimCancelled);
+  });
+
+  it("checkRunBounds explains in plain words what exceeds the server limits", () => {
+    expect(checkRunBounds(schmitt)).toEqual([]);
+    const big = scenario({
+      input: { components: [{ kind: "dc", level: 0 }], noise: { rms: 0.01, bandwidth: 1e8, seed: 1 } },
+      run: { duration: 1, points: 500_000, solver: "odex" },
+    });
+    const reasons = checkRunBounds(big);
+    expect(reasons.some((r) => /run\.points/.test(r) && /200,000/.test(r))).toBe(true);
+    expect(reasons.some((r) => /noise segments/.test(r))).toBe(true);
+    expect(reasons.some((r) => /odex/.test(r))).toBe(true);
+    expect(checkRunBounds(big, { maxPoints: 1_000_000, maxNoiseSegments: 1e9, maxOdexSegments: 1e10, maxOdexStiffness: 1e12 })).toEqual([]);
+  });
+});

@@ -1,0 +1,83 @@
+import { afterAll, describe, expect, it } from "vitest";
+import { spawnSync } from "node:child_process";
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+
+// `npm run simulate` (scripts/simulate.ts) spawned for real through tsx.
+const root = path.resolve(__dirname, "../..");
+const tsx = path.join(root, "node_modules/.bin/tsx");
+const dir = mkdtempSync(path.join(os.tmpdir(), "railwise-sim-cli-"));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const run = (args: string[], input?: string) =>
+  spawnSync(tsx, ["scripts/simulate.ts", ...args], { cwd: root, input, encoding: "utf8", timeout: 60_000 });
+
+const good = {
+  schema: "railwise.scenario/1",
+  supply: { positive: 5, negative: 0 },
+  opamp: { openLoopGain: 2e5, gainBandwidth: 1e6, slewRate: 1e6, outputHeadroomHigh: 0, outputHeadroomLow: 0, inputOffset: 0 },
+  stage: { kind: "schmitt-inverting", rReference: 50e3, rFeedback: 100e3, reference: 2.5 },
+  input: { components: [{ kind: "triangle", amplitude: 2.5, frequency: 100, offset: 2.5 }] },
+  run: { duration: 0.02, points: 101 },
+};
+
+describe("simulate CLI", { timeout: 120_000 }, () => {
+  it("prints railwise.result/1 JSON and writes the CSV", () => {
+    const file = path.join(dir, "good.json");
+    writeFileSync(file, JSON.stringify(good));
+    const csv = path.join(dir, "out.csv");
+    const r = run([file, "--csv", csv]);
+    expect(r.status).toBe(0);
+    const out = JSON.parse(r.stdout);
+    expect(out.schema).toBe("railwise.result/1");
+    expect(out.samples.t).toHaveLength(101);
+    // thresholds Vcc/3 and 2Vcc/3 for the three-equal-resistor network (REFERENCES.md [derived])
+    expect(out.metrics.upperThreshold).toBeCloseTo(10 / 3, 2);
+    expect(out.metrics.lowerThreshold).toBeCloseTo(5 / 3, 2);
+    const lines = readFileSync(csv, "utf8").trim().split("\n");
+    expect(lines[0]).toBe("t,input,output");
+    expect(lines).toHaveLength(102);
+    expect(lines[101].split(",").map(Number)).toEqual([0.02, out.samples.input[100], out.samples.output[100]]);
+  });
+
+  it("reads stdin with - and honours --solver odex", () => {
+    const r = run(["-", "--solver", "odex"], JSON.stringify(good));
+    expect(r.status).toBe(0);
+    expect(JSON.parse(r.stdout).solver.name).toBe("odex");
+  });
+
+  it("rejects a bad scenario naming each field, exits non-zero and writes nothing", () => {
+    const bad = {
+      ...good,
+      supply: { positive: 5, negative: 6 },
+      opamp: { ...good.opamp, slewRate: -1 },
+      stage: { ...good.stage, rFeedback: 0 },
+      run: { duration: 0.02, points: 1 },
+    };
+    const file = path.join(dir, "bad.json");
+    writeFileSync(file, JSON.stringify(bad));
+    const csv = path.join(dir, "bad.csv");
+    const r = run([file, "--csv", csv]);
+    expect(r.status).not.toBe(0);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toContain("supply.positive");
+    expect(r.stderr).toContain("opamp.slewRate");
+    expect(r.stderr).toContain("stage.rFeedback");
+    expect(r.stderr).toContain("run.points");
+    expect(r.stderr).not.toMatch(/at .*\.ts:\d+/); // no stack trace
+    expect(existsSync(csv)).toBe(false);
+  });
+
+  it("rejects broken JSON, a missing file and an unknown solver", () => {
+    const broken = run(["-"], "{ not json");
+    expect(broken.status).not.toBe(0);
+    expect(broken.stderr).toMatch(/not valid JSON/);
+    const missing = run([path.join(dir, "nope.json")]);
+    expect(missing.status).not.toBe(0);
+    expect(missing.stderr).toMatch(/cannot read/);
+    const solver = run(["-", "--solver", "euler"], JSON.stringify(good));
+    expect(solver.status).not.toBe(0);
+    expect(solver.stderr).toMatch(/--solver/);
+  });
+});
