@@ -50,6 +50,8 @@ export interface DesignResult {
   };
   assumptions: { tolerance: number; capacitorTolerance?: number; inputOffset: number; headroomSpread: number; range: { min: number; max: number }; maxError: number };
   warnings: string[];
+  /** How the spec was read (e.g. an inverting gain given as a magnitude). */
+  notes: string[];
   monteCarlo?: MonteCarloResult;
 }
 
@@ -115,6 +117,11 @@ export function design(input: unknown): DesignResult {
   }
 
   const warnings = [...ctx.warnings];
+  const notes: string[] = [];
+  if (spec.kind === "inverting-amplifier" && spec.target.gain! > 0)
+    notes.push(`target.gain ${spec.target.gain} read as the magnitude of an inverting gain: vo/vin = −${spec.target.gain}`);
+  if (spec.kind === "relaxation-oscillator")
+    notes.push("the duty cycle is set by the reference: it moves the switching points off the centre of the output swing (reference \"auto\" solves it); thresholds here are null, the capacitor switching points are internal");
   for (const [name, e] of Object.entries(errors)) {
     if (Math.abs(e.relative) > ctx.maxError)
       warnings.push(`${name}: the best ${spec.series} combination is ${(100 * Math.abs(e.relative)).toFixed(2)} % off the target (maxError ${(100 * ctx.maxError).toFixed(2)} %); a finer series would come closer`);
@@ -189,6 +196,7 @@ export function design(input: unknown): DesignResult {
       maxError: ctx.maxError,
     },
     warnings,
+    notes,
     ...(mc ? { monteCarlo: mc } : {}),
   };
 }

@@ -473,7 +473,16 @@ function oscillator(ctx: SynthesisContext): Candidate {
         const d = dutyOf(r / (1 + r), fixed);
         return Number.isFinite(d) ? Math.abs(d - duty) / duty : Infinity;
       }, 1 / maxRatio, maxRatio);
-      requireConsistent(cont.value, "duty", `with reference ${fixed} V this duty cannot be reached`, ctx);
+      // Duty is set only by moving the switching points off the swing's centre (the reference).
+      const centred = Math.abs(fixed + offset - (high + low) / 2) < 1e-3 * (high - low);
+      requireConsistent(
+        cont.value,
+        "duty",
+        centred
+          ? `reference ${fixed} V sits at the centre of the output swing, so the duty stays at 0.5 whatever the resistor ratio (duty moves only when the reference moves the switching points off-centre)`
+          : `with reference ${fixed} V this duty cannot be reached for any resistor ratio`,
+        ctx,
+      );
       kIdeal = cont.x / (1 + cont.x);
     }
     for (const [a, b] of pairsNear(kIdeal / (1 - kIdeal), ctx, 40)) {

@@ -62,6 +62,7 @@ describe("npm run design", () => {
     ["gain beyond the resistor range", { ...BASE, kind: "noninverting-amplifier", target: { gain: 5000 }, reference: 0 }, /gain: needs rFeedback\/rGround = 51\d\d(\.\d+)?, beyond what resistors/],
     ["frequency out of reach", { ...BASE, kind: "relaxation-oscillator", target: { frequency: 1e-4 } }, /frequency: .*outside what resistors/],
     ["oscillator too fast for the slew rate", { ...BASE, kind: "relaxation-oscillator", target: { frequency: 20_000 } }, /frequency: at 20000 Hz the output edges .* fill 19\.\d+ % of the period/],
+    ["duty with a centred fixed reference", { ...BASE, kind: "relaxation-oscillator", supply: { positive: 5, negative: -5 }, opamp: { ...BASE.opamp, inputOffset: 0 }, reference: 0, target: { frequency: 100, duty: 0.3 } }, /duty: reference 0 V sits at the centre of the output swing, so the duty stays at 0\.5/],
     ["wrong target for the kind", { ...BASE, target: { gain: 3 } }, /target\.gain does not apply to schmitt-inverting/],
     ["unknown series", { ...BASE, series: "E7" }, /series: series must be one of/],
     ["missing supply", { ...BASE, supply: undefined }, /supply/],

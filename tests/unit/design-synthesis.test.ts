@@ -219,6 +219,18 @@ describe("closed forms against REFERENCES.md", () => {
   });
 });
 
+describe("inverting gain sign (documented choice: −10 and 10 both mean vo/vin = −10)", () => {
+  it("gives the same parts and a negative achieved gain either way, noting the magnitude reading", () => {
+    const neg = design(spec({ name: "", spec: { kind: "inverting-amplifier", supply: SPLIT, target: { gain: -10 } } }));
+    const pos = design(spec({ name: "", spec: { kind: "inverting-amplifier", supply: SPLIT, target: { gain: 10 } } }));
+    expect(pos.parts).toEqual(neg.parts);
+    expect(pos.achieved.gain).toBeLessThan(0);
+    expect(pos.achieved.gain).toBeCloseTo(-10, 2);
+    expect(pos.notes.join(" ")).toMatch(/magnitude of an inverting gain/);
+    expect(neg.notes).toEqual([]);
+  });
+});
+
 describe("search quality", () => {
   it("finds the same smallest worst error as an exhaustive E24 search (three resistors, 1 k–10 k)", () => {
     // Exhaustive reference search, common practice, no source.
