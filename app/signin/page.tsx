@@ -61,7 +61,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
       </aside>
 
       <main className="flex items-start justify-center px-4 py-8 sm:px-8 lg:items-center">
-        <div className="w-full max-w-sm">
+        <div className="w-full max-w-[26rem]">
           <h2 className="text-lg font-semibold text-ink">Sign in to your team</h2>
           <p className="mb-5 mt-1 text-[13px] text-ink-mute">Use the e-mail your team owner invited.</p>
           <SignInForm

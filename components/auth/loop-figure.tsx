@@ -1,6 +1,6 @@
 /**
  * A drawn transfer loop (output against input) of a hysteresis trigger, labelled with the
- * battery-disconnect demo's switching points. Decorative: the numbers are the demo's design targets.
+ * battery-disconnect demo's switching points. Decorative.
  */
 export function LoopFigure({ className }: { className?: string }) {
   // Input axis 10.5…13.5 V → x 40…300; output low/high → y 150/40.
@@ -10,7 +10,7 @@ export function LoopFigure({ className }: { className?: string }) {
   const upper = x(12.5);
   const lower = x(11.4);
   return (
-    <svg viewBox="0 0 320 190" className={className} role="img" aria-label="Hysteresis loop: the output switches high above 12.5 V and low again below 11.4 V">
+    <svg viewBox="0 0 320 190" className={className} role="img" aria-label="Hysteresis loop: the output switches high as the input rises past 12.5 V and low again as it falls below 11.4 V">
       <g stroke="#d9ddd3" strokeWidth="1">
         {[11, 11.5, 12, 12.5, 13].map((v) => (
           <line key={v} x1={x(v)} y1="28" x2={x(v)} y2="160" />
@@ -49,7 +49,7 @@ export function LoopFigure({ className }: { className?: string }) {
       </g>
       <g fontFamily="var(--font-plex), sans-serif" fontSize="10" fill="#6b7587">
         <text x={(lower + upper) / 2} y="22" textAnchor="middle">deadband</text>
-        <text x="300" y="188" textAnchor="end">battery voltage →</text>
+        <text x="300" y="188" textAnchor="end">input →</text>
       </g>
     </svg>
   );

@@ -109,11 +109,15 @@ export function SignInForm({ callbackUrl, demoAccounts, demoPassword, initialErr
                     setPassword(demoPassword);
                     setError(null);
                   }}
-                  className="flex w-full items-center gap-2 rounded px-1.5 py-1.5 text-left hover:bg-paper-sunk"
+                  className="flex w-full items-center gap-2.5 rounded px-1.5 py-1.5 text-left hover:bg-paper-sunk"
                 >
-                  <RoleBadge role={a.role} className="w-[4.6rem] justify-center" />
-                  <span className="min-w-0 flex-1 truncate font-mono text-[12px] text-ink">{a.email}</span>
-                  <span className="hidden truncate text-[12px] text-ink-mute sm:inline">{a.team}</span>
+                  <RoleBadge role={a.role} className="w-[4.6rem] shrink-0 justify-center" />
+                  <span className="flex min-w-0 flex-col">
+                    <span className="truncate font-mono text-[12px] text-ink">{a.email}</span>
+                    <span className="truncate text-[11px] text-ink-mute">
+                      {a.name} · {a.team}
+                    </span>
+                  </span>
                 </button>
               </li>
             ))}

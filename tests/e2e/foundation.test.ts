@@ -193,3 +193,22 @@ async function resistorShown(page: Page, ohms: number): Promise<boolean> {
   const values = await page.locator("main input").evaluateAll((els) => els.map((e) => (e as HTMLInputElement).value));
   return values.some((v) => parseQuantity(v) === ohms);
 }
+
+describe("a deployment that hides the demo accounts (RAILWISE_HIDE_DEMO=1)", () => {
+  let hidden: TestServer;
+  beforeAll(async () => {
+    hidden = await startServer({ env: { RAILWISE_HIDE_DEMO: "1" } });
+  });
+  afterAll(async () => {
+    await hidden?.stop();
+  });
+
+  it("shows the sign-in form without the demo list or password", async () => {
+    const { context, page } = await newPage();
+    await page.goto(`${hidden.url}/signin`);
+    await page.locator("#email").waitFor();
+    await expect(page.getByTestId("demo-accounts").count()).resolves.toBe(0);
+    await expect(page.locator("body").innerText()).resolves.not.toContain("railwise-demo");
+    await context.close();
+  });
+});
