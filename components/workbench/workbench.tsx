@@ -22,6 +22,7 @@ import { SignalPanel } from "./signal-panel";
 import { StagePanel } from "./stage-panel";
 import { WorkbenchProvider, useBank, useWb, useWbApi, type SideTab } from "./store";
 import { useRunner } from "./use-runner";
+import { WorkbenchStudies } from "@/components/studies/workbench-studies";
 
 /** Loads the scenario and mounts one workbench store for it. */
 export function ScenarioWorkbench({ scenarioId }: { scenarioId: string }) {
@@ -81,6 +82,7 @@ function WorkbenchBody({ record }: { record: ScenarioRecord }) {
             <LoopCard />
             <ReadingsCard />
           </div>
+          <WorkbenchStudies />
           <div className="grid min-w-0 gap-3 xl:grid-cols-2">
             <RunsCard action={<SaveRunControl />} />
             <HistoryCard canEdit />

@@ -27,6 +27,7 @@ export default async function SharedRunPage({ params }: { params: Promise<{ toke
       createdBy: null,
       scenario: shared.scenario as RunRecord["scenario"],
       result: shared.result as RunRecord["result"],
+      study: shared.study ?? null,
     };
   } catch (err) {
     // Unknown, revoked and expired links answer 404 (not-found.tsx beside this page says why

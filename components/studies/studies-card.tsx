@@ -1,0 +1,387 @@
+"use client";
+// "Noise margin study" and "Tolerance spread" on the Workbench: a form each, run in the study
+// worker pool (one worker per core, progress over the whole study, Cancel stops every worker),
+// the answer as a chart and a number, and "Save with a new run" so reviewers can open it by link.
+import Link from "next/link";
+import { useEffect, useMemo, useRef, useState } from "react";
+import { Card } from "@/components/ui/card";
+import { Button } from "@/components/ui/button";
+import { Section, SelectRow, Tabs } from "@/components/workbench/controls";
+import { QuantityField } from "@/components/workbench/quantity-field";
+import { errorMessage } from "@/lib/client/fetcher";
+import { runStudyInPool, StudyCancelled, defaultPoolSize } from "@/lib/client/study-pool";
+import { conditionsOf, stageFigures } from "@/lib/design";
+import type { Scenario } from "@/lib/schemas/scenario";
+import { estimateCaptureNoise, type CaptureNoiseEstimate } from "@/lib/studies/capture-noise";
+import { studyCorners } from "@/lib/studies/corners";
+import { summarizeNoiseMargin, type NoiseMarginSummary, type NoiseTaskOutput } from "@/lib/studies/noise-margin";
+import {
+  noiseMarginConfigSchema,
+  toleranceSpreadConfigSchema,
+  type DrawOutput,
+  type Measure,
+  type NoiseMarginConfig,
+  type StudyUpload,
+  type ToleranceSpreadConfig,
+} from "@/lib/studies/schema";
+import { defaultMeasures, summarizeToleranceSpread, type ToleranceSpreadSummary } from "@/lib/studies/tolerance-spread";
+import { MEASURE_LABEL, MEASURE_UNIT } from "./study-plots";
+import { NoiseMarginResult, ToleranceSpreadResult, fmtV } from "./study-readouts";
+
+type StudyTab = "noise" | "tolerance";
+
+interface Done<C, T, S> {
+  /** JSON of the scenario the study ran on, to tell when the editor has moved on. */
+  on: string;
+  config: C;
+  tasks: T[];
+  summary: S;
+  wallMs: number;
+  workers: number;
+}
+type NoiseDone = Done<NoiseMarginConfig, NoiseTaskOutput, NoiseMarginSummary>;
+type ToleranceDone = Done<ToleranceSpreadConfig, DrawOutput, ToleranceSpreadSummary>;
+
+export interface StudiesCardProps {
+  /** The scenario to study (already parsed); null while the editor holds an invalid draft. */
+  scenario: Scenario | null;
+  /** Why saving is not possible right now (unsaved edits, role), or null. */
+  saveBlocked: string | null;
+  /** Create a run of the saved scenario and store the study with it; resolves to the run id. */
+  onSave: (upload: StudyUpload) => Promise<string>;
+}
+
+function captureOf(s: Scenario) {
+  for (const c of s.input.components) if (c.kind === "capture") return c.samples;
+  return null;
+}
+
+function suggestNoise(s: Scenario, capture: CaptureNoiseEstimate | null) {
+  const f = stageFigures(s.stage, conditionsOf(s.opamp, s.supply));
+  const deadband = f.hysteresis && f.hysteresis > 0 ? f.hysteresis : 0.01 * (s.supply.positive - s.supply.negative);
+  // Sweep to half the deadband: far past the 6.6 × rms rule, so the edge shows on the chart.
+  const rmsTo = deadband / 2;
+  return {
+    rmsFrom: rmsTo / 20,
+    rmsTo,
+    levels: 20,
+    seedsPerLevel: 50,
+    bandwidth: capture?.bandwidth ?? s.input.noise?.bandwidth ?? 1000 / s.run.duration,
+    limit: 0.01,
+    seed: 1,
+  };
+}
+
+function suggestTolerance(s: Scenario) {
+  const f = stageFigures(s.stage, conditionsOf(s.opamp, s.supply));
+  const measures = defaultMeasures(s.stage);
+  const window: Partial<Record<Measure, [number, number]>> = {};
+  const nominal: Partial<Record<Measure, number | null>> = {
+    upperThreshold: f.upperThreshold,
+    lowerThreshold: f.lowerThreshold,
+    gain: f.gain,
+    period: f.frequency ? 1 / f.frequency : null,
+  };
+  for (const m of measures) {
+    const v = nominal[m];
+    if (v !== null && v !== undefined && Number.isFinite(v)) window[m] = [v - Math.abs(v) * 0.02, v + Math.abs(v) * 0.02];
+  }
+  return {
+    draws: 1000,
+    resistorTolerance: 0.01,
+    offsetTolerance: Math.abs(s.opamp.inputOffset) || 1e-3,
+    headroomSpread: 0.2,
+    distribution: "uniform" as "uniform" | "normal",
+    probe: "scenario" as "scenario" | "triangle",
+    measures,
+    window,
+    seed: 1,
+  };
+}
+
+function inputRange(s: Scenario): [number, number] {
+  const f = stageFigures(s.stage, conditionsOf(s.opamp, s.supply));
+  const pts = [f.upperThreshold, f.lowerThreshold].filter((v): v is number => v !== null && Number.isFinite(v));
+  if (pts.length === 0) return [s.supply.negative, s.supply.positive];
+  const lo = Math.min(...pts), hi = Math.max(...pts);
+  const pad = Math.max(0.25 * (hi - lo), 0.05 * (s.supply.positive - s.supply.negative));
+  return [lo - pad, hi + pad];
+}
+
+export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps) {
+  const [tab, setTab] = useState<StudyTab>("noise");
+  const [noise, setNoise] = useState<NoiseDone | null>(null);
+  const [tolerance, setTolerance] = useState<ToleranceDone | null>(null);
+  const [running, setRunning] = useState<StudyTab | null>(null);
+  const [progress, setProgress] = useState({ done: 0, total: 0 });
+  const [error, setError] = useState<string | null>(null);
+  const [saved, setSaved] = useState<{ runId: string } | null>(null);
+  const [saving, setSaving] = useState(false);
+  const abort = useRef<AbortController | null>(null);
+  const started = useRef(0);
+
+  // Leaving the page stops a running study: no worker outlives the Workbench.
+  useEffect(() => () => abort.current?.abort(), []);
+
+  const capture = useMemo(() => {
+    const samples = scenario ? captureOf(scenario) : null;
+    if (!samples) return null;
+    try {
+      return estimateCaptureNoise(samples);
+    } catch {
+      return null;
+    }
+  }, [scenario]);
+
+  async function run<T extends StudyTab>(which: T, config: NoiseMarginConfig | ToleranceSpreadConfig) {
+    if (!scenario) return;
+    setError(null);
+    setSaved(null);
+    setRunning(which);
+    setProgress({ done: 0, total: 0 });
+    const ac = new AbortController();
+    abort.current = ac;
+    started.current = performance.now();
+    const on = JSON.stringify(scenario);
+    try {
+      const out = await runStudyInPool({ scenario, config }, { signal: ac.signal, onProgress: setProgress });
+      if (config.kind === "noise-margin") {
+        const tasks = out.tasks as NoiseTaskOutput[];
+        setNoise({ on, config, tasks, summary: summarizeNoiseMargin(config, tasks), wallMs: out.wallMs, workers: out.workers });
+      } else {
+        const tasks = out.tasks as DrawOutput[];
+        setTolerance({ on, config, tasks, summary: summarizeToleranceSpread(config, tasks, studyCorners(scenario, config)), wallMs: out.wallMs, workers: out.workers });
+      }
+    } catch (e) {
+      setError(e instanceof StudyCancelled ? "Study cancelled; every worker was stopped." : `Study failed — ${errorMessage(e)}`);
+    } finally {
+      setRunning(null);
+      abort.current = null;
+    }
+  }
+
+  const save = async () => {
+    const upload: StudyUpload = { schema: "railwise.study/1" };
+    if (noise) upload.noiseMargin = { config: noise.config, tasks: noise.tasks, wallMs: noise.wallMs, workers: noise.workers };
+    if (tolerance) upload.toleranceSpread = { config: tolerance.config, tasks: tolerance.tasks, wallMs: tolerance.wallMs, workers: tolerance.workers };
+    setSaving(true);
+    setError(null);
+    try {
+      setSaved({ runId: await onSave(upload) });
+    } catch (e) {
+      setError(`Not saved — ${errorMessage(e)}`);
+    } finally {
+      setSaving(false);
+    }
+  };
+
+  const current = useMemo(() => (scenario ? JSON.stringify(scenario) : ""), [scenario]);
+  const stale = (noise && noise.on !== current) || (tolerance && tolerance.on !== current);
+  const blocked = stale ? "The scenario changed since these studies ran: run them again." : saveBlocked;
+  const pct = progress.total ? Math.round((100 * progress.done) / progress.total) : 0;
+  return (
+    <Card
+      title="Studies"
+      description="Will the deadband hold against real noise? Do the thresholds hold over part tolerances?"
+      padded={false}
+      className="min-w-0"
+      actions={
+        <span className="flex items-center gap-2">
+          {blocked && (noise || tolerance) ? <span className="text-[12px] text-caution" data-testid="study-save-blocked">{blocked}</span> : null}
+          <Button size="sm" variant="primary" disabled={!(noise || tolerance) || !!blocked || saving || !!running} onClick={() => void save()} data-testid="save-study-button">
+            {saving ? "Saving…" : "Save with a new run"}
+          </Button>
+        </span>
+      }
+    >
+      <div data-testid="studies-card">
+        <Tabs<StudyTab>
+          label="Studies"
+          value={tab}
+          onChange={setTab}
+          tabs={[
+            { id: "noise", label: "Noise margin study" },
+            { id: "tolerance", label: "Tolerance spread" },
+          ]}
+        />
+        {!scenario ? (
+          <p className="px-4 py-3 text-[13px] text-alert">Fix the scenario's fields first: a study needs a valid scenario.</p>
+        ) : (
+          <div className="grid min-w-0 gap-0 lg:grid-cols-[300px_minmax(0,1fr)]">
+            <div className="border-b border-paper-line lg:border-b-0 lg:border-r">
+              {tab === "noise" ? (
+                <NoiseForm key={`n-${scenario.stage.kind}`} scenario={scenario} capture={capture} busy={!!running} onRun={(c) => void run("noise", c)} />
+              ) : (
+                <ToleranceForm key={`t-${scenario.stage.kind}`} scenario={scenario} busy={!!running} onRun={(c) => void run("tolerance", c)} />
+              )}
+            </div>
+            <div className="min-w-0 p-3">
+              {running ? (
+                <div className="mb-3 flex items-center gap-2" data-testid="study-progress">
+                  <div className="h-1.5 flex-1 overflow-hidden rounded-full bg-paper-sunk" role="progressbar" aria-label="Study progress" aria-valuemin={0} aria-valuemax={100} aria-valuenow={pct}>
+                    <div className="h-full rounded-full bg-copper" style={{ width: `${pct}%` }} />
+                  </div>
+                  <span className="font-mono text-[12px] text-ink-mute">
+                    {progress.done.toLocaleString("en")} / {progress.total.toLocaleString("en")} runs · {defaultPoolSize()} workers
+                  </span>
+                  <Button size="sm" variant="secondary" onClick={() => abort.current?.abort()} data-testid="cancel-study-button">
+                    Cancel
+                  </Button>
+                </div>
+              ) : null}
+              {error ? (
+                <p className="mb-2 text-[13px] text-alert" role="alert" data-testid="study-error">
+                  {error}
+                </p>
+              ) : null}
+              {saved ? (
+                <p className="mb-2 rounded border-l-[3px] border-moss bg-moss-soft/70 px-2 py-1 text-[13px]" role="status" data-testid="study-saved">
+                  Study saved with a new run.{" "}
+                  <Link href={`/runs/${saved.runId}`} className="font-medium text-copper-deep underline" data-testid="study-run-link">
+                    Open the run
+                  </Link>
+                </p>
+              ) : null}
+              {tab === "noise" ? (
+                noise ? (
+                  <NoiseMarginResult summary={noise.summary} meta={`${noise.tasks.length.toLocaleString("en")} runs in ${(noise.wallMs / 1000).toFixed(2)} s on ${noise.workers} workers.`} />
+                ) : (
+                  <Idle text="Sweeps the noise rms on this scenario's input, many seeds per level, and counts how often the output switches more often than it does without noise." />
+                )
+              ) : tolerance ? (
+                <ToleranceSpreadResult summary={tolerance.summary} meta={`${tolerance.tasks.length.toLocaleString("en")} runs in ${(tolerance.wallMs / 1000).toFixed(2)} s on ${tolerance.workers} workers.`} />
+              ) : (
+                <Idle text="Draws resistor values, input offset and output headroom within tolerance, simulates each draw, and measures where it switches." />
+              )}
+            </div>
+          </div>
+        )}
+      </div>
+    </Card>
+  );
+}
+
+function Idle({ text }: { text: string }) {
+  return <p className="py-6 text-center text-[13px] text-ink-mute">{text}</p>;
+}
+
+function NoiseForm({ scenario, capture, busy, onRun }: { scenario: Scenario; capture: CaptureNoiseEstimate | null; busy: boolean; onRun: (c: NoiseMarginConfig) => void }) {
+  const [f, setF] = useState(() => suggestNoise(scenario, capture));
+  const [useCapture, setUseCapture] = useState(!!capture);
+  const set = (patch: Partial<typeof f>) => setF((o) => ({ ...o, ...patch }));
+  const parsed = noiseMarginConfigSchema.safeParse({
+    kind: "noise-margin",
+    seed: f.seed,
+    rmsFrom: f.rmsFrom,
+    rmsTo: f.rmsTo,
+    levels: f.levels,
+    seedsPerLevel: f.seedsPerLevel,
+    bandwidth: f.bandwidth,
+    limit: f.limit,
+    measured: useCapture && capture ? { rms: capture.modelRms, bandwidth: capture.bandwidth, label: "capture noise" } : undefined,
+  });
+  return (
+    <form
+      onSubmit={(e) => {
+        e.preventDefault();
+        if (parsed.success) onRun(parsed.data);
+      }}
+      data-testid="noise-form"
+    >
+      <Section title="Sweep">
+        <QuantityField name="noise-rms-from" label="rms from" unit="V" value={f.rmsFrom} onCommit={(v) => set({ rmsFrom: v })} />
+        <QuantityField name="noise-rms-to" label="rms to" unit="V" value={f.rmsTo} onCommit={(v) => set({ rmsTo: v })} />
+        <QuantityField name="noise-levels" label="levels" unit="" plain value={f.levels} onCommit={(v) => set({ levels: Math.round(v) })} />
+        <QuantityField name="noise-seeds" label="seeds per level" unit="" plain value={f.seedsPerLevel} onCommit={(v) => set({ seedsPerLevel: Math.round(v) })} />
+        <QuantityField name="noise-bandwidth" label="bandwidth" unit="Hz" value={f.bandwidth} onCommit={(v) => set({ bandwidth: v })} />
+        <QuantityField name="noise-limit" label="chatter limit" unit="%" plain value={f.limit * 100} onCommit={(v) => set({ limit: v / 100 })} />
+        <QuantityField name="noise-seed" label="study seed" unit="" plain value={f.seed} onCommit={(v) => set({ seed: Math.round(v) })} />
+      </Section>
+      <Section title="Measured noise">
+        {capture ? (
+          <label className="flex items-start gap-2 text-[12.5px] text-ink-soft">
+            <input type="checkbox" className="mt-0.5" checked={useCapture} onChange={(e) => setUseCapture(e.target.checked)} data-testid="use-capture-noise" />
+            <span>
+              Mark the capture's noise: <span className="font-mono text-ink">{fmtV(capture.modelRms)}</span> rms, <span className="font-mono text-ink">{Math.round(capture.bandwidth)} Hz</span>
+              {capture.limitedBySampling ? " (at the capture's own sampling limit: the real noise may be wider)" : ""}.{" "}
+              <button type="button" className="text-copper-deep underline" onClick={() => set({ bandwidth: capture.bandwidth })}>
+                Use its bandwidth
+              </button>
+            </span>
+          </label>
+        ) : (
+          <p className="text-[12px] text-ink-mute">Add a capture to the Signal to estimate its noise (detrended residual rms; bandwidth from its zero-crossing rate).</p>
+        )}
+      </Section>
+      <div className="flex items-center justify-between gap-2 px-3 pb-3">
+        <span className="text-[12px] text-ink-mute">{parsed.success ? `${(1 + f.levels * f.seedsPerLevel).toLocaleString("en")} runs` : <span className="text-alert">{parsed.error.issues[0]?.message}</span>}</span>
+        <Button type="submit" size="sm" variant="primary" disabled={busy || !parsed.success} data-testid="run-noise-study">
+          Run study
+        </Button>
+      </div>
+    </form>
+  );
+}
+
+function ToleranceForm({ scenario, busy, onRun }: { scenario: Scenario; busy: boolean; onRun: (c: ToleranceSpreadConfig) => void }) {
+  const [f, setF] = useState(() => suggestTolerance(scenario));
+  const set = (patch: Partial<typeof f>) => setF((o) => ({ ...o, ...patch }));
+  const [probeLo, probeHi] = useMemo(() => inputRange(scenario), [scenario]);
+  const parsed = toleranceSpreadConfigSchema.safeParse({
+    kind: "tolerance-spread",
+    seed: f.seed,
+    draws: f.draws,
+    resistorTolerance: f.resistorTolerance,
+    offsetTolerance: f.offsetTolerance,
+    headroomSpread: f.headroomSpread,
+    distribution: f.distribution,
+    probe: f.probe === "triangle" ? { kind: "triangle", low: probeLo, high: probeHi } : { kind: "scenario" },
+    measures: f.measures,
+    window: f.window,
+  });
+  const setWindow = (m: Measure, i: 0 | 1, v: number) =>
+    setF((o) => {
+      const w = [...(o.window[m] ?? [v, v])] as [number, number];
+      w[i] = v;
+      return { ...o, window: { ...o.window, [m]: w } };
+    });
+  return (
+    <form
+      onSubmit={(e) => {
+        e.preventDefault();
+        if (parsed.success) onRun(parsed.data);
+      }}
+      data-testid="tolerance-form"
+    >
+      <Section title="Draws">
+        <QuantityField name="tol-draws" label="draws" unit="" plain value={f.draws} onCommit={(v) => set({ draws: Math.round(v) })} />
+        <QuantityField name="tol-resistors" label="resistors ±" unit="%" plain value={f.resistorTolerance * 100} onCommit={(v) => set({ resistorTolerance: v / 100 })} />
+        <QuantityField name="tol-offset" label="offset ±" unit="V" value={f.offsetTolerance} onCommit={(v) => set({ offsetTolerance: v })} />
+        <QuantityField name="tol-headroom" label="headroom ±" unit="%" plain value={f.headroomSpread * 100} onCommit={(v) => set({ headroomSpread: v / 100 })} />
+        <SelectRow label="distribution" value={f.distribution} onChange={(e) => set({ distribution: e.target.value as "uniform" | "normal" })}>
+          <option value="uniform">uniform within tolerance</option>
+          <option value="normal">normal, tolerance = 3σ</option>
+        </SelectRow>
+        <SelectRow label="input" value={f.probe} onChange={(e) => set({ probe: e.target.value as "scenario" | "triangle" })}>
+          <option value="scenario">the scenario's own (no noise)</option>
+          <option value="triangle">slow triangle {fmtV(probeLo)} … {fmtV(probeHi)}</option>
+        </SelectRow>
+        <QuantityField name="tol-seed" label="study seed" unit="" plain value={f.seed} onCommit={(v) => set({ seed: Math.round(v) })} />
+      </Section>
+      <Section title="Spec window">
+        {f.measures.map((m) => (
+          <div key={m}>
+            <QuantityField name={`win-${m}-min`} label={`${MEASURE_LABEL[m]} min`} unit={MEASURE_UNIT[m]} value={f.window[m]?.[0]} onCommit={(v) => setWindow(m, 0, v)} />
+            <QuantityField name={`win-${m}-max`} label={`${MEASURE_LABEL[m]} max`} unit={MEASURE_UNIT[m]} value={f.window[m]?.[1]} onCommit={(v) => setWindow(m, 1, v)} />
+          </div>
+        ))}
+      </Section>
+      <div className="flex items-center justify-between gap-2 px-3 pb-3">
+        <span className="text-[12px] text-ink-mute">{parsed.success ? `${(1 + f.draws).toLocaleString("en")} runs` : <span className="text-alert">{parsed.error.issues[0]?.message}</span>}</span>
+        <Button type="submit" size="sm" variant="primary" disabled={busy || !parsed.success} data-testid="run-tolerance-study">
+          Run spread
+        </Button>
+      </div>
+    </form>
+  );
+}
