@@ -12,6 +12,8 @@ export interface HeaderUser {
 
 const NAV: NavItem[] = [
   { href: "/boards", label: "Boards", also: ["/scenarios", "/runs"] },
+  { href: "/parts", label: "Parts" },
+  { href: "/captures", label: "Captures" },
   { href: "/team", label: "Team" },
 ];
 
