@@ -144,7 +144,15 @@ export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps)
     started.current = performance.now();
     const on = JSON.stringify(scenario);
     try {
-      const out = await runStudyInPool({ scenario, config }, { signal: ac.signal, onProgress: setProgress });
+      // Progress repaints at most ~8 times a second: the main thread stays free for the user.
+      let last = 0;
+      const onProgress = (p: { done: number; total: number }) => {
+        const now = performance.now();
+        if (now - last < 120 && p.done < p.total) return;
+        last = now;
+        setProgress(p);
+      };
+      const out = await runStudyInPool({ scenario, config }, { signal: ac.signal, onProgress });
       if (config.kind === "noise-margin") {
         const tasks = out.tasks as NoiseTaskOutput[];
         setNoise({ on, config, tasks, summary: summarizeNoiseMargin(config, tasks), wallMs: out.wallMs, workers: out.workers });

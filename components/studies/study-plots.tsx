@@ -23,7 +23,7 @@ export const STUDY_COLORS = {
   nominal: "#1d2430",
 };
 
-function tag(u: uPlot, x: number, text: string, color: string, row: number) {
+function tag(u: uPlot, x: number, text: string, color: string, row: number, side?: "left" | "right") {
   const px = u.valToPos(x, "x", true);
   if (px < u.bbox.left || px > u.bbox.left + u.bbox.width) return;
   const ctx = u.ctx;
@@ -31,7 +31,7 @@ function tag(u: uPlot, x: number, text: string, color: string, row: number) {
   ctx.save();
   ctx.font = `${10 * dpr}px var(--font-jb), ui-monospace, monospace`;
   ctx.fillStyle = color;
-  const right = px > u.bbox.left + u.bbox.width * 0.7;
+  const right = side ? side === "left" : px > u.bbox.left + u.bbox.width * 0.7;
   ctx.textAlign = right ? "right" : "left";
   ctx.textBaseline = "top";
   ctx.fillText(text, px + (right ? -4 : 4) * dpr, u.bbox.top + (4 + row * 13) * dpr);
@@ -161,8 +161,9 @@ export function SpreadHistogram({ spread, height = 190, fileName }: { spread: Me
               if (spread.worstCase) {
                 vLine(u, spread.worstCase[0], STUDY_COLORS.corner, [5, 3]);
                 vLine(u, spread.worstCase[1], STUDY_COLORS.corner, [5, 3]);
-                tag(u, spread.worstCase[0], "worst case", STUDY_COLORS.corner, row);
-                tag(u, spread.worstCase[1], "worst case", STUDY_COLORS.corner, row);
+                // Labels point away from each other so close corners stay readable.
+                tag(u, spread.worstCase[0], "worst case", STUDY_COLORS.corner, row, "left");
+                tag(u, spread.worstCase[1], "worst case", STUDY_COLORS.corner, row, "right");
               }
             },
           ],

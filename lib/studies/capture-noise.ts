@@ -1,8 +1,11 @@
 // Noise of a measured capture: rms and bandwidth, in the terms of the scenario's noise model.
 //
 // Estimator (ours, documented in the UI):
-// 1. Detrend with a moving linear least-squares fit over a centred window (default 1/50 of
-//    the record, at least 5 samples). What the fit cannot follow is taken as noise.
+// 1. Detrend with a moving linear least-squares fit over a centred window. What the fit cannot
+//    follow is taken as noise, so the window should be short against the signal and long
+//    against the noise: by default about 10 noise knot intervals (10/(2B̂) = 5/B̂, B̂ refined
+//    over a few passes from an 11-sample start), at least 5 samples. Steps and bends that the line
+//    cannot follow still count as noise: the estimate errs on the high (safe) side.
 // 2. rms = root mean square of the residual, leaving out residuals beyond 4.5 robust
 //    standard deviations (1.4826 × median absolute deviation; Hampel's rule): steps and
 //    contact bounce the line cannot follow are events, not noise (Gaussian noise loses
@@ -40,6 +43,24 @@ export interface CaptureNoiseEstimate {
 }
 
 export function estimateCaptureNoise(samples: ReadonlyArray<readonly [number, number]>, windowSeconds?: number): CaptureNoiseEstimate {
+  if (windowSeconds === undefined && samples.length >= 16) {
+    const n = samples.length;
+    const meanDt = (samples[n - 1][0] - samples[0][0]) / (n - 1);
+    // A window shorter than a knot interval over-counts crossings, and a longer window then
+    // reads fewer: a few passes settle where the window and the bandwidth agree.
+    let est = estimateWith(samples, 11 * meanDt);
+    for (let pass = 0; pass < 6 && est.bandwidth > 0; pass++) {
+      const next = estimateWith(samples, 5 / est.bandwidth);
+      const settled = Math.abs(next.bandwidth / est.bandwidth - 1) < 0.02;
+      est = next;
+      if (settled) break;
+    }
+    return est;
+  }
+  return estimateWith(samples, windowSeconds);
+}
+
+function estimateWith(samples: ReadonlyArray<readonly [number, number]>, windowSeconds?: number): CaptureNoiseEstimate {
   const n = samples.length;
   if (n < 16) throw new Error("capture needs at least 16 samples to estimate its noise");
   const t0 = samples[0][0];

@@ -179,11 +179,18 @@ export function summarizeToleranceSpread(config: ToleranceSpreadConfig, tasks: r
     const summary = summarize(values);
     const win = config.window[measure] ?? null;
     const wc = corners[measure] ?? null;
-    // The axis spans the draws, the nominal, the corners and the window, so all show together.
-    const span = [...(summary.min !== null ? [summary.min, summary.max as number] : []), ...(nominal[measure] !== null ? [nominal[measure] as number] : []), ...(wc ?? []), ...(win ?? [])];
-    const lo = span.length ? Math.min(...span) : 0;
-    const hi = span.length ? Math.max(...span) : 1;
-    const pad = (hi - lo) * 0.04;
+    // The axis spans the draws, the nominal and the corners; the window joins when it is of a
+    // similar size (a window far wider than the spread would squeeze the bars into a sliver —
+    // its shading then simply fills the axis).
+    const core = [...(summary.min !== null ? [summary.min, summary.max as number] : []), ...(nominal[measure] !== null ? [nominal[measure] as number] : []), ...(wc ?? [])];
+    let lo = core.length ? Math.min(...core) : (win?.[0] ?? 0);
+    let hi = core.length ? Math.max(...core) : (win?.[1] ?? 1);
+    if (win) {
+      const span = Math.max(hi - lo, 1e-12);
+      if (win[0] >= lo - 1.5 * span) lo = Math.min(lo, win[0]);
+      if (win[1] <= hi + 1.5 * span) hi = Math.max(hi, win[1]);
+    }
+    const pad = (hi - lo) * 0.06 || Math.abs(hi) * 1e-3 || 1e-6;
     const hist = histogram(values, lo - pad, hi + pad, config.bins);
     const inside = win ? values.filter((v) => v >= win[0] && v <= win[1]).length : null;
     return { measure, nominal: nominal[measure], summary, missing: draws.length - values.length, histogram: hist, worstCase: wc, window: win, inside };

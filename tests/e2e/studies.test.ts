@@ -109,6 +109,7 @@ describe("studies in the browser", () => {
     await expect(page.getByTestId("measured-verdict").textContent()).resolves.toMatch(/capture noise: .* rms/);
     // The chart is drawn (uPlot canvas inside the plot container).
     expect(await page.getByTestId("chatter-plot").locator("canvas").count()).toBeGreaterThan(0);
+    await page.getByTestId("studies-card").screenshot({ path: path.join(SCREENSHOT_DIR, "studies-noise-card.png") });
   });
 
   it("runs 1,000 tolerance draws of the 20,000-sample run with corners and the spec window", async () => {
@@ -128,6 +129,7 @@ describe("studies in the browser", () => {
     expect(await page.getByTestId("histogram-upperThreshold").locator("canvas").count()).toBeGreaterThan(0);
     expect(await page.getByTestId("histogram-lowerThreshold").locator("canvas").count()).toBeGreaterThan(0);
     await screenshot(page, "studies-workbench");
+    await page.getByTestId("studies-card").screenshot({ path: path.join(SCREENSHOT_DIR, "studies-tolerance-card.png") });
   });
 
   it("cancel stops every study worker", async () => {

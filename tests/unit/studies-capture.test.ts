@@ -38,6 +38,13 @@ describe("capture noise estimate", () => {
     expect(est.limitedBySampling).toBe(false);
   });
 
+  it("finds a workable detrend window by itself", () => {
+    const sigma = 0.02, B = 200;
+    const est = estimateCaptureNoise(synthesise(sigma, B, 10, 4000));
+    expect(Math.abs(est.bandwidth / B - 1)).toBeLessThan(0.1);
+    expect(Math.abs(est.modelRms / sigma - 1)).toBeLessThan(0.08);
+  });
+
   it("flags a capture sampled too coarsely for its noise", () => {
     const est = estimateCaptureNoise(synthesise(0.02, 5000, 2, 2000), 0.05);
     expect(est.limitedBySampling).toBe(true);
@@ -46,7 +53,7 @@ describe("capture noise estimate", () => {
   it("reads the demo bilge capture's 80 mV pickup (recorded at 1 kHz, independent per sample)", () => {
     const capture = DEMO_SCENARIOS.find((s) => s.key === "bilge-float")!.scenario.input.components[0];
     if (capture.kind !== "capture") throw new Error("demo bilge scenario lost its capture");
-    const est = estimateCaptureNoise(capture.samples, 0.01); // a window about the 10 ms filter constant
+    const est = estimateCaptureNoise(capture.samples); // default window: about 10 knot intervals
     // Independent samples at 1 kHz are, in the contract's terms, noise of bandwidth 500 Hz
     // (knots every 1 ms): rms 80 mV; the float's steps inflate the residual a little.
     expect(est.rms).toBeGreaterThan(0.07);
