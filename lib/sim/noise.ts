@@ -1,20 +1,34 @@
 // Seeded Gaussian noise. Uniform numbers come from pure-rand's xoroshiro128+ (a well-known,
-// portable generator); the normal deviates use Marsaglia's polar method. Math.log is not
-// guaranteed to round identically in every JavaScript engine, so the polar method uses its own
-// logarithm built from +, −, ×, ÷ only (IEEE 754 rounds those exactly): the same seed gives the
-// same samples bit for bit in Node, every browser and every worker.
-import { xoroshiro128plus } from "pure-rand/generator/xoroshiro128plus";
+// portable generator); each is mapped to a normal deviate by the inverse normal CDF (Acklam's
+// rational approximation). Math.log is not guaranteed to round identically in every JavaScript
+// engine, so the tails use a logarithm built from +, −, ×, ÷ and bit operations only (IEEE 754
+// rounds those exactly): the same seed gives the same samples bit for bit in Node, every
+// browser and every worker.
+import { xoroshiro128plusFromState } from "pure-rand/generator/xoroshiro128plus";
 import { uniformFloat64 } from "pure-rand/distribution/uniformFloat64";
 import type { Noise } from "@/lib/schemas/scenario";
 
 const SQRT_HALF = 0.7071067811865476;
 const LN2 = 0.6931471805599453;
 
-/** Natural logarithm of x in (0, 1] with basic arithmetic only (deterministic everywhere). */
-export function portableLn(x: number): number {
+/** ln(m) for m in [√½, √2) by the atanh series (basic arithmetic only). */
+function lnSeries(m: number): number {
+  const z = (m - 1) / (m + 1);
+  const z2 = z * z;
+  // |z| ≤ 0.1716: the odd series has converged to 1 ulp by z^29.
+  const s =
+    1 +
+    z2 * (1 / 3 + z2 * (1 / 5 + z2 * (1 / 7 + z2 * (1 / 9 + z2 * (1 / 11 + z2 * (1 / 13 + z2 * (1 / 15 +
+    z2 * (1 / 17 + z2 * (1 / 19 + z2 * (1 / 21 + z2 * (1 / 23 + z2 * (1 / 25 + z2 * (1 / 27 + z2 * (1 / 29))))))))))))));
+  return 2 * z * s;
+}
+
+/** Slow reference path: scale by exact powers of two, then the series. */
+function lnByScaling(x: number): number {
+  if (!(x > 0)) return x === 0 ? -Infinity : NaN;
+  if (x === Infinity) return x;
   let m = x;
   let e = 0;
-  // Scale into [√½, √2) by exact powers of two.
   while (m < SQRT_HALF) {
     m *= 2;
     e -= 1;
@@ -23,30 +37,102 @@ export function portableLn(x: number): number {
     m *= 0.5;
     e += 1;
   }
-  // ln m = 2·atanh(z), z = (m−1)/(m+1), |z| ≤ 0.1716: the odd series converges to 1 ulp by z^29.
-  const z = (m - 1) / (m + 1);
-  const z2 = z * z;
-  const s =
-    1 +
-    z2 * (1 / 3 + z2 * (1 / 5 + z2 * (1 / 7 + z2 * (1 / 9 + z2 * (1 / 11 + z2 * (1 / 13 + z2 * (1 / 15 +
-    z2 * (1 / 17 + z2 * (1 / 19 + z2 * (1 / 21 + z2 * (1 / 23 + z2 * (1 / 25 + z2 * (1 / 27 + z2 * (1 / 29))))))))))))));
-  return 2 * z * s + e * LN2;
+  return lnSeries(m) + e * LN2;
 }
 
-/** Fills `out` with independent standard normal deviates from the given 32-bit seed. */
+// Fast path: exponent and top mantissa bits read from the IEEE 754 bit pattern; ln of the
+// 64 cell centres 1 + (k + ½)/64 tabulated once with the series above.
+const LN_CELLS = 64;
+const lnCell = new Float64Array(LN_CELLS);
+for (let k = 0; k < LN_CELLS; k++) lnCell[k] = lnByScaling(1 + (k + 0.5) / LN_CELLS);
+const f64 = new Float64Array(1);
+const u32 = new Uint32Array(f64.buffer);
+const HI = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1 ? 1 : 0; // little-endian: high word at index 1
+const MIN_NORMAL = 2.2250738585072014e-308;
+
+/**
+ * Natural logarithm of a positive finite x using only +, −, ×, ÷ and bit operations (which
+ * IEEE 754 and JavaScript define exactly), so it gives the same bits in every engine — unlike
+ * Math.log, whose rounding the language leaves to each implementation.
+ */
+export function portableLn(x: number): number {
+  if (x < MIN_NORMAL) return lnByScaling(x);
+  f64[0] = x;
+  const hi = u32[HI];
+  const e = (hi >>> 20) - 1023;
+  const k = (hi >>> 14) & (LN_CELLS - 1);
+  u32[HI] = (hi & 0x000fffff) | 0x3ff00000; // mantissa in [1, 2)
+  const m = f64[0];
+  const c = 1 + (k + 0.5) / LN_CELLS;
+  const z = (m - c) / (m + c); // |z| < 1/256
+  const z2 = z * z;
+  return e * LN2 + lnCell[k] + 2 * z * (1 + z2 * (1 / 3 + z2 * (1 / 5 + z2 * (1 / 7))));
+}
+
+// Acklam's rational approximation of the inverse normal CDF (P. J. Acklam, "An algorithm for
+// computing the inverse normal cumulative distribution function", 2003): relative error below
+// 1.15e-9 over (0, 1). The central 95 % needs no logarithm at all, which makes a million
+// samples cheap; the tails use portableLn.
+const A = [-3.969683028665376e1, 2.209460984245205e2, -2.759285104469687e2, 1.38357751867269e2, -3.066479806614716e1, 2.506628277459239];
+const B = [-5.447609879822406e1, 1.615858368580409e2, -1.556989798598866e2, 6.680131188771972e1, -1.328068155288572e1];
+const C = [-7.784894002430293e-3, -3.223964580411365e-1, -2.400758277161838, -2.549732539343734, 4.374664141464968, 2.938163982698783];
+const D = [7.784695709041462e-3, 3.224671290700398e-1, 2.445134137142996, 3.754408661907416];
+const P_LOW = 0.02425;
+const P_HIGH = 1 - P_LOW;
+const TWO_POW_M54 = 5.551115123125783e-17; // stands in for p = 0 (uniformFloat64 is in [0, 1 − 2^-53])
+
+/** Standard normal quantile Φ⁻¹(p) for p in (0, 1). */
+export function normalQuantile(p: number): number {
+  if (p < P_LOW) {
+    const q = Math.sqrt(-2 * portableLn(p));
+    return (((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) / ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1);
+  }
+  if (p > P_HIGH) {
+    const q = Math.sqrt(-2 * portableLn(1 - p));
+    return -(((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) / ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1);
+  }
+  const q = p - 0.5;
+  const r = q * q;
+  return (
+    ((((((A[0] * r + A[1]) * r + A[2]) * r + A[3]) * r + A[4]) * r + A[5]) * q) /
+    (((((B[0] * r + B[1]) * r + B[2]) * r + B[3]) * r + B[4]) * r + 1)
+  );
+}
+
+/** MurmurHash3's 32-bit finaliser (Appleby): a well-known avalanche mix of an integer. */
+function fmix32(x: number): number {
+  let h = x | 0;
+  h ^= h >>> 16;
+  h = Math.imul(h, 0x85ebca6b);
+  h ^= h >>> 13;
+  h = Math.imul(h, 0xc2b2ae35);
+  h ^= h >>> 16;
+  return h | 0;
+}
+
+/**
+ * xoroshiro128+ seeded from a 32-bit seed. pure-rand's own `xoroshiro128plus(seed)` puts the
+ * seed into the state almost as is, so its first outputs are nearly the same for every seed
+ * (the first uniform is ≈ 1.0, a 5σ sample): the four state words are hashed from the seed
+ * instead, and a few outputs are dropped.
+ */
+function seededGenerator(seed: number) {
+  const s = seed >>> 0;
+  const rng = xoroshiro128plusFromState([1, 2, 3, 4].map((k) => fmix32(s + Math.imul(k, 0x9e3779b9))));
+  for (let i = 0; i < 8; i++) rng.next();
+  return rng;
+}
+
+/**
+ * Fills `out` with independent standard normal deviates from the given 32-bit seed: one
+ * 53-bit uniform (pure-rand's uniformFloat64 on xoroshiro128+) per sample, mapped through the
+ * normal quantile (inverse-transform sampling).
+ */
 export function fillStandardNormal(out: Float64Array, seed: number): Float64Array {
-  const rng = xoroshiro128plus(seed >>> 0);
-  const n = out.length;
-  let i = 0;
-  while (i < n) {
-    // Uniform in [−1, 1) with 53 random bits each (pure-rand's uniformFloat64).
-    const u = uniformFloat64(rng) * 2 - 1;
-    const v = uniformFloat64(rng) * 2 - 1;
-    const s = u * u + v * v;
-    if (s >= 1 || s === 0) continue;
-    const f = Math.sqrt((-2 * portableLn(s)) / s);
-    out[i++] = u * f;
-    if (i < n) out[i++] = v * f;
+  const rng = seededGenerator(seed);
+  for (let i = 0; i < out.length; i++) {
+    const u = uniformFloat64(rng);
+    out[i] = normalQuantile(u === 0 ? TWO_POW_M54 : u);
   }
   return out;
 }

@@ -74,6 +74,7 @@ export function runOdex(p: OdexParams): OdexStats {
 
   const budget = p.maxSteps ?? 200_000;
   let steps = 0;
+  let reached = 0; // furthest time integrated so far
   let y: number[] = twoD ? [p.vo0, p.vc0, 0] : [p.vo0, 0];
   const sides = new Uint8Array(4);
   for (let i = 0; i < 3; i++) sides[i] = p.vo0 >= levels[i] ? 1 : 0;
@@ -108,6 +109,7 @@ export function runOdex(p: OdexParams): OdexStats {
   const solOut = (nr: number, xOld: number, x: number, yy: number[], d?: (c: number, x: number) => number) => {
     if (x <= xOld || !d) return;
     dense = d;
+    reached = x;
     steps++;
     // End of the power-on transient (see Recorder): first subdivision point where dvo/dt
     // no longer points away from the initial level.
@@ -162,7 +164,7 @@ export function runOdex(p: OdexParams): OdexStats {
     const r = solver.solve(rhs, t, y, tEnd, solOut);
     if (r.outcome === Outcome.MaxStepsExceeded || steps >= budget) {
       throw new SimFailed(
-        `odex reached its step limit (${budget.toLocaleString("en")} steps) at t = ${t.toPrecision(4)} s of ${T} s; ` +
+        `odex reached its step limit (${budget.toLocaleString("en")} steps) at t = ${reached.toPrecision(4)} s of ${T} s; ` +
           "this run is stiff: use the exact solver",
       );
     }
