@@ -307,12 +307,13 @@ export class ExactSolver {
    * returns the end of the input piece in solver time.
    */
   private inputPiece(t: number): number {
+    // U[2], U[3] (exponential slots) stay 0 for inputs; every other slot is written below.
     const U = this.U;
     const sig = this.p.signal;
-    U.fill(0);
     if (this.al === 0) return Infinity;
     const ts = t - this.td;
     if (ts < 0) {
+      U.fill(0);
       U[0] = sig.valueAt(0);
       return this.td;
     }
@@ -509,6 +510,7 @@ export class ExactSolver {
         const V = high ? this.Voh : this.Vol;
         const vdSide = this.sides[MONITOR_VD] === 1;
         const A0V = V / this.A0;
+        let held = 0;
         while (t < T) {
           const tb = Math.min(T, this.inputPiece(t));
           const h = tb - t;
@@ -517,13 +519,14 @@ export class ExactSolver {
           if (high ? a < A0V || b < A0V : a > A0V || b > A0V) break;
           if (p.trackVd && b >= 0 !== vdSide) break;
           while (sample < ts.length && ts[sample] <= tb) out[sample++] = V;
-          rec.clippedTime += h;
+          held += h;
           t = tb;
           if ((++this.steps & 1023) === 0) {
             if (p.shouldCancel?.()) throw new SimCancelled();
             p.onProgress?.(t / T);
           }
         }
+        rec.clippedTime += held;
         vo = V;
         if (t >= T) break;
       }
