@@ -33,7 +33,9 @@ function ScenarioReadBody({ record, showCaution, actions }: { record: ScenarioRe
   return (
     <>
       <ScenarioHeading record={record} boardName={board.data?.name} actions={actions} />
-      <SafetyCaution show={showCaution} texts={[record.name, record.scenario.name, board.data?.name, board.data?.description]} className="mb-4" />
+      {/* Only the scenario's own words: a board description lists every stage on it ("…bilge…"),
+          which would put the caution on a preamp too. */}
+      <SafetyCaution show={showCaution} texts={[record.name, record.scenario.name]} className="mb-4" />
       <ScenarioTables scenario={record.scenario} />
     </>
   );

@@ -6,7 +6,8 @@ import { Card } from "@/components/ui/card";
 import { KeyValueTable, Table, TBody, TD, TH, THead, TR, type KeyValueRow } from "@/components/ui/table";
 import { Badge } from "@/components/ui/badge";
 import { formatQuantity, formatRkm } from "@/lib/design/notation";
-import type { InputComponent, Scenario, ScenarioInput } from "@/lib/schemas/scenario";
+import { conditionsOf, stageFigures } from "@/lib/design/analysis";
+import { scenarioSchema, type InputComponent, type Scenario, type ScenarioInput } from "@/lib/schemas/scenario";
 import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL, STAGE_ROLE_ORDER, inputWhere, roleWhere, type StageRole } from "./stage-labels";
 
 const q = (v: number, unit: string, digits = 4) => formatQuantity(v, unit, digits);
@@ -46,8 +47,7 @@ export function StageTable({ scenario }: ScenarioTablesProps) {
     });
   }
   rows.push({ label: "Reference", value: volts(typeof stage.reference === "number" ? stage.reference : 0) });
-  const gain = idealGain(stage);
-  if (gain !== null) rows.push({ label: "Ideal gain", value: `${Number(gain.toPrecision(4))} V/V`, note: "from the resistor ratio" });
+  rows.push(...designedFigureRows(scenario));
   return (
     <Card title="Stage" actions={<Badge tone="indigo">{STAGE_KIND_LABEL[stage.kind] ?? stage.kind}</Badge>}>
       <KeyValueTable rows={rows} caption="Stage parts" />
@@ -64,12 +64,33 @@ function RoleLabel({ role, where }: { role: StageRole; where: string }) {
   );
 }
 
-function idealGain(stage: Record<string, unknown>): number | null {
-  const rf = stage.rFeedback;
-  if (typeof rf !== "number") return null;
-  if (stage.kind === "noninverting-amplifier" && typeof stage.rGround === "number") return 1 + rf / stage.rGround;
-  if (stage.kind === "inverting-amplifier" && typeof stage.rInput === "number") return -rf / stage.rInput;
-  return null;
+/**
+ * What the stage is designed to do, from lib/design's closed forms with this part's output
+ * limits, offset and open-loop gain: switching points and deadband, gain, or frequency.
+ */
+function designedFigureRows(scenario: Scenario | ScenarioInput): KeyValueRow[] {
+  const parsed = scenarioSchema.safeParse(scenario);
+  if (!parsed.success) return [];
+  const { stage, opamp, supply } = parsed.data;
+  const f = stageFigures(stage, conditionsOf(opamp, supply));
+  const note = "designed";
+  const rows: KeyValueRow[] = [];
+  if (f.upperThreshold !== null && f.lowerThreshold !== null) {
+    if (f.hysteresis !== null && f.hysteresis > 0) {
+      rows.push(
+        { label: "Upper switching point", value: q(f.upperThreshold, "V"), note },
+        { label: "Lower switching point", value: q(f.lowerThreshold, "V"), note },
+        // Deadband / 6.6 = largest Gaussian noise rms that stays inside it peak-to-peak (common practice, no source).
+        { label: "Deadband", value: q(f.hysteresis, "V"), note: `noise below ${q(f.hysteresis / 6.6, "V", 2)} rms` },
+      );
+    } else {
+      rows.push({ label: "Switching point", value: q(f.upperThreshold, "V"), note: "designed, no deadband" });
+    }
+  }
+  if (f.gain !== null) rows.push({ label: "Closed-loop gain", value: `${num(f.gain)} V/V`, note });
+  if (f.frequency !== null) rows.push({ label: "Frequency", value: q(f.frequency, "Hz"), note });
+  if (f.dutyCycle !== null) rows.push({ label: "Duty cycle", value: percent(f.dutyCycle), note });
+  return rows;
 }
 
 export function SupplyTable({ scenario }: ScenarioTablesProps) {

@@ -163,6 +163,12 @@ describe("foundation pages in Chromium", () => {
     expect(text).toContain(formatQuantity(33e3, "Ω", 4)); // rReference "33 kΩ"
     expect(text).toContain("V/µs");
     expect(text).toContain("Schmitt trigger, inverting");
+    // Designed switching points at the divider: inverting-trigger closed form (REFERENCES.md),
+    // upper = (Vref·rFb + Voh·rRef)/(rRef + rFb) + Vos = 2.6153 V, lower with Vol = 2.3857 V
+    // (Vref 2.5 V, rRef 33 kΩ, rFb 680 kΩ, Voh 4.98 V, Vol 0.02 V, Vos 0.5 mV; worked by hand).
+    expect(text).toContain("2.615 V");
+    expect(text).toContain("2.386 V");
+    expect(text).toContain("Deadband");
     // No form controls a viewer could type into, and no save/run buttons.
     await expect(page.locator("main input, main select, main textarea").count()).resolves.toBe(0);
     await expect(page.getByRole("button", { name: /save|run|delete|rename/i }).count()).resolves.toBe(0);
@@ -173,6 +179,22 @@ describe("foundation pages in Chromium", () => {
     await page.goBack();
     await page.getByTestId("scenario-table").waitFor();
     await screenshot(page, "foundation-board-phone");
+    await context.close();
+  });
+
+  it("viewer: the safety caution shows on the battery disconnect but not on the hydrophone preamp", async () => {
+    const { context, page } = await newPage();
+    await signInPage(page, server.url, VIEWER);
+    await openBoard(page);
+    const boardUrl = page.url();
+    await page.getByRole("link", { name: BATTERY, exact: true }).click();
+    await page.getByTestId("scenario-tables").waitFor();
+    await expect(page.getByTestId("safety-caution").count()).resolves.toBe(1);
+    await page.goto(boardUrl);
+    await page.getByRole("link", { name: "Hydrophone preamp", exact: true }).click();
+    await page.getByTestId("scenario-tables").waitFor();
+    await expect(page.getByTestId("scenario-tables").textContent()).resolves.toContain("Non-inverting amplifier");
+    await expect(page.getByTestId("safety-caution").count()).resolves.toBe(0);
     await context.close();
   });
 
