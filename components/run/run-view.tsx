@@ -68,7 +68,9 @@ export function RunView({ run, shared = false, review, studies, actions }: RunVi
           <p className="mt-0.5 flex flex-wrap items-center gap-2 text-[13px] text-ink-mute">
             <Badge tone="indigo">{STAGE_KIND_LABEL[scenario.stage.kind]}</Badge>
             <span>
-              saved {when(run.createdAt)} by {personName(run.createdBy)}
+              saved {when(run.createdAt)}
+              {/* A link holder sees the run, not who in the team made it. */}
+              {shared ? null : ` by ${personName(run.createdBy)}`}
             </span>
             <span>· re-run on the server ({result.solver.name}, {result.samples.t.length.toLocaleString("en")} stored samples)</span>
           </p>
