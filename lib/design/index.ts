@@ -1,7 +1,7 @@
 // Design from spec: `design(spec)` → `railwise.design/1` (DESIGN.md) plus extras:
 // `errors` (target vs achieved), `reference` (how the reference is made), `assumptions`,
 // `warnings` and a seeded `monteCarlo` spread. Pure TypeScript: no React, Next or database.
-import { designSpecSchema, DESIGN_SCHEMA_ID, type DesignSpec } from "@/lib/schemas/design";
+import { designSpecSchema, DESIGN_SCHEMA_ID, type DesignSensor, type DesignSpec } from "@/lib/schemas/design";
 import { describeIssues, type Stage } from "@/lib/schemas/scenario";
 import { SERIES_TOLERANCE, type SeriesName } from "./eseries";
 import { formatQuantity, formatRkm } from "./notation";
@@ -15,6 +15,7 @@ import {
   type MonteCarloResult,
 } from "./analysis";
 import { contextOf, DesignError, synthesize, type Role } from "./synthesis";
+import { sensorFrontEnd, type SensorSpec } from "./sensors";
 
 export { worstCase, monteCarlo, stageFigures, thevenin, outputSwing, conditionsOf } from "./analysis";
 export type { Figures, FigureName, Interval, WorstCase, MonteCarloOptions, MonteCarloResult, SpreadOptions, ReferenceDivider } from "./analysis";
@@ -53,6 +54,8 @@ export interface DesignResult {
   /** How the spec was read (e.g. an inverting gain given as a magnitude). */
   notes: string[];
   monteCarlo?: MonteCarloResult;
+  /** With a `sensor` in the spec: the thresholds in the sensor's units. */
+  sensor?: SensorReport;
 }
 
 const ROLE_ORDER: Role[] = ["rInput", "rGround", "rReference", "rTop", "rBottom", "rFeedback", "rTiming", "cTiming"];
@@ -79,6 +82,89 @@ export function design(input: unknown): DesignResult {
   const parsed = designSpecSchema.safeParse(input);
   if (!parsed.success) throw new DesignSpecError(describeIssues(parsed.error));
   const spec = parsed.data;
+  return spec.sensor ? designWithSensor(spec, spec.sensor) : designVolts(spec);
+}
+
+export interface SensorReport {
+  kind: DesignSensor["kind"];
+  unit: string;
+  /** Rising quantity → falling stage input (an NTC at the bottom of its divider). */
+  inverted: boolean;
+  target: { upperThreshold: number; lowerThreshold: number };
+  /** The voltage thresholds the stage was designed for. */
+  voltageTarget: { upperThreshold: number; lowerThreshold: number };
+  achieved: { upperThreshold: number | null; lowerThreshold: number | null };
+  worstCase: { upperThreshold: Interval | null; lowerThreshold: Interval | null };
+  /** NTC: self-heating at the warmer threshold (the larger power for an NTC at the bottom … or top). */
+  selfHeating?: { atThreshold: number; power: number; temperatureRise: number; limit: number; dissipationConstant: number };
+}
+
+/** Thresholds in sensor units → stage-input volts → design → back to sensor units. */
+function designWithSensor(spec: DesignSpec, sensor: DesignSensor): DesignResult {
+  const fe = sensorFrontEnd(sensor as SensorSpec, spec.supply.positive);
+  const t = spec.target;
+  const upper = (t.threshold ?? t.upperThreshold)!;
+  const lower = (t.threshold ?? t.lowerThreshold)!;
+  const vUpper = fe.toVolts(upper);
+  const vLower = fe.toVolts(lower);
+  const voltageTarget = { upperThreshold: Math.max(vUpper, vLower), lowerThreshold: Math.min(vUpper, vLower) };
+  const target = t.threshold !== undefined ? { threshold: voltageTarget.upperThreshold } : voltageTarget;
+  // The stage's upper voltage threshold belongs to the lower quantity when the sensor inverts.
+  const swap = (fig: string) => (fe.inverted ? ({ upperThreshold: "lowerThreshold", lowerThreshold: "upperThreshold" } as Record<string, string>)[fig] ?? fig : fig);
+  let result: DesignResult;
+  try {
+    result = designVolts({ ...spec, sensor: undefined, target });
+  } catch (e) {
+    if (e instanceof DesignError) {
+      const map = `target ${upper} / ${lower} ${fe.unit} is ${fmtV(vUpper)} / ${fmtV(vLower)} at the stage input`;
+      throw new DesignError(e.figure === "threshold" ? e.figure : swap(e.figure), `${e.detail} (through the sensor: ${map})`);
+    }
+    throw e;
+  }
+  const units = (v: number | null) => (v === null ? null : fe.toUnits(v));
+  const a = result.achieved;
+  const interval = (w: Interval | null): Interval | null => {
+    if (!w) return null;
+    const x = units(w[0]);
+    const y = units(w[1]);
+    return x === null || y === null ? null : [Math.min(x, y), Math.max(x, y)];
+  };
+  const upperV = fe.inverted ? "lowerThreshold" : "upperThreshold";
+  const lowerV = fe.inverted ? "upperThreshold" : "lowerThreshold";
+  const report: SensorReport = {
+    kind: sensor.kind,
+    unit: fe.unit,
+    inverted: fe.inverted,
+    target: { upperThreshold: upper, lowerThreshold: lower },
+    voltageTarget,
+    achieved: { upperThreshold: units(a[upperV]), lowerThreshold: units(a[lowerV]) },
+    worstCase: { upperThreshold: interval(result.worstCase[upperV]), lowerThreshold: interval(result.worstCase[lowerV]) },
+  };
+  if (fe.selfHeating && sensor.kind === "ntc") {
+    // The NTC dissipates most where its resistance is nearest rFixed; check both thresholds.
+    const [h1, h2] = [upper, lower].map((x) => ({ x, h: fe.selfHeating!(x) }));
+    const worst = h1.h.power >= h2.h.power ? h1 : h2;
+    report.selfHeating = {
+      atThreshold: worst.x,
+      power: worst.h.power,
+      temperatureRise: worst.h.temperatureRise,
+      limit: worst.h.limit,
+      dissipationConstant: sensor.dissipationConstant ?? 1e-3,
+    };
+    if (worst.h.warning) result.warnings.push(worst.h.warning);
+    if (sensor.dissipationConstant === undefined)
+      result.notes.push("sensor.dissipationConstant not given: self-heating assumes δ = 1 mW/K (a small bead in still air; common practice, no source)");
+  }
+  if (fe.inverted)
+    result.notes.push(`the sensor inverts: the stage's upper voltage threshold is the lower ${fe.unit} threshold and vice versa`);
+  return { ...result, sensor: report };
+}
+
+function fmtV(v: number): string {
+  return `${Number(v.toPrecision(5))} V`;
+}
+
+function designVolts(spec: DesignSpec): DesignResult {
   const ctx = contextOf(spec);
   const best = synthesize(ctx);
   const tolerance = spec.tolerance ?? SERIES_TOLERANCE[spec.series];

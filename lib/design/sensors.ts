@@ -254,3 +254,74 @@ export function batteryThresholds(d: VoltageDivider, v: { upper: number; lower: 
     drain: v.upper / (d.rTop + d.rBottom),
   };
 }
+
+// ---------------------------------------------------------------------------------------------
+// A sensor in front of a threshold stage (the design spec's `sensor`)
+
+export type SensorSpec =
+  | {
+      kind: "ntc";
+      model: { beta: number; r25: number; t0?: number } | { a: number; b: number; c: number } | { points: [number, number][] };
+      rFixed: number;
+      position: "top" | "bottom";
+      supplyVoltage?: number;
+      dissipationConstant?: number;
+      accuracy?: number;
+    }
+  | { kind: "linear"; voltsPerUnit: number; offset: number; unit?: string }
+  | { kind: "divider"; rTop: number; rBottom: number };
+
+export interface SensorFrontEnd {
+  unit: string;
+  /** Rising quantity gives a falling voltage at the stage input. */
+  inverted: boolean;
+  toVolts(x: number): number;
+  /** Null when the voltage is outside what the sensor can produce. */
+  toUnits(v: number): number | null;
+  /** NTC only: self-heating at the quantity x (°C). */
+  selfHeating?: (x: number) => SelfHeating;
+}
+
+/** Build the mapping quantity ↔ stage-input volts for a spec's sensor; NTC temperatures in °C. */
+export function sensorFrontEnd(sensor: SensorSpec, defaultSupply: number): SensorFrontEnd {
+  switch (sensor.kind) {
+    case "ntc": {
+      const m = sensor.model;
+      const model: NtcModel =
+        "beta" in m
+          ? { kind: "beta", r0: m.r25, beta: m.beta, t0: celsiusToKelvin(m.t0 ?? 25) }
+          : "points" in m
+            ? {
+                kind: "steinhart-hart",
+                ...fitSteinhartHart(m.points.map(([c, r]) => [celsiusToKelvin(c), r]) as [[number, number], [number, number], [number, number]]),
+              }
+            : { kind: "steinhart-hart", ...m };
+      const d: NtcDivider = { model, rFixed: sensor.rFixed, supply: sensor.supplyVoltage ?? defaultSupply, position: sensor.position };
+      return {
+        unit: "°C",
+        inverted: sensor.position === "bottom",
+        toVolts: (c) => ntcDividerVoltage(d, celsiusToKelvin(c)),
+        toUnits: (v) => (v > 0 && v < d.supply ? kelvinToCelsius(ntcDividerTemperature(d, v)) : null),
+        selfHeating: (c) =>
+          ntcSelfHeating(d, celsiusToKelvin(c), {
+            dissipationConstant: sensor.dissipationConstant ?? 1e-3,
+            accuracy: sensor.accuracy,
+          }),
+      };
+    }
+    case "linear":
+      return {
+        unit: sensor.unit ?? "unit",
+        inverted: sensor.voltsPerUnit < 0,
+        toVolts: (x) => linearSensorVolts(sensor, x),
+        toUnits: (v) => linearSensorValue(sensor, v),
+      };
+    case "divider":
+      return {
+        unit: "V",
+        inverted: false,
+        toVolts: (x) => dividerOutput(sensor, x),
+        toUnits: (v) => dividerInput(sensor, v),
+      };
+  }
+}

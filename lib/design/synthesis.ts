@@ -20,9 +20,9 @@ import {
 export class DesignError extends Error {
   constructor(
     readonly figure: string,
-    message: string,
+    readonly detail: string,
   ) {
-    super(`${figure}: ${message}`);
+    super(`${figure}: ${detail}`);
     this.name = "DesignError";
   }
 }

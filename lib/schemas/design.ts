@@ -41,6 +41,57 @@ export const designTargetSchema = z.strictObject({
     .optional(),
 });
 
+const pos = (what: string) =>
+  finite(what).refine((v) => v > 0, { message: `${what} must be greater than 0` });
+const celsius = (what: string) =>
+  finite(what).refine((v) => v > -273.15 && v < 1000, { message: `${what} must be a temperature in °C above −273.15` });
+
+/** NTC curve: Beta (with R at t0 °C, default 25 °C), Steinhart–Hart coefficients, or three [°C, Ω] points to fit. */
+export const ntcModelSchema = z.union(
+  [
+    z.strictObject({ beta: pos("sensor.model.beta (K)"), r25: pos("sensor.model.r25 (Ω)"), t0: celsius("sensor.model.t0 (°C)").optional() }),
+    z.strictObject({ a: finite("sensor.model.a"), b: pos("sensor.model.b"), c: finite("sensor.model.c").refine((v) => v >= 0, { message: "sensor.model.c must not be negative" }) }),
+    z.strictObject({
+      points: z
+        .array(z.tuple([celsius("sensor.model.points temperature (°C)"), pos("sensor.model.points resistance (Ω)")]), {
+          error: "sensor.model.points must be three [°C, Ω] pairs",
+        })
+        .length(3, { message: "sensor.model.points must hold exactly three [°C, Ω] pairs" }),
+    }),
+  ],
+  { error: "sensor.model must be { beta, r25, t0? }, { a, b, c } (Steinhart–Hart) or { points: [[°C, Ω] × 3] }" },
+);
+
+/**
+ * Optional sensor in front of the stage: the target thresholds are then in the sensor's units
+ * (°C for an NTC, the measured unit for a linear sensor, source volts for a divider).
+ */
+export const sensorSchema = z.discriminatedUnion(
+  "kind",
+  [
+    z.strictObject({
+      kind: z.literal("ntc"),
+      model: ntcModelSchema,
+      rFixed: pos("sensor.rFixed (Ω)"),
+      position: z.enum(["top", "bottom"], { error: 'sensor.position must be "top" or "bottom" (where the NTC sits)' }),
+      /** Divider supply (V); default supply.positive. */
+      supplyVoltage: pos("sensor.supplyVoltage (V)").optional(),
+      /** Dissipation constant δ (W/K) for the self-heating check. */
+      dissipationConstant: pos("sensor.dissipationConstant (W/K)").optional(),
+      /** Accuracy wanted (K); self-heating above a quarter of it is flagged. Default 0.5 K. */
+      accuracy: pos("sensor.accuracy (K)").optional(),
+    }),
+    z.strictObject({
+      kind: z.literal("linear"),
+      voltsPerUnit: finite("sensor.voltsPerUnit").refine((v) => v !== 0, { message: "sensor.voltsPerUnit must not be 0" }),
+      offset: volts("sensor.offset"),
+      unit: z.string().max(20, { message: "sensor.unit must be at most 20 characters" }).optional(),
+    }),
+    z.strictObject({ kind: z.literal("divider"), rTop: pos("sensor.rTop (Ω)"), rBottom: pos("sensor.rBottom (Ω)") }),
+  ],
+  { error: 'sensor.kind must be "ntc", "linear" or "divider"' },
+);
+
 export const designSpecSchema = z
   .strictObject({
     schema: z.literal(DESIGN_SPEC_SCHEMA_ID, { error: `schema must be "${DESIGN_SPEC_SCHEMA_ID}"` }),
@@ -69,6 +120,7 @@ export const designSpecSchema = z
       .optional(),
     /** Share of each nominal output headroom that the worst case sweeps (± this fraction); default 0.2. */
     headroomSpread: fraction("headroomSpread", 1).optional(),
+    sensor: sensorSchema.optional(),
     monteCarlo: z
       .union([
         z.literal(false),
@@ -154,8 +206,11 @@ export const designSpecSchema = z
         break;
     }
     if (s.inputAt !== undefined && s.kind !== "comparator") issue(["inputAt"], "inputAt applies to the comparator only");
+    if (s.sensor && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
+      issue(["sensor"], "a sensor applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)");
   });
 
 export type DesignSpec = z.infer<typeof designSpecSchema>;
 export type DesignSpecInput = z.input<typeof designSpecSchema>;
 export type DesignTarget = DesignSpec["target"];
+export type DesignSensor = NonNullable<DesignSpec["sensor"]>;

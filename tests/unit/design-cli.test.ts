@@ -63,6 +63,8 @@ describe("npm run design", () => {
     ["frequency out of reach", { ...BASE, kind: "relaxation-oscillator", target: { frequency: 1e-4 } }, /frequency: .*outside what resistors/],
     ["oscillator too fast for the slew rate", { ...BASE, kind: "relaxation-oscillator", target: { frequency: 20_000 } }, /frequency: at 20000 Hz the output edges .* fill 19\.\d+ % of the period/],
     ["duty with a centred fixed reference", { ...BASE, kind: "relaxation-oscillator", supply: { positive: 5, negative: -5 }, opamp: { ...BASE.opamp, inputOffset: 0 }, reference: 0, target: { frequency: 100, duty: 0.3 } }, /duty: reference 0 V sits at the centre of the output swing, so the duty stays at 0\.5/],
+    ["sensor on an amplifier", { ...BASE, kind: "inverting-amplifier", target: { gain: 2 }, reference: 0, sensor: { kind: "divider", rTop: 1e4, rBottom: 1e4 } }, /sensor: a sensor applies to threshold stages only/],
+    ["NTC model without a curve", { ...BASE, sensor: { kind: "ntc", model: { r25: 1e4 }, rFixed: 1e4, position: "bottom" } }, /sensor\.model/],
     ["wrong target for the kind", { ...BASE, target: { gain: 3 } }, /target\.gain does not apply to schmitt-inverting/],
     ["unknown series", { ...BASE, series: "E7" }, /series: series must be one of/],
     ["missing supply", { ...BASE, supply: undefined }, /supply/],

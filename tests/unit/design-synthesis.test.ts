@@ -162,6 +162,52 @@ describe("sensor front ends into synthesis", () => {
   });
 });
 
+describe("sensor in the design spec (thresholds in sensor units)", () => {
+  it("NTC at the bottom, 19 °C / 17.5 °C, E96: achieved and simulated switching temperatures", () => {
+    const s = spec({
+      name: "",
+      spec: {
+        kind: "schmitt-inverting", supply: SINGLE, series: "E96",
+        target: { upperThreshold: 19, lowerThreshold: 17.5 },
+        sensor: { kind: "ntc", model: { beta: 3977, r25: 10_000 }, rFixed: 10_000, position: "bottom", dissipationConstant: 1.5e-3, accuracy: 0.5 },
+      },
+    });
+    const d = design(s);
+    const r = d.sensor!;
+    expect(r.inverted).toBe(true);
+    expect(Math.abs(r.achieved.upperThreshold! - 19)).toBeLessThan(0.05);
+    expect(Math.abs(r.achieved.lowerThreshold! - 17.5)).toBeLessThan(0.05);
+    // Simulated voltages back to °C through the same Beta curve (REFERENCES.md NTC Beta model).
+    const divider = { model: { kind: "beta" as const, r0: 10_000, beta: 3977 }, rFixed: 10_000, supply: 5, position: "bottom" as const };
+    const m = simulateDesign(s, d);
+    const back = voltageToTemperatureThresholds(divider, { upperThreshold: m.upperThreshold!, lowerThreshold: m.lowerThreshold! });
+    expect(Math.abs(back.upper - celsiusToKelvin(r.achieved.upperThreshold!))).toBeLessThan(0.02);
+    expect(Math.abs(back.lower - celsiusToKelvin(r.achieved.lowerThreshold!))).toBeLessThan(0.02);
+    // Self-heating at 17.5 °C (NTC ≈ 11.15 kΩ, nearest the 10 kΩ fixed part): P = I²·R_ntc [Joule's law].
+    const rNtc = 10_000 * Math.exp(3977 * (1 / celsiusToKelvin(17.5) - 1 / 298.15));
+    const pAt = (rn: number) => (5 / (rn + 10_000)) ** 2 * rn;
+    expect(r.selfHeating!.power).toBeCloseTo(Math.max(pAt(rNtc), pAt(10_000 * Math.exp(3977 * (1 / celsiusToKelvin(19) - 1 / 298.15)))), 12);
+    expect(r.selfHeating!.temperatureRise).toBeCloseTo(r.selfHeating!.power / 1.5e-3, 12);
+    expect(d.warnings.join(" ")).toMatch(/self-heating/);
+  });
+
+  it("battery divider into a comparator: cut at 11.4 V", () => {
+    const s = spec({ name: "", spec: { kind: "comparator", supply: SINGLE, target: { threshold: 11.4 }, sensor: { kind: "divider", rTop: 100_000, rBottom: 33_000 } } });
+    const d = design(s);
+    expect(rel(d.sensor!.achieved.upperThreshold!, 11.4)).toBeLessThan(0.02);
+    expect(d.sensor!.voltageTarget.upperThreshold).toBeCloseTo((11.4 * 33) / 133, 12);
+  });
+
+  it("a falling linear sensor swaps the thresholds", () => {
+    const s = spec({ name: "", spec: { kind: "schmitt-noninverting", supply: SINGLE, target: { upperThreshold: 80, lowerThreshold: 60 }, sensor: { kind: "linear", voltsPerUnit: -0.02, offset: 4.5, unit: "%" } } });
+    const d = design(s);
+    // 80 % → 2.9 V, 60 % → 3.3 V: the stage's upper voltage belongs to the lower level.
+    expect(d.sensor!.voltageTarget).toEqual({ upperThreshold: 4.5 - 0.02 * 60, lowerThreshold: 4.5 - 0.02 * 80 });
+    expect(rel(d.sensor!.achieved.upperThreshold!, 80)).toBeLessThan(0.02);
+    expect(rel(d.sensor!.achieved.lowerThreshold!, 60)).toBeLessThan(0.02);
+  });
+});
+
 describe("closed forms against REFERENCES.md", () => {
   const railToRail = { high: 5, low: 0, offset: 0, openLoopGain: 1e12 };
 
