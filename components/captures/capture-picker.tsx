@@ -52,7 +52,7 @@ export function CapturePicker({ onPick, disabled }: { onPick: (component: Captur
   return (
     <div className="flex flex-col gap-1.5">
       <div className="flex items-center gap-2">
-        <Select aria-label="Capture" className="h-8 min-w-0 flex-1 text-[13px]" value={id} onChange={(e) => setId(e.target.value)} disabled={disabled}>
+        <Select aria-label="Capture" className="h-8! min-w-0 flex-1 py-0 text-[13px]" value={id} onChange={(e) => setId(e.target.value)} disabled={disabled}>
           <option value="">Choose a capture…</option>
           {items.map((c) => (
             <option key={c.id} value={c.id}>

@@ -62,7 +62,7 @@ export function LinksPanel({ runId }: { runId: string }) {
         <label htmlFor={`expiry-${runId}`} className="text-[12px] text-ink-soft">
           Expires
         </label>
-        <Select id={`expiry-${runId}`} className="h-7 w-28 text-[13px]" value={days} onChange={(e) => setDays(e.target.value)}>
+        <Select id={`expiry-${runId}`} className="h-7! w-28 py-0 text-[13px]" value={days} onChange={(e) => setDays(e.target.value)}>
           {EXPIRY_CHOICES.map((c) => (
             <option key={c.value} value={c.value}>
               {c.label}

@@ -16,7 +16,7 @@ export function ReviewPanel({ runId, role }: { runId: string; role: RoleName }) 
   const canSignOff = role === "owner" || role === "reviewer";
   const canShare = role === "owner" || role === "designer";
   return (
-    <div className="grid items-start gap-3 lg:grid-cols-3" data-testid="review-panel">
+    <div className={`grid items-start gap-3 ${canShare ? "lg:grid-cols-3" : "lg:grid-cols-2"}`} data-testid="review-panel">
       <Card title="Sign-off">
         <SignoffPanel runId={runId} canSignOff={canSignOff} />
       </Card>

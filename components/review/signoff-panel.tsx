@@ -46,16 +46,20 @@ export function SignoffPanel({ runId, canSignOff, onChange }: { runId: string; c
         )}
       </div>
       {error && <p className="text-[13px] text-alert">{errorMessage(error)}</p>}
-      {items.length > 0 && (
-        <ol className="flex flex-col gap-1.5" aria-label="Sign-offs">
-          {items.map((s) => (
-            <li key={s.id} className="text-[13px] text-ink-soft">
-              <span className="font-medium text-ink">{DECISION_LABEL[s.decision]}</span> · {s.reviewer.name} ·{" "}
-              <span className="font-mono text-[11px] text-ink-faint">{formatDate(s.createdAt)}</span>
-              {s.note && <p className="mt-0.5 whitespace-pre-wrap break-words">{s.note}</p>}
-            </li>
-          ))}
-        </ol>
+      {latest?.note && <p className="text-[13px] whitespace-pre-wrap break-words text-ink-soft">{latest.note}</p>}
+      {items.length > 1 && (
+        <details className="text-[13px]">
+          <summary className="cursor-pointer text-[12px] text-ink-mute">Earlier decisions ({items.length - 1})</summary>
+          <ol className="mt-1.5 flex flex-col gap-1.5" aria-label="Earlier sign-offs">
+            {items.slice(1).map((s) => (
+              <li key={s.id} className="text-ink-soft">
+                <span className="font-medium text-ink">{DECISION_LABEL[s.decision]}</span> · {s.reviewer.name} ·{" "}
+                <span className="font-mono text-[11px] text-ink-faint">{formatDate(s.createdAt)}</span>
+                {s.note && <p className="mt-0.5 whitespace-pre-wrap break-words">{s.note}</p>}
+              </li>
+            ))}
+          </ol>
+        </details>
       )}
       {canSignOff && (
         <form onSubmit={submit} className="flex flex-col gap-2 border-t border-paper-line pt-3" aria-label="Sign off">
@@ -69,7 +73,7 @@ export function SignoffPanel({ runId, canSignOff, onChange }: { runId: string; c
             ))}
           </fieldset>
           <Field label="Note" htmlFor={`note-${runId}`} hint={decision === "changes_requested" ? "Say what must change." : "Optional."}>
-            <TextArea id={`note-${runId}`} rows={2} maxLength={NOTE_MAX} value={note} onChange={(e) => setNote(e.target.value)} />
+            <TextArea id={`note-${runId}`} rows={2} className="min-h-14" maxLength={NOTE_MAX} value={note} onChange={(e) => setNote(e.target.value)} />
           </Field>
           <div className="flex justify-end">
             <Button type="submit" variant="primary" size="sm" disabled={busy}>

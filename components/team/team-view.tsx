@@ -1,7 +1,7 @@
 "use client";
 
 import { useState, type FormEvent } from "react";
-import { Button } from "@/components/ui/button";
+import { Button, ButtonLink } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { PageHeader } from "@/components/ui/page-header";
 import { RoleBadge } from "@/components/ui/badge";
@@ -22,9 +22,11 @@ const ROLE_HELP: Record<RoleName, string> = {
 
 export interface TeamViewProps {
   me: { id: string; role: RoleName; teamName: string };
+  /** The local mail sink's page, when mail goes there (demos, development). */
+  mailboxHref?: string | null;
 }
 
-export function TeamView({ me }: TeamViewProps) {
+export function TeamView({ me, mailboxHref }: TeamViewProps) {
   const isOwner = me.role === "owner";
   const members = useMembers();
   const invitations = useInvitations(isOwner);
@@ -48,7 +50,17 @@ export function TeamView({ me }: TeamViewProps) {
   const rows = members.data?.items ?? [];
   return (
     <div className="flex flex-col gap-4">
-      <PageHeader title="Team" description={`${me.teamName} · ${rows.length} member${rows.length === 1 ? "" : "s"}`} />
+      <PageHeader
+        title="Team"
+        description={`${me.teamName} · ${rows.length} member${rows.length === 1 ? "" : "s"}`}
+        actions={
+          mailboxHref ? (
+            <ButtonLink href={mailboxHref} size="sm" title="Mail caught by the local SMTP sink (invitations, comments, sign-offs)">
+              Mailbox
+            </ButtonLink>
+          ) : undefined
+        }
+      />
 
       {error && (
         <p role="alert" className="rounded-md border border-alert/30 bg-alert-soft px-3 py-2 text-[13px] text-alert">
@@ -56,7 +68,7 @@ export function TeamView({ me }: TeamViewProps) {
         </p>
       )}
 
-      <div className={isOwner ? "grid gap-5 lg:grid-cols-[minmax(0,1fr)_320px]" : "grid gap-5"}>
+      <div className={isOwner ? "grid items-start gap-4 lg:grid-cols-[minmax(0,1fr)_320px]" : "grid gap-4"}>
         <Card title="Members" padded={false}>
           {members.error ? (
             <p className="p-4 text-[13px] text-alert">{errorMessage(members.error)}</p>
@@ -83,7 +95,7 @@ export function TeamView({ me }: TeamViewProps) {
                       {isOwner ? (
                         <Select
                           aria-label={`Role of ${m.name}`}
-                          className="h-7 w-32 text-[13px]"
+                          className="h-7! w-32 py-0 text-[13px]"
                           value={m.role}
                           disabled={busy !== null}
                           onChange={(e) =>

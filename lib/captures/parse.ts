@@ -54,6 +54,8 @@ function toNumber(cell: string | undefined): number | null {
 
 function readRows(text: string): string[][] {
   if (text.length === 0 || text.trim().length === 0) throw new CaptureError("The file is empty.");
+  // NUL bytes or undecodable bytes: a spreadsheet or scope binary, not a CSV export.
+  if (/[\u0000\uFFFD]/.test(text.slice(0, 65536))) throw new CaptureError("The file is not a text CSV (it contains binary data); export it as CSV.");
   const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), { skipEmptyLines: "greedy", dynamicTyping: false });
   const fatal = parsed.errors.find((e) => e.type === "Quotes");
   if (fatal) throw new CaptureError(`Row ${(fatal.row ?? 0) + 1}: ${fatal.message}.`);

@@ -41,7 +41,7 @@ export async function listMailbox(limit = 100): Promise<MailboxMessage[]> {
   const out: MailboxMessage[] = [];
   for (const name of names.slice(0, limit)) {
     try {
-      out.push(JSON.parse(await readFile(/*turbopackIgnore: true*/ path.join(mailDir(), name), "utf8")) as MailboxMessage);
+      out.push(JSON.parse(await readFile(path.join(/*turbopackIgnore: true*/ mailDir(), name), "utf8")) as MailboxMessage);
     } catch {
       // A file being written or damaged is skipped, not fatal.
     }

@@ -61,6 +61,11 @@ describe("parseCapture", () => {
     expect(refusal("t,v\n0,1\n1,1.5V\n", { timeColumn: "t", voltsColumn: "v" })).toMatch(/not a number/);
   });
 
+  it("refuses binary files", () => {
+    expect(refusal("t,v\n0,1\u0000\n", { timeColumn: "t", voltsColumn: "v" })).toMatch(/not a text CSV/);
+    expect(refusal("\uFFFD\uFFFD\u0001\u0002", { timeColumn: 0, voltsColumn: 1 })).toMatch(/not a text CSV/);
+  });
+
   it("requires strictly increasing time", () => {
     expect(refusal("t,v\n0,1\n1,2\n1,3\n", { timeColumn: "t", voltsColumn: "v" })).toMatch(/^Row 4, column "t": time 1 is not after/);
     expect(refusal("t,v\n0,1\n2,2\n1,3\n", { timeColumn: "t", voltsColumn: "v" })).toMatch(/strictly increasing/);

@@ -29,7 +29,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
         <section className="mt-6 rounded-lg border border-paper-line bg-paper-card p-6">
           {invitation ? (
             <>
-              <h1 className="text-lg font-semibold text-ink">Join {invitation.teamName}</h1>
+              <h1 className="text-lg font-semibold text-ink">{`Join ${invitation.teamName}`}</h1>
               <p className="mt-1 text-[13px] text-ink-soft">
                 You are invited as <RoleBadge role={invitation.role} />. The link works once and expires{" "}
                 <span className="font-mono">{new Date(invitation.expiresAt).toISOString().replace("T", " ").slice(0, 16)} UTC</span>.

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { notFound } from "next/navigation";
 import { Wordmark } from "@/components/layout/brand-mark";
 import { SharedRun } from "@/components/review/shared-run";
@@ -41,9 +42,15 @@ export default async function SharedRunPage({ params }: { params: Promise<{ toke
       <header className="border-b border-paper-line bg-paper-card">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-2 px-4 py-2 sm:px-6">
           <Wordmark />
-          <span className="text-[12px] text-ink-mute">
-            Read-only run link{expiresAt ? ` · valid until ${expiresAt.replace("T", " ").slice(0, 16)} UTC` : ""}
-          </span>
+          <div className="flex flex-wrap items-center gap-x-4 gap-y-1 text-[12px]">
+            <span className="text-ink-mute">
+              Read-only run link{expiresAt ? ` · valid until ${expiresAt.replace("T", " ").slice(0, 16)} UTC` : ""}
+            </span>
+            {/* Team members who got the link can sign in and land on the run to comment or sign off. */}
+            <Link href={`/signin?callbackUrl=${encodeURIComponent(`/runs/${run.id}`)}`} className="font-medium text-copper hover:underline">
+              Team member? Sign in to review
+            </Link>
+          </div>
         </div>
       </header>
       <main className="mx-auto w-full max-w-7xl flex-1 px-4 py-5 sm:px-6">
