@@ -31,7 +31,11 @@ function tag(u: uPlot, x: number, text: string, color: string, row: number, side
   ctx.save();
   ctx.font = `${10 * dpr}px var(--font-jb), ui-monospace, monospace`;
   ctx.fillStyle = color;
-  const right = side ? side === "left" : px > u.bbox.left + u.bbox.width * 0.7;
+  let right = side ? side === "left" : px > u.bbox.left + u.bbox.width * 0.7;
+  // Keep the label inside the plotting area: flip it to the other side of its line if needed.
+  const w = ctx.measureText(text).width + 4 * dpr;
+  if (right && px - w < u.bbox.left) right = false;
+  else if (!right && px + w > u.bbox.left + u.bbox.width) right = true;
   ctx.textAlign = right ? "right" : "left";
   ctx.textBaseline = "top";
   ctx.fillText(text, px + (right ? -4 : 4) * dpr, u.bbox.top + (4 + row * 13) * dpr);

@@ -80,6 +80,11 @@ beforeAll(async () => {
   await page.goto(`${server.url}/scenarios/${scenarioId}`);
   await page.getByTestId("studies-card").waitFor({ timeout: 60_000 });
   figures.hardwareConcurrency = await page.evaluate(() => navigator.hardwareConcurrency);
+  // Baseline: the idle Workbench for 5 s, to tell the studies' main-thread cost from this
+  // machine's own stalls (other processes share its two cores).
+  await startJankProbe(page);
+  await page.waitForTimeout(5000);
+  figures.idleBaseline = await stopJankProbe(page);
 });
 
 afterAll(async () => {
