@@ -1,6 +1,7 @@
 // `npm run bench`: the performance table of the simulation core, in one run, side by side.
 //  1. noisy Schmitt trigger with 1,000,000 noise segments, 1,001 output points (exact solver):
-//     in-process wall time (median of 5 after 2 warm-ups), CPU time, garbage collections during
+//     in-process wall time (median of 7 after 5 warm-ups; the first, cold run is shown too),
+//     CPU time, garbage collections during
 //     the timed runs (a solver that allocated per step would trigger many), and peak memory
 //     growth measured in a fresh child process.
 //  2. 60 s slow ramp through a stiff 10 MHz-GBW amplifier: exact solver vs odex on the same run,
@@ -53,6 +54,7 @@ interface Timing {
   gcs: number;
   result: SimResult | null;
   error?: string;
+  coldMs?: number;
 }
 
 let gcCount = 0;
@@ -77,11 +79,15 @@ function timeOnce(s: Scenario, o: SimOptions = {}): Timing {
   return { wallMs, cpuMs: (c.user + c.system) / 1000, gcs: gcCount - g0, result, error };
 }
 
-function median(s: Scenario, o: SimOptions = {}, warm = 2, runs = 5): Timing {
-  for (let i = 0; i < warm; i++) timeOnce(s, o);
+function median(s: Scenario, o: SimOptions = {}, warm = 5, runs = 7): Timing {
+  let coldMs = 0;
+  for (let i = 0; i < warm; i++) {
+    const t = timeOnce(s, o);
+    if (i === 0) coldMs = t.wallMs;
+  }
   const all = Array.from({ length: runs }, () => timeOnce(s, o)).sort((a, b) => a.wallMs - b.wallMs);
   const mid = all[Math.floor(runs / 2)];
-  return { ...mid, gcs: all.reduce((n, t) => n + t.gcs, 0) };
+  return { ...mid, gcs: all.reduce((n, t) => n + t.gcs, 0), coldMs };
 }
 
 /** Child process: peak memory growth of one noisy run, from a clean baseline. */
@@ -130,7 +136,10 @@ function main(): void {
   gcObserver.observe({ entryTypes: ["gc"] });
   const load = os.loadavg().map((x) => x.toFixed(2)).join(" ");
   process.stdout.write(`Railwise sim bench — Node ${process.version}, ${os.cpus().length} CPUs, load average ${load}\n`);
-  process.stdout.write("wall = median of 5 in-process runs after 2 warm-ups; cpu = process CPU time of that run\n\n");
+  process.stdout.write(
+    "wall = median of 7 in-process runs after 5 warm-ups (cold = the very first run, JIT not warm); cpu = process CPU time of the median run\n" +
+      "(wall ≫ cpu means other processes were competing for the 2 cores)\n\n",
+  );
 
   const segments = noiseSegmentCount(NOISY.input.noise!, NOISY.run.duration);
   const noisy = median(NOISY);
@@ -140,6 +149,7 @@ function main(): void {
   const stiffOdex = timeOnce(STIFF, { solver: "odex", maxSteps: ODEX_BUDGET });
   const nsExact = median(NONSTIFF);
   const nsOdex = median(NONSTIFF, { solver: "odex" }, 1, 3);
+  const cold = (t: Timing) => (t.coldMs === undefined ? "" : ms(t.coldMs));
 
   const odexNote = stiffOdex.result
     ? `finished, ${stiffOdex.result.solver.steps.toLocaleString("en")} steps`
@@ -150,12 +160,13 @@ function main(): void {
 
   const n = noisy.result!;
   const rows = [
-    ["case", "solver", "wall ms", "cpu ms", "steps", "GCs (5 runs)", "notes", "target", "met"],
+    ["case", "solver", "wall ms", "cpu ms", "cold ms", "steps", "GCs (7 runs)", "notes", "target", "met"],
     [
       `noisy Schmitt, ${segments.toLocaleString("en")} noise segments, 1,001 points`,
       "exact",
       ms(noisy.wallMs),
       ms(noisy.cpuMs),
+      cold(noisy),
       n.solver.steps.toLocaleString("en"),
       String(noisy.gcs),
       `${n.metrics.transitions} edges, chatter ${n.metrics.chatter}`,
@@ -169,6 +180,7 @@ function main(): void {
       "",
       "",
       "",
+      "",
       mem ? `${mb(mem.growth)} MB (sampled during run ${mb(mem.sampled)} MB)` : "not measured",
       "< 100 MB",
       mem ? (mem.growth < 100 * 1048576 ? "yes" : "NO") : "?",
@@ -178,6 +190,7 @@ function main(): void {
       "exact",
       ms(stiffExact.wallMs),
       ms(stiffExact.cpuMs),
+      cold(stiffExact),
       stiffExact.result!.solver.steps.toLocaleString("en"),
       String(stiffExact.gcs),
       `clipped ${(stiffExact.result!.metrics.clippedFraction * 100).toFixed(2)} %`,
@@ -189,6 +202,7 @@ function main(): void {
       "odex",
       ms(stiffOdex.wallMs),
       ms(stiffOdex.cpuMs),
+      "",
       stiffOdex.result ? stiffOdex.result.solver.steps.toLocaleString("en") : `${ODEX_BUDGET.toLocaleString("en")} (limit)`,
       String(stiffOdex.gcs),
       odexNote,
@@ -199,6 +213,7 @@ function main(): void {
       "  ratio odex / exact on the stiff run",
       "",
       `${stiffOdex.result ? "" : "≥ "}${Math.round(ratio).toLocaleString("en")}×`,
+      "",
       "",
       "",
       "",
@@ -213,6 +228,7 @@ function main(): void {
       "exact",
       ms(nsExact.wallMs),
       ms(nsExact.cpuMs),
+      cold(nsExact),
       nsExact.result!.solver.steps.toLocaleString("en"),
       String(nsExact.gcs),
       `${nsExact.result!.metrics.transitions} edges`,
@@ -224,6 +240,7 @@ function main(): void {
       "odex",
       ms(nsOdex.wallMs),
       ms(nsOdex.cpuMs),
+      cold(nsOdex),
       nsOdex.result!.solver.steps.toLocaleString("en"),
       String(nsOdex.gcs),
       `ratio odex/exact ${Math.round(nsOdex.wallMs / nsExact.wallMs)}×`,

@@ -503,7 +503,12 @@ export class ExactSolver {
     let guard = 0;
     const fastRail = !this.twoD && this.m === 0;
     while (t < T) {
-      if (fastRail && (regime === RAIL_HIGH || regime === RAIL_LOW) && !needSelect) {
+      if (needSelect) {
+        this.inputPiece(t);
+        regime = this.select(vo, vc);
+        needSelect = false;
+      }
+      if (fastRail && (regime === RAIL_HIGH || regime === RAIL_LOW)) {
         // Held at a rail (the bulk of a noisy comparator or Schmitt run): while the drive keeps
         // pushing into the rail and vd keeps its sign, a piece needs no root finding at all.
         const high = regime === RAIL_HIGH;
@@ -511,6 +516,40 @@ export class ExactSolver {
         const vdSide = this.sides[MONITOR_VD] === 1;
         const A0V = V / this.A0;
         let held = 0;
+        const sig = p.signal;
+        const kn = sig.noise;
+        if (kn !== null && this.td === 0) {
+          // Knot-stepping: between noise knots the input is linear, so checking the drive and
+          // vd at each knot is the whole test. Breaks out (to the per-piece code below) at the
+          // first knot that fails, at a breakpoint of the other components, or at the end.
+          this.inputPiece(t); // validates the cache of the other components at t
+          const dt = sig.noiseDt;
+          const lastK = kn.length - 1;
+          let k = Math.floor(t / dt);
+          if ((k + 1) * dt <= t) k++;
+          const pEnd = Math.min(T, sig.partsTo);
+          const refT = sig.partsRefT;
+          const refV = sig.partsRefV;
+          const slope = sig.partsSlope;
+          const al = this.al;
+          const c0 = this.be * V + this.de;
+          const trackVd = p.trackVd;
+          while (k < lastK) {
+            const tb = (k + 1) * dt;
+            if (!(tb > t) || tb >= pEnd) break;
+            const b = al * (refV + slope * (tb - refT) + kn[k + 1]) + c0;
+            if (high ? b < A0V : b > A0V) break;
+            if (trackVd && b >= 0 !== vdSide) break;
+            while (sample < ts.length && ts[sample] <= tb) out[sample++] = V;
+            held += tb - t;
+            t = tb;
+            k++;
+            if ((++this.steps & 1023) === 0) {
+              if (p.shouldCancel?.()) throw new SimCancelled();
+              p.onProgress?.(t / T);
+            }
+          }
+        }
         while (t < T) {
           const tb = Math.min(T, this.inputPiece(t));
           const h = tb - t;
@@ -531,7 +570,6 @@ export class ExactSolver {
         if (t >= T) break;
       }
       const tb = Math.min(T, this.inputPiece(t), this.m > 0 ? t + this.pieceCapSine : Infinity);
-      if (needSelect) regime = this.select(vo, vc);
       if (this.steps === 0 && p.trackVd) {
         const vd0 = this.al * this.uAt0() + this.be * vo + this.ga * vc + this.de;
         this.sides[MONITOR_VD] = vd0 >= 0 ? 1 : 0;

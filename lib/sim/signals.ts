@@ -101,11 +101,12 @@ export class InputSignal {
   }
 
   // Cache of the non-noise part: affine on [partsFrom, partsTo) through (partsRefT, partsRefV).
-  private partsFrom = NaN;
-  private partsTo = -Infinity;
-  private partsRefT = 0;
-  private partsRefV = 0;
-  private partsSlope = 0;
+  // Read by the solver's knot-stepping loop; written only by `piece`.
+  partsFrom = NaN;
+  partsTo = -Infinity;
+  partsRefT = 0;
+  partsRefV = 0;
+  partsSlope = 0;
   /** Set by `piece`: affine input (value at t, slope) valid up to pieceEnd. */
   pieceValue = 0;
   pieceSlope = 0;

@@ -39,6 +39,13 @@ const cases: Record<string, Scenario> = {
     input: { components: [{ kind: "sine", amplitude: 3, frequency: 100 }, { kind: "dc", level: 0.2 }] },
     run: { duration: 0.02, points: 1001 },
   }),
+  "noisy Schmitt trigger, single supply": scenario({
+    supply: { positive: 5, negative: 0 },
+    opamp: SLOW_PART,
+    stage: { kind: "schmitt-noninverting", rInput: 10e3, rFeedback: 100e3, reference: 2.5 },
+    input: { components: [{ kind: "triangle", amplitude: 1, frequency: 100, offset: 2.5 }], noise: { rms: 0.05, bandwidth: 1e4, seed: 11 } },
+    run: { duration: 0.02, points: 1001 },
+  }),
   "noisy comparator, pwl + pulse": scenario({
     opamp: SLOW_PART,
     stage: { kind: "comparator", reference: 0, inputAt: "noninverting" },
