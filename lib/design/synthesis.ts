@@ -337,17 +337,18 @@ function schmittInverting(ctx: SynthesisContext): Candidate {
   requireReference(vth, "lowerThreshold", "upperThreshold", `thresholds ${L} V … ${U} V with output limits ${fmt(low)} V … ${fmt(high)} V`, ctx);
   const { list } = ctx;
   let best: Candidate | null = null;
-  for (const { top, bottom } of dividerEnds(vth, ctx.supply))
-  for (const rf of list) {
-    const rth = rf * ratioIdeal;
-    const topIdeal = (rth * (top - bottom)) / (vth - bottom);
-    const bottomIdeal = (rth * (top - bottom)) / (top - vth);
-    for (const i of around(topIdeal, list)) {
-      for (const j of around(bottomIdeal, list)) {
-        const d = { rTop: list[i], rBottom: list[j], top, bottom };
-        const th = theveninOf(d, ctx);
-        const c = evaluate(stageOf(th.resistance, rf, th.voltage), { rTop: d.rTop, rBottom: d.rBottom, rFeedback: rf }, ctx, "auto", d);
-        if (Number.isFinite(c.error) && better(c, best)) best = c;
+  for (const { top, bottom } of dividerEnds(vth, ctx.supply)) {
+    for (const rf of list) {
+      const rth = rf * ratioIdeal;
+      const topIdeal = (rth * (top - bottom)) / (vth - bottom);
+      const bottomIdeal = (rth * (top - bottom)) / (top - vth);
+      for (const i of around(topIdeal, list)) {
+        for (const j of around(bottomIdeal, list)) {
+          const d = { rTop: list[i], rBottom: list[j], top, bottom };
+          const th = theveninOf(d, ctx);
+          const c = evaluate(stageOf(th.resistance, rf, th.voltage), { rTop: d.rTop, rBottom: d.rBottom, rFeedback: rf }, ctx, "auto", d);
+          if (Number.isFinite(c.error) && better(c, best)) best = c;
+        }
       }
     }
   }
@@ -490,19 +491,20 @@ function oscillator(ctx: SynthesisContext): Candidate {
     }
   } else {
     const { list } = ctx;
-    for (const { top, bottom } of dividerEnds(vth, ctx.supply))
-    for (const rf of list) {
-      const rth = (rf * k0) / (1 - k0);
-      for (const i of around((rth * (top - bottom)) / (vth - bottom), list, 1)) {
-        for (const j of around((rth * (top - bottom)) / (top - vth), list, 1)) {
-          const d = { rTop: list[i], rBottom: list[j], top, bottom };
-          const th = theveninOf(d, ctx);
-          addNet({
-            stage: { kind: "relaxation-oscillator", rReference: th.resistance, rFeedback: rf, reference: th.voltage },
-            values: { rTop: d.rTop, rBottom: d.rBottom, rFeedback: rf },
-            divider: d,
-            mode: "auto",
-          });
+    for (const { top, bottom } of dividerEnds(vth, ctx.supply)) {
+      for (const rf of list) {
+        const rth = (rf * k0) / (1 - k0);
+        for (const i of around((rth * (top - bottom)) / (vth - bottom), list, 1)) {
+          for (const j of around((rth * (top - bottom)) / (top - vth), list, 1)) {
+            const d = { rTop: list[i], rBottom: list[j], top, bottom };
+            const th = theveninOf(d, ctx);
+            addNet({
+              stage: { kind: "relaxation-oscillator", rReference: th.resistance, rFeedback: rf, reference: th.voltage },
+              values: { rTop: d.rTop, rBottom: d.rBottom, rFeedback: rf },
+              divider: d,
+              mode: "auto",
+            });
+          }
         }
       }
     }

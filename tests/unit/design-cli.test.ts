@@ -5,6 +5,7 @@ import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
+import { design } from "@/lib/design";
 
 const ROOT = path.resolve(__dirname, "../..");
 const TSX = path.join(ROOT, "node_modules/.bin/tsx");
@@ -50,24 +51,14 @@ describe("npm run design", () => {
     expect(JSON.parse(r.stdout).achieved.gain).toBeCloseTo(10, 2);
   });
 
+  // Spawned: the three rejections issue 4 names, and one per kind of failure.
   const rejects: [string, unknown, RegExp][] = [
     ["upper ≤ lower", { ...BASE, target: { upperThreshold: 1.7, lowerThreshold: 3.3 } }, /target\.upperThreshold.*must be above target\.lowerThreshold/],
-    ["upper = lower on a Schmitt trigger", { ...BASE, target: { upperThreshold: 2, lowerThreshold: 2 } }, /target\.upperThreshold/],
     ["deadband wider than the output swing", { ...BASE, target: { upperThreshold: 4.99, lowerThreshold: 0.01 } }, /upperThreshold: the deadband .* narrower than the output swing/],
     ["thresholds above what the reference can reach", { ...BASE, kind: "schmitt-noninverting", target: { upperThreshold: 12.5, lowerThreshold: 11.4 } }, /upperThreshold: .*reference of 10\.\d+ V, at or above the positive supply/],
-    ["threshold below the negative supply", { ...BASE, kind: "comparator", target: { threshold: -0.5 } }, /threshold: .*at or below the negative supply/],
     ["fixed reference contradicting the thresholds", { ...BASE, reference: 2.5, target: { upperThreshold: 4, lowerThreshold: 3.5 } }, /upperThreshold: with reference 2\.5 V the thresholds cannot both be met/],
     ["tolerance out of range", { ...BASE, tolerance: 5 }, /tolerance: tolerance must be a fraction between 0 and 0\.2/],
-    ["negative tolerance", { ...BASE, tolerance: -0.01 }, /tolerance/],
     ["gain beyond the resistor range", { ...BASE, kind: "noninverting-amplifier", target: { gain: 5000 }, reference: 0 }, /gain: needs rFeedback\/rGround = 51\d\d(\.\d+)?, beyond what resistors/],
-    ["frequency out of reach", { ...BASE, kind: "relaxation-oscillator", target: { frequency: 1e-4 } }, /frequency: .*outside what resistors/],
-    ["oscillator too fast for the slew rate", { ...BASE, kind: "relaxation-oscillator", target: { frequency: 20_000 } }, /frequency: at 20000 Hz the output edges .* fill 19\.\d+ % of the period/],
-    ["duty with a centred fixed reference", { ...BASE, kind: "relaxation-oscillator", supply: { positive: 5, negative: -5 }, opamp: { ...BASE.opamp, inputOffset: 0 }, reference: 0, target: { frequency: 100, duty: 0.3 } }, /duty: reference 0 V sits at the centre of the output swing, so the duty stays at 0\.5/],
-    ["sensor on an amplifier", { ...BASE, kind: "inverting-amplifier", target: { gain: 2 }, reference: 0, sensor: { kind: "divider", rTop: 1e4, rBottom: 1e4 } }, /sensor: a sensor applies to threshold stages only/],
-    ["NTC model without a curve", { ...BASE, sensor: { kind: "ntc", model: { r25: 1e4 }, rFixed: 1e4, position: "bottom" } }, /sensor\.model/],
-    ["wrong target for the kind", { ...BASE, target: { gain: 3 } }, /target\.gain does not apply to schmitt-inverting/],
-    ["unknown series", { ...BASE, series: "E7" }, /series: series must be one of/],
-    ["missing supply", { ...BASE, supply: undefined }, /supply/],
     ["not JSON", "{ nope", /not valid JSON/],
   ];
   for (const [name, spec, message] of rejects) {
@@ -77,6 +68,32 @@ describe("npm run design", () => {
       expect(r.stdout).toBe("");
       expect(r.stderr).toMatch(message);
       expect(r.stderr).not.toMatch(/\n\s+at /); // no stack trace
+    });
+  }
+});
+
+// The same messages in process (no spawn cost): design() throws what the CLI prints.
+describe("design() rejections name the field or figure", () => {
+  const rejects: [string, unknown, RegExp][] = [
+    ["upper = lower on a Schmitt trigger", { ...BASE, target: { upperThreshold: 2, lowerThreshold: 2 } }, /target\.upperThreshold/],
+    ["threshold below the negative supply", { ...BASE, kind: "comparator", target: { threshold: -0.5 } }, /threshold: .*at or below the negative supply/],
+    ["negative tolerance", { ...BASE, tolerance: -0.01 }, /tolerance/],
+    ["frequency out of reach", { ...BASE, kind: "relaxation-oscillator", target: { frequency: 1e-4 } }, /frequency: .*outside what resistors/],
+    ["oscillator too fast for the slew rate", { ...BASE, kind: "relaxation-oscillator", target: { frequency: 20_000 } }, /frequency: at 20000 Hz the output edges .* fill 19\.\d+ % of the period/],
+    ["duty with a centred fixed reference", { ...BASE, kind: "relaxation-oscillator", supply: { positive: 5, negative: -5 }, opamp: { ...BASE.opamp, inputOffset: 0 }, reference: 0, target: { frequency: 100, duty: 0.3 } }, /duty: reference 0 V sits at the centre of the output swing, so the duty stays at 0\.5/],
+    ["sensor on an amplifier", { ...BASE, kind: "inverting-amplifier", target: { gain: 2 }, reference: 0, sensor: { kind: "divider", rTop: 1e4, rBottom: 1e4 } }, /sensor: a sensor applies to threshold stages only/],
+    ["NTC model without a curve", { ...BASE, sensor: { kind: "ntc", model: { r25: 1e4 }, rFixed: 1e4, position: "bottom" } }, /sensor\.model/],
+    ["wrong target for the kind", { ...BASE, target: { gain: 3 } }, /target\.gain does not apply to schmitt-inverting/],
+    ["unknown series", { ...BASE, series: "E7" }, /series: series must be one of/],
+    ["missing supply", { ...BASE, supply: undefined }, /supply/],
+  ];
+  for (const [name, spec, message] of rejects) {
+    it(`rejects: ${name}`, () => {
+      if (typeof spec === "string") {
+        expect(() => JSON.parse(spec)).toThrow();
+        return;
+      }
+      expect(() => design(spec)).toThrow(message);
     });
   }
 });
