@@ -1,6 +1,7 @@
 // Exports of what a plot shows: the canvas as PNG, the samples as CSV (papaparse).
 import type uPlot from "uplot";
 import Papa from "papaparse";
+import { sansFont } from "./use-uplot";
 
 function download(blob: Blob, fileName: string) {
   const a = document.createElement("a");
@@ -25,7 +26,7 @@ export function exportPlotPng(u: uPlot, title: string, fileName: string): void {
   ctx.fillStyle = "#ffffff";
   ctx.fillRect(0, 0, out.width, out.height);
   ctx.fillStyle = "#1d2430";
-  ctx.font = `${Math.round(13 * ratio)}px sans-serif`;
+  ctx.font = sansFont(Math.round(13 * ratio));
   ctx.textBaseline = "middle";
   ctx.fillText(title, Math.round(10 * ratio), strip / 2);
   ctx.drawImage(src, 0, strip);

@@ -57,11 +57,11 @@ export function TimePlot(props: TimePlotProps) {
               tagRight(u, rails.low, "Vol", PLOT_COLORS.rail);
               if (thresholds?.upper != null) {
                 hLine(u, thresholds.upper, PLOT_COLORS.threshold, [7, 4]);
-                tagRight(u, thresholds.upper, "upper (designed)", PLOT_COLORS.threshold);
+                tagRight(u, thresholds.upper, "upper, designed", PLOT_COLORS.threshold);
               }
               if (thresholds?.lower != null && thresholds.lower !== thresholds.upper) {
                 hLine(u, thresholds.lower, PLOT_COLORS.threshold, [7, 4]);
-                tagRight(u, thresholds.lower, "lower (designed)", PLOT_COLORS.threshold);
+                tagRight(u, thresholds.lower, "lower, designed", PLOT_COLORS.threshold, "y", "below");
               }
             },
           ],

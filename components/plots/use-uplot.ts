@@ -83,15 +83,24 @@ export const PLOT_COLORS = {
   event: "#8a3d1a",
 };
 
-export const AXIS_FONT = "11px var(--font-jb), ui-monospace, monospace";
-export const LABEL_FONT = "12px var(--font-plex), system-ui, sans-serif";
+/**
+ * Canvas fonts cannot use CSS variables: resolve next/font's generated family names from the
+ * root element's custom properties (set by app/layout.tsx) once, in the browser.
+ */
+function family(variable: string, fallback: string): string {
+  if (typeof document === "undefined") return fallback;
+  const v = getComputedStyle(document.documentElement).getPropertyValue(variable).trim();
+  return v ? `${v}, ${fallback}` : fallback;
+}
+export const monoFont = (px: number) => `${px}px ${family("--font-jb", "ui-monospace, monospace")}`;
+export const sansFont = (px: number) => `${px}px ${family("--font-plex", "system-ui, sans-serif")}`;
 
 /** Axis styling shared by every plot: graphite ticks, faint grid. */
 export function axis(extra: Partial<uPlot.Axis> = {}): uPlot.Axis {
   return {
     stroke: PLOT_COLORS.axis,
-    font: AXIS_FONT,
-    labelFont: LABEL_FONT,
+    font: monoFont(11),
+    labelFont: sansFont(12),
     grid: { stroke: PLOT_COLORS.grid, width: 1 },
     ticks: { stroke: "#d9ddd3", width: 1, size: 4 },
     ...extra,
@@ -130,16 +139,16 @@ export function vLine(u: uPlot, v: number, color: string, dash: number[], scale 
 }
 
 /** Small label at the right end of a horizontal mark. */
-export function tagRight(u: uPlot, v: number, text: string, color: string, scale = "y"): void {
+export function tagRight(u: uPlot, v: number, text: string, color: string, scale = "y", side: "above" | "below" = "above"): void {
   const ctx = u.ctx;
   const y = u.valToPos(v, scale, true);
   if (y < u.bbox.top || y > u.bbox.top + u.bbox.height) return;
   ctx.save();
-  ctx.font = `${10 * devicePixelRatio}px var(--font-jb), ui-monospace, monospace`;
+  ctx.font = monoFont(10 * devicePixelRatio);
   ctx.fillStyle = color;
   ctx.textAlign = "right";
-  ctx.textBaseline = "bottom";
-  ctx.fillText(text, u.bbox.left + u.bbox.width - 4 * devicePixelRatio, y - 2 * devicePixelRatio);
+  ctx.textBaseline = side === "above" ? "bottom" : "top";
+  ctx.fillText(text, u.bbox.left + u.bbox.width - 4 * devicePixelRatio, side === "above" ? y - 2 * devicePixelRatio : y + 2 * devicePixelRatio);
   ctx.restore();
 }
 
@@ -191,3 +200,4 @@ export function wheelPan(onChange?: () => void): uPlot.Plugin {
     },
   };
 }
+

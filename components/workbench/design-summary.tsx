@@ -11,7 +11,7 @@ import { SafetyCaution, suggestsLoadSwitching, SAFETY_CAUTION_TEXT } from "@/com
 import { StageTable, SupplyTable, PartProfileTable, InputTable } from "@/components/scenario/scenario-tables";
 import { STAGE_KIND_LABEL } from "@/components/scenario/stage-labels";
 import { errorMessage } from "@/lib/client/fetcher";
-import { personName, useBoard, useRuns, useScenario } from "@/lib/client/hooks";
+import { personName, useBoard, useRun, useRuns, useScenario } from "@/lib/client/hooks";
 import { conditionsOf, stageFigures, worstCase, type FigureName } from "@/lib/design/analysis";
 import { formatQuantity } from "@/lib/design/notation";
 import { scenarioSchema, type Scenario } from "@/lib/schemas/scenario";
@@ -58,7 +58,9 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
     return { nominal, worst, names, problem };
   }, [scenario, tolerance]);
 
-  const latest = useMemo(() => [...(runs.data?.items ?? [])].sort((a, b) => (a.createdAt < b.createdAt ? 1 : -1))[0] ?? null, [runs.data]);
+  const latestId = useMemo(() => [...(runs.data?.items ?? [])].sort((a, b) => (a.createdAt < b.createdAt ? 1 : -1))[0]?.id ?? null, [runs.data]);
+  // The list carries summaries; the samples and snapshot come with the run itself.
+  const latest = useRun(latestId).data ?? null;
   const measured = useMemo(() => {
     if (!latest) return null;
     const s = latest.scenario;

@@ -21,6 +21,8 @@ export interface QuantityFieldProps {
   onClear?: () => void;
   /** Shown while the optional field is empty. */
   placeholder?: string;
+  /** Friendlier readout than SI with a prefix (e.g. slew rate in V/µs). */
+  display?: (v: number) => string;
 }
 
 function show(v: number | undefined, plain: boolean, digits: number): string {
@@ -29,7 +31,7 @@ function show(v: number | undefined, plain: boolean, digits: number): string {
   return formatQuantity(v, "", digits).replace(" ", "");
 }
 
-export function QuantityField({ label, value, unit, onCommit, hint, validate, disabled, name, plain = false, digits = 4, onClear, placeholder }: QuantityFieldProps) {
+export function QuantityField({ label, value, unit, onCommit, hint, validate, disabled, name, plain = false, digits = 4, onClear, placeholder, display }: QuantityFieldProps) {
   const id = useId();
   const [text, setText] = useState(() => show(value, plain, digits));
   const committed = useRef<number | undefined>(value);
@@ -49,9 +51,8 @@ export function QuantityField({ label, value, unit, onCommit, hint, validate, di
 
   return (
     <label htmlFor={id} className="grid grid-cols-[7.5rem_minmax(0,1fr)] items-center gap-x-2 py-0.5">
-      <span className="truncate text-[13px] text-ink-soft" title={hint}>
+      <span className="truncate text-[13px] text-ink-soft" title={hint ? `${label}: ${hint}` : undefined}>
         {label}
-        {hint ? <span className="ml-1 text-[11px] text-ink-faint">{hint}</span> : null}
       </span>
       <span className="flex min-w-0 items-center gap-2">
         <input
@@ -92,7 +93,7 @@ export function QuantityField({ label, value, unit, onCommit, hint, validate, di
           data-parsed={name ?? label}
           aria-live="polite"
         >
-          {problem ? problem : empty ? (placeholder ? "not set" : "") : plain ? (unit ? `${parsed} ${unit}` : "") : `= ${formatQuantity(parsed as number, unit, 4)}`}
+          {problem ? problem : empty ? (placeholder ? "not set" : "") : plain ? (unit ? `${parsed} ${unit}` : "") : `= ${display ? display(parsed as number) : formatQuantity(parsed as number, unit, 4)}`}
         </span>
       </span>
     </label>

@@ -8,11 +8,17 @@ import type { Check, Warning } from "./readings-logic";
 
 const fmt = (v: number | null | undefined, unit: string, digits = 4) => (v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, digits));
 
-export function metricRows(m: SimMetrics, gain: number | null): [string, string, string?][] {
+export function metricRows(m: SimMetrics, gain: number | null, inputReferred = true): [string, string, string?][] {
+  // An oscillator has no input to refer switching points to; its capacitor node is internal.
+  const thresholds: [string, string, string?][] = inputReferred
+    ? [
+        ["Upper switching point", fmt(m.upperThreshold, "V"), "mean input at edges the rising input causes"],
+        ["Lower switching point", fmt(m.lowerThreshold, "V"), "mean input at edges the falling input causes"],
+        ["Deadband", fmt(m.hysteresis, "V"), "upper − lower"],
+      ]
+    : [];
   return [
-    ["Upper switching point", fmt(m.upperThreshold, "V"), "mean input at edges the rising input causes"],
-    ["Lower switching point", fmt(m.lowerThreshold, "V"), "mean input at edges the falling input causes"],
-    ["Deadband", fmt(m.hysteresis, "V"), "upper − lower"],
+    ...thresholds,
     ["Output transitions", String(m.transitions)],
     ["Chatter", String(m.chatter), m.holdOff != null ? `edges within ${fmt(m.holdOff, "s", 3)} of the previous` : "edges within the hold-off"],
     ["Held at a limit", `${(100 * m.clippedFraction).toFixed(2)} %`, "share of the run"],
@@ -42,7 +48,7 @@ export function ReadingsTable({
   solver?: SolverStats;
   scenario?: Scenario;
 }) {
-  const rows = metricRows(metrics, gain);
+  const rows = metricRows(metrics, gain, scenario?.stage.kind !== "relaxation-oscillator");
   return (
     <div className="text-[13px]" data-testid="readings">
       {checks.length ? (
@@ -60,8 +66,8 @@ export function ReadingsTable({
             {checks.map((c) => (
               <tr key={c.label} className="border-b border-paper-line/70 last:border-0" data-check={c.label}>
                 <td className="py-1 pr-2 text-ink-soft">{c.label}</td>
-                <td className="py-1 text-right font-mono">{fmt(c.designed, c.unit)}</td>
-                <td className="py-1 text-right font-mono">{fmt(c.measured, c.unit)}</td>
+                <td className="py-1 pl-2 text-right font-mono">{fmt(c.designed, c.unit)}</td>
+                <td className="py-1 pl-3 text-right font-mono">{fmt(c.measured, c.unit)}</td>
                 <td className="py-1 pl-2 text-right">
                   <span
                     title={`allowed ± ${fmt(c.tolerance, c.unit, 2)}`}

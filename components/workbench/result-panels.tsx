@@ -1,7 +1,7 @@
 "use client";
 // "Trace", "Loop" and "Readings" of the workbench's latest run. The plots read the waveform
 // bank (typed arrays outside the store) and share one cursor index through the store.
-import { useMemo } from "react";
+import { useDeferredValue, useMemo } from "react";
 import { Card } from "@/components/ui/card";
 import { TimePlot } from "@/components/plots/time-plot";
 import { LoopPlot } from "@/components/plots/loop-plot";
@@ -50,15 +50,19 @@ export function TraceCard() {
 }
 
 export function LoopCard() {
-  const wf = useCurrentWaveforms();
-  const result = useWb((s) => s.result);
+  // Deferred: the Trace is drawn first, the Loop and Readings follow in a later render.
+  const wf = useDeferredValue(useCurrentWaveforms());
+  const result = useDeferredValue(useWb((s) => s.result));
   const cursorIdx = useWb((s) => s.cursorIdx);
   const setCursor = useWb((s) => s.setCursor);
   const thresholds = useMemo(() => (result ? designedMarks(result.scenario) : null), [result]);
   const switching = result ? KIND_INFO[result.scenario.stage.kind].switching : true;
+  const oscillator = result?.scenario.stage.kind === "relaxation-oscillator";
   return (
     <Card title="Loop" description={switching ? "Output against input: the hysteresis loop" : "Output against input: the transfer line and its limits"} className="min-w-0">
-      {wf && result ? (
+      {oscillator ? (
+        <Placeholder text="A relaxation oscillator runs without an input, so there is no loop to draw: its switching points sit on the timing capacitor. Read the period and duty cycle in Readings." />
+      ) : wf && result ? (
         <LoopPlot
           t={wf.t}
           input={wf.input}
@@ -78,8 +82,8 @@ export function LoopCard() {
 }
 
 export function ReadingsCard() {
-  const wf = useCurrentWaveforms();
-  const result = useWb((s) => s.result);
+  const wf = useDeferredValue(useCurrentWaveforms());
+  const result = useDeferredValue(useWb((s) => s.result));
   const body = useMemo(() => {
     if (!result || !wf) return null;
     const kind = result.scenario.stage.kind;

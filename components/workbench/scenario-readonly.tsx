@@ -7,7 +7,7 @@ import { Card } from "@/components/ui/card";
 import { ScenarioReadView } from "@/components/scenario/scenario-read-view";
 import { RunResultPanels } from "@/components/run/run-view";
 import { formatQuantity } from "@/lib/design/notation";
-import { personName, useRuns } from "@/lib/client/hooks";
+import { personName, useRun, useRuns } from "@/lib/client/hooks";
 import { cx } from "@/components/ui/cx";
 
 export function ScenarioReadOnly({ scenarioId }: { scenarioId: string }) {
@@ -52,9 +52,17 @@ export function ScenarioReadOnly({ scenarioId }: { scenarioId: string }) {
               open the run page
             </Link>
           </p>
-          <RunResultPanels key={current.id} run={current} />
+          <PickedRun id={current.id} />
         </div>
       ) : null}
     </div>
   );
+}
+
+/** The list holds summaries only; the samples come with the run itself. */
+function PickedRun({ id }: { id: string }) {
+  const { data, error } = useRun(id);
+  if (error) return <p className="text-[13px] text-alert">Could not load the run: {String((error as Error).message ?? error)}</p>;
+  if (!data) return <p className="text-[13px] text-ink-mute">Loading the run…</p>;
+  return <RunResultPanels key={data.id} run={data} />;
 }

@@ -350,8 +350,10 @@ function RunSettingsSection({ readOnly }: { readOnly: boolean }) {
 }
 
 const PREVIEW_POINTS = 480;
+/** Above this many noise segments the preview draws the noise as a ±3σ band instead of computing it. */
+const PREVIEW_NOISE_LIMIT = 20_000;
 
-/** The summed input over the run (noise included), 480 samples as an SVG line. */
+/** The summed input over the run, 480 samples as an SVG line (noise drawn, or banded when dense). */
 function InputPreview() {
   const input = useWb((s) => s.draft.input);
   const run = useWb((s) => s.draft.run);
@@ -361,10 +363,14 @@ function InputPreview() {
   const preview = useMemo(() => {
     const t = new Float64Array(PREVIEW_POINTS);
     for (let i = 0; i < PREVIEW_POINTS; i++) t[i] = (run.duration * i) / (PREVIEW_POINTS - 1);
+    const noise = input.noise;
+    // A million noise knots would block the page; the run itself happens in the worker.
+    const banded = !!noise && 2 * noise.bandwidth * run.duration > PREVIEW_NOISE_LIMIT;
+    const source = banded ? { ...draft, input: { components: input.components } } : draft;
     try {
-      return { t, v: evaluateInputSignal(new InputSignal(draft, run.duration), t), error: null as string | null };
+      return { t, v: evaluateInputSignal(new InputSignal(source, run.duration), t), band: banded ? 3 * noise!.rms : 0, error: null as string | null };
     } catch (e) {
-      return { t, v: null, error: e instanceof Error ? e.message : String(e) };
+      return { t, v: null, band: 0, error: e instanceof Error ? e.message : String(e) };
     }
     // Only the input and the duration shape the preview; other edits must not re-evaluate it.
     // eslint-disable-next-line react-hooks/exhaustive-deps
@@ -377,17 +383,28 @@ function InputPreview() {
   if (preview.v) {
     let lo = Math.min(supply.negative, stage.reference);
     let hi = Math.max(supply.positive, stage.reference);
+    let vMin = Infinity;
+    let vMax = -Infinity;
     for (const x of preview.v) {
-      if (x < lo) lo = x;
-      if (x > hi) hi = x;
+      vMin = Math.min(vMin, x - preview.band);
+      vMax = Math.max(vMax, x + preview.band);
     }
+    lo = Math.min(lo, vMin);
+    hi = Math.max(hi, vMax);
     const y = (v: number) => H - 6 - ((v - lo) / (hi - lo || 1)) * (H - 12);
-    const pts = Array.from(preview.v, (v, i) => `${((i / (PREVIEW_POINTS - 1)) * W).toFixed(1)},${y(v).toFixed(1)}`).join(" ");
-    range = `${formatQuantity(Math.min(...preview.v), "V")} … ${formatQuantity(Math.max(...preview.v), "V")}`;
+    const x = (i: number) => ((i / (PREVIEW_POINTS - 1)) * W).toFixed(1);
+    const pts = Array.from(preview.v, (v, i) => `${x(i)},${y(v).toFixed(1)}`).join(" ");
+    const band = preview.band
+      ? Array.from(preview.v, (v, i) => `${x(i)},${y(v + preview.band).toFixed(1)}`)
+          .concat(Array.from(preview.v, (v, i) => `${x(i)},${y(v - preview.band).toFixed(1)}`).reverse())
+          .join(" ")
+      : null;
+    range = `${formatQuantity(vMin, "V")} … ${formatQuantity(vMax, "V")}`;
     body = (
       <>
         <line x1={0} x2={W} y1={y(supply.positive)} y2={y(supply.positive)} stroke="#9aa3b2" strokeDasharray="2 3" />
         <line x1={0} x2={W} y1={y(supply.negative)} y2={y(supply.negative)} stroke="#9aa3b2" strokeDasharray="2 3" />
+        {band ? <polygon points={band} fill="#3b4fa8" fillOpacity={0.14} stroke="none" /> : null}
         <polyline points={pts} fill="none" stroke="#3b4fa8" strokeWidth={1.3} vectorEffect="non-scaling-stroke" />
       </>
     );
@@ -405,7 +422,9 @@ function InputPreview() {
           {body}
         </svg>
       )}
-      <p className="mt-0.5 text-[11px] text-ink-faint">dashed: supply rails</p>
+      <p className="mt-0.5 text-[11px] text-ink-faint">
+        dashed: supply rails{preview.band ? " · shaded: ±3σ of the noise (too dense to draw here; the run computes every segment)" : ""}
+      </p>
     </div>
   );
 }

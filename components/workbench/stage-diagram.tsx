@@ -32,19 +32,19 @@ function Resistor({ c, vertical = false, role, ohms }: { c: Pt; vertical?: boole
       <rect x={x - w / 2} y={y - h / 2} width={w} height={h} rx={4} fill="#eceee8" stroke={INK} strokeWidth={1.4} />
       {vertical ? (
         <>
-          <text x={x + 12} y={y - 3} fontSize={10} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
+          <text x={x + 12} y={y - 4} fontSize={12.5} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
             {role}
           </text>
-          <text x={x + 12} y={y + 10} fontSize={11} fill={INK} fontFamily="var(--font-jb), monospace">
+          <text x={x + 12} y={y + 12} fontSize={13.5} fill={INK} fontFamily="var(--font-jb), monospace">
             {value}
           </text>
         </>
       ) : (
         <>
-          <text x={x} y={y - 11} fontSize={10} fill={MUTE} textAnchor="middle" fontFamily="var(--font-plex), sans-serif">
+          <text x={x} y={y - 12} fontSize={12.5} fill={MUTE} textAnchor="middle" fontFamily="var(--font-plex), sans-serif">
             {role}
           </text>
-          <text x={x} y={y + 21} fontSize={11} fill={INK} textAnchor="middle" fontFamily="var(--font-jb), monospace">
+          <text x={x} y={y + 24} fontSize={13.5} fill={INK} textAnchor="middle" fontFamily="var(--font-jb), monospace">
             {value}
           </text>
         </>
@@ -59,10 +59,10 @@ function Capacitor({ c, farads }: { c: Pt; farads: number }) {
     <g data-role="cTiming">
       <line x1={x - 11} y1={y - 4} x2={x + 11} y2={y - 4} stroke={INK} strokeWidth={2.4} />
       <line x1={x - 11} y1={y + 4} x2={x + 11} y2={y + 4} stroke={INK} strokeWidth={2.4} />
-      <text x={x + 16} y={y - 2} fontSize={10} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
+      <text x={x + 16} y={y - 3} fontSize={12.5} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
         cTiming
       </text>
-      <text x={x + 16} y={y + 11} fontSize={11} fill={INK} fontFamily="var(--font-jb), monospace">
+      <text x={x + 16} y={y + 13} fontSize={13.5} fill={INK} fontFamily="var(--font-jb), monospace">
         {formatQuantity(farads, "F", 3)}
       </text>
     </g>
@@ -76,7 +76,7 @@ function Common({ at }: { at: Pt }) {
     <g>
       <line x1={x - 10} y1={y} x2={x + 10} y2={y} stroke={INK} strokeWidth={1.8} />
       <line x1={x - 5} y1={y + 4} x2={x + 5} y2={y + 4} stroke={INK} strokeWidth={1.8} />
-      <text x={x + 14} y={y + 4} fontSize={9} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
+      <text x={x + 14} y={y + 5} fontSize={11.5} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
         0 V
       </text>
     </g>
@@ -92,7 +92,7 @@ function Terminal({ at, label, color, side }: { at: Pt; label: string; color: st
   return (
     <g>
       <circle cx={x} cy={y} r={4.5} fill="#fff" stroke={color} strokeWidth={2} />
-      <text x={tx} y={ty} fontSize={11} fontWeight={600} fill={color} textAnchor={anchor} fontFamily="var(--font-plex), sans-serif">
+      <text x={tx} y={ty} fontSize={13} fontWeight={600} fill={color} textAnchor={anchor} fontFamily="var(--font-plex), sans-serif">
         {label}
       </text>
     </g>
@@ -103,13 +103,13 @@ function Terminal({ at, label, color, side }: { at: Pt; label: string; color: st
 function Reference({ at, volts, side = "left" }: { at: Pt; volts: number; side?: "left" | "below" }) {
   const [x, y] = at;
   const text = `ref ${formatQuantity(volts, "V", 4)}`;
-  const w = 14 + text.length * 6.2;
+  const w = 16 + text.length * 7.6;
   const bx = side === "left" ? x - w : x - w / 2;
-  const by = side === "left" ? y - 9 : y + 2;
+  const by = side === "left" ? y - 11 : y + 2;
   return (
     <g data-role="reference">
-      <rect x={bx} y={by} width={w} height={18} rx={9} fill="#e2eddb" stroke={MOSS} strokeWidth={1.3} />
-      <text x={bx + w / 2} y={by + 12.5} fontSize={10.5} fill={MOSS} textAnchor="middle" fontFamily="var(--font-jb), monospace">
+      <rect x={bx} y={by} width={w} height={22} rx={11} fill="#e2eddb" stroke={MOSS} strokeWidth={1.3} />
+      <text x={bx + w / 2} y={by + 15.5} fontSize={12.5} fill={MOSS} textAnchor="middle" fontFamily="var(--font-jb), monospace">
         {text}
       </text>
     </g>
@@ -129,11 +129,11 @@ function Amp({ x0, y0, supply }: { x0: number; y0: number; supply: Scenario["sup
         +
       </text>
       <line x1={x0 + 40} y1={y0 - 30} x2={x0 + 40} y2={y0 - 44} stroke={MUTE} strokeWidth={1.2} />
-      <text x={x0 + 44} y={y0 - 42} fontSize={9.5} fill={MUTE} fontFamily="var(--font-jb), monospace">
+      <text x={x0 + 44} y={y0 - 42} fontSize={11.5} fill={MUTE} fontFamily="var(--font-jb), monospace">
         {formatQuantity(supply.positive, "V", 3)}
       </text>
       <line x1={x0 + 40} y1={y0 + 30} x2={x0 + 40} y2={y0 + 44} stroke={MUTE} strokeWidth={1.2} />
-      <text x={x0 + 44} y={y0 + 50} fontSize={9.5} fill={MUTE} fontFamily="var(--font-jb), monospace">
+      <text x={x0 + 44} y={y0 + 50} fontSize={11.5} fill={MUTE} fontFamily="var(--font-jb), monospace">
         {formatQuantity(supply.negative, "V", 3)}
       </text>
     </g>
@@ -230,9 +230,14 @@ export function StageDiagram({ scenario, className }: { scenario: Pick<Scenario,
     }
   }
 
+  // Crop to what each kind draws: feedback above (amplifiers, oscillator) and/or below (triggers).
+  const above = st.kind === "noninverting-amplifier" || st.kind === "inverting-amplifier" || st.kind === "relaxation-oscillator";
+  const below = st.kind === "schmitt-noninverting" || st.kind === "schmitt-inverting" || st.kind === "relaxation-oscillator";
+  const y0 = above ? 8 : 58;
+  const y1 = below ? (st.kind === "schmitt-noninverting" ? 244 : 256) : 186;
   return (
     <svg
-      viewBox="0 0 580 252"
+      viewBox={`0 ${y0} 580 ${y1 - y0}`}
       role="img"
       aria-label={`Diagram: ${STAGE_KIND_LABEL[st.kind]}`}
       className={className}
@@ -244,7 +249,7 @@ export function StageDiagram({ scenario, className }: { scenario: Pick<Scenario,
           <path d="M10 0H0V10" fill="none" stroke="#eceee8" strokeWidth={0.6} />
         </pattern>
       </defs>
-      <rect x={0} y={0} width={580} height={252} fill="url(#rw-grid)" />
+      <rect x={0} y={0} width={580} height={260} fill="url(#rw-grid)" />
       {body}
       <Amp x0={X0} y0={Y0} supply={scenario.supply} />
     </svg>

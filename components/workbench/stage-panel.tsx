@@ -169,11 +169,13 @@ export function StagePanel({ readOnly = false }: { readOnly?: boolean }) {
   );
 }
 
-const PARAM_DISPLAY: Record<OpampParam, { label: string; unit: string; rule?: (v: number) => string | null }> = {
+const perMicro = (v: number) => `${Number((v / 1e6).toPrecision(4))} V/µs`;
+
+const PARAM_DISPLAY: Record<OpampParam, { label: string; unit: string; rule?: (v: number) => string | null; show?: (v: number) => string }> = {
   openLoopGain: { label: "A0", unit: "V/V", rule: (v) => (v >= 1 ? null : "at least 1") },
   gainBandwidth: { label: "GBW", unit: "Hz", rule: (v) => (v > 0 ? null : "must be above 0") },
-  slewRate: { label: "Slew rate ↑", unit: "V/s", rule: (v) => (v > 0 ? null : "must be above 0") },
-  slewRateFall: { label: "Slew rate ↓", unit: "V/s", rule: (v) => (v > 0 ? null : "must be above 0") },
+  slewRate: { label: "Slew rate ↑", unit: "V/s", rule: (v) => (v > 0 ? null : "must be above 0"), show: perMicro },
+  slewRateFall: { label: "Slew rate ↓", unit: "V/s", rule: (v) => (v > 0 ? null : "must be above 0"), show: perMicro },
   outputHeadroomHigh: { label: "Headroom V+", unit: "V", rule: (v) => (v >= 0 ? null : "not negative") },
   outputHeadroomLow: { label: "Headroom V−", unit: "V", rule: (v) => (v >= 0 ? null : "not negative") },
   inputOffset: { label: "Offset", unit: "V", rule: (v) => (Math.abs(v) <= 1 ? null : "within ±1 V") },
@@ -251,6 +253,7 @@ function PartSection({ readOnly }: { readOnly: boolean }) {
             unit={d.unit}
             value={opamp[k]}
             validate={d.rule}
+            display={d.show}
             disabled={readOnly}
             placeholder={optional ? (k === "slewRateFall" ? "same as ↑" : "none") : undefined}
             onClear={
