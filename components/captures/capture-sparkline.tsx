@@ -34,7 +34,14 @@ export function CaptureSparkline({ samples, width = 560, height = 120, label }: 
   }
   return (
     <figure className="flex flex-col gap-1">
-      <svg viewBox={`0 0 ${width} ${height}`} className="h-auto w-full rounded border border-paper-line bg-paper-card" role="img" aria-label={label ?? "Capture preview"}>
+      <svg
+        viewBox={`0 0 ${width} ${height}`}
+        preserveAspectRatio="none"
+        style={{ height }}
+        className="w-full rounded border border-paper-line bg-paper-card"
+        role="img"
+        aria-label={label ?? "Capture preview"}
+      >
         <line x1={pad} x2={width - pad} y1={y(0)} y2={y(0)} stroke="#d9ddd3" strokeDasharray="3 3" strokeWidth={vMin <= 0 && vMax >= 0 ? 1 : 0} />
         <path d={d} fill="none" stroke="#3b4fa8" strokeWidth={1.2} vectorEffect="non-scaling-stroke" />
         <line x1={x(t0)} x2={x(t1)} y1={height - 1} y2={height - 1} stroke="#d9ddd3" />

@@ -105,7 +105,12 @@ export function CapturesView({ canEdit }: { canEdit: boolean }) {
         )}
         {openId && (
           <div className="border-t border-paper-line p-4">
-            {open.data ? <CaptureSparkline samples={open.data.samples} label={`Capture ${open.data.name}`} /> : open.error ? <LoadError message={errorMessage(open.error)} /> : <LoadingRows rows={2} />}
+            {open.data ? (
+              <>
+                <p className="mb-2 text-[13px] font-medium text-ink">{open.data.name}</p>
+                <CaptureSparkline samples={open.data.samples} label={`Capture ${open.data.name}`} />
+              </>
+            ) : open.error ? <LoadError message={errorMessage(open.error)} /> : <LoadingRows rows={2} />}
           </div>
         )}
       </Card>

@@ -26,15 +26,18 @@ function uiUnit(key: OpampParam): string {
 
 function toText(key: OpampParam, value: number | undefined): string {
   if (value === undefined) return "";
-  const scaled = value / (UI_SCALE[key]?.factor ?? 1);
-  return formatQuantity(scaled, "", 4).replace(/\s+/g, "");
+  const scale = UI_SCALE[key];
+  // Scaled units (V/µs) read as plain numbers: "0.05", not "50m".
+  if (scale) return String(Number((value / scale.factor).toPrecision(4)));
+  return formatQuantity(value, "", 4).replace(/\s+/g, "");
 }
 
 function show(key: OpampParam, value: number | undefined): string {
   if (value === undefined) return "—";
   if (key === "openLoopGain") return `${formatQuantity(value, "", 3).replace(/\s+/g, "")} V/V`;
-  const scaled = value / (UI_SCALE[key]?.factor ?? 1);
-  return formatQuantity(scaled, uiUnit(key));
+  const scale = UI_SCALE[key];
+  if (scale) return `${Number((value / scale.factor).toPrecision(3))} ${scale.unit}`;
+  return formatQuantity(value, uiUnit(key));
 }
 
 type Draft = { name: string } & Record<OpampParam, string>;

@@ -14,7 +14,7 @@ export interface MailboxMessage {
 }
 
 export function mailDir(): string {
-  return path.resolve(process.env.MAIL_SINK_DIR || "data/mail");
+  return path.resolve(/*turbopackIgnore: true*/ process.env.MAIL_SINK_DIR || "data/mail");
 }
 
 /**

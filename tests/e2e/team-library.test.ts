@@ -52,7 +52,7 @@ describe("team library and invitations in the browser", () => {
     // The link is used up.
     await invitee.goto(link);
     await invitee.getByRole("heading", { name: "This invitation cannot be used" }).waitFor();
-    expect(await invitee.getByRole("alert").textContent()).toMatch(/already been used/);
+    expect(await invitee.locator("section [role=alert]").textContent()).toMatch(/already been used/);
     await inviteeContext.close();
     await ownerContext.close();
   });
