@@ -3,7 +3,7 @@
 // worker pool (one worker per core, progress over the whole study, Cancel stops every worker),
 // the answer as a chart and a number, and "Save with a new run" so reviewers can open it by link.
 import Link from "next/link";
-import { useEffect, useMemo, useRef, useState } from "react";
+import { memo, useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore } from "react";
 import { Card } from "@/components/ui/card";
 import { Button } from "@/components/ui/button";
 import { Section, SelectRow, Tabs } from "@/components/workbench/controls";
@@ -108,12 +108,51 @@ function inputRange(s: Scenario): [number, number] {
   return [lo - pad, hi + pad];
 }
 
+/** Progress lives outside React state: only the bar re-renders, never the forms and charts. */
+function createProgress() {
+  let value = { done: 0, total: 0 };
+  const subs = new Set<() => void>();
+  return {
+    get: () => value,
+    set: (v: { done: number; total: number }) => {
+      value = v;
+      subs.forEach((f) => f());
+    },
+    subscribe: (f: () => void) => {
+      subs.add(f);
+      return () => void subs.delete(f);
+    },
+  };
+}
+type ProgressStore = ReturnType<typeof createProgress>;
+
+function StudyProgress({ store, onCancel }: { store: ProgressStore; onCancel: () => void }) {
+  const progress = useSyncExternalStore(store.subscribe, store.get, store.get);
+  const pct = progress.total ? Math.round((100 * progress.done) / progress.total) : 0;
+  return (
+    <div className="mb-3 flex items-center gap-2" data-testid="study-progress">
+      <div className="h-1.5 flex-1 overflow-hidden rounded-full bg-paper-sunk" role="progressbar" aria-label="Study progress" aria-valuemin={0} aria-valuemax={100} aria-valuenow={pct}>
+        <div className="h-full rounded-full bg-copper" style={{ width: `${pct}%` }} />
+      </div>
+      <span className="font-mono text-[12px] text-ink-mute">
+        {progress.done.toLocaleString("en")} / {progress.total.toLocaleString("en")} runs · {defaultPoolSize()} workers
+      </span>
+      <Button size="sm" variant="secondary" onClick={onCancel} data-testid="cancel-study-button">
+        Cancel
+      </Button>
+    </div>
+  );
+}
+
+const NoiseResultMemo = memo(NoiseMarginResult);
+const ToleranceResultMemo = memo(ToleranceSpreadResult);
+
 export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps) {
   const [tab, setTab] = useState<StudyTab>("noise");
   const [noise, setNoise] = useState<NoiseDone | null>(null);
   const [tolerance, setTolerance] = useState<ToleranceDone | null>(null);
   const [running, setRunning] = useState<StudyTab | null>(null);
-  const [progress, setProgress] = useState({ done: 0, total: 0 });
+  const [progress] = useState(createProgress);
   const [error, setError] = useState<string | null>(null);
   const [saved, setSaved] = useState<{ runId: string } | null>(null);
   const [saving, setSaving] = useState(false);
@@ -133,12 +172,17 @@ export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps)
     }
   }, [scenario]);
 
-  async function run<T extends StudyTab>(which: T, config: NoiseMarginConfig | ToleranceSpreadConfig) {
+  // Stable callbacks for the memoised forms; they call the latest `run`.
+  const runRef = useRef<(which: StudyTab, config: NoiseMarginConfig | ToleranceSpreadConfig) => Promise<void>>(async () => {});
+  const runNoise = useCallback((c: NoiseMarginConfig) => void runRef.current("noise", c), []);
+  const runTolerance = useCallback((c: ToleranceSpreadConfig) => void runRef.current("tolerance", c), []);
+
+  async function run(which: StudyTab, config: NoiseMarginConfig | ToleranceSpreadConfig) {
     if (!scenario) return;
     setError(null);
     setSaved(null);
     setRunning(which);
-    setProgress({ done: 0, total: 0 });
+    progress.set({ done: 0, total: 0 });
     const ac = new AbortController();
     abort.current = ac;
     started.current = performance.now();
@@ -150,7 +194,7 @@ export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps)
         const now = performance.now();
         if (now - last < 120 && p.done < p.total) return;
         last = now;
-        setProgress(p);
+        progress.set(p);
       };
       const out = await runStudyInPool({ scenario, config }, { signal: ac.signal, onProgress });
       if (config.kind === "noise-margin") {
@@ -167,6 +211,8 @@ export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps)
       abort.current = null;
     }
   }
+
+  runRef.current = run;
 
   const save = async () => {
     const upload: StudyUpload = { schema: "railwise.study/1" };
@@ -186,7 +232,6 @@ export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps)
   const current = useMemo(() => (scenario ? JSON.stringify(scenario) : ""), [scenario]);
   const stale = (noise && noise.on !== current) || (tolerance && tolerance.on !== current);
   const blocked = stale ? "The scenario changed since these studies ran: run them again." : saveBlocked;
-  const pct = progress.total ? Math.round((100 * progress.done) / progress.total) : 0;
   return (
     <Card
       title="Studies"
@@ -218,25 +263,13 @@ export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps)
           <div className="grid min-w-0 gap-0 lg:grid-cols-[300px_minmax(0,1fr)]">
             <div className="border-b border-paper-line lg:border-b-0 lg:border-r">
               {tab === "noise" ? (
-                <NoiseForm key={`n-${scenario.stage.kind}`} scenario={scenario} capture={capture} busy={!!running} onRun={(c) => void run("noise", c)} />
+                <NoiseFormMemo key={`n-${scenario.stage.kind}`} scenario={scenario} capture={capture} busy={!!running} onRun={runNoise} />
               ) : (
-                <ToleranceForm key={`t-${scenario.stage.kind}`} scenario={scenario} busy={!!running} onRun={(c) => void run("tolerance", c)} />
+                <ToleranceFormMemo key={`t-${scenario.stage.kind}`} scenario={scenario} busy={!!running} onRun={runTolerance} />
               )}
             </div>
             <div className="min-w-0 p-3">
-              {running ? (
-                <div className="mb-3 flex items-center gap-2" data-testid="study-progress">
-                  <div className="h-1.5 flex-1 overflow-hidden rounded-full bg-paper-sunk" role="progressbar" aria-label="Study progress" aria-valuemin={0} aria-valuemax={100} aria-valuenow={pct}>
-                    <div className="h-full rounded-full bg-copper" style={{ width: `${pct}%` }} />
-                  </div>
-                  <span className="font-mono text-[12px] text-ink-mute">
-                    {progress.done.toLocaleString("en")} / {progress.total.toLocaleString("en")} runs · {defaultPoolSize()} workers
-                  </span>
-                  <Button size="sm" variant="secondary" onClick={() => abort.current?.abort()} data-testid="cancel-study-button">
-                    Cancel
-                  </Button>
-                </div>
-              ) : null}
+              {running ? <StudyProgress store={progress} onCancel={() => abort.current?.abort()} /> : null}
               {error ? (
                 <p className="mb-2 text-[13px] text-alert" role="alert" data-testid="study-error">
                   {error}
@@ -252,12 +285,12 @@ export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps)
               ) : null}
               {tab === "noise" ? (
                 noise ? (
-                  <NoiseMarginResult summary={noise.summary} meta={`${noise.tasks.length.toLocaleString("en")} runs in ${(noise.wallMs / 1000).toFixed(2)} s on ${noise.workers} workers.`} />
+                  <NoiseResultMemo summary={noise.summary} meta={`${noise.tasks.length.toLocaleString("en")} runs in ${(noise.wallMs / 1000).toFixed(2)} s on ${noise.workers} workers.`} />
                 ) : (
                   <Idle text="Sweeps the noise rms on this scenario's input, many seeds per level, and counts how often the output switches more often than it does without noise." />
                 )
               ) : tolerance ? (
-                <ToleranceSpreadResult summary={tolerance.summary} meta={`${tolerance.tasks.length.toLocaleString("en")} runs in ${(tolerance.wallMs / 1000).toFixed(2)} s on ${tolerance.workers} workers.`} />
+                <ToleranceResultMemo summary={tolerance.summary} meta={`${tolerance.tasks.length.toLocaleString("en")} runs in ${(tolerance.wallMs / 1000).toFixed(2)} s on ${tolerance.workers} workers.`} />
               ) : (
                 <Idle text="Draws resistor values, input offset and output headroom within tolerance, simulates each draw, and measures where it switches." />
               )}
@@ -330,6 +363,9 @@ function NoiseForm({ scenario, capture, busy, onRun }: { scenario: Scenario; cap
     </form>
   );
 }
+
+const NoiseFormMemo = memo(NoiseForm);
+const ToleranceFormMemo = memo(ToleranceForm);
 
 function ToleranceForm({ scenario, busy, onRun }: { scenario: Scenario; busy: boolean; onRun: (c: ToleranceSpreadConfig) => void }) {
   const [f, setF] = useState(() => suggestTolerance(scenario));
