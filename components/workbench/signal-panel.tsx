@@ -8,6 +8,7 @@ import { formatQuantity } from "@/lib/design/notation";
 import { QuantityField } from "./quantity-field";
 import { MiniButton, Section, SelectRow } from "./controls";
 import { useWb } from "./store";
+import { CapturePicker } from "@/components/captures/capture-picker";
 
 type Kind = InputComponent["kind"];
 
@@ -137,6 +138,18 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
             </li>
           ))}
         </ol>
+        {readOnly || components.length >= 64 ? null : (
+          <div className="mt-2 border-t border-paper-line pt-2">
+            <p className="mb-1 text-[12px] text-ink-soft">Add a measured capture (team captures page)</p>
+            <CapturePicker
+              onPick={(component) =>
+                edit((d) => {
+                  d.input.components.push(component);
+                })
+              }
+            />
+          </div>
+        )}
       </Section>
       <NoiseSection readOnly={readOnly} />
       <RunSettingsSection readOnly={readOnly} />
