@@ -253,3 +253,8 @@ function main(): void {
 }
 
 main();
+
+// Study rows (issue 7): scripts/bench-studies.ts, in the same run; not in the memory child.
+if (!process.argv.includes("--memory-child")) {
+  void import("./bench-studies").then(async ({ benchStudies, printStudyRows }) => printStudyRows(await benchStudies()));
+}
