@@ -17,7 +17,7 @@
 import type { Network } from "./network";
 import type { InputSignal } from "./signals";
 import { MONITOR_VD, Recorder } from "./measure";
-import { SimCancelled } from "./errors";
+import { SimCancelled, SimFailed } from "./errors";
 
 export interface ExactParams {
   net: Network;
@@ -37,6 +37,8 @@ export interface ExactParams {
   trackVd: boolean;
   onProgress?: (fraction: number) => void;
   shouldCancel?: () => boolean;
+  /** Piece budget (default unlimited); a server may pass one as a last line of defence. */
+  maxSteps?: number;
 }
 
 const LINEAR = 0;
@@ -92,6 +94,7 @@ export class ExactSolver {
 
   steps = 0;
   evaluations = 0;
+  private readonly maxSteps: number;
   private tx = 0;
   private next = -1;
 
@@ -104,6 +107,7 @@ export class ExactSolver {
   }
 
   constructor(private readonly p: ExactParams) {
+    this.maxSteps = p.maxSteps ?? Infinity;
     this.A0 = p.openLoopGain;
     this.wp = (2 * Math.PI * p.gainBandwidth) / p.openLoopGain;
     this.SR = p.slewRate;
@@ -671,7 +675,7 @@ export class ExactSolver {
       } else {
         const tn = tEndAbs;
         if (tn <= t) {
-          if (++guard > 1000) throw new Error("exact solver stalled at t = " + t);
+          if (++guard > 1000) throw new SimFailed(`the exact solver could not advance past t = ${t} s (regime chatter at one instant)`);
         } else guard = 0;
         t = tn;
         regime = next;
@@ -680,6 +684,8 @@ export class ExactSolver {
       if ((this.steps & 1023) === 0) {
         if (p.shouldCancel?.()) throw new SimCancelled();
         p.onProgress?.(t / T);
+        if (this.steps > this.maxSteps)
+          throw new SimFailed(`the exact solver reached its step limit (${this.maxSteps.toLocaleString("en")} pieces) at t = ${t.toPrecision(4)} s of ${T} s`);
       }
     }
     // Any sample left (rounding at the very end) takes the final state.

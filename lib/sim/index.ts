@@ -59,11 +59,12 @@ export function simulate(scenario: Scenario, options: SimOptions = {}): SimResul
     trackVd: !net.amplifier,
     onProgress: options.onProgress,
     shouldCancel: options.shouldCancel,
+    maxSteps: options.maxSteps,
   };
   let steps: number;
   let evaluations: number;
   if (solverName === "odex") {
-    ({ steps, evaluations } = runOdex({ ...params, maxSteps: options.maxSteps }));
+    ({ steps, evaluations } = runOdex(params));
   } else {
     const s = new ExactSolver(params);
     s.run();
@@ -115,6 +116,8 @@ export interface RunLimits {
   maxOdexSegments: number;
   /** …and at most this many closed-loop time constants over the run (stiffness). */
   maxOdexStiffness: number;
+  /** output edges (an oscillator's switching count) */
+  maxEvents: number;
 }
 
 export const DEFAULT_RUN_LIMITS: RunLimits = {
@@ -124,7 +127,22 @@ export const DEFAULT_RUN_LIMITS: RunLimits = {
   maxPeriodicCorners: 2_000_000,
   maxOdexSegments: 20_000,
   maxOdexStiffness: 1e5,
+  maxEvents: 1_000_000,
 };
+
+/** Estimated cycles of a relaxation oscillator over the run (ideal-switch formula), else null. */
+function oscillatorCycles(scenario: Scenario): number | null {
+  const st = scenario.stage;
+  if (st.kind !== "relaxation-oscillator") return null;
+  const { high, low } = outputLimits(scenario);
+  const s = st.rReference + st.rFeedback;
+  const vH = (st.reference * st.rFeedback + high * st.rReference) / s;
+  const vL = (st.reference * st.rFeedback + low * st.rReference) / s;
+  const rc = st.rTiming * st.cTiming;
+  // t_high = RC·ln((Voh − VL)/(Voh − VH)), t_low = RC·ln((VH − Vol)/(VL − Vol)) (REFERENCES.md)
+  const period = rc * (Math.log((high - vL) / (high - vH)) + Math.log((vH - low) / (vL - low)));
+  return Number.isFinite(period) && period > 0 ? scenario.run.duration / period : null;
+}
 
 /** Reasons (plain language) why a server should refuse to run this scenario; empty when fine. */
 export function checkRunBounds(scenario: Scenario, limits: Partial<RunLimits> = {}): string[] {
@@ -157,6 +175,11 @@ export function checkRunBounds(scenario: Scenario, limits: Partial<RunLimits> = 
   if (corners > L.maxPeriodicCorners)
     reasons.push(
       `the periodic components switch about ${fmt(corners)} times over the run; the limit is ${fmt(L.maxPeriodicCorners)}: lower the frequency or shorten the run`,
+    );
+  const cycles = oscillatorCycles(scenario);
+  if (cycles !== null && 2 * cycles > L.maxEvents)
+    reasons.push(
+      `the relaxation oscillator would switch about ${fmt(2 * cycles)} times over the run (limit ${fmt(L.maxEvents)}): shorten run.duration`,
     );
   const solver = scenario.run.solver ?? "exact";
   if (solver === "odex") {

@@ -10,8 +10,6 @@ import { MONITOR_VD } from "./measure";
 import { SimCancelled, SimFailed } from "./errors";
 
 export interface OdexParams extends ExactParams {
-  /** Total step budget over the run (default 200,000). */
-  maxSteps?: number;
   relativeTolerance?: number;
 }
 
@@ -72,7 +70,7 @@ export function runOdex(p: OdexParams): OdexStats {
   const scaleV = Math.max(1, Math.abs(Voh), Math.abs(Vol));
   solver.absoluteTolerance = twoD ? [1e-11 * scaleV, 1e-11 * scaleV, 1e-11 * T] : [1e-11 * scaleV, 1e-11 * T];
 
-  const budget = p.maxSteps ?? 200_000;
+  const budget = p.maxSteps ?? 200_000; // total over the run
   let steps = 0;
   let reached = 0; // furthest time integrated so far
   let y: number[] = twoD ? [p.vo0, p.vc0, 0] : [p.vo0, 0];

@@ -13,7 +13,7 @@ export interface SimOptions {
   onProgress?: (fraction: number) => void;
   /** Polled now and then; returning true aborts the run with a `SimCancelled` error. */
   shouldCancel?: () => boolean;
-  /** odex only: total step budget over the run (default 200,000). */
+  /** Step budget over the run: odex default 200,000 steps; exact default unlimited (pieces). */
   maxSteps?: number;
 }
 

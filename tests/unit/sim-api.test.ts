@@ -89,5 +89,11 @@ describe("sim API", () => {
     expect(reasons.some((r) => /noise segments/.test(r))).toBe(true);
     expect(reasons.some((r) => /odex/.test(r))).toBe(true);
     expect(checkRunBounds(big, { maxPoints: 1_000_000, maxNoiseSegments: 1e9, maxOdexSegments: 1e10, maxOdexStiffness: 1e12 })).toEqual([]);
+    // a 10 kHz oscillator for 1,000 s would switch 2e7 times
+    const osc = scenario({
+      stage: { kind: "relaxation-oscillator", rReference: 10e3, rFeedback: 10e3, rTiming: 10e3, cTiming: 4.55e-9, reference: 0 },
+      run: { duration: 1000, points: 1001 },
+    });
+    expect(checkRunBounds(osc).join(" ")).toMatch(/oscillator would switch about 20,0\d\d,\d{3} times/);
   });
 });
