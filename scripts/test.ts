@@ -74,7 +74,10 @@ function main() {
   }
 
   if (built) {
-    add(vitest(["integration", "e2e"], "server"));
+    // One after the other: the browser tests measure responsiveness, so they should not share
+    // the CPU with the integration servers.
+    add(vitest(["integration"], "integration"));
+    add(vitest(["e2e"], "e2e"));
   } else {
     console.error("integration and e2e tests not run: the build failed (counted as one failure)");
     total.failed += 1;
