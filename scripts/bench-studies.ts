@@ -43,7 +43,12 @@ if (!isMainThread && parentPort) {
   port.postMessage("ready");
 }
 
-async function runInThreads(request: StudyRequest, workers: number, fullGrid = false): Promise<{ tasks: TaskOutput[]; ms: number; startMs: number }> {
+const cpuMsSince = (c: NodeJS.CpuUsage) => {
+  const d = process.cpuUsage(c);
+  return (d.user + d.system) / 1000;
+};
+
+async function runInThreads(request: StudyRequest, workers: number, fullGrid = false): Promise<{ tasks: TaskOutput[]; ms: number; startMs: number; cpuMs: number }> {
   const t0 = performance.now();
   const total = studyTaskCount(request.config);
   const ranges = splitTasks(total, Math.max(1, Math.min(64, Math.ceil(total / (workers * 12)))));
@@ -67,6 +72,7 @@ async function runInThreads(request: StudyRequest, workers: number, fullGrid = f
     ),
   );
   const startMs = performance.now() - t0;
+  const cpu0 = process.cpuUsage(); // process-wide: includes every worker thread
   let next = 0;
   try {
     await Promise.all(
@@ -93,15 +99,17 @@ async function runInThreads(request: StudyRequest, workers: number, fullGrid = f
   } finally {
     await Promise.all(threads.map((w) => w.terminate()));
   }
-  return { tasks: outputs.flat(), ms: performance.now() - t0 - startMs, startMs };
+  const cpuMs = cpuMsSince(cpu0);
+  return { tasks: outputs.flat(), ms: performance.now() - t0 - startMs, startMs, cpuMs };
 }
 
-function inProcess(request: StudyRequest, fullGrid = false): { tasks: TaskOutput[]; ms: number } {
+function inProcess(request: StudyRequest, fullGrid = false): { tasks: TaskOutput[]; ms: number; cpuMs: number } {
   const sim = fullGrid ? onGrid(request.scenario.run.points) : simulate;
   runStudyTasks(request, 0, Math.min(WARM, studyTaskCount(request.config)), sim); // same warm-up as a thread
   const t0 = performance.now();
+  const cpu0 = process.cpuUsage();
   const tasks = runStudyTasks(request, 0, studyTaskCount(request.config), sim);
-  return { tasks, ms: performance.now() - t0 };
+  return { tasks, ms: performance.now() - t0, cpuMs: cpuMsSince(cpu0) };
 }
 
 function demo(key: string): Scenario {
@@ -112,6 +120,8 @@ export interface StudyBenchRow {
   case: string;
   mode: string;
   ms: number;
+  /** CPU time of the study, all threads together (load-independent, unlike ms). */
+  cpuMs: number;
   /** Thread start-up before the study (not in ms). */
   startMs?: number;
   target: string;
@@ -131,11 +141,11 @@ export async function benchStudies(): Promise<StudyBenchRow[]> {
   };
   const a = await runInThreads(spread, 2);
   const s = summarizeToleranceSpread(spread.config as never, a.tasks as DrawOutput[]);
-  rows.push({ case: "Tolerance spread: 1,000 draws, bilge filter, 20,000-sample run", mode: "2 worker threads", ms: a.ms, startMs: a.startMs, target: "< 3000 ms", note: `inside window ${(100 * (s.insideShare ?? 0)).toFixed(1)} %; study grid ${STUDY_OUTPUT_POINTS} pts; solver failures ${s.failed}` });
+  rows.push({ case: "Tolerance spread: 1,000 draws, bilge filter, 20,000-sample run", mode: "2 worker threads", ms: a.ms, cpuMs: a.cpuMs, startMs: a.startMs, target: "< 3000 ms", note: `inside window ${(100 * (s.insideShare ?? 0)).toFixed(1)} %; study grid ${STUDY_OUTPUT_POINTS} pts; solver failures ${s.failed}` });
   const a1 = inProcess(spread);
-  rows.push({ case: "  same", mode: "1 thread, in-process", ms: a1.ms, target: "", note: JSON.stringify(a1.tasks) === JSON.stringify(a.tasks) ? "identical to 2 threads" : "DIFFERS from 2 threads" });
+  rows.push({ case: "  same", mode: "1 thread, in-process", ms: a1.ms, cpuMs: a1.cpuMs, target: "", note: JSON.stringify(a1.tasks) === JSON.stringify(a.tasks) ? "identical to 2 threads" : "DIFFERS from 2 threads" });
   const af = await runInThreads(spread, 2, true);
-  rows.push({ case: "  same, full 20,000-point output per draw", mode: "2 worker threads", ms: af.ms, startMs: af.startMs, target: "", note: JSON.stringify(af.tasks) === JSON.stringify(a.tasks) ? "identical figures" : "figures differ" });
+  rows.push({ case: "  same, full 20,000-point output per draw", mode: "2 worker threads", ms: af.ms, cpuMs: af.cpuMs, startMs: af.startMs, target: "", note: JSON.stringify(af.tasks) === JSON.stringify(a.tasks) ? "identical figures" : "figures differ" });
 
   const temp = demo("water-temperature-alarm");
   const noise: StudyRequest = {
@@ -144,9 +154,9 @@ export async function benchStudies(): Promise<StudyBenchRow[]> {
   };
   const b = await runInThreads(noise, 2);
   const ns = summarizeNoiseMargin(noise.config as never, b.tasks as NoiseTaskOutput[]);
-  rows.push({ case: "Noise margin study: 20 levels × 50 seeds, water-temperature alarm (6,000 pts, 600 s)", mode: "2 worker threads", ms: b.ms, startMs: b.startMs, target: "< 5000 ms", note: `chatter ≤ 1 % up to ${ns.safeRms !== null ? (ns.safeRms * 1e3).toFixed(1) + " mV" : "—"} rms; rule of thumb ${(ns.ruleOfThumbRms * 1e3).toFixed(1)} mV; solver failures ${ns.levels.reduce((a, l) => a + l.failed, 0)}` });
+  rows.push({ case: "Noise margin study: 20 levels × 50 seeds, water-temperature alarm (6,000 pts, 600 s)", mode: "2 worker threads", ms: b.ms, cpuMs: b.cpuMs, startMs: b.startMs, target: "< 5000 ms", note: `chatter ≤ 1 % up to ${ns.safeRms !== null ? (ns.safeRms * 1e3).toFixed(1) + " mV" : "—"} rms; rule of thumb ${(ns.ruleOfThumbRms * 1e3).toFixed(1)} mV; solver failures ${ns.levels.reduce((a, l) => a + l.failed, 0)}` });
   const b1 = inProcess(noise);
-  rows.push({ case: "  same", mode: "1 thread, in-process", ms: b1.ms, target: "", note: JSON.stringify(b1.tasks) === JSON.stringify(b.tasks) ? "identical to 2 threads" : "DIFFERS from 2 threads" });
+  rows.push({ case: "  same", mode: "1 thread, in-process", ms: b1.ms, cpuMs: b1.cpuMs, target: "", note: JSON.stringify(b1.tasks) === JSON.stringify(b.tasks) ? "identical to 2 threads" : "DIFFERS from 2 threads" });
   return rows;
 }
 
@@ -156,7 +166,7 @@ export function printStudyRows(rows: StudyBenchRow[]): void {
   console.log(`\nStudies (load average ${os.loadavg().map((l) => l.toFixed(1)).join(" ")} on ${os.cpus().length} cores)`);
   for (const r of rows) {
     const start = r.startMs !== undefined ? `(+${r.startMs.toFixed(0)} ms start+warm-up)` : "";
-    console.log(`${r.case.padEnd(w)}  ${r.mode.padEnd(22)} ${r.ms.toFixed(0).padStart(6)} ms ${start.padEnd(22)} ${r.target.padEnd(10)} ${r.note}`);
+    console.log(`${r.case.padEnd(w)}  ${r.mode.padEnd(22)} ${r.ms.toFixed(0).padStart(6)} ms wall ${r.cpuMs.toFixed(0).padStart(6)} ms CPU ${start.padEnd(26)} ${r.target.padEnd(10)} ${r.note}`);
   }
 }
 

@@ -80,6 +80,7 @@ beforeAll(async () => {
   await page.goto(`${server.url}/scenarios/${scenarioId}`);
   await page.getByTestId("studies-card").waitFor({ timeout: 60_000 });
   figures.hardwareConcurrency = await page.evaluate(() => navigator.hardwareConcurrency);
+  figures.loadAverageAtStart = (await import("node:os")).loadavg().map((l) => Number(l.toFixed(1)));
   // Baseline: the idle Workbench for 5 s, to tell the studies' main-thread cost from this
   // machine's own stalls (other processes share its two cores).
   await startJankProbe(page);
