@@ -89,58 +89,91 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
             A scenario is one stage with its supplies, part profile, input signal and run settings.
           </EmptyState>
         ) : (
-          <Table data-testid="scenario-table">
-            <THead>
-              <TR>
-                <TH>Name</TH>
-                <TH>Stage</TH>
-                <TH>Supplies</TH>
-                <TH>Updated</TH>
-                <TH numeric>Version</TH>
-                <TH>Latest decision</TH>
-                {canEdit && (
-                  <TH className="text-right">
-                    <span className="sr-only">Actions</span>
-                  </TH>
-                )}
-              </TR>
-            </THead>
-            <TBody>
+          <>
+            {/* Phones get a stacked list; the table needs room for its seven columns. */}
+            <ul className="divide-y divide-paper-line sm:hidden" data-testid="scenario-list">
               {scenarios.map((s) => (
-                <TR key={s.id} className="hover:bg-paper/70">
-                  <TD className="min-w-48">
+                <li key={s.id} className="flex flex-col gap-1.5 px-4 py-3">
+                  <div className="flex items-start justify-between gap-3">
                     <Link href={`/scenarios/${s.id}`} className="font-medium text-ink hover:text-copper-deep hover:underline">
                       {s.name}
                     </Link>
-                  </TD>
-                  <TD>
-                    <Badge tone="indigo" title={STAGE_KIND_LABEL[s.scenario.stage.kind]}>
-                      {STAGE_KIND_SHORT[s.scenario.stage.kind] ?? s.scenario.stage.kind}
-                    </Badge>
-                  </TD>
-                  <TD className="whitespace-nowrap tabular-nums">{formatSupply(s.scenario.supply)}</TD>
-                  <TD className="whitespace-nowrap">
-                    <span title={formatDate(s.updatedAt)}>{formatRelative(s.updatedAt)}</span>
-                    <span className="text-ink-mute"> · {personName(s.updatedBy)}</span>
-                  </TD>
-                  <TD numeric>v{s.version}</TD>
-                  <TD>
-                    <DecisionBadge decision={s.latestDecision} />
-                  </TD>
+                    <span className="shrink-0 font-mono text-[12px] text-ink-mute">v{s.version}</span>
+                  </div>
+                  <div className="flex flex-wrap items-center gap-x-3 gap-y-1 text-[12px] text-ink-mute">
+                    <Badge tone="indigo">{STAGE_KIND_SHORT[s.scenario.stage.kind] ?? s.scenario.stage.kind}</Badge>
+                    <span className="tabular-nums text-ink-soft">{formatSupply(s.scenario.supply)}</span>
+                    <span>
+                      {formatRelative(s.updatedAt)} · {personName(s.updatedBy)}
+                    </span>
+                    <DecisionBadge decision={s.latestDecision} hideEmpty />
+                  </div>
                   {canEdit && (
-                    <TD className="text-right whitespace-nowrap">
+                    <div className="-ml-2.5 flex gap-1">
                       <Button size="sm" variant="ghost" onClick={() => setRenaming(s)} aria-label={`Rename ${s.name}`}>
                         Rename
                       </Button>
                       <Button size="sm" variant="quiet-danger" onClick={() => setDeleting(s)} aria-label={`Delete ${s.name}`}>
                         Delete
                       </Button>
-                    </TD>
+                    </div>
+                  )}
+                </li>
+              ))}
+            </ul>
+            <Table data-testid="scenario-table" className="hidden sm:table">
+              <THead>
+                <TR>
+                  <TH>Name</TH>
+                  <TH>Stage</TH>
+                  <TH>Supplies</TH>
+                  <TH>Updated</TH>
+                  <TH numeric>Version</TH>
+                  <TH>Latest decision</TH>
+                  {canEdit && (
+                    <TH className="text-right">
+                      <span className="sr-only">Actions</span>
+                    </TH>
                   )}
                 </TR>
-              ))}
-            </TBody>
-          </Table>
+              </THead>
+              <TBody>
+                {scenarios.map((s) => (
+                  <TR key={s.id} className="hover:bg-paper/70">
+                    <TD className="min-w-48">
+                      <Link href={`/scenarios/${s.id}`} className="font-medium text-ink hover:text-copper-deep hover:underline">
+                        {s.name}
+                      </Link>
+                    </TD>
+                    <TD>
+                      <Badge tone="indigo" title={STAGE_KIND_LABEL[s.scenario.stage.kind]}>
+                        {STAGE_KIND_SHORT[s.scenario.stage.kind] ?? s.scenario.stage.kind}
+                      </Badge>
+                    </TD>
+                    <TD className="whitespace-nowrap tabular-nums">{formatSupply(s.scenario.supply)}</TD>
+                    <TD className="whitespace-nowrap">
+                      <span title={formatDate(s.updatedAt)}>{formatRelative(s.updatedAt)}</span>
+                      <span className="text-ink-mute"> · {personName(s.updatedBy)}</span>
+                    </TD>
+                    <TD numeric>v{s.version}</TD>
+                    <TD>
+                      <DecisionBadge decision={s.latestDecision} />
+                    </TD>
+                    {canEdit && (
+                      <TD className="text-right whitespace-nowrap">
+                        <Button size="sm" variant="ghost" onClick={() => setRenaming(s)} aria-label={`Rename ${s.name}`}>
+                          Rename
+                        </Button>
+                        <Button size="sm" variant="quiet-danger" onClick={() => setDeleting(s)} aria-label={`Delete ${s.name}`}>
+                          Delete
+                        </Button>
+                      </TD>
+                    )}
+                  </TR>
+                ))}
+              </TBody>
+            </Table>
+          </>
         )}
       </Card>
 
@@ -192,8 +225,8 @@ export function formatSupply(s: Supply): string {
   return `${v(s.positive)} V / ${v(s.negative)} V`;
 }
 
-function DecisionBadge({ decision }: { decision?: LatestDecision | null }) {
-  if (!decision) return <span className="text-ink-faint">—</span>;
+function DecisionBadge({ decision, hideEmpty }: { decision?: LatestDecision | null; hideEmpty?: boolean }) {
+  if (!decision) return hideEmpty ? null : <span className="text-ink-faint">—</span>;
   const d = String(decision.decision).replace(/_/g, "-");
   if (d === "approved") return <Badge tone="moss">approved</Badge>;
   if (d === "changes-requested") return <Badge tone="caution">changes requested</Badge>;

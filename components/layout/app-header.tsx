@@ -21,21 +21,21 @@ const NAV: NavItem[] = [
 export function AppHeader({ user }: { user: HeaderUser }) {
   return (
     <header className="border-b border-paper-line bg-paper-card">
-      <div className="mx-auto flex max-w-7xl items-center gap-x-5 px-4 py-2 sm:px-6">
-        <div className="flex min-w-0 items-center gap-3">
+      <div className="mx-auto flex max-w-7xl items-center gap-x-3 px-4 py-2 sm:px-6 md:gap-x-5">
+        <div className="flex min-w-0 flex-1 items-center gap-3 md:flex-none">
           <Link href="/boards" aria-label="Railwise home" className="shrink-0">
             <Wordmark />
           </Link>
-          <span aria-hidden className="hidden h-5 w-px bg-paper-line sm:block" />
-          <span className="hidden truncate text-[13px] text-ink-soft sm:inline" title="Team">
+          <span aria-hidden className="h-5 w-px shrink-0 bg-paper-line" />
+          <span className="min-w-0 truncate text-[12px] text-ink-soft sm:text-[13px]" title={`Team: ${user.teamName}`}>
             {user.teamName}
           </span>
         </div>
-        <div className="hidden sm:block">
+        <div className="hidden md:block">
           <NavLinks items={NAV} />
         </div>
-        <div className="ml-auto flex min-w-0 items-center gap-2.5">
-          <span className="hidden truncate text-[13px] text-ink md:inline" title={user.email ?? undefined}>
+        <div className="flex shrink-0 items-center gap-2.5 md:ml-auto">
+          <span className="hidden truncate text-[13px] text-ink lg:inline" title={user.email ?? undefined}>
             {user.name ?? user.email}
           </span>
           <RoleBadge role={user.role} />
@@ -44,10 +44,9 @@ export function AppHeader({ user }: { user: HeaderUser }) {
           </Link>
         </div>
       </div>
-      {/* Phones: nav and team on a second row, so the first never wraps. */}
-      <div className="flex items-center justify-between gap-3 border-t border-paper-line/70 px-4 py-1.5 sm:hidden">
+      {/* Narrow screens: the nav gets its own row (scrolls sideways if it must), so the first never wraps. */}
+      <div className="overflow-x-auto border-t border-paper-line/70 px-4 py-1.5 sm:px-6 md:hidden">
         <NavLinks items={NAV} />
-        <span className="truncate text-[12px] text-ink-mute">{user.teamName}</span>
       </div>
     </header>
   );

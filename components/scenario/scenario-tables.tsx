@@ -271,7 +271,7 @@ function ParamList({ items }: { items: Param[] }): ReactNode {
       {items.map(([label, value]) => (
         <div key={label} className="flex items-baseline gap-1.5">
           <dt className="text-[12px] text-ink-mute">{label}</dt>
-          <dd className="font-mono text-ink">{value}</dd>
+          <dd className="font-mono whitespace-nowrap text-ink">{value}</dd>
         </div>
       ))}
     </dl>

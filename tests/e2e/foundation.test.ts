@@ -93,6 +93,10 @@ describe("foundation pages in Chromium", () => {
     await expect(page.getByRole("button", { name: "New scenario" }).isVisible()).resolves.toBe(true);
     await expect(page.getByRole("button", { name: `Rename ${BATTERY}` }).isVisible()).resolves.toBe(true);
     await screenshot(page, "foundation-board");
+    await page.setViewportSize(PHONE);
+    await page.getByTestId("scenario-list").waitFor();
+    await screenshot(page, "foundation-board-designer-phone");
+    await page.setViewportSize(DESKTOP);
 
     await page.getByRole("link", { name: BATTERY, exact: true }).click();
     await page.waitForURL(/\/scenarios\/[^/]+$/);
@@ -177,8 +181,16 @@ describe("foundation pages in Chromium", () => {
     await page.setViewportSize(PHONE);
     await screenshot(page, "foundation-scenario-viewer-phone");
     await page.goBack();
-    await page.getByTestId("scenario-table").waitFor();
+    // Phones get the stacked list instead of the table, with the same five scenarios.
+    await page.getByTestId("scenario-list").waitFor();
+    await expect(page.getByTestId("scenario-list").locator("li").count()).resolves.toBe(DEMO_SCENARIOS.length);
+    await expect(page.getByTestId("scenario-table").isVisible()).resolves.toBe(false);
     await screenshot(page, "foundation-board-phone");
+    // Header with the full nav at a tablet width: one row, nothing clipped.
+    await page.setViewportSize({ width: 820, height: 700 });
+    const box = await page.locator("header").first().boundingBox();
+    expect(box?.height ?? 0).toBeLessThan(110);
+    await screenshot(page, "foundation-board-tablet");
     await context.close();
   });
 
