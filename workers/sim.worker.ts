@@ -37,4 +37,9 @@ const api = {
 
 export type SimWorkerApi = typeof api;
 
-Comlink.expose(api);
+/** The exposed object itself, for tests that wire it to a MessagePort. */
+export const simWorkerApi: SimWorkerApi = api;
+
+// Only inside a worker (tests import this module in Node, where there is no worker scope).
+const scope = globalThis as { WorkerGlobalScope?: abstract new () => unknown };
+if (typeof scope.WorkerGlobalScope === "function" && globalThis instanceof scope.WorkerGlobalScope) Comlink.expose(api);
