@@ -64,9 +64,16 @@ export function errorResponse(err: unknown): Response {
   return Response.json({ error: "internal", message: "Something went wrong on the server." }, { status: 500 });
 }
 
-/** Reads a JSON body; malformed or missing JSON is a 400, never a 500. */
-export async function readJson(request: Request): Promise<unknown> {
+/** Largest JSON body accepted (a scenario with a long capture fits well inside). */
+export const MAX_JSON_BYTES = 32 * 1024 * 1024;
+
+/** Reads a JSON body; malformed or missing JSON is a 400, an oversized one 413, never a 500. */
+export async function readJson(request: Request, limitBytes = MAX_JSON_BYTES): Promise<unknown> {
+  const declared = Number(request.headers.get("content-length") ?? "NaN");
+  const tooBig = () => tooLarge(`The request body is larger than ${Math.round(limitBytes / (1024 * 1024))} MB.`);
+  if (Number.isFinite(declared) && declared > limitBytes) throw tooBig();
   const text = await request.text();
+  if (text.length > limitBytes) throw tooBig();
   if (!text.trim()) throw badRequest("The request body must be JSON (it was empty).");
   try {
     return JSON.parse(text) as unknown;
