@@ -93,7 +93,9 @@ describe("review from a shared link", () => {
     // The board's scenario table shows the latest decision.
     const boards = (await (await designer.fetch("/api/boards")).json()) as { items: { id: string }[] };
     await ownerPage.goto(`${server.url}/boards/${boards.items[0].id}`);
-    await ownerPage.getByText("Approved").first().waitFor();
+    // The board view has a phone layout too (hidden at this width): look for the visible badge.
+    await ownerPage.getByText(/^approved$/i).filter({ visible: true }).first().waitFor();
+    await screenshot(ownerPage, "team-board-decision");
 
     expect(errors).toEqual([]);
     await ownerContext.close();
