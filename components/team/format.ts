@@ -13,6 +13,11 @@ const ACTIONS: Record<string, string> = {
   "part.deleted": "deleted a part profile",
   "parts.imported": "imported part profiles",
   "capture.deleted": "deleted a capture",
+  "board.created": "created a board",
+  "board.deleted": "deleted a board",
+  "scenario.deleted": "deleted a scenario",
+  "run.deleted": "deleted a run",
+  "run.study.saved": "saved a study with a run",
 };
 
 /** Audit action codes in words; unknown codes (from other parts of the app) pass through. */
@@ -28,6 +33,7 @@ export function describeDetails(details: unknown): string {
   if (typeof d.email === "string" && typeof d.role === "string") return `${d.email} as ${d.role}`;
   if (typeof d.decision === "string") return d.decision.replace("_", " ");
   if (typeof d.name === "string") return d.name;
+  if (typeof d.label === "string") return d.label;
   if (typeof d.count === "number") return `${d.count} profile${d.count === 1 ? "" : "s"}`;
   if (typeof d.expiresAt === "string") return `expires ${formatDate(d.expiresAt)}`;
   return "";
