@@ -110,12 +110,7 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
                   </div>
                   {canEdit && (
                     <div className="-ml-2.5 flex gap-1">
-                      <Button size="sm" variant="ghost" onClick={() => setRenaming(s)} aria-label={`Rename ${s.name}`}>
-                        Rename
-                      </Button>
-                      <Button size="sm" variant="quiet-danger" onClick={() => setDeleting(s)} aria-label={`Delete ${s.name}`}>
-                        Delete
-                      </Button>
+                      <RowActions scenario={s} onRename={setRenaming} onDelete={setDeleting} />
                     </div>
                   )}
                 </li>
@@ -161,12 +156,7 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
                     </TD>
                     {canEdit && (
                       <TD className="text-right whitespace-nowrap">
-                        <Button size="sm" variant="ghost" onClick={() => setRenaming(s)} aria-label={`Rename ${s.name}`}>
-                          Rename
-                        </Button>
-                        <Button size="sm" variant="quiet-danger" onClick={() => setDeleting(s)} aria-label={`Delete ${s.name}`}>
-                          Delete
-                        </Button>
+                        <RowActions scenario={s} onRename={setRenaming} onDelete={setDeleting} />
                       </TD>
                     )}
                   </TR>
@@ -223,6 +213,27 @@ export function formatSupply(s: Supply): string {
   };
   if (s.negative < 0 && s.negative === -s.positive) return `±${String(Number(s.positive.toPrecision(4)))} V`;
   return `${v(s.positive)} V / ${v(s.negative)} V`;
+}
+
+function RowActions({
+  scenario,
+  onRename,
+  onDelete,
+}: {
+  scenario: ScenarioRecord;
+  onRename: (s: ScenarioRecord) => void;
+  onDelete: (s: ScenarioRecord) => void;
+}) {
+  return (
+    <>
+      <Button size="sm" variant="ghost" onClick={() => onRename(scenario)} aria-label={`Rename ${scenario.name}`}>
+        Rename
+      </Button>
+      <Button size="sm" variant="quiet-danger" onClick={() => onDelete(scenario)} aria-label={`Delete ${scenario.name}`}>
+        Delete
+      </Button>
+    </>
+  );
 }
 
 function DecisionBadge({ decision, hideEmpty }: { decision?: LatestDecision | null; hideEmpty?: boolean }) {
