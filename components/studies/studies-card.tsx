@@ -56,17 +56,24 @@ function captureOf(s: Scenario) {
   return null;
 }
 
+/** Two significant figures, so suggested values read like ones an engineer would type. */
+function twoFigures(v: number): number {
+  if (!(v > 0)) return v;
+  const p = 10 ** (Math.floor(Math.log10(v)) - 1);
+  return Math.round(v / p) * p;
+}
+
 function suggestNoise(s: Scenario, capture: CaptureNoiseEstimate | null) {
   const f = stageFigures(s.stage, conditionsOf(s.opamp, s.supply));
   const deadband = f.hysteresis && f.hysteresis > 0 ? f.hysteresis : 0.01 * (s.supply.positive - s.supply.negative);
   // Sweep to half the deadband: far past the 6.6 × rms rule, so the edge shows on the chart.
-  const rmsTo = deadband / 2;
+  const rmsTo = twoFigures(deadband / 2);
   return {
-    rmsFrom: rmsTo / 20,
+    rmsFrom: twoFigures(rmsTo / 20),
     rmsTo,
     levels: 20,
     seedsPerLevel: 50,
-    bandwidth: capture?.bandwidth ?? s.input.noise?.bandwidth ?? 1000 / s.run.duration,
+    bandwidth: twoFigures(capture?.bandwidth ?? s.input.noise?.bandwidth ?? 1000 / s.run.duration),
     limit: 0.01,
     seed: 1,
   };
