@@ -5,7 +5,7 @@
 import sqlite3 from "sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { signIn, startServer, type TestServer } from "@/tests/helpers/server";
-import { EMAILS, readMails, setupTeam, waitForMail, type TeamFixture } from "@/tests/helpers/team";
+import { EMAILS, firstScenarioId, readMails, setupTeam, waitForMail, type TeamFixture } from "@/tests/helpers/team";
 
 let server: TestServer;
 let fx: TeamFixture;
@@ -347,6 +347,26 @@ describe("concurrency", () => {
     );
     expect(saves.map((r) => r.status)).toEqual(Array(50).fill(201));
     expect(await count("/api/parts")).toBe(partsBefore + 50);
+  });
+
+  it("50 concurrent scenario saves each become a version", async () => {
+    const id = await firstScenarioId(fx.sessions.designer, "Hydrophone preamp");
+    const before = (await (await fx.sessions.designer.fetch(`/api/scenarios/${id}`)).json()) as { version: number };
+    const saves = await Promise.all(
+      Array.from({ length: 50 }, (_, i) =>
+        (i % 2 ? fx.sessions.owner : fx.sessions.designer).fetch(`/api/scenarios/${id}`, {
+          method: "PUT",
+          body: JSON.stringify({ name: `Hydrophone preamp (save ${i})`, note: `parallel save ${i}` }),
+        }),
+      ),
+    );
+    expect(saves.map((r) => r.status)).toEqual(Array(50).fill(200));
+    const after = (await (await fx.sessions.viewer.fetch(`/api/scenarios/${id}`)).json()) as { version: number };
+    expect(after.version).toBe(before.version + 50);
+    const versions = (await (await fx.sessions.viewer.fetch(`/api/scenarios/${id}/versions`)).json()) as { items: { version: number; note?: string | null }[] };
+    const numbers = versions.items.map((v) => v.version).sort((a, b) => a - b);
+    expect(new Set(numbers).size).toBe(numbers.length);
+    for (let i = 0; i < 50; i++) expect(versions.items.some((v) => v.note === `parallel save ${i}`)).toBe(true);
   });
 });
 
