@@ -72,7 +72,13 @@ export function simulate(scenario: Scenario, options: SimOptions = {}): SimResul
     evaluations = s.evaluations;
   }
   const holdOff = options.holdOff ?? scenario.run.holdOff ?? defaultHoldOff(duration, signal.longestPeriod);
-  const metrics = finishMetrics(recorder, { duration, holdOff, inverting: net.inverting, amplifier: net.amplifier });
+  const metrics = finishMetrics(recorder, {
+    duration,
+    holdOff,
+    inverting: net.inverting,
+    amplifier: net.amplifier,
+    inputConnected: net.alpha !== 0,
+  });
   const input = evaluateInputSignal(signal, t);
   return {
     rails,

@@ -145,14 +145,15 @@ export function defaultHoldOff(duration: number, longestPeriod: number | null): 
 
 export function finishMetrics(
   rec: Recorder,
-  opts: { duration: number; holdOff: number; inverting: boolean; amplifier: boolean },
+  opts: { duration: number; holdOff: number; inverting: boolean; amplifier: boolean; inputConnected: boolean },
 ): SimMetrics {
   const ev = rec.events.slice(rec.startupEvents);
   // Output edges caused by the input crossing upward: rising for non-inverting stages,
-  // falling for inverting ones (DESIGN.md "Result JSON").
+  // falling for inverting ones (DESIGN.md "Result JSON"). A relaxation oscillator's input is
+  // not connected, so no edge is caused by the input: its thresholds are null.
   const upEdge = opts.inverting ? "falling" : "rising";
-  const upper = mean(ev.filter((e) => e.edge === upEdge).map((e) => e.input));
-  const lower = mean(ev.filter((e) => e.edge !== upEdge).map((e) => e.input));
+  const upper = opts.inputConnected ? mean(ev.filter((e) => e.edge === upEdge).map((e) => e.input)) : null;
+  const lower = opts.inputConnected ? mean(ev.filter((e) => e.edge !== upEdge).map((e) => e.input)) : null;
   let chatter = 0;
   for (let i = 1; i < ev.length; i++) if (ev[i].time - ev[i - 1].time < opts.holdOff) chatter++;
   const rising = ev.filter((e) => e.edge === "rising").map((e) => e.time);

@@ -23,6 +23,9 @@ describe("relaxation oscillator period", () => {
     expect(r.metrics.dutyCycle!).toBeCloseTo(0.5, 4);
     // The capacitor starts at 0 V, so the first half period is shorter; the rest are periodic.
     expect(r.metrics.transitions).toBeGreaterThan(20);
+    // No input reaches the stage, so there are no input-referred thresholds (DESIGN.md).
+    expect(r.metrics.upperThreshold).toBeNull();
+    expect(r.metrics.hysteresis).toBeNull();
   });
 
   it("single 5 V supply, thresholds Vcc/3 and 2Vcc/3: f = 1/(2RC·ln 2) = 9.618 kHz", () => {
