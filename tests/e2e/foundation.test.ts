@@ -210,6 +210,43 @@ describe("foundation pages in Chromium", () => {
     await context.close();
   });
 
+  it("owner creates a board; a designer has no New board button", async () => {
+    const { context, page } = await newPage();
+    await signInPage(page, server.url, "owner@fjordline.example");
+    await page.getByRole("button", { name: "New board" }).click();
+    const dialog = page.getByRole("dialog", { name: "New board" });
+    await dialog.getByLabel("Name").fill("Feed barge controller");
+    await dialog.getByLabel("Description").fill("Auger motor over-current flag and hopper level switch.");
+    await dialog.getByRole("button", { name: "Create board" }).click();
+    await page.getByRole("link", { name: /Feed barge controller/ }).waitFor();
+    await expect(page.getByTestId("board-list").locator("li").count()).resolves.toBe(2);
+    await screenshot(page, "foundation-boards-owner");
+    // The new board opens with an empty state that invites the first scenario.
+    await page.getByRole("link", { name: /Feed barge controller/ }).click();
+    await page.getByText("No scenarios on this board").waitFor();
+    await context.close();
+
+    const designer = await newPage();
+    await signInPage(designer.page, server.url, DESIGNER);
+    await designer.page.getByTestId("board-list").waitFor();
+    await expect(designer.page.getByRole("button", { name: "New board" }).count()).resolves.toBe(0);
+    await designer.context.close();
+  });
+
+  it("signs out from the header through the sign-out page", async () => {
+    const { context, page } = await newPage();
+    await signInPage(page, server.url, VIEWER);
+    await page.getByRole("link", { name: "Sign out" }).click();
+    await page.waitForURL(/\/signout$/);
+    await screenshot(page, "foundation-signout");
+    await page.getByRole("button", { name: "Sign out" }).click();
+    await page.waitForURL(/\/signin/);
+    // The session is gone: a signed-in page sends us back to sign in.
+    await page.goto(`${server.url}/boards`);
+    await page.waitForURL(/\/signin/);
+    await context.close();
+  });
+
   it("answers an unknown scenario id with our not-found state, not an error page", async () => {
     const { context, page } = await newPage();
     await signInPage(page, server.url, VIEWER);
