@@ -255,7 +255,11 @@ export class ExactSolver {
       if (gb > 0) {
         if (ga > 0) return a === 0 ? NaN : a; // start already past by rounding: ignore at τ = 0
         // find first point with g > 0
-        return this.bracketPositive(c, a, b, ga, gb, t0);
+        const r = this.bracketPositive(c, a, b, ga, gb, t0);
+        // An exit closer than the time resolution at t0 (late in a long run) would not move
+        // the clock and could cycle between two regimes at one instant: step to the next
+        // representable time instead (g stays past the crossing there: the chunk is monotone).
+        return t0 + r > t0 ? r : Math.min(tMax, ulp(t0));
       }
       a = b;
       ga = gb;

@@ -97,3 +97,22 @@ describe("sim API", () => {
     expect(checkRunBounds(osc).join(" ")).toMatch(/oscillator would switch about 20,0\d\d,\d{3} times/);
   });
 });
+
+describe("long runs", () => {
+  it("an exit closer than the clock resolution late in a 600 s run does not stall the solver", () => {
+    // Regression (common practice, no source): at t ≈ 482 s one ulp is 57 fs; a rail exit
+    // found 28 fs ahead used to leave the clock where it was and cycle rail ↔ linear.
+    const volts = [2.512148, 2.503234, 2.494329, 2.485433, 2.476547, 2.467671, 2.458804, 2.449948, 2.441103, 2.432268, 2.423443, 2.41463, 2.405828, 2.397037, 2.388258, 2.379491, 2.370736, 2.361993, 2.353262, 2.344544, 2.335839, 2.327146, 2.318467, 2.309801, 2.301148, 2.292509, 2.283884, 2.275273, 2.266676, 2.258093, 2.249525, 2.258093, 2.266676, 2.275273, 2.283884, 2.292509, 2.301148, 2.309801, 2.318467, 2.327146, 2.335839, 2.344544, 2.353262, 2.361993, 2.370736, 2.379491, 2.388258, 2.397037, 2.405828, 2.41463, 2.423443, 2.432268, 2.441103, 2.449948, 2.458804, 2.467671, 2.476547, 2.485433, 2.494329, 2.503234, 2.512148];
+    const s = scenario({
+      supply: { positive: 5, negative: 0 },
+      opamp: { openLoopGain: 1e5, gainBandwidth: 1e6, slewRate: 6e5, outputHeadroomHigh: 0.02, outputHeadroomLow: 0.02, inputOffset: 5e-4 },
+      stage: { kind: "schmitt-inverting", rReference: 3566.434, rFeedback: 200000, reference: 2.377622 },
+      input: { components: [{ kind: "pwl", points: volts.map((v, i) => [10 * i, v]) }], noise: { rms: 0.03, bandwidth: 5, seed: 389399651 } },
+      run: { duration: 600, points: 257 },
+    });
+    const r = simulate(s);
+    expect(r.t[256]).toBe(600);
+    expect(r.metrics.transitions).toBeGreaterThan(2);
+    for (const v of r.output) expect(v === 0.02 || v === 4.98 || (v > 0.02 && v < 4.98)).toBe(true);
+  });
+});
