@@ -2,7 +2,7 @@
 // "Trace": input (indigo) and output (copper) against time, with the output limits, the
 // designed switching points and the measured output edges marked. uPlot decimates the
 // Float64Array columns itself; we never thin them.
-import { useEffect, useRef } from "react";
+import { useEffect, useMemo, useRef } from "react";
 import type uPlot from "uplot";
 import type { SimEvent } from "@/lib/sim/types";
 import { PlotToolbar, Readout, cursorItems } from "./plot-chrome";
@@ -27,6 +27,7 @@ export function TimePlot(props: TimePlotProps) {
   const { t, input, output, rails, thresholds, events = [], cursorIdx, onCursor, onFirstDraw, height = 300, fileName = "trace.png" } = props;
   const box = useRef<HTMLDivElement>(null);
   const emitted = useRef<number | null>(null);
+  const view = useMemo(() => displayColumns(t, input, output), [t, input, output]);
   const cb = useRef({ onCursor, onFirstDraw });
   cb.current = { onCursor, onFirstDraw };
 
@@ -78,7 +79,8 @@ export function TimePlot(props: TimePlotProps) {
             (u) => {
               cancelAnimationFrame(frame);
               frame = requestAnimationFrame(() => {
-                const idx = u.cursor.idx ?? null;
+                const vi = u.cursor.idx ?? null;
+                const idx = vi == null ? null : view.index ? view.index[vi] : vi;
                 if (idx === emitted.current) return;
                 emitted.current = idx;
                 cb.current.onCursor?.(idx);
@@ -87,9 +89,9 @@ export function TimePlot(props: TimePlotProps) {
           ],
         },
       };
-      return { opts, data: [t, input, output] as unknown as uPlot.AlignedData };
+      return { opts, data: [view.t, view.input, view.output] as unknown as uPlot.AlignedData };
     },
-    [t, input, output, rails.high, rails.low, thresholds?.upper, thresholds?.lower, events, height],
+    [view, rails.high, rails.low, thresholds?.upper, thresholds?.lower, events, height],
   );
 
   // A cursor set by the other plot moves ours (without echoing it back).
@@ -147,6 +149,47 @@ export function TimePlot(props: TimePlotProps) {
       />
     </div>
   );
+}
+
+/** Above this many samples the Trace gets a min/max view (see displayColumns). */
+const DISPLAY_LIMIT = 40_000;
+const BUCKETS = 4096;
+
+/**
+ * Display-only thinning for very long runs: per time bucket keep the samples where the input and
+ * the output reach their minimum and maximum (in time order), so every spike, edge and clip stays
+ * visible while uPlot draws ≤ 16k points instead of a million (its own per-pixel pass over 10⁶
+ * points costs a few hundred ms on a busy machine). `index` maps back to the full arrays, which
+ * the cursor readout and the Loop keep using.
+ */
+function displayColumns(t: Float64Array, input: Float64Array, output: Float64Array) {
+  const n = t.length;
+  if (n <= DISPLAY_LIMIT) return { t, input, output, index: null as Int32Array | null };
+  const keep = new Int32Array(BUCKETS * 4 + 2);
+  let k = 0;
+  keep[k++] = 0;
+  for (let b = 0; b < BUCKETS; b++) {
+    const from = 1 + Math.floor((b * (n - 2)) / BUCKETS);
+    const to = 1 + Math.floor(((b + 1) * (n - 2)) / BUCKETS);
+    if (to <= from) continue;
+    let iMin = from, iMax = from, oMin = from, oMax = from;
+    for (let i = from + 1; i < to; i++) {
+      if (input[i] < input[iMin]) iMin = i;
+      if (input[i] > input[iMax]) iMax = i;
+      if (output[i] < output[oMin]) oMin = i;
+      if (output[i] > output[oMax]) oMax = i;
+    }
+    const four = [iMin, iMax, oMin, oMax].sort((a, b2) => a - b2);
+    for (let j = 0; j < 4; j++) if (j === 0 || four[j] !== four[j - 1]) keep[k++] = four[j];
+  }
+  keep[k++] = n - 1;
+  const index = keep.slice(0, k);
+  const pick = (a: Float64Array) => {
+    const out = new Float64Array(k);
+    for (let j = 0; j < k; j++) out[j] = a[index[j]];
+    return out;
+  };
+  return { t: pick(t), input: pick(input), output: pick(output), index };
 }
 
 /** Measured edges: a tick at the top of the plot, up for rising, down for falling. */

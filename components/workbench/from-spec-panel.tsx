@@ -13,7 +13,7 @@ import { Button } from "@/components/ui/button";
 import { QuantityField } from "./quantity-field";
 import { MiniButton, Section, SelectRow } from "./controls";
 import { useWb, useWbApi } from "./store";
-import { sensorToInput, type SensorSetup, SensorFields, defaultSensor } from "./spec-sensors";
+import { frontEndOf, sensorToInput, type SensorSetup, SensorFields, defaultSensor } from "./spec-sensors";
 
 type TargetMode = "thresholds" | "threshold" | "gain" | "frequency";
 
@@ -77,14 +77,19 @@ export function FromSpecPanel() {
   const mapped = useMemo(() => {
     if (!usesSensor) return null;
     try {
+      const fe = frontEndOf(sensor);
+      // Self-heating of an NTC at the warmer threshold (lib/design/sensors.ts, δ = 1 mW/K).
+      const heat = fe?.selfHeating ? fe.selfHeating(Math.max(form.upper, form.lower)) : null;
       return {
         upper: sensorToInput(sensor, form.upper),
         lower: sensorToInput(sensor, form.lower),
         threshold: sensorToInput(sensor, form.threshold),
+        inverted: fe?.inverted ?? false,
+        heat,
         error: null as string | null,
       };
     } catch (e) {
-      return { upper: NaN, lower: NaN, threshold: NaN, error: e instanceof Error ? e.message : String(e) };
+      return { upper: NaN, lower: NaN, threshold: NaN, inverted: false, heat: null, error: e instanceof Error ? e.message : String(e) };
     }
   }, [sensor, form.upper, form.lower, form.threshold, usesSensor]);
 
@@ -158,7 +163,12 @@ export function FromSpecPanel() {
             {mapped.error ? (
               <span className="text-alert">{mapped.error}</span>
             ) : mode === "thresholds" ? (
-              <>At the stage input: upper {fmtV(Math.max(mapped.upper, mapped.lower))}, lower {fmtV(Math.min(mapped.upper, mapped.lower))}</>
+              <>
+                At the stage input: upper {fmtV(Math.max(mapped.upper, mapped.lower))}, lower {fmtV(Math.min(mapped.upper, mapped.lower))}.
+                {mapped.inverted ? " Warmer means a lower voltage here: an over-temperature alarm switches on the falling input (the lower point)." : ""}
+                {mapped.heat ? ` Self-heating ${(mapped.heat.power * 1e3).toFixed(2)} mW, ${mapped.heat.temperatureRise.toFixed(2)} K.` : ""}
+                {mapped.heat?.warning ? <span className="block text-caution">{mapped.heat.warning}</span> : null}
+              </>
             ) : (
               <>At the stage input: {fmtV(mapped.threshold)}</>
             )}

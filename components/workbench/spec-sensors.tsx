@@ -3,7 +3,7 @@
 // through a resistive divider (battery volts), or as a temperature through an NTC divider.
 import { QuantityField } from "./quantity-field";
 import { SelectRow } from "./controls";
-import { ntcDividerVolts } from "./ntc-bridge";
+import { sensorFrontEnd, type SensorFrontEnd } from "@/lib/design/sensors";
 
 export type SensorSetup =
   | { kind: "volts" }
@@ -15,17 +15,25 @@ export function defaultSensor(vSupply: number): SensorSetup {
   return { kind: "volts" };
 }
 
-/** Sensor units → volts at the stage input. */
-export function sensorToInput(s: SensorSetup, value: number): number {
+/** The sensor chain as lib/design/sensors.ts models it (null: thresholds are already input volts). */
+export function frontEndOf(s: SensorSetup): SensorFrontEnd | null {
   switch (s.kind) {
     case "volts":
-      return value;
+      return null;
     case "divider":
-      // Unloaded divider: v = V·rBottom/(rTop + rBottom).
-      return (value * s.rBottom) / (s.rTop + s.rBottom);
+      return sensorFrontEnd({ kind: "divider", rTop: s.rTop, rBottom: s.rBottom }, s.rTop);
     case "ntc":
-      return ntcDividerVolts({ celsius: value, r25: s.r25, beta: s.beta, rFixed: s.rFixed, position: s.position, vSupply: s.vSupply });
+      return sensorFrontEnd(
+        { kind: "ntc", model: { beta: s.beta, r25: s.r25 }, rFixed: s.rFixed, position: s.position, supplyVoltage: s.vSupply },
+        s.vSupply,
+      );
   }
+}
+
+/** Sensor units → volts at the stage input. */
+export function sensorToInput(s: SensorSetup, value: number): number {
+  const fe = frontEndOf(s);
+  return fe ? fe.toVolts(value) : value;
 }
 
 export function SensorFields({ sensor, onChange }: { sensor: SensorSetup; onChange: (s: SensorSetup) => void }) {
@@ -39,7 +47,7 @@ export function SensorFields({ sensor, onChange }: { sensor: SensorSetup; onChan
           const k = e.target.value as SensorSetup["kind"];
           if (k === "volts") onChange({ kind: "volts" });
           if (k === "divider") onChange({ kind: "divider", rTop: 68e3, rBottom: 18e3 });
-          if (k === "ntc") onChange({ kind: "ntc", r25: 10e3, beta: 3977, rFixed: 10e3, position: "bottom", vSupply: 5 });
+          if (k === "ntc") onChange({ kind: "ntc", r25: 10e3, beta: 3977, rFixed: 15e3, position: "bottom", vSupply: 5 });
         }}
       >
         <option value="volts">volts at the stage input</option>

@@ -141,6 +141,16 @@ describe("workbench (designer)", () => {
       await expect.poll(() => runPage.locator('[data-check="Upper switching point"]').textContent()).toMatch(/pass/);
       await runPage.locator('[data-testid="trace-plot"] canvas').first().waitFor();
       await screenshot(runPage, "run-page");
+
+      // The printable design summary: stage, values, designed and worst-case figures, the saved
+      // run's measurements and the load caution (this stage disconnects a battery load).
+      const summary = await ctx.newPage();
+      await summary.goto(`${server.url}/scenarios/${battery!.id}/summary`);
+      await summary.getByTestId("design-summary").waitFor();
+      await expect.poll(() => summary.getByTestId("summary-figures").textContent()).toContain("Upper switching point");
+      await summary.getByTestId("checks").waitFor({ timeout: 15_000 });
+      expect(await summary.getByTestId("safety-caution").count()).toBe(1);
+      await screenshot(summary, "design-summary");
     } finally {
       await ctx.close();
     }
@@ -200,6 +210,39 @@ describe("workbench (designer)", () => {
       const worst = tasks.length ? Math.max(...tasks) : 0;
       console.log(`[workbench] 1e6-segment run: ${wall} ms wall, ${tasks.length} long tasks, longest ${worst.toFixed(0)} ms`);
       expect(worst).toBeLessThan(100);
+    } finally {
+      await ctx.close();
+    }
+  });
+
+  it("designs the water-temperature alarm from °C through an NTC divider, applies it and measures it", async () => {
+    const water = scenarios.find((s) => /temperature/i.test(s.name));
+    expect(water, "demo scenario 'Water-temperature alarm' is seeded").toBeTruthy();
+    const { ctx, page } = await designerPage(1280);
+    try {
+      await page.goto(`${server.url}/scenarios/${water!.id}`);
+      await page.getByTestId("run-button").waitFor();
+      await page.getByRole("tab", { name: "From spec" }).click();
+      await page.locator('select[name="spec.sensor"]').selectOption("ntc");
+      await page.locator('input[name="spec.upper"]').fill("19");
+      await page.locator('input[name="spec.lower"]').fill("17.5");
+      await page.getByLabel("divider from the supply (choose it for me)").check();
+      // The NTC mapping (Beta model, 10 kΩ / B 3977 K at the bottom under 15 kΩ from 5 V) is shown before anything is designed.
+      await expect.poll(() => page.getByTestId("sensor-mapping").textContent()).toMatch(/upper 2\.4\d* V, lower 2\.3\d* V/);
+      await page.getByTestId("design-button").click();
+      await page.getByTestId("design-figures").waitFor();
+      const figures = await page.getByTestId("design-figures").textContent();
+      expect(figures).toMatch(/Upper switching point/);
+      expect(await page.getByTestId("design-parts").locator("tbody tr").count()).toBeGreaterThanOrEqual(3);
+      await page.getByTestId("from-spec-panel").screenshot({ path: path.join(SCREENSHOT_DIR, "workbench-from-spec.png") });
+      await page.getByTestId("apply-design").click();
+      await page.getByTestId("stage-panel").waitFor();
+      const ms = await runAndTime(page, "button");
+      console.log(`[workbench] water-temperature alarm after Apply: first plot ${ms.toFixed(0)} ms`);
+      await expect.poll(() => page.locator('[data-check="Upper switching point"]').textContent()).toMatch(/pass/);
+      await expect.poll(() => page.locator('[data-check="Lower switching point"]').textContent()).toMatch(/pass/);
+      await page.getByRole("tab", { name: "Signal" }).click();
+      await page.getByTestId("signal-panel").screenshot({ path: path.join(SCREENSHOT_DIR, "workbench-signal.png") });
     } finally {
       await ctx.close();
     }
