@@ -51,10 +51,18 @@ const plainText = (field: string, max: number, min: number) =>
         .max(max, { message: `${field} must be at most ${max} characters` }),
     );
 
-export const commentCreateSchema = z.object({ body: plainText("body", COMMENT_MAX, 1) });
+/** `{ body }`; `{ text }` is read as the same field. */
+export const commentCreateSchema = z.preprocess(
+  (raw) => (raw && typeof raw === "object" && !("body" in raw) && "text" in raw ? { body: (raw as { text: unknown }).text } : raw),
+  z.object({ body: plainText("body", COMMENT_MAX, 1) }),
+);
 
 export const signoffCreateSchema = z.object({
-  decision: z.enum(DECISIONS, { error: 'decision must be "approved" or "changes_requested"' }),
+  // "changes-requested" is read as "changes_requested" (both spellings circulate in clients).
+  decision: z.preprocess(
+    (d) => (d === "changes-requested" ? "changes_requested" : d),
+    z.enum(DECISIONS, { error: 'decision must be "approved" or "changes_requested"' }),
+  ),
   note: plainText("note", NOTE_MAX, 0).default(""),
 });
 

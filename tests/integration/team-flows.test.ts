@@ -250,7 +250,7 @@ describe("uploads: limits and malformed CSVs (never a 5xx, nothing stored)", () 
       ["t,v\n0,1\n1,NaN\n", undefined, 400, /Row 3, column "v": "NaN"/],
       ["t,v\n0,1\n0.5,2\n0.5,3\n", undefined, 400, /Row 4, column "t".*strictly increasing/],
       ["t,v\n0,1\n1,2\n", { timeColumn: "time", voltsColumn: "v" }, 400, /no column named "time"/],
-      ["t,v\n0,1\n1,2\n", { voltsColumn: "v" }, 400, /timeColumn/],
+      ["t,v\n0,1\n1,2\n", { timeColumn: "t", voltsColumn: "9" }, 400, /voltsColumn: column 9 does not exist/],
       ["t,v\n0,1\n1,2\n", { timeColumn: "t", voltsColumn: "v", timeUnit: "fortnight" }, 400, /timeUnit/],
       ['t,v\n0,"1\n1,2\n', undefined, 400, /Row|not a number|Quote/i],
       [new Blob([new Uint8Array([0xff, 0xfe, 0x00, 0x01, 0x02])]), undefined, 400, /not a text CSV/],
@@ -293,6 +293,14 @@ describe("uploads: limits and malformed CSVs (never a 5xx, nothing stored)", () 
       [0.0005, 0.12],
       [0.001, 3.3],
     ]);
+
+    // Columns by 1-based number, and the default (first = time, second = volts) when none is chosen.
+    const byNumber = await fx.sessions.designer.fetch("/api/captures", { method: "POST", body: form(csv, { timeColumn: "1", voltsColumn: "3" }) });
+    expect(byNumber.status).toBe(201);
+    expect(((await byNumber.json()) as { columns: unknown }).columns).toEqual({ time: "time_ms", value: "ch2" });
+    const byDefault = await fx.sessions.designer.fetch("/api/captures", { method: "POST", body: form("0,1\n0.1,2\n0.2,1.5\n", {}) });
+    expect(byDefault.status).toBe(201);
+    expect(((await byDefault.json()) as { points: number; duration: number })).toMatchObject({ points: 3, duration: 0.2 });
   });
 
   it("parts CSV import is all or nothing", async () => {

@@ -3,7 +3,7 @@ import { AppError, badRequest, errorResponse, tooLarge } from "@/lib/server/erro
 import { formText, readLimitedForm } from "@/lib/server/request";
 import { CAN, requireMember, requireRole } from "@/lib/server/session";
 import { createCapture, listCaptures } from "@/lib/server/captures";
-import { CAPTURE_MAX_BYTES, CaptureError, parseCapture, TIME_UNIT_SCALE, type TimeUnit } from "@/lib/captures/parse";
+import { CAPTURE_MAX_BYTES, CaptureError, inspectCsv, parseCapture, TIME_UNIT_SCALE, type TimeUnit } from "@/lib/captures/parse";
 
 // The multipart envelope (boundaries, the other fields) on top of the file itself.
 const ENVELOPE_BYTES = 64 * 1024;
@@ -16,9 +16,13 @@ const fieldsSchema = z.object({
   hasHeader: z.enum(["true", "false"], { error: 'hasHeader must be "true" or "false"' }).optional(),
 });
 
-/** "2" means the second column to a person; a header literally named "2" still wins in parseCapture. */
-function columnRef(text: string, hasHeader: boolean | undefined): string | number {
-  return hasHeader === false && /^\d+$/.test(text) ? Number(text) - 1 : text;
+/**
+ * A column by header name, or by 1-based number ("2" = the second column, as people count).
+ * A header literally named "2" wins over the number.
+ */
+function columnRef(text: string, columns: string[]): string | number {
+  if (columns.includes(text)) return text;
+  return /^\d+$/.test(text) ? Number(text) - 1 : text;
 }
 
 // GET /api/captures – the team's captures without samples (every role)
@@ -31,7 +35,8 @@ export async function GET(request: Request) {
   }
 }
 
-// POST /api/captures – multipart CSV upload: file, timeColumn, voltsColumn, timeUnit?, name? (owner/designer; > 5 MB → 413)
+// POST /api/captures – multipart CSV upload: file, timeColumn?, voltsColumn? (name or 1-based number; default 1 and 2),
+// timeUnit?, name? (owner/designer; > 5 MB or > 200,000 rows → 413)
 export async function POST(request: Request) {
   try {
     const member = await requireMember(request);
@@ -40,19 +45,22 @@ export async function POST(request: Request) {
     const file = form.get("file");
     if (!file || typeof file === "string") throw badRequest('Attach the CSV as the form field "file".', [{ path: ["file"], message: "required" }]);
     if (file.size > CAPTURE_MAX_BYTES) throw tooLarge(`The file is larger than ${CAPTURE_MAX_BYTES / (1024 * 1024)} MB.`);
+    // Without a choice, the first column is time and the second volts (the usual scope export).
     const fields = fieldsSchema.parse({
       name: formText(form, "name"),
-      timeColumn: formText(form, "timeColumn"),
-      voltsColumn: formText(form, "voltsColumn"),
+      timeColumn: formText(form, "timeColumn") ?? formText(form, "time") ?? "1",
+      voltsColumn: formText(form, "voltsColumn") ?? formText(form, "volts") ?? formText(form, "valueColumn") ?? "2",
       timeUnit: formText(form, "timeUnit") || undefined,
       hasHeader: formText(form, "hasHeader") || undefined,
     });
     const hasHeader = fields.hasHeader === undefined ? undefined : fields.hasHeader === "true";
     let parsed;
     try {
-      parsed = parseCapture(await file.text(), {
-        timeColumn: columnRef(fields.timeColumn, hasHeader),
-        voltsColumn: columnRef(fields.voltsColumn, hasHeader),
+      const text = await file.text();
+      const { columns } = inspectCsv(text, 0);
+      parsed = parseCapture(text, {
+        timeColumn: columnRef(fields.timeColumn, columns),
+        voltsColumn: columnRef(fields.voltsColumn, columns),
         timeUnit: fields.timeUnit,
         hasHeader,
       });
