@@ -87,6 +87,19 @@ describe("team library and invitations in the browser", () => {
     await page.getByRole("img", { name: "Capture float-pen2" }).waitFor();
     await screenshot(page, "team-captures");
 
+    // The stored capture becomes a capture component of a scenario's input signal.
+    const boards = (await (await page.request.get(`${server.url}/api/boards`)).json()) as { items: { id: string }[] };
+    const list = (await (await page.request.get(`${server.url}/api/scenarios?boardId=${boards.items[0].id}`)).json()) as { items: { id: string; name: string }[] };
+    const hydrophone = list.items.find((x) => x.name === "Hydrophone preamp")!;
+    await page.goto(`${server.url}/scenarios/${hydrophone.id}`);
+    await page.getByRole("tab", { name: "Signal" }).click();
+    const panel = page.getByTestId("signal-panel");
+    const before = await panel.getByText("Capture (uploaded)").count();
+    await panel.getByLabel("Capture", { exact: true }).selectOption({ label: "float-pen2 · 401 pts · 800 ms" });
+    await panel.getByRole("button", { name: "Use capture" }).click();
+    await expect.poll(() => panel.getByText("Capture (uploaded)").count()).toBe(before + 1);
+    await panel.getByText("401 measured samples from 0 s to 800 ms").waitFor();
+
     await page.goto(`${server.url}/parts`);
     await page.getByRole("table", { name: "Part profiles" }).waitFor();
     await page.getByRole("button", { name: "New profile" }).click();
