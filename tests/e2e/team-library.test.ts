@@ -35,7 +35,9 @@ describe("team library and invitations in the browser", () => {
 
     // The mailbox page shows the same mail to the owner (local sink, production build).
     await owner.goto(`${server.url}/dev/mail`);
-    await owner.getByText("Sigrid Holm invited you to Fjordline Aquaculture on Railwise").first().waitFor();
+    await owner.getByText("Sigrid Holm invited you to Fjordline Aquaculture on Railwise").first().click();
+    await owner.getByRole("link", { name: link }).waitFor();
+    await screenshot(owner, "team-mailbox");
 
     const inviteeContext = await browser.newContext({ viewport: { width: 1280, height: 860 } });
     const invitee = await inviteeContext.newPage();

@@ -385,5 +385,10 @@ describe("mailbox page", () => {
     const html = await res.text();
     expect(html).toContain("Mailbox");
     expect(html).toContain("invited you to Fjordline Aquaculture");
+    // Other members see only their own mail: no invitation links for them to pick up.
+    const designerView = (await (await fx.sessions.designer.fetch("/dev/mail")).text()).replace(/<!-- -->/g, "");
+    expect(designerView).toContain("Approved: run");
+    expect(designerView).not.toContain("invited you");
+    expect(designerView).not.toContain("/invite/");
   });
 });

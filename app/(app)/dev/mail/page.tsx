@@ -5,6 +5,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { listMailbox, mailboxVisible, mailDir } from "@/lib/server/mailbox";
 import { smtpUrl } from "@/lib/server/mail";
+import { requirePageUser } from "@/lib/page-session";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Mailbox" };
@@ -31,15 +32,20 @@ function Linkified({ text }: { text: string }) {
 // SMTP is configured (see lib/server/mailbox.ts mailboxVisible).
 export default async function MailboxPage() {
   if (!mailboxVisible()) notFound();
-  const mails = await listMailbox();
+  const user = await requirePageUser();
+  // The owner (who can invite anyway) sees every mail; others only mail addressed to them, so
+  // an invitation link in the sink cannot be picked up by another member.
+  const everything = user.role === "owner";
+  const mine = (user.email ?? "").toLowerCase();
+  const mails = (await listMailbox()).filter((m) => everything || m.to.some((to) => to.toLowerCase() === mine));
   return (
     <div className="flex flex-col gap-4">
       <PageHeader
         title="Mailbox"
         description={
           <>
-            Mail caught by the local sink ({smtpUrl().replace(/\/\/[^@]*@/, "//")}), stored in <span className="font-mono">{mailDir()}</span>. Not
-            shown once real SMTP is configured in production.
+            {everything ? "All mail" : "Mail to you"} caught by the local sink ({smtpUrl().replace(/\/\/[^@]*@/, "//")}), stored in{" "}
+            <span className="font-mono">{mailDir()}</span>. Not shown once real SMTP is configured in production.
           </>
         }
       />
