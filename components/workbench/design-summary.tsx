@@ -113,7 +113,7 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
         </>
       ) : null}
       <section className="grid gap-4 md:grid-cols-[1.2fr_1fr] print:grid-cols-[1.2fr_1fr]">
-        <div className="rounded border border-paper-line p-2">
+        <div className="self-start rounded border border-paper-line p-2">
           <StageDiagram scenario={scenario} />
         </div>
         <StageTable scenario={scenario} />

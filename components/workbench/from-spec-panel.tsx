@@ -281,33 +281,33 @@ function DesignResultView({ result, onApply }: { result: DesignResult; onApply: 
           Reference {fmtV(result.reference.voltage)} from the divider; the stage uses its Thevenin form ({formatQuantity(result.reference.divider.theveninResistance, "Ω")} folded into the network).
         </p>
       ) : null}
-      <table className="w-full border-collapse text-[12.5px]" data-testid="design-figures">
-        <thead>
-          <tr className="border-b border-paper-line text-left text-[11px] text-ink-mute">
-            <th className="py-0.5 font-medium">figure</th>
-            <th className="py-0.5 text-right font-medium">target</th>
-            <th className="py-0.5 text-right font-medium">achieved</th>
-            <th className="py-0.5 text-right font-medium">worst case</th>
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((f) => {
-            const w = result.worstCase[f.key];
-            const err = result.errors[f.key];
-            return (
-              <tr key={f.key} className="border-b border-paper-line/60 last:border-0">
-                <td className="py-0.5 text-ink-soft">{f.label}</td>
-                <td className="py-0.5 text-right font-mono text-ink-mute">{err ? show(err.target, f.unit) : "—"}</td>
-                <td className="py-0.5 text-right font-mono">
-                  {show(result.achieved[f.key], f.unit)}
-                  {err ? <span className="ml-1 text-[10.5px] text-ink-faint">{(100 * err.relative).toFixed(2)} %</span> : null}
-                </td>
-                <td className="py-0.5 text-right font-mono text-ink-soft">{w ? `${show(w[0], f.unit)} … ${show(w[1], f.unit)}` : "—"}</td>
-              </tr>
-            );
-          })}
-        </tbody>
-      </table>
+      <dl className="divide-y divide-paper-line/70 text-[12.5px]" data-testid="design-figures">
+        {rows.map((f) => {
+          const w = result.worstCase[f.key];
+          const err = result.errors[f.key];
+          return (
+            <div key={f.key} className="py-1">
+              <div className="flex items-baseline justify-between gap-2">
+                <dt className="text-ink-soft">{f.label}</dt>
+                <dd className="whitespace-nowrap font-mono text-ink">{show(result.achieved[f.key], f.unit)}</dd>
+              </div>
+              <div className="flex items-baseline justify-between gap-2 text-[11.5px] text-ink-mute">
+                <span className="whitespace-nowrap">
+                  {err ? (
+                    <>
+                      target <span className="font-mono">{show(err.target, f.unit)}</span> · {err.relative >= 0 ? "+" : ""}
+                      {(100 * err.relative).toFixed(2)} %
+                    </>
+                  ) : (
+                    "no target"
+                  )}
+                </span>
+                <span className="whitespace-nowrap font-mono">{w ? `worst ${show(w[0], f.unit)} … ${show(w[1], f.unit)}` : "—"}</span>
+              </div>
+            </div>
+          );
+        })}
+      </dl>
       <p className="mt-1 text-[11px] text-ink-faint">
         Worst case over resistor tolerance ±{(100 * result.assumptions.tolerance).toFixed(1)} %, offset ±{formatQuantity(result.assumptions.inputOffset, "V")} and ±{(100 * result.assumptions.headroomSpread).toFixed(0)} % output headroom.
       </p>

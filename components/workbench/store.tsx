@@ -41,6 +41,8 @@ export interface WorkbenchState {
   cursorIdx: number | null;
   tab: SideTab;
   notice: { tone: "ok" | "error"; text: string } | null;
+  /** The worker has loaded and compiled the solver (after its warm-up slice). */
+  solverReady: boolean;
 
   edit: (recipe: (d: Scenario) => void) => void;
   replaceDraft: (s: Scenario) => void;
@@ -53,6 +55,7 @@ export interface WorkbenchState {
   setCursor: (idx: number | null) => void;
   setTab: (t: SideTab) => void;
   setNotice: (n: WorkbenchState["notice"]) => void;
+  setSolverReady: (ready: boolean) => void;
 }
 
 export interface WorkbenchInit {
@@ -77,6 +80,7 @@ export function createWorkbenchStore(init: WorkbenchInit) {
       cursorIdx: null,
       tab: "stage",
       notice: null,
+      solverReady: false,
 
       edit: (recipe) =>
         set((s) => {
@@ -131,6 +135,10 @@ export function createWorkbenchStore(init: WorkbenchInit) {
       setNotice: (n) =>
         set((s) => {
           s.notice = n;
+        }),
+      setSolverReady: (ready) =>
+        set((s) => {
+          s.solverReady = ready;
         }),
     })),
   );

@@ -74,6 +74,7 @@ export function useRunner() {
       .catch(() => null)
       .finally(() => {
         warming.current = null;
+        api.getState().setSolverReady(true);
       });
     return () => {
       abort.current?.abort();

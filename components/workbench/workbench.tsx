@@ -82,8 +82,11 @@ function WorkbenchBody({ record }: { record: ScenarioRecord }) {
             <LoopCard />
             <ReadingsCard />
           </div>
-          <WorkbenchStudies />
-          <div className="grid min-w-0 gap-3 xl:grid-cols-2">
+          {/* Below the fold: skip layout and paint of these until scrolled to (a run re-lays the page out). */}
+          <div className="min-w-0 [contain-intrinsic-size:auto_700px] [content-visibility:auto]">
+            <WorkbenchStudies />
+          </div>
+          <div className="grid min-w-0 gap-3 [contain-intrinsic-size:auto_360px] [content-visibility:auto] xl:grid-cols-2">
             <RunsCard action={<SaveRunControl />} />
             <HistoryCard canEdit />
           </div>
@@ -152,6 +155,7 @@ function RunBar() {
   const [saving, setSaving] = useState(false);
   const bank = useBank();
   const resultKey = useWb((s) => s.resultKey);
+  const solverReady = useWb((s) => s.solverReady);
 
   // Ctrl+Enter / Cmd+Enter runs from anywhere on the page, fields included.
   useEffect(() => {
@@ -204,7 +208,9 @@ function RunBar() {
                 ? "Cancelled."
                 : status === "error"
                   ? "Run failed."
-                  : "Not run yet."}
+                  : solverReady
+                    ? "Solver ready."
+                    : "Starting the solver…"}
         </span>
       </div>
       <span className="mx-1 h-5 w-px bg-paper-line" aria-hidden />

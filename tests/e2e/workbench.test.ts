@@ -158,21 +158,28 @@ describe("workbench (designer)", () => {
 
   it("draws the first plot within 1 s of Run for every demo scenario", async () => {
     const { ctx, page } = await designerPage(1280);
-    const figures: { name: string; ms: number; points: number; resultMs: number | null; simMs: number | null }[] = [];
+    type Figure = { name: string; ms: number; points: number; resultMs: number | null; simMs: number | null };
+    const figures: Figure[] = [];
+    const cold: Figure[] = [];
     try {
       for (const s of scenarios) {
+        // Cold: Run pressed the moment the button appears, while the worker may still be loading.
         await page.goto(`${server.url}/scenarios/${s.id}`);
         await page.getByTestId("run-button").waitFor();
-        // Let the worker spawn as it does for a user reading the page first.
-        await page.waitForTimeout(300);
+        const coldMs = await runAndTime(page, "button");
+        cold.push({ ...(await page.evaluate(() => window.__railwiseTimings!.firstPlot.at(-1)!)), name: s.name, ms: coldMs });
+        // Ready: the run bar says "Solver ready." (worker loaded, solver compiled), as a user sees it.
+        await page.goto(`${server.url}/scenarios/${s.id}`);
+        await page.waitForFunction(() => document.querySelector('[data-testid="run-status"]')?.textContent === "Solver ready.", null, { timeout: 30_000 });
         const ms = await runAndTime(page, "button");
-        const last = await page.evaluate(() => window.__railwiseTimings!.firstPlot.at(-1)!);
-        figures.push({ ...last, name: s.name, ms });
+        figures.push({ ...(await page.evaluate(() => window.__railwiseTimings!.firstPlot.at(-1)!)), name: s.name, ms });
       }
     } finally {
       await ctx.close();
     }
-    console.log("[workbench] Run → first plot, headless Chromium (performance.now marks):");
+    console.log("[workbench] Run pressed as soon as the page shows it (worker still loading) → first plot:");
+    for (const f of cold) console.log(`  ${f.name.padEnd(36)} ${f.ms.toFixed(0).padStart(5)} ms`);
+    console.log("[workbench] Run after 'Solver ready.' → first plot, headless Chromium (performance.now marks):");
     for (const f of figures)
       console.log(
         `  ${f.name.padEnd(36)} ${f.ms.toFixed(0).padStart(5)} ms  (result from the worker at ${f.resultMs?.toFixed(0)} ms, solver ${f.simMs?.toFixed(0)} ms; ${f.points} samples)`,
