@@ -71,7 +71,7 @@ export function LoopCard() {
           thresholds={thresholds}
           cursorIdx={cursorIdx}
           onCursor={setCursor}
-          height={270}
+          height={330}
           fileName={`${slug(result.scenario.name ?? "scenario")}-loop.png`}
         />
       ) : (

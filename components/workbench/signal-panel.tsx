@@ -363,6 +363,17 @@ function RunSettingsSection({ readOnly }: { readOnly: boolean }) {
 }
 
 const PREVIEW_POINTS = 480;
+
+function inside0(v: number, p: { v: Float64Array | null; band: number }): boolean {
+  if (!p.v) return false;
+  let a = Infinity;
+  let b = -Infinity;
+  for (const x of p.v) {
+    a = Math.min(a, x - p.band);
+    b = Math.max(b, x + p.band);
+  }
+  return v >= a && v <= b;
+}
 /** Above this many noise segments the preview draws the noise as a ±3σ band instead of computing it. */
 const PREVIEW_NOISE_LIMIT = 20_000;
 
@@ -394,17 +405,18 @@ function InputPreview() {
   let body: React.ReactNode = null;
   let range = "";
   if (preview.v) {
-    let lo = Math.min(supply.negative, stage.reference);
-    let hi = Math.max(supply.positive, stage.reference);
     let vMin = Infinity;
     let vMax = -Infinity;
     for (const x of preview.v) {
       vMin = Math.min(vMin, x - preview.band);
       vMax = Math.max(vMax, x + preview.band);
     }
-    lo = Math.min(lo, vMin);
-    hi = Math.max(hi, vMax);
-    const y = (v: number) => H - 6 - ((v - lo) / (hi - lo || 1)) * (H - 12);
+    // Scale to the signal itself (a 0.2 V ramp must not look flat against 5 V rails); rails and
+    // reference are drawn only where they fall inside that window.
+    const pad = Math.max(0.08 * (vMax - vMin), 1e-3);
+    const lo = vMin - pad;
+    const hi = vMax + pad;
+    const y = (v: number) => H - 4 - ((v - lo) / (hi - lo || 1)) * (H - 8);
     const x = (i: number) => ((i / (PREVIEW_POINTS - 1)) * W).toFixed(1);
     const pts = Array.from(preview.v, (v, i) => `${x(i)},${y(v).toFixed(1)}`).join(" ");
     const band = preview.band
@@ -412,11 +424,14 @@ function InputPreview() {
           .concat(Array.from(preview.v, (v, i) => `${x(i)},${y(v - preview.band).toFixed(1)}`).reverse())
           .join(" ")
       : null;
+    const inside = (v: number) => v > lo && v < hi;
     range = `${formatQuantity(vMin, "V")} … ${formatQuantity(vMax, "V")}`;
     body = (
       <>
-        <line x1={0} x2={W} y1={y(supply.positive)} y2={y(supply.positive)} stroke="#9aa3b2" strokeDasharray="2 3" />
-        <line x1={0} x2={W} y1={y(supply.negative)} y2={y(supply.negative)} stroke="#9aa3b2" strokeDasharray="2 3" />
+        {[supply.positive, supply.negative].filter(inside).map((v) => (
+          <line key={v} x1={0} x2={W} y1={y(v)} y2={y(v)} stroke="#9aa3b2" strokeDasharray="2 3" />
+        ))}
+        {inside(stage.reference) ? <line x1={0} x2={W} y1={y(stage.reference)} y2={y(stage.reference)} stroke="#4d7a3a" strokeDasharray="5 3" strokeOpacity={0.7} /> : null}
         {band ? <polygon points={band} fill="#3b4fa8" fillOpacity={0.14} stroke="none" /> : null}
         <polyline points={pts} fill="none" stroke="#3b4fa8" strokeWidth={1.3} vectorEffect="non-scaling-stroke" />
       </>
@@ -436,7 +451,7 @@ function InputPreview() {
         </svg>
       )}
       <p className="mt-0.5 text-[11px] text-ink-faint">
-        dashed: supply rails{preview.band ? " · shaded: ±3σ of the noise (too dense to draw here; the run computes every segment)" : ""}
+        scaled to the signal · green dash: reference{inside0(stage.reference, preview) ? "" : " (off scale)"}{preview.band ? " · shaded: ±3σ of the noise (too dense to draw here; the run computes every segment)" : ""}
       </p>
     </div>
   );

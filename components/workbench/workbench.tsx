@@ -96,11 +96,25 @@ function WorkbenchBody({ record }: { record: ScenarioRecord }) {
   );
 }
 
+/**
+ * All three editor tabs stay mounted; only the visible one is shown. Switching is then a style
+ * change (no remount mid-run), and half-typed values survive a look at another tab.
+ */
 function EditorTab() {
   const tab = useWb((s) => s.tab);
-  if (tab === "signal") return <SignalPanel />;
-  if (tab === "spec") return <FromSpecPanel />;
-  return <StagePanel />;
+  return (
+    <>
+      <div hidden={tab !== "stage"}>
+        <StagePanel />
+      </div>
+      <div hidden={tab !== "signal"}>
+        <SignalPanel />
+      </div>
+      <div hidden={tab !== "spec"}>
+        <FromSpecPanel />
+      </div>
+    </>
+  );
 }
 
 function SummaryLink({ id }: { id: string }) {
