@@ -227,13 +227,9 @@ function rasterLoop(
   const h = Math.max(1, Math.ceil(height));
   const buf = new Uint32Array(w * h);
   const ink = 0xff2a56b5; // copper #b5562a as little-endian RGBA
+  // A 2-pixel pen (x, x+1): enough weight to read, half the writes of a square stamp.
   const plot = (x: number, y: number) => {
-    if (x < 0 || y < 0 || x >= w - 1 || y >= h - 1) return;
-    const i = y * w + x;
-    buf[i] = ink;
-    buf[i + 1] = ink;
-    buf[i + w] = ink;
-    buf[i + w + 1] = ink;
+    if (x >= 0 && y >= 0 && x < w - 1 && y < h) buf[y * w + x] = buf[y * w + x + 1] = ink;
   };
   let x0 = Math.round((input[0] - xMin) * kx);
   let y0 = Math.round((yMax - output[0]) * ky);

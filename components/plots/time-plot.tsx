@@ -2,7 +2,7 @@
 // "Trace": input (indigo) and output (copper) against time, with the output limits, the
 // designed switching points and the measured output edges marked. uPlot decimates the
 // Float64Array columns itself; we never thin them.
-import { useEffect, useMemo, useRef } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import type uPlot from "uplot";
 import type { SimEvent } from "@/lib/sim/types";
 import { PlotToolbar, Readout, cursorItems } from "./plot-chrome";
@@ -27,13 +27,14 @@ export function TimePlot(props: TimePlotProps) {
   const { t, input, output, rails, thresholds, events = [], cursorIdx, onCursor, onFirstDraw, height = 300, fileName = "trace.png" } = props;
   const box = useRef<HTMLDivElement>(null);
   const emitted = useRef<number | null>(null);
-  const view = useMemo(() => displayColumns(t, input, output), [t, input, output]);
+  const view = useDisplayColumns(t, input, output);
   const cb = useRef({ onCursor, onFirstDraw });
   cb.current = { onCursor, onFirstDraw };
 
   const plot = useUPlot(
     box,
     (width) => {
+      if (!view) return null;
       let first = true;
       let frame = 0;
       const opts: uPlot.Options = {
@@ -155,41 +156,80 @@ export function TimePlot(props: TimePlotProps) {
 const DISPLAY_LIMIT = 40_000;
 const BUCKETS = 4096;
 
+type Columns = { t: Float64Array; input: Float64Array; output: Float64Array; index: Int32Array | null };
+
 /**
  * Display-only thinning for very long runs: per time bucket keep the samples where the input and
  * the output reach their minimum and maximum (in time order), so every spike, edge and clip stays
  * visible while uPlot draws ≤ 16k points instead of a million (its own per-pixel pass over 10⁶
  * points costs a few hundred ms on a busy machine). `index` maps back to the full arrays, which
- * the cursor readout and the Loop keep using.
+ * the cursor readout and the Loop keep using. The pass is sliced over several tasks (≈ 32k
+ * samples each) so the page never stalls on it.
  */
-function displayColumns(t: Float64Array, input: Float64Array, output: Float64Array) {
-  const n = t.length;
-  if (n <= DISPLAY_LIMIT) return { t, input, output, index: null as Int32Array | null };
-  const keep = new Int32Array(BUCKETS * 4 + 2);
-  let k = 0;
-  keep[k++] = 0;
-  for (let b = 0; b < BUCKETS; b++) {
-    const from = 1 + Math.floor((b * (n - 2)) / BUCKETS);
-    const to = 1 + Math.floor(((b + 1) * (n - 2)) / BUCKETS);
-    if (to <= from) continue;
-    let iMin = from, iMax = from, oMin = from, oMax = from;
-    for (let i = from + 1; i < to; i++) {
-      if (input[i] < input[iMin]) iMin = i;
-      if (input[i] > input[iMax]) iMax = i;
-      if (output[i] < output[oMin]) oMin = i;
-      if (output[i] > output[oMax]) oMax = i;
-    }
-    const four = [iMin, iMax, oMin, oMax].sort((a, b2) => a - b2);
-    for (let j = 0; j < 4; j++) if (j === 0 || four[j] !== four[j - 1]) keep[k++] = four[j];
-  }
-  keep[k++] = n - 1;
-  const index = keep.slice(0, k);
-  const pick = (a: Float64Array) => {
-    const out = new Float64Array(k);
-    for (let j = 0; j < k; j++) out[j] = a[index[j]];
-    return out;
-  };
-  return { t: pick(t), input: pick(input), output: pick(output), index };
+function useDisplayColumns(t: Float64Array, input: Float64Array, output: Float64Array): Columns | null {
+  const small = t.length <= DISPLAY_LIMIT;
+  const [state, setState] = useState<{ src: Float64Array; cols: Columns } | null>(null);
+  // Stable identity: the plot is rebuilt only when the columns really change.
+  const direct = useMemo<Columns | null>(() => (small ? { t, input, output, index: null } : null), [t, input, output, small]);
+  useEffect(() => {
+    if (small) return;
+    let cancelled = false;
+    let timer = 0;
+    const n = t.length;
+    const keep = new Int32Array(BUCKETS * 4 + 2);
+    let k = 0;
+    keep[k++] = 0;
+    let b = 0;
+    const perSlice = Math.max(1, Math.floor((BUCKETS * 32_768) / n));
+    const step = () => {
+      if (cancelled) return;
+      const end = Math.min(BUCKETS, b + perSlice);
+      for (; b < end; b++) {
+        const from = 1 + Math.floor((b * (n - 2)) / BUCKETS);
+        const to = 1 + Math.floor(((b + 1) * (n - 2)) / BUCKETS);
+        if (to <= from) continue;
+        let iMin = from, iMax = from, oMin = from, oMax = from;
+        for (let i = from + 1; i < to; i++) {
+          const x = input[i];
+          const y = output[i];
+          if (x < input[iMin]) iMin = i;
+          else if (x > input[iMax]) iMax = i;
+          if (y < output[oMin]) oMin = i;
+          else if (y > output[oMax]) oMax = i;
+        }
+        // Four indices in time order, duplicates dropped (a tiny insertion sort, no allocation).
+        let a0 = iMin, a1 = iMax, a2 = oMin, a3 = oMax, tmp = 0;
+        if (a0 > a1) { tmp = a0; a0 = a1; a1 = tmp; }
+        if (a2 > a3) { tmp = a2; a2 = a3; a3 = tmp; }
+        if (a0 > a2) { tmp = a0; a0 = a2; a2 = tmp; }
+        if (a1 > a3) { tmp = a1; a1 = a3; a3 = tmp; }
+        if (a1 > a2) { tmp = a1; a1 = a2; a2 = tmp; }
+        keep[k++] = a0;
+        if (a1 !== a0) keep[k++] = a1;
+        if (a2 !== a1) keep[k++] = a2;
+        if (a3 !== a2) keep[k++] = a3;
+      }
+      if (b < BUCKETS) {
+        timer = window.setTimeout(step, 0);
+        return;
+      }
+      keep[k++] = n - 1;
+      const index = keep.slice(0, k);
+      const pick = (src: Float64Array) => {
+        const out = new Float64Array(k);
+        for (let j = 0; j < k; j++) out[j] = src[index[j]];
+        return out;
+      };
+      setState({ src: t, cols: { t: pick(t), input: pick(input), output: pick(output), index } });
+    };
+    step();
+    return () => {
+      cancelled = true;
+      clearTimeout(timer);
+    };
+  }, [t, input, output, small]);
+  if (small) return direct;
+  return state && state.src === t ? state.cols : null;
 }
 
 /** Measured edges: a tick at the top of the plot, up for rising, down for falling. */

@@ -15,24 +15,32 @@ export function useUPlot(
   useEffect(() => {
     const el = container.current;
     if (!el) return;
-    const width = Math.max(200, el.clientWidth);
-    const made = build(width);
-    if (!made) return;
-    const u = new uPlot({ ...made.opts, width }, made.data, el);
-    plot.current = u;
+    let u: uPlot | null = null;
+    let ro: ResizeObserver | null = null;
     let frame = 0;
-    const ro = new ResizeObserver(() => {
-      cancelAnimationFrame(frame);
-      frame = requestAnimationFrame(() => {
-        const w = Math.max(200, el.clientWidth);
-        if (Math.abs(w - u.width) > 1) u.setSize({ width: w, height: u.height });
+    // Built in the next animation frame, not in the React commit: on long runs the commit, the
+    // page layout and uPlot's own pass then land in separate tasks instead of one long one.
+    const start = requestAnimationFrame(() => {
+      const width = Math.max(200, el.clientWidth);
+      const made = build(width);
+      if (!made) return;
+      const inst = new uPlot({ ...made.opts, width }, made.data, el);
+      u = inst;
+      plot.current = inst;
+      ro = new ResizeObserver(() => {
+        cancelAnimationFrame(frame);
+        frame = requestAnimationFrame(() => {
+          const w = Math.max(200, el.clientWidth);
+          if (Math.abs(w - inst.width) > 1) inst.setSize({ width: w, height: inst.height });
+        });
       });
+      ro.observe(el);
     });
-    ro.observe(el);
     return () => {
-      ro.disconnect();
+      cancelAnimationFrame(start);
       cancelAnimationFrame(frame);
-      u.destroy();
+      ro?.disconnect();
+      u?.destroy();
       plot.current = null;
     };
     // eslint-disable-next-line react-hooks/exhaustive-deps

@@ -1,7 +1,7 @@
 "use client";
 // "Trace", "Loop" and "Readings" of the workbench's latest run. The plots read the waveform
 // bank (typed arrays outside the store) and share one cursor index through the store.
-import { useDeferredValue, useMemo } from "react";
+import { useDeferredValue, useEffect, useMemo, useState } from "react";
 import { Card } from "@/components/ui/card";
 import { TimePlot } from "@/components/plots/time-plot";
 import { LoopPlot } from "@/components/plots/loop-plot";
@@ -50,9 +50,18 @@ export function TraceCard() {
 }
 
 export function LoopCard() {
-  // Deferred: the Trace is drawn first, the Loop and Readings follow in a later render.
-  const wf = useDeferredValue(useCurrentWaveforms());
-  const result = useDeferredValue(useWb((s) => s.result));
+  // Staggered: the Trace draws first, Readings in a deferred render, the Loop one task later,
+  // so no single main-thread task carries all three on a long run.
+  const liveKey = useWb((s) => s.resultKey);
+  const [key, setKey] = useState(liveKey);
+  useEffect(() => {
+    const id = setTimeout(() => setKey(liveKey), 0);
+    return () => clearTimeout(id);
+  }, [liveKey]);
+  const live = useCurrentWaveforms();
+  const liveResult = useWb((s) => s.result);
+  const wf = key === liveKey ? live : null;
+  const result = key === liveKey ? liveResult : null;
   const cursorIdx = useWb((s) => s.cursorIdx);
   const setCursor = useWb((s) => s.setCursor);
   const thresholds = useMemo(() => (result ? designedMarks(result.scenario) : null), [result]);
