@@ -203,7 +203,8 @@ function ComponentFields({ index, c, readOnly }: { index: number; c: InputCompon
         </>
       );
     case "pwl":
-      return <PointList index={index} points={c.points} readOnly={readOnly} />;
+      // Re-keyed when the points change from outside (restore, new design) so the text follows.
+      return <PointList key={`${c.points.length}:${c.points[0]?.join()}:${c.points.at(-1)?.join()}`} index={index} points={c.points} readOnly={readOnly} />;
     case "capture":
       return (
         <p className="text-[12px] text-ink-mute">
