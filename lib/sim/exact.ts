@@ -336,6 +336,16 @@ export class ExactSolver {
     return sig.pieceEnd + this.td;
   }
 
+  /**
+   * Sets up the input piece at t and returns its end (≤ T). A breakpoint closer than the time
+   * resolution at t (it can round onto t after the delay shift) would give an empty piece and
+   * no progress: the piece then runs to the next representable time.
+   */
+  private pieceEnd(t: number, T: number): number {
+    const e = Math.min(T, this.inputPiece(t));
+    return e > t ? e : Math.min(T, t + ulp(t));
+  }
+
   private uAt0(): number {
     let u = this.U[0];
     for (let j = 0; j < this.m; j++) u += this.U[5 + 2 * j];
@@ -559,7 +569,7 @@ export class ExactSolver {
           }
         }
         while (t < T) {
-          const tb = Math.min(T, this.inputPiece(t));
+          const tb = this.pieceEnd(t, T);
           const h = tb - t;
           const a = this.al * U[0] + this.be * V + this.de;
           const b = a + this.al * U[1] * h;
@@ -577,7 +587,7 @@ export class ExactSolver {
         vo = V;
         if (t >= T) break;
       }
-      const tb = Math.min(T, this.inputPiece(t), this.m > 0 ? t + this.pieceCapSine : Infinity);
+      const tb = Math.min(this.pieceEnd(t, T), this.m > 0 ? t + this.pieceCapSine : Infinity);
       if (this.steps === 0 && p.trackVd) {
         const vd0 = this.al * this.uAt0() + this.be * vo + this.ga * vc + this.de;
         this.sides[MONITOR_VD] = vd0 >= 0 ? 1 : 0;

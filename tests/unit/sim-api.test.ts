@@ -116,3 +116,23 @@ describe("long runs", () => {
     for (const v of r.output) expect(v === 0.02 || v === 4.98 || (v > 0.02 && v < 4.98)).toBe(true);
   });
 });
+
+describe("time resolution", () => {
+  it("an input corner that rounds onto the current time after the delay shift does not stall", () => {
+    // Regression (common practice, no source): a triangle vertex 1 ulp after t − td came back
+    // as an empty piece [t, t] and the solver looped without advancing.
+    const s = scenario({
+      supply: { positive: 11.581913721282035, negative: 0 },
+      opamp: {
+        openLoopGain: 1182.7478186011933, gainBandwidth: 1413.5577445309168, slewRate: 54342206.236511156, slewRateFall: 162372602.72131103,
+        outputHeadroomHigh: 0.11470728134736419, outputHeadroomLow: 0.6793233954813331, inputOffset: -0.0030118189658969643, propagationDelay: 0.000016227297163423757,
+      },
+      stage: { kind: "inverting-amplifier", reference: 7.935035464387526, rInput: 5243.637233745847, rFeedback: 3272.9066357171287 },
+      input: { components: [{ kind: "triangle", amplitude: 2.210869657314709, frequency: 2335.429523871652, offset: 5.790956860641018 }] },
+      run: { duration: 0.006937738396233718, points: 501, initialOutput: "high" },
+    });
+    const r = simulate(s, { maxSteps: 100_000 });
+    expect(r.solver.steps).toBeLessThan(1000);
+    expect(r.output.every(Number.isFinite)).toBe(true);
+  });
+});
