@@ -82,7 +82,7 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
       </Card>
     );
   }
-  const switchesLoad = suggestsLoadSwitching(record.name, scenario.name, board.data?.name, board.data?.description);
+  const switchesLoad = suggestsLoadSwitching(record.name, scenario.name);
 
   return (
     <article className="rw-summary mx-auto max-w-[920px] space-y-4 bg-paper-card p-6 print:max-w-none print:p-0" data-testid="design-summary">

@@ -59,7 +59,7 @@ function WorkbenchBody({ record }: { record: ScenarioRecord }) {
   return (
     <div className={bleed} data-testid="workbench">
       <ScenarioHeading record={{ ...record, version: useWb((s) => s.version) }} boardName={board.data?.name} actions={<SummaryLink id={record.id} />} />
-      <SafetyCaution texts={[record.name, name, board.data?.name, board.data?.description]} className="mb-3" />
+      <SafetyCaution texts={[record.name, name]} className="mb-3" />
       <RunBar />
       <Notice />
       <div className="mt-3 grid gap-3 lg:grid-cols-[minmax(360px,420px)_minmax(0,1fr)] 2xl:grid-cols-[440px_minmax(0,1fr)]">

@@ -179,6 +179,8 @@ describe("workbench (designer)", () => {
         // Ready: the run bar says "Solver ready." (worker loaded, solver compiled), as a user sees it.
         await page.goto(`${server.url}/scenarios/${s.id}`);
         await page.waitForFunction(() => document.querySelector('[data-testid="run-status"]')?.textContent === "Solver ready.", null, { timeout: 30_000 });
+        // The load-switching caution follows the scenario's own words, not the board's (DESIGN.md, Safety).
+        expect(await page.getByTestId("safety-caution").count(), s.name).toBe(/battery|bilge/i.test(s.name) ? 1 : 0);
         const ms = await runAndTime(page, "button");
         figures.push({ ...(await page.evaluate(() => window.__railwiseTimings!.firstPlot.at(-1)!)), name: s.name, ms });
       }
