@@ -253,7 +253,13 @@ export class ExactSolver {
       const b = this.nextPoint(a, chunk, ext, tMax);
       const gb = this.valueAt(c, b);
       if (gb > 0) {
-        if (ga > 0) return a === 0 ? NaN : a; // start already past by rounding: ignore at τ = 0
+        // Past the boundary at both ends of a monotone chunk: the exit condition already holds
+        // (a regime entered on a grazing crossing, e.g. the output reaches the rail just as the
+        // drive turns round). Ignoring it would hold the regime for the whole piece, which for
+        // a DC-driven oscillator is the rest of the run: leave at the next representable time.
+        // A start past the boundary by rounding only that comes back within the chunk has
+        // gb ≤ 0 and is skipped below.
+        if (ga > 0) return a === 0 ? Math.min(tMax, ulp(t0)) : a;
         // find first point with g > 0
         const r = this.bracketPositive(c, a, b, ga, gb, t0);
         // An exit closer than the time resolution at t0 (late in a long run) would not move
@@ -508,7 +514,6 @@ export class ExactSolver {
     let vo = p.vo0;
     let vc = p.vc0;
     let sample = 0;
-    let needSelect = true;
     let regime = LINEAR;
     // Initial sides of the monitors
     for (let i = 0; i < 3; i++) this.sides[i] = vo >= levels[i] ? 1 : 0;
@@ -521,11 +526,11 @@ export class ExactSolver {
     let guard = 0;
     const fastRail = !this.twoD && this.m === 0;
     while (t < T) {
-      if (needSelect) {
-        this.inputPiece(t);
-        regime = this.select(vo, vc);
-        needSelect = false;
-      }
+      // Every piece starts in the regime the state calls for, never one carried over from the
+      // exit that ended the last piece: an exit found already past at the start of a piece (a
+      // rail left at an input step, a grazing rail entry) can land anywhere, e.g. in a slew.
+      this.inputPiece(t);
+      regime = this.select(vo, vc);
       if (fastRail && (regime === RAIL_HIGH || regime === RAIL_LOW)) {
         // Held at a rail (the bulk of a noisy comparator or Schmitt run): while the drive keeps
         // pushing into the rail and vd keeps its sign, a piece needs no root finding at all.
@@ -683,18 +688,12 @@ export class ExactSolver {
       if (regime === RAIL_LOW) voN = this.Vol;
       vo = voN;
       vc = vcN;
-      if (next < 0) {
-        t = tEndAbs;
-        needSelect = true;
-      } else {
-        const tn = tEndAbs;
-        if (tn <= t) {
+      if (next >= 0) {
+        if (tEndAbs <= t) {
           if (++guard > 1000) throw new SimFailed(`the exact solver could not advance past t = ${t} s (regime chatter at one instant)`);
         } else guard = 0;
-        t = tn;
-        regime = next;
-        needSelect = false;
       }
+      t = tEndAbs;
       if ((this.steps & 1023) === 0) {
         if (p.shouldCancel?.()) throw new SimCancelled();
         p.onProgress?.(t / T);

@@ -113,6 +113,17 @@ describe("slew rate", () => {
     expect(r.metrics.riseTime!).toBeCloseTo(8e-6, 8);
     expect(r.metrics.fallTime!).toBeCloseTo(2e-6, 8);
     expect(r.metrics.maxSlewRate).toBe(4e6);
+    // Every input step gives an edge: the output leaves the rail at each step and slews
+    // through 0 V 5 V / SR later (5 µs rising at 1 V/µs, 1.25 µs falling at 4 V/µs) [derived].
+    // (A rail left at an input step used to be held for the whole next half period.)
+    const expected = [
+      ["rising", 5e-6],
+      ["falling", 0.5e-3 + 1.25e-6],
+      ["rising", 1e-3 + 5e-6],
+      ["falling", 1.5e-3 + 1.25e-6],
+    ] as const;
+    expect(r.events.map((e) => e.edge)).toEqual(expected.map((e) => e[0]));
+    r.events.forEach((e, i) => expect(e.time).toBeCloseTo(expected[i][1], 12));
   });
 });
 
