@@ -80,7 +80,9 @@ describe("slew rate", () => {
   });
 
   it("full-power bandwidth SR/(2π·Vp): below it the output follows, above it slews", () => {
-    // REFERENCES.md [published]: SR = 2 V/µs, Vp = 12 V → 26.53 kHz (NPTEL 117107094, lecture 7).
+    // Full-power bandwidth f = SR/(2π·Vp), the textbook slew-rate relation (Sedra & Smith,
+    // Microelectronic Circuits, op-amp slew-rate section) [published form]; SR = 2 V/µs, Vp = 12 V
+    // → 26.53 kHz [derived from that formula].
     const fp = 2e6 / (2 * Math.PI * 12);
     expect(fp).toBeCloseTo(26526, -1);
     const at = (f: number) =>
