@@ -2,7 +2,8 @@
 // "Loop": output against input from the same run — the hysteresis loop of a trigger, the
 // transfer line and its clipping knees for a gain stage. uPlot supplies the frame, scales,
 // cursor and box zoom; the x–y path (input is not monotonic) is stroked in a draw hook, one
-// segment per pixel step, so a million samples stay cheap.
+// segment per pixel step, so a million samples stay cheap; dense loops are rasterised in time
+// slices and composited when done.
 import { useEffect, useRef } from "react";
 import type uPlot from "uplot";
 import { PlotToolbar, Readout, cursorItems } from "./plot-chrome";
@@ -51,6 +52,7 @@ export function LoopPlot(props: LoopPlotProps) {
         fy[i] = i % 2 ? y1 : y0;
       }
       const stride = Math.max(1, Math.ceil(input.length / 4000));
+      const raster: RasterCache = { key: "", image: null, timer: 0 };
       let frame = 0;
       const opts: uPlot.Options = {
         width,
@@ -84,7 +86,8 @@ export function LoopPlot(props: LoopPlotProps) {
               if (thresholds?.lower != null) vLine(u, thresholds.lower, PLOT_COLORS.threshold, [7, 4]);
             },
           ],
-          draw: [(u) => drawLoop(u, input, output)],
+          draw: [(u) => drawLoop(u, input, output, raster)],
+          destroy: [() => clearTimeout(raster.timer)],
           setCursor: [
             (u) => {
               cancelAnimationFrame(frame);
@@ -166,8 +169,17 @@ export function LoopPlot(props: LoopPlotProps) {
 
 /** Above this many samples the loop is rasterised by hand: a canvas path of 10⁵+ noisy segments takes seconds to stroke. */
 const PATH_LIMIT = 20_000;
+/** Main-thread budget per raster slice; a 2·10⁵-sample noisy loop takes ≈ 50 ms in one piece. */
+const SLICE_MS = 8;
 
-function drawLoop(u: uPlot, input: Float64Array, output: Float64Array) {
+/** The dense loop's finished raster for one frame geometry (bbox + scales), reused by redraws. */
+interface RasterCache {
+  key: string;
+  image: HTMLCanvasElement | null;
+  timer: number;
+}
+
+function drawLoop(u: uPlot, input: Float64Array, output: Float64Array, raster: RasterCache) {
   const n = input.length;
   if (!n) return;
   const ctx = u.ctx;
@@ -180,7 +192,20 @@ function drawLoop(u: uPlot, input: Float64Array, output: Float64Array) {
   const kx = width / (xMax - xMin);
   const ky = height / (yMax - yMin);
   if (n > PATH_LIMIT) {
-    rasterLoop(ctx, input, output, left, top, width, height, xMin, yMax, kx, ky);
+    // Rasterised in time slices off the draw itself, then composited by a cheap redraw, so a
+    // dense loop never holds the main thread in one long task (first draw or zoom).
+    const key = [left, top, width, height, xMin, xMax, yMin, yMax].join(",");
+    if (raster.key === key) {
+      if (raster.image) ctx.drawImage(raster.image, Math.round(left), Math.round(top));
+      return;
+    }
+    clearTimeout(raster.timer);
+    raster.key = key;
+    raster.image = null;
+    rasterLoop(input, output, width, height, xMin, yMax, kx, ky, raster, () => {
+      if (raster.key === key) u.redraw(false, false);
+    });
+    if (raster.image) ctx.drawImage(raster.image, Math.round(left), Math.round(top));
     return;
   }
   ctx.save();
@@ -208,21 +233,22 @@ function drawLoop(u: uPlot, input: Float64Array, output: Float64Array) {
 
 /**
  * Dense loops: every segment drawn with integer line stepping into a pixel buffer (2 px pen),
- * then composited over the grid. Linear in the samples, a few ms per 10⁵.
+ * sliced over tasks of ≈ SLICE_MS; the finished buffer lands in `raster.image` and `done` runs.
+ * A newer geometry (raster.key changed) abandons the job.
  */
 function rasterLoop(
-  ctx: CanvasRenderingContext2D,
   input: Float64Array,
   output: Float64Array,
-  left: number,
-  top: number,
   width: number,
   height: number,
   xMin: number,
   yMax: number,
   kx: number,
   ky: number,
+  raster: RasterCache,
+  done: () => void,
 ) {
+  const key = raster.key;
   const w = Math.max(1, Math.ceil(width));
   const h = Math.max(1, Math.ceil(height));
   const buf = new Uint32Array(w * h);
@@ -234,42 +260,59 @@ function rasterLoop(
   let x0 = Math.round((input[0] - xMin) * kx);
   let y0 = Math.round((yMax - output[0]) * ky);
   plot(x0, y0);
-  for (let k = 1; k < input.length; k++) {
-    const x1 = Math.round((input[k] - xMin) * kx);
-    const y1 = Math.round((yMax - output[k]) * ky);
-    if (x1 === x0 && y1 === y0) continue;
-    // Integer line stepping between successive samples (Bresenham).
-    let x = x0;
-    let y = y0;
-    const dx = Math.abs(x1 - x0);
-    const dy = -Math.abs(y1 - y0);
-    const sx = x0 < x1 ? 1 : -1;
-    const sy = y0 < y1 ? 1 : -1;
-    let err = dx + dy;
-    // Segments entirely off one side are skipped (zoomed views).
-    if (!((x0 < 0 && x1 < 0) || (x0 >= w && x1 >= w) || (y0 < 0 && y1 < 0) || (y0 >= h && y1 >= h))) {
-      for (let guard = 0; guard < 4 * (w + h); guard++) {
-        plot(x, y);
-        if (x === x1 && y === y1) break;
-        const e2 = 2 * err;
-        if (e2 >= dy) {
-          err += dy;
-          x += sx;
+  let k = 1;
+  const step = () => {
+    if (raster.key !== key) return;
+    const started = performance.now();
+    while (k < input.length) {
+      const end = Math.min(input.length, k + 4096);
+      for (; k < end; k++) {
+        const x1 = Math.round((input[k] - xMin) * kx);
+        const y1 = Math.round((yMax - output[k]) * ky);
+        if (x1 === x0 && y1 === y0) continue;
+        // Integer line stepping between successive samples (Bresenham).
+        let x = x0;
+        let y = y0;
+        const dx = Math.abs(x1 - x0);
+        const dy = -Math.abs(y1 - y0);
+        const sx = x0 < x1 ? 1 : -1;
+        const sy = y0 < y1 ? 1 : -1;
+        let err = dx + dy;
+        // Segments entirely off one side are skipped (zoomed views).
+        if (!((x0 < 0 && x1 < 0) || (x0 >= w && x1 >= w) || (y0 < 0 && y1 < 0) || (y0 >= h && y1 >= h))) {
+          for (let guard = 0; guard < 4 * (w + h); guard++) {
+            plot(x, y);
+            if (x === x1 && y === y1) break;
+            const e2 = 2 * err;
+            if (e2 >= dy) {
+              err += dy;
+              x += sx;
+            }
+            if (e2 <= dx) {
+              err += dx;
+              y += sy;
+            }
+          }
         }
-        if (e2 <= dx) {
-          err += dx;
-          y += sy;
-        }
+        x0 = x1;
+        y0 = y1;
+      }
+      if (performance.now() - started > SLICE_MS && k < input.length) {
+        raster.timer = window.setTimeout(step, 0);
+        return;
       }
     }
-    x0 = x1;
-    y0 = y1;
-  }
-  const off = document.createElement("canvas");
-  off.width = w;
-  off.height = h;
-  const octx = off.getContext("2d");
-  if (!octx) return;
-  octx.putImageData(new ImageData(new Uint8ClampedArray(buf.buffer), w, h), 0, 0);
-  ctx.drawImage(off, Math.round(left), Math.round(top));
+    const off = document.createElement("canvas");
+    off.width = w;
+    off.height = h;
+    const octx = off.getContext("2d");
+    if (!octx) return;
+    octx.putImageData(new ImageData(new Uint8ClampedArray(buf.buffer), w, h), 0, 0);
+    raster.image = off;
+    // Finished within the draw that started it: that draw composites it itself (no nested redraw).
+    if (!sync) done();
+  };
+  let sync = true;
+  step();
+  sync = false;
 }

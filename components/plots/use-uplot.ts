@@ -18,9 +18,15 @@ export function useUPlot(
     let u: uPlot | null = null;
     let ro: ResizeObserver | null = null;
     let frame = 0;
-    // Built in the next animation frame, not in the React commit: on long runs the commit, the
-    // page layout and uPlot's own pass then land in separate tasks instead of one long one.
+    let timer = 0;
+    // Built after the next animation frame, not in the React commit: on long runs the commit,
+    // the page layout and uPlot's own pass then land in separate tasks instead of one long one.
+    // The extra timeout gives each plot its own task: animation-frame callbacks of one frame run
+    // in a single task, so the Trace and the Loop would otherwise be built back to back in it.
     const start = requestAnimationFrame(() => {
+      timer = window.setTimeout(create, 0);
+    });
+    const create = () => {
       const width = Math.max(200, el.clientWidth);
       const made = build(width);
       if (!made) return;
@@ -35,9 +41,10 @@ export function useUPlot(
         });
       });
       ro.observe(el);
-    });
+    };
     return () => {
       cancelAnimationFrame(start);
+      clearTimeout(timer);
       cancelAnimationFrame(frame);
       ro?.disconnect();
       u?.destroy();
