@@ -160,7 +160,8 @@ export const runSettingsSchema = z.object({
     .int({ message: "run.points must be a whole number" })
     .min(2, { message: "run.points must be at least 2" })
     .max(2_000_000, { message: "run.points must be at most 2,000,000" }),
-  initialOutput: z.enum(["low", "high"], { error: 'run.initialOutput must be "low" or "high"' }).default("low"),
+  // Absent: "settled" for the two amplifier kinds, "low" for the others (lib/sim decides).
+  initialOutput: z.enum(["low", "high", "settled"], { error: 'run.initialOutput must be "low", "high" or "settled"' }).optional(),
   // Extensions (optional): chatter hold-off in seconds and the solver choice.
   holdOff: positive("run.holdOff (s)").optional(),
   solver: z.enum(["exact", "odex"], { error: 'run.solver must be "exact" or "odex"' }).optional(),
