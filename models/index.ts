@@ -104,6 +104,10 @@ export interface RunLinkRow extends Model<Attrs<RunLinkRow>, Creation<RunLinkRow
   revokedAt: CreationOptional<Date | null>;
   createdBy: ForeignKey<string | null>;
   createdAt: CreationOptional<Date>;
+  /** 0004: who the link was sent to, and when it was last opened. */
+  label: CreationOptional<string | null>;
+  lastUsedAt: CreationOptional<Date | null>;
+  useCount: CreationOptional<number>;
 }
 
 export interface CommentRow extends Model<Attrs<CommentRow>, Creation<CommentRow>> {
@@ -122,6 +126,20 @@ export interface SignoffRow extends Model<Attrs<SignoffRow>, Creation<SignoffRow
   reviewerId: ForeignKey<string | null>;
   decision: Decision;
   note: string;
+  createdAt: CreationOptional<Date>;
+  /** 0004: the scenario version the decision applies to (the run's), and a withdrawal. */
+  scenarioVersion: CreationOptional<number | null>;
+  withdrawnAt: CreationOptional<Date | null>;
+}
+
+/** 0004: an author's request that a reviewer look at a run. */
+export interface ReviewRequestRow extends Model<Attrs<ReviewRequestRow>, Creation<ReviewRequestRow>> {
+  id: CreationOptional<string>;
+  teamId: ForeignKey<string>;
+  runId: ForeignKey<string>;
+  reviewerId: ForeignKey<string>;
+  requestedBy: ForeignKey<string | null>;
+  note: CreationOptional<string>;
   createdAt: CreationOptional<Date>;
 }
 
@@ -260,6 +278,9 @@ export function defineModels(sequelize: Sequelize) {
       revokedAt: { type: DataTypes.DATE, allowNull: true },
       createdBy: ref(true),
       createdAt: DataTypes.DATE,
+      label: text(true),
+      lastUsedAt: { type: DataTypes.DATE, allowNull: true },
+      useCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
     },
     createdOnly,
   );
@@ -276,6 +297,21 @@ export function defineModels(sequelize: Sequelize) {
       runId: ref(),
       reviewerId: ref(true),
       decision: { type: DataTypes.STRING, allowNull: false, validate: { isIn: [DECISIONS as unknown as string[]] } },
+      note: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+      createdAt: DataTypes.DATE,
+      scenarioVersion: { type: DataTypes.INTEGER, allowNull: true },
+      withdrawnAt: { type: DataTypes.DATE, allowNull: true },
+    },
+    createdOnly,
+  );
+  const ReviewRequest = sequelize.define<ReviewRequestRow>(
+    "review_requests",
+    {
+      id,
+      teamId: ref(),
+      runId: ref(),
+      reviewerId: ref(),
+      requestedBy: ref(true),
       note: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
       createdAt: DataTypes.DATE,
     },
@@ -352,6 +388,9 @@ export function defineModels(sequelize: Sequelize) {
   Run.hasMany(Signoff, { foreignKey: "runId", as: "signoffs" });
   Comment.belongsTo(User, { foreignKey: "authorId", as: "author" });
   Signoff.belongsTo(User, { foreignKey: "reviewerId", as: "reviewer" });
+  ReviewRequest.belongsTo(User, { foreignKey: "reviewerId", as: "reviewer" });
+  ReviewRequest.belongsTo(User, { foreignKey: "requestedBy", as: "requester" });
+  ReviewRequest.belongsTo(Run, { foreignKey: "runId", as: "run" });
   Audit.belongsTo(User, { foreignKey: "actorId", as: "actor" });
   Invitation.belongsTo(Team, { foreignKey: "teamId", as: "team" });
 
@@ -366,6 +405,7 @@ export function defineModels(sequelize: Sequelize) {
     RunLink,
     Comment,
     Signoff,
+    ReviewRequest,
     PartProfile,
     Capture,
     Invitation,

@@ -2,6 +2,7 @@
 // under tsx, vitest and the Next server without a TypeScript loader for dynamic requires.
 import type { QueryInterface } from "sequelize";
 import * as m0001 from "./0001-initial";
+import * as m0004 from "./0004-review";
 
 export interface Migration {
   name: string;
@@ -9,4 +10,4 @@ export interface Migration {
   down(params: { context: QueryInterface }): Promise<void>;
 }
 
-export const MIGRATIONS: Migration[] = [{ name: "0001-initial", ...m0001 }];
+export const MIGRATIONS: Migration[] = [{ name: "0001-initial", ...m0001 }, { name: "0004-review", ...m0004 }];
