@@ -2,6 +2,7 @@ import { boardPatchSchema } from "@/lib/schemas/api";
 import { deleteBoard, getBoardOrThrow, updateBoard } from "@/lib/server/boards";
 import { errorResponse, readJson } from "@/lib/server/errors";
 import { CAN, requireMember, requireRole } from "@/lib/server/session";
+import { routeIds } from "@/lib/server/ids";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -9,7 +10,7 @@ type Ctx = { params: Promise<{ id: string }> };
 export async function GET(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "board" });
     return Response.json(await getBoardOrThrow({ id, teamId: member.teamId }));
   } catch (err) {
     return errorResponse(err);
@@ -20,7 +21,7 @@ export async function GET(request: Request, { params }: Ctx) {
 export async function PATCH(request: Request, { params }: Ctx) {
   try {
     const member = requireRole(await requireMember(request), CAN.manageTeam);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "board" });
     await getBoardOrThrow({ id, teamId: member.teamId });
     const patch = boardPatchSchema.parse(await readJson(request));
     return Response.json(await updateBoard({ id, teamId: member.teamId, patch }));
@@ -33,7 +34,7 @@ export async function PATCH(request: Request, { params }: Ctx) {
 export async function DELETE(request: Request, { params }: Ctx) {
   try {
     const member = requireRole(await requireMember(request), CAN.manageTeam);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "board" });
     await deleteBoard({ id, teamId: member.teamId, actorId: member.userId });
     return Response.json({ id, deleted: true });
   } catch (err) {

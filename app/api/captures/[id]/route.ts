@@ -1,6 +1,7 @@
 import { errorResponse } from "@/lib/server/errors";
 import { CAN, requireMember, requireRole } from "@/lib/server/session";
 import { deleteCapture, getCaptureOrThrow } from "@/lib/server/captures";
+import { routeIds } from "@/lib/server/ids";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -8,7 +9,7 @@ type Ctx = { params: Promise<{ id: string }> };
 export async function GET(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "capture" });
     return Response.json(await getCaptureOrThrow({ id, teamId: member.teamId }));
   } catch (err) {
     return errorResponse(err);
@@ -20,7 +21,7 @@ export async function DELETE(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
     requireRole(member, CAN.edit);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "capture" });
     await deleteCapture({ id, teamId: member.teamId, actorId: member.userId });
     return new Response(null, { status: 204 });
   } catch (err) {

@@ -1,6 +1,7 @@
 import { errorResponse } from "@/lib/server/errors";
 import { deleteRun, getRunOrThrow } from "@/lib/server/runs";
 import { CAN, requireMember, requireRole } from "@/lib/server/session";
+import { routeIds } from "@/lib/server/ids";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -8,7 +9,7 @@ type Ctx = { params: Promise<{ id: string }> };
 export async function GET(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "run" });
     return Response.json(await getRunOrThrow({ id, teamId: member.teamId }));
   } catch (err) {
     return errorResponse(err);
@@ -19,7 +20,7 @@ export async function GET(request: Request, { params }: Ctx) {
 export async function DELETE(request: Request, { params }: Ctx) {
   try {
     const member = requireRole(await requireMember(request), CAN.edit);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "run" });
     await deleteRun({ id, teamId: member.teamId, actorId: member.userId });
     return Response.json({ id, deleted: true });
   } catch (err) {

@@ -3,6 +3,7 @@ import { readOptionalJson } from "@/lib/server/request";
 import { CAN, requireMember, requireRole } from "@/lib/server/session";
 import { createRunLink, listRunLinks } from "@/lib/server/review";
 import { linkCreateSchema } from "@/lib/schemas/team";
+import { routeIds } from "@/lib/server/ids";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -11,7 +12,7 @@ export async function GET(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
     requireRole(member, CAN.edit);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "run" });
     return Response.json({ items: await listRunLinks({ runId: id, teamId: member.teamId }) });
   } catch (err) {
     return errorResponse(err);
@@ -23,7 +24,7 @@ export async function POST(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
     requireRole(member, CAN.edit);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "run" });
     const body = linkCreateSchema.parse(await readOptionalJson(request));
     const expiresAt = body.expiresAt
       ? new Date(body.expiresAt)

@@ -2,6 +2,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { CAN, requireMember, requireRole } from "@/lib/server/session";
 import { addSignoff, listSignoffs } from "@/lib/server/review";
 import { signoffCreateSchema } from "@/lib/schemas/team";
+import { routeIds } from "@/lib/server/ids";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -9,7 +10,7 @@ type Ctx = { params: Promise<{ id: string }> };
 export async function GET(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "run" });
     return Response.json({ items: await listSignoffs({ runId: id, teamId: member.teamId }) });
   } catch (err) {
     return errorResponse(err);
@@ -21,7 +22,7 @@ export async function POST(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
     requireRole(member, CAN.signOff);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "run" });
     const { decision, note } = signoffCreateSchema.parse(await readJson(request));
     const signoff = await addSignoff({
       runId: id,

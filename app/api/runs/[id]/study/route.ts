@@ -4,6 +4,7 @@ import { requireMember, requireRole, CAN } from "@/lib/server/session";
 import { getRunStudyOrThrow, saveRunStudy } from "@/lib/server/studies";
 import { studyUploadSchema } from "@/lib/studies/schema";
 import { AppError } from "@/lib/server/errors";
+import { routeIds } from "@/lib/server/ids";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -14,7 +15,7 @@ const STUDY_BODY_LIMIT = 8 * 1024 * 1024;
 export async function GET(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "run" });
     return Response.json({ study: await getRunStudyOrThrow({ runId: id, teamId: member.teamId }) });
   } catch (err) {
     return errorResponse(err);
@@ -26,7 +27,7 @@ export async function PUT(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
     requireRole(member, CAN.edit);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "run" });
     const bytes = await readLimitedBody(request, STUDY_BODY_LIMIT);
     let body: unknown;
     try {

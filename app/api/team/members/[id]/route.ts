@@ -2,6 +2,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { CAN, requireMember, requireRole } from "@/lib/server/session";
 import { changeMemberRole, removeMember } from "@/lib/server/team";
 import { roleChangeSchema } from "@/lib/schemas/team";
+import { routeIds } from "@/lib/server/ids";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -10,7 +11,7 @@ export async function PATCH(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
     requireRole(member, CAN.manageTeam);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "member" });
     const { role } = roleChangeSchema.parse(await readJson(request));
     return Response.json(await changeMemberRole({ teamId: member.teamId, actorId: member.userId, memberId: id, role }));
   } catch (err) {
@@ -23,7 +24,7 @@ export async function DELETE(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
     requireRole(member, CAN.manageTeam);
-    const { id } = await params;
+    const { id } = await routeIds(params, { id: "member" });
     await removeMember({ teamId: member.teamId, actorId: member.userId, memberId: id });
     return new Response(null, { status: 204 });
   } catch (err) {

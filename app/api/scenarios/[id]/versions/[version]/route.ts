@@ -2,6 +2,7 @@ import { errorResponse } from "@/lib/server/errors";
 import { versionNumber } from "@/lib/server/ids";
 import { getScenarioVersionOrThrow } from "@/lib/server/scenarios";
 import { requireMember } from "@/lib/server/session";
+import { routeIds } from "@/lib/server/ids";
 
 type Ctx = { params: Promise<{ id: string; version: string }> };
 
@@ -9,7 +10,7 @@ type Ctx = { params: Promise<{ id: string; version: string }> };
 export async function GET(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
-    const { id, version } = await params;
+    const { id, version } = { ...(await params), ...(await routeIds(params, { id: "scenario" })) };
     return Response.json(await getScenarioVersionOrThrow({ id, teamId: member.teamId, version: versionNumber(version) }));
   } catch (err) {
     return errorResponse(err);
