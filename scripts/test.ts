@@ -1,5 +1,6 @@
-// `npm test` – unit tests, then a production build into .next-test, then the integration
-// (real server + real SQLite) and end-to-end (real Chromium) tests. Ends with one plain line
+// `npm test` – lint and type check (a failure of either counts as one failed test), unit tests,
+// then a production build into .next-test, then the integration (real server + real SQLite) and
+// end-to-end (real Chromium) tests. Ends with one plain line
 // `tests: N passed, N failed, N skipped` and a non-zero exit on any failure or on zero tests.
 import { spawnSync } from "node:child_process";
 import fs from "node:fs";
@@ -22,6 +23,15 @@ interface VitestJson {
   numPendingTests?: number;
   numTodoTests?: number;
   testResults?: { name: string; status: string; message?: string; assertionResults?: { status: string }[] }[];
+}
+
+/** Runs `npm run <script>` (lint, typecheck) first; a failure counts as one failed test. */
+function npmScript(script: string): { tally: Tally; ok: boolean } {
+  console.log(`\n▶ npm run ${script}`);
+  const r = spawnSync("npm", ["run", "--silent", script], { cwd: ROOT, stdio: "inherit" });
+  const ok = r.status === 0;
+  if (!ok) console.error(`npm run ${script} failed (exit ${r.status ?? r.signal}); counted as one failure.`);
+  return { tally: { passed: 0, failed: ok ? 0 : 1, skipped: 0 }, ok };
 }
 
 /** Runs vitest for the given projects; counts come from its JSON report, not from its exit code. */
@@ -60,6 +70,8 @@ function main() {
     ok &&= r.ok;
   };
 
+  add(npmScript("lint"));
+  add(npmScript("typecheck"));
   add(vitest(["unit"], "unit"));
 
   const reason = buildNeeded(distDir);
