@@ -1,22 +1,40 @@
-import { afterAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 
-// `npm run simulate` (scripts/simulate.ts) spawned for real through tsx.
+// The simulate command spawned for real: through the compiled `railwise` bin (package.json
+// "bin", built by scripts/build-cli.mjs), through `npm run simulate`, and from source with tsx.
 const root = path.resolve(__dirname, "../..");
 const tsx = path.join(root, "node_modules/.bin/tsx");
+const pkg = JSON.parse(readFileSync(path.join(root, "package.json"), "utf8"));
+const bin = path.join(root, pkg.bin.railwise);
 const dir = mkdtempSync(path.join(os.tmpdir(), "railwise-sim-cli-"));
+beforeAll(() => {
+  const built = spawnSync(process.execPath, ["scripts/build-cli.mjs", "--if-stale"], {
+    cwd: root,
+    encoding: "utf8",
+    timeout: 120_000,
+  });
+  expect(built.status, built.stderr).toBe(0);
+});
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const run = (args: string[], input?: string) =>
-  spawnSync(tsx, ["scripts/simulate.ts", ...args], { cwd: root, input, encoding: "utf8", timeout: 60_000 });
+  spawnSync(process.execPath, [bin, "simulate", ...args], { cwd: root, input, encoding: "utf8", timeout: 60_000 });
 
 const good = {
   schema: "railwise.scenario/1",
   supply: { positive: 5, negative: 0 },
-  opamp: { openLoopGain: 2e5, gainBandwidth: 1e6, slewRate: 1e6, outputHeadroomHigh: 0, outputHeadroomLow: 0, inputOffset: 0 },
+  opamp: {
+    openLoopGain: 2e5,
+    gainBandwidth: 1e6,
+    slewRate: 1e6,
+    outputHeadroomHigh: 0,
+    outputHeadroomLow: 0,
+    inputOffset: 0,
+  },
   stage: { kind: "schmitt-inverting", rReference: 50e3, rFeedback: 100e3, reference: 2.5 },
   input: { components: [{ kind: "triangle", amplitude: 2.5, frequency: 100, offset: 2.5 }] },
   run: { duration: 0.02, points: 101 },
@@ -79,5 +97,58 @@ describe("simulate CLI", { timeout: 120_000 }, () => {
     const solver = run(["-", "--solver", "euler"], JSON.stringify(good));
     expect(solver.status).not.toBe(0);
     expect(solver.stderr).toMatch(/--solver/);
+  });
+
+  it("the bin refuses an unknown command with its usage", () => {
+    const r = spawnSync(process.execPath, [bin, "simualte", "-"], {
+      cwd: root,
+      input: "{}",
+      encoding: "utf8",
+      timeout: 60_000,
+    });
+    expect(r.status).toBe(64);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toContain('unknown command "simualte"');
+    expect(r.stderr).toContain("simulate <scenario.json|->");
+  });
+
+  it("npm run simulate reads stdin through the bin and rejects bad input the same way", () => {
+    const ok = spawnSync("npm", ["run", "-s", "simulate", "--", "-"], {
+      cwd: root,
+      input: JSON.stringify(good),
+      encoding: "utf8",
+      timeout: 90_000,
+    });
+    expect(ok.status, ok.stderr).toBe(0);
+    const out = JSON.parse(ok.stdout);
+    // thresholds Vcc/3 and 2Vcc/3 for the three-equal-resistor network (REFERENCES.md [derived])
+    expect(out.metrics.upperThreshold).toBeCloseTo(10 / 3, 2);
+    const bad = spawnSync("npm", ["run", "-s", "simulate", "--", "-"], {
+      cwd: root,
+      input: JSON.stringify({ ...good, run: { duration: -1, points: 101 } }),
+      encoding: "utf8",
+      timeout: 90_000,
+    });
+    expect(bad.status).not.toBe(0);
+    expect(bad.stdout).toBe("");
+    expect(bad.stderr).toContain("run.duration");
+    expect(bad.stderr).not.toMatch(/\n\s+at /); // no stack trace
+  });
+
+  it("the source entry (tsx scripts/simulate.ts) gives the same result as the bin", () => {
+    const fromSource = spawnSync(tsx, ["scripts/simulate.ts", "-"], {
+      cwd: root,
+      input: JSON.stringify(good),
+      encoding: "utf8",
+      timeout: 60_000,
+    });
+    expect(fromSource.status, fromSource.stderr).toBe(0);
+    const viaBin = run(["-"], JSON.stringify(good));
+    const a = JSON.parse(fromSource.stdout);
+    const b = JSON.parse(viaBin.stdout);
+    // same deterministic core: identical samples and events (wall time differs)
+    expect(b.samples).toEqual(a.samples);
+    expect(b.events).toEqual(a.events);
+    expect(b.metrics).toEqual(a.metrics);
   });
 });
