@@ -12,6 +12,7 @@ export interface HeaderUser {
 
 const NAV: NavItem[] = [
   { href: "/boards", label: "Boards", also: ["/scenarios", "/runs"] },
+  { href: "/review", label: "Review" },
   { href: "/parts", label: "Parts" },
   { href: "/captures", label: "Captures" },
   { href: "/team", label: "Team" },
