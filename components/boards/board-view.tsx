@@ -16,7 +16,23 @@ import { STAGE_KIND_LABEL, STAGE_KIND_SHORT } from "@/components/scenario/stage-
 import { HttpError, errorMessage } from "@/lib/client/fetcher";
 import { personName, useBoard, useScenarios, type LatestDecision, type ScenarioRecord } from "@/lib/client/hooks";
 import type { Supply } from "@/lib/schemas/scenario";
+import { useReviewQueue } from "@/lib/client/review-hooks";
+import type { ReviewQueue } from "@/lib/schemas/review";
 import { DeleteScenarioDialog, NewScenarioDialog, RenameScenarioDialog } from "./scenario-dialogs";
+
+/** Per scenario: runs waiting for a requested review (any reviewer) on this board. */
+function waitingByScenario(queue: ReviewQueue | undefined): Map<string, number> {
+  const out = new Map<string, number>();
+  if (!queue) return out;
+  const seen = new Set<string>();
+  for (const item of [...queue.waitingOnMe, ...queue.requestedByMe, ...queue.decided]) {
+    if (seen.has(item.run.id)) continue;
+    seen.add(item.run.id);
+    const open = item.requests.filter((r) => r.decision === null).length;
+    if (open > 0) out.set(item.run.scenario.id, (out.get(item.run.scenario.id) ?? 0) + open);
+  }
+  return out;
+}
 
 export interface BoardViewProps {
   boardId: string;
@@ -29,6 +45,8 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
   const toast = useToast();
   const board = useBoard(boardId);
   const list = useScenarios(boardId);
+  const queue = useReviewQueue(boardId);
+  const waiting = waitingByScenario(queue.data);
   const [creating, setCreating] = useState(false);
   const [renaming, setRenaming] = useState<ScenarioRecord | null>(null);
   const [deleting, setDeleting] = useState<ScenarioRecord | null>(null);
@@ -107,6 +125,7 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
                       {formatRelative(s.updatedAt)} · {personName(s.updatedBy)}
                     </span>
                     <DecisionBadge decision={s.latestDecision} hideEmpty />
+                    <WaitingBadge count={waiting.get(s.id)} />
                   </div>
                   {canEdit && (
                     <div className="-ml-2.5 flex gap-1">
@@ -124,7 +143,7 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
                   <TH>Supplies</TH>
                   <TH>Updated</TH>
                   <TH numeric>Version</TH>
-                  <TH>Latest decision</TH>
+                  <TH>Review</TH>
                   {canEdit && (
                     <TH className="text-right">
                       <span className="sr-only">Actions</span>
@@ -152,7 +171,10 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
                     </TD>
                     <TD numeric>v{s.version}</TD>
                     <TD>
-                      <DecisionBadge decision={s.latestDecision} />
+                      <span className="flex flex-wrap items-center gap-1.5">
+                        <DecisionBadge decision={s.latestDecision} />
+                        <WaitingBadge count={waiting.get(s.id)} />
+                      </span>
                     </TD>
                     {canEdit && (
                       <TD className="text-right whitespace-nowrap">
@@ -236,10 +258,36 @@ function RowActions({
   );
 }
 
-function DecisionBadge({ decision, hideEmpty }: { decision?: LatestDecision | null; hideEmpty?: boolean }) {
+function WaitingBadge({ count }: { count?: number }) {
+  if (!count) return null;
+  return (
+    <Badge tone="indigo" title="Requested reviews without a decision yet">
+      {count} review{count === 1 ? "" : "s"} waiting
+    </Badge>
+  );
+}
+
+type DecisionWithVersion = LatestDecision & { scenarioVersion?: number | null; outOfDate?: boolean };
+
+function DecisionBadge({ decision, hideEmpty }: { decision?: DecisionWithVersion | null; hideEmpty?: boolean }) {
   if (!decision) return hideEmpty ? null : <span className="text-ink-faint">—</span>;
   const d = String(decision.decision).replace(/_/g, "-");
-  if (d === "approved") return <Badge tone="moss">approved</Badge>;
-  if (d === "changes-requested") return <Badge tone="caution">changes requested</Badge>;
-  return <Badge>{d}</Badge>;
+  const v = decision.scenarioVersion ? ` v${decision.scenarioVersion}` : "";
+  const badge =
+    d === "approved" ? (
+      <Badge tone="moss">approved{v}</Badge>
+    ) : d === "changes-requested" ? (
+      <Badge tone="caution">changes requested{v}</Badge>
+    ) : (
+      <Badge>{d}</Badge>
+    );
+  if (!decision.outOfDate) return badge;
+  return (
+    <span className="inline-flex items-center gap-1" data-testid="decision-out-of-date">
+      {badge}
+      <Badge tone="alert" title="The scenario was saved again after the decided version">
+        out of date
+      </Badge>
+    </span>
+  );
 }

@@ -3,10 +3,13 @@
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Badge } from "@/components/ui/badge";
-import { Select } from "@/components/ui/field";
+import { Select, TextInput } from "@/components/ui/field";
 import { errorMessage, sendJson } from "@/lib/client/fetcher";
 import { runLinksKey, useRunLinks } from "@/lib/client/team-hooks";
 import type { RunLinkJson } from "@/lib/schemas/team";
+import { LINK_LABEL_MAX } from "@/lib/schemas/review";
+
+type LinkRecord = RunLinkJson & { label?: string | null; lastUsedAt?: string | null; useCount?: number };
 import { formatDate } from "@/components/ui/format";
 
 const EXPIRY_CHOICES = [
@@ -20,6 +23,7 @@ const EXPIRY_CHOICES = [
 export function LinksPanel({ runId }: { runId: string }) {
   const { data, error, mutate } = useRunLinks(runId);
   const [days, setDays] = useState("7");
+  const [label, setLabel] = useState("");
   const [fresh, setFresh] = useState<RunLinkJson | null>(null);
   const [copied, setCopied] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
@@ -30,7 +34,11 @@ export function LinksPanel({ runId }: { runId: string }) {
     setProblem(null);
     setCopied(false);
     try {
-      const link = await sendJson<RunLinkJson>(runLinksKey(runId), "POST", days ? { expiresInDays: Number(days) } : {});
+      const link = await sendJson<RunLinkJson>(runLinksKey(runId), "POST", {
+        ...(days ? { expiresInDays: Number(days) } : {}),
+        ...(label.trim() ? { label: label.trim() } : {}),
+      });
+      setLabel("");
       // The server knows its public origin only from config; the browser's origin is what the user shares.
       setFresh({ ...link, url: link.token ? `${window.location.origin}/share/${link.token}` : link.url });
       await mutate();
@@ -55,9 +63,22 @@ export function LinksPanel({ runId }: { runId: string }) {
     }
   }
 
-  const items = data?.items ?? [];
+  const items = (data?.items ?? []) as LinkRecord[];
   return (
     <div className="flex flex-col gap-3">
+      <div className="flex flex-wrap items-center gap-2">
+        <label htmlFor={`link-label-${runId}`} className="text-[12px] text-ink-soft">
+          For
+        </label>
+        <TextInput
+          id={`link-label-${runId}`}
+          className="h-7! min-w-0 flex-1 py-0 text-[13px]"
+          placeholder="who gets it, e.g. bench tech at the yard"
+          maxLength={LINK_LABEL_MAX}
+          value={label}
+          onChange={(e) => setLabel(e.target.value)}
+        />
+      </div>
       <div className="flex flex-wrap items-center gap-2">
         <label htmlFor={`expiry-${runId}`} className="text-[12px] text-ink-soft">
           Expires
@@ -94,10 +115,15 @@ export function LinksPanel({ runId }: { runId: string }) {
         <ul className="flex flex-col divide-y divide-paper-line" aria-label="Run links">
           {items.map((l) => (
             <li key={l.id} className="flex flex-wrap items-center justify-between gap-2 py-1.5 text-[12px]">
-              <span className="flex items-center gap-2">
-                <Badge tone={l.state === "active" ? "moss" : "neutral"}>{l.state}</Badge>
-                <span className="font-mono text-ink-soft">made {formatDate(l.createdAt)}</span>
-                <span className="text-ink-mute">{l.expiresAt ? `expires ${formatDate(l.expiresAt)}` : "no expiry"}</span>
+              <span className="flex min-w-0 flex-col gap-0.5">
+                <span className="flex flex-wrap items-center gap-2">
+                  <Badge tone={l.state === "active" ? "moss" : "neutral"}>{l.state}</Badge>
+                  <span className="break-words font-medium text-ink">{l.label || "(no label)"}</span>
+                </span>
+                <span className="text-ink-mute">
+                  made {formatDate(l.createdAt)} · {l.expiresAt ? `expires ${formatDate(l.expiresAt)}` : "no expiry"} ·{" "}
+                  {l.lastUsedAt ? `last opened ${formatDate(l.lastUsedAt)} (${l.useCount ?? 0}×)` : "never opened"}
+                </span>
               </span>
               {l.state === "active" && (
                 <Button size="sm" variant="danger" onClick={() => revoke(l.id)} disabled={busy}>

@@ -9,7 +9,9 @@ const ACTIONS: Record<string, string> = {
   "invitation.revoked": "withdrew an invitation",
   "link.created": "created a run link",
   "link.revoked": "revoked a run link",
-  "signoff.created": "signed off a run",
+  "signoff.created": "signed off",
+  "signoff.withdrawn": "withdrew a sign-off",
+  "review.requested": "requested a review",
   "part.deleted": "deleted a part profile",
   "parts.imported": "imported part profiles",
   "capture.deleted": "deleted a capture",
@@ -25,11 +27,24 @@ export function describeAction(action: string): string {
   return ACTIONS[action] ?? action.replace(/[._]/g, " ");
 }
 
-/** One line of the details object ("from designer to reviewer", "bo@x.example as viewer"). */
+const DECISION_WORDS: Record<string, string> = { approved: "approved", changes_requested: "changes requested" };
+
+/** The audit entry's subject in words: "Tomas Berge", 'run "Cut-off check" of Battery low-voltage disconnect'. */
+export function describeTarget(e: { targetName?: string | null; targetType: string | null }): string {
+  return e.targetName ?? (e.targetType ? `(a ${e.targetType} no longer here)` : "");
+}
+
+/** One line of the details object ("designer → reviewer", "bo@x.example as viewer", "approved, version 3"). */
 export function describeDetails(details: unknown): string {
   if (!details || typeof details !== "object") return "";
   const d = details as Record<string, unknown>;
   if (typeof d.from === "string" && typeof d.to === "string") return `${d.from} → ${d.to}`;
+  if (typeof d.decision === "string") {
+    const v = typeof d.scenarioVersion === "number" ? `, version ${d.scenarioVersion}` : "";
+    return `${DECISION_WORDS[d.decision] ?? d.decision.replace("_", " ")}${v}`;
+  }
+  if (Array.isArray(d.reviewerIds)) return `${d.reviewerIds.length} reviewer${d.reviewerIds.length === 1 ? "" : "s"}`;
+  if (typeof d.label === "string" && d.label) return `for ${d.label}`;
   if (typeof d.email === "string" && typeof d.role === "string") return `${d.email} as ${d.role}`;
   if (typeof d.decision === "string") return d.decision.replace("_", " ");
   if (typeof d.name === "string") return d.name;

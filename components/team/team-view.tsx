@@ -11,7 +11,7 @@ import { errorMessage, sendJson } from "@/lib/client/fetcher";
 import { useAudit, useInvitations, useMembers } from "@/lib/client/team-hooks";
 import { ROLE_NAMES, type RoleName } from "@/lib/schemas/team";
 import { formatDate } from "@/components/ui/format";
-import { describeAction, describeDetails } from "./format";
+import { describeAction, describeDetails, describeTarget } from "./format";
 
 const ROLE_HELP: Record<RoleName, string> = {
   owner: "everything, plus members and boards",
@@ -192,6 +192,7 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
                   <TH>When</TH>
                   <TH>Who</TH>
                   <TH>What</TH>
+                  <TH>About</TH>
                   <TH>Details</TH>
                 </TR>
               </THead>
@@ -201,6 +202,7 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
                     <TD className="whitespace-nowrap font-mono text-[12px] text-ink-soft">{formatDate(e.createdAt)}</TD>
                     <TD>{e.actorName ?? "(removed account)"}</TD>
                     <TD>{describeAction(e.action)}</TD>
+                    <TD className="max-w-[22rem] break-words">{describeTarget(e)}</TD>
                     <TD className="text-ink-soft">{describeDetails(e.details)}</TD>
                   </TR>
                 ))}

@@ -1,6 +1,7 @@
 import "server-only";
 // Audit log of membership, link, sign-off and delete actions (readable by the owner).
 import type { Transaction } from "sequelize";
+import { Op } from "sequelize";
 import { getModels } from "@/models";
 
 export interface AuditEntry {
@@ -33,6 +34,8 @@ export interface AuditJson {
   actorName: string | null;
   targetType: string | null;
   targetId: string | null;
+  /** What the entry is about, in words: the member's name, or the run's label and scenario. */
+  targetName: string | null;
   details: unknown;
   createdAt: string;
 }
@@ -45,6 +48,7 @@ export async function listAudit({ teamId, limit = 200 }: { teamId: string; limit
     limit,
     include: [{ model: User, as: "actor", attributes: ["name"] }],
   });
+  const names = await targetNames(teamId, rows);
   return rows.map((r) => {
     const actor = (r as unknown as { actor?: { name: string } | null }).actor;
     return {
@@ -54,8 +58,42 @@ export async function listAudit({ teamId, limit = 200 }: { teamId: string; limit
       actorName: actor?.name ?? null,
       targetType: r.targetType,
       targetId: r.targetId,
+      targetName: (r.targetId && names.get(`${r.targetType}:${r.targetId}`)) || fallbackName(r.details),
       details: r.details ?? null,
       createdAt: new Date(r.createdAt).toISOString(),
     };
   });
+}
+
+/** A name recorded in the details when the entry was written (survives deletion of the target). */
+function fallbackName(details: unknown): string | null {
+  if (!details || typeof details !== "object") return null;
+  const d = details as Record<string, unknown>;
+  if (typeof d.runLabel === "string") return typeof d.scenarioName === "string" ? `run "${d.runLabel}" of ${d.scenarioName}` : `run "${d.runLabel}"`;
+  if (typeof d.name === "string" && d.name) return d.name;
+  if (typeof d.email === "string") return d.email;
+  return null;
+}
+
+/** Names of the members and runs the entries point at, looked up in two queries. */
+async function targetNames(teamId: string, rows: { targetType: string | null; targetId: string | null }[]): Promise<Map<string, string>> {
+  const { User, Run, Scenario } = getModels();
+  const out = new Map<string, string>();
+  const ids = (type: string) => [...new Set(rows.filter((r) => r.targetType === type && r.targetId).map((r) => r.targetId as string))];
+  const userIds = ids("user");
+  if (userIds.length) {
+    for (const u of await User.findAll({ where: { id: { [Op.in]: userIds } }, attributes: ["id", "name"] })) out.set(`user:${u.id}`, u.name);
+  }
+  const runIds = ids("run");
+  if (runIds.length) {
+    const runs = await Run.findAll({ where: { teamId, id: { [Op.in]: runIds } }, attributes: ["id", "label", "scenarioId"] });
+    const scenarioIds = [...new Set(runs.map((r) => r.scenarioId as string))];
+    const scenarios = scenarioIds.length ? await Scenario.findAll({ where: { id: { [Op.in]: scenarioIds } }, attributes: ["id", "name"] }) : [];
+    const scenarioName = new Map(scenarios.map((s) => [s.id, s.name]));
+    for (const r of runs) {
+      const sName = scenarioName.get(r.scenarioId as string);
+      out.set(`run:${r.id}`, sName ? `run "${r.label}" of ${sName}` : `run "${r.label}"`);
+    }
+  }
+  return out;
 }

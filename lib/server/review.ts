@@ -1,27 +1,28 @@
 import "server-only";
 import { Op } from "sequelize";
 import { getModels, getSequelize } from "@/models";
-import { gone, notFound } from "@/lib/server/errors";
+import type { Transaction } from "sequelize";
+import { badRequest, conflict, forbidden, gone, notFound } from "@/lib/server/errors";
+import { isId } from "@/lib/server/ids";
 import { recordAudit } from "@/lib/server/audit";
 import { appBaseUrl, sendMail } from "@/lib/server/mail";
 import { hashToken, newToken, plausibleToken } from "@/lib/server/tokens";
-import {
-  DECISION_LABEL,
-  type CommentJson,
-  type DecisionName,
-  type RunLinkJson,
-  type SignoffJson,
-} from "@/lib/schemas/team";
+import { type CommentJson, type DecisionName, type RunLinkJson } from "@/lib/schemas/team";
+import type { QueueItem, ReviewQueue, ReviewRequestJson, SignoffList, SignoffRecord } from "@/lib/schemas/review";
 
 // Review of runs: run links, comments and sign-offs. Every lookup is scoped by teamId.
 
 const iso = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString() : null);
 
 /** The run's row inside the caller's team, or 404 (another team's run is a 404 too). */
-export async function runInTeamOrThrow({ runId, teamId }: { runId: string; teamId: string }) {
+export async function runInTeamOrThrow({ runId, teamId, transaction }: { runId: string; teamId: string; transaction?: Transaction }) {
+  if (!isId(runId)) throw notFound("No such run in your team.");
   const run = await getModels().Run.findOne({
     where: { id: runId, teamId },
-    attributes: ["id", "teamId", "scenarioId", "label", "createdBy", "createdAt"],
+    attributes: ["id", "teamId", "scenarioId", "scenarioVersion", "label", "createdBy", "createdAt"],
+    // On PostgreSQL the row lock serialises sign-offs and review requests on one run; SQLite
+    // serialises write transactions by itself and ignores the lock.
+    ...(transaction ? { transaction, lock: transaction.LOCK.UPDATE } : {}),
   });
   if (!run) throw notFound("No such run in your team.");
   return run;
@@ -35,9 +36,26 @@ function linkState(row: { expiresAt: Date | null; revokedAt: Date | null }): Run
   return "active";
 }
 
-function linkJson(row: { id: string; runId: unknown; expiresAt: Date | null; revokedAt: Date | null; createdAt: Date; createdBy: unknown }): RunLinkJson {
+type LinkRowish = {
+  id: string;
+  runId: unknown;
+  expiresAt: Date | null;
+  revokedAt: Date | null;
+  createdAt: Date;
+  createdBy: unknown;
+  label?: string | null;
+  lastUsedAt?: Date | null;
+  useCount?: number;
+};
+
+export type RunLinkRecord = RunLinkJson & { label: string | null; lastUsedAt: string | null; useCount: number };
+
+function linkJson(row: LinkRowish): RunLinkRecord {
   return {
     id: row.id,
+    label: row.label ?? null,
+    lastUsedAt: iso(row.lastUsedAt),
+    useCount: row.useCount ?? 0,
     runId: row.runId as string,
     expiresAt: iso(row.expiresAt),
     revokedAt: iso(row.revokedAt),
@@ -47,7 +65,7 @@ function linkJson(row: { id: string; runId: unknown; expiresAt: Date | null; rev
   };
 }
 
-export async function listRunLinks({ runId, teamId }: { runId: string; teamId: string }): Promise<RunLinkJson[]> {
+export async function listRunLinks({ runId, teamId }: { runId: string; teamId: string }): Promise<RunLinkRecord[]> {
   await runInTeamOrThrow({ runId, teamId });
   const rows = await getModels().RunLink.findAll({ where: { runId, teamId }, order: [["createdAt", "DESC"]] });
   return rows.map(linkJson);
@@ -58,20 +76,22 @@ export async function createRunLink({
   teamId,
   actorId,
   expiresAt,
+  label = null,
   request,
 }: {
   runId: string;
   teamId: string;
   actorId: string;
   expiresAt: Date | null;
+  label?: string | null;
   request: Request;
-}): Promise<RunLinkJson> {
+}): Promise<RunLinkRecord> {
   await runInTeamOrThrow({ runId, teamId });
   const { token, tokenHash } = newToken();
   const row = await getSequelize().transaction(async (transaction) => {
-    const created = await getModels().RunLink.create({ teamId, runId, tokenHash, expiresAt, createdBy: actorId }, { transaction });
+    const created = await getModels().RunLink.create({ teamId, runId, tokenHash, expiresAt, createdBy: actorId, label: label || null }, { transaction });
     await recordAudit(
-      { teamId, actorId, action: "link.created", targetType: "run", targetId: runId, details: { linkId: created.id, expiresAt: iso(expiresAt) } },
+      { teamId, actorId, action: "link.created", targetType: "run", targetId: runId, details: { linkId: created.id, expiresAt: iso(expiresAt), label: label || null } },
       transaction,
     );
     return created;
@@ -79,16 +99,17 @@ export async function createRunLink({
   return { ...linkJson(row), token, url: `${appBaseUrl(request)}/share/${token}` };
 }
 
-export async function revokeRunLink({ runId, linkId, teamId, actorId }: { runId: string; linkId: string; teamId: string; actorId: string }): Promise<RunLinkJson> {
+export async function revokeRunLink({ runId, linkId, teamId, actorId }: { runId: string; linkId: string; teamId: string; actorId: string }): Promise<RunLinkRecord> {
   await runInTeamOrThrow({ runId, teamId });
+  if (!isId(linkId)) throw notFound("No such link on this run.");
   return getSequelize().transaction(async (transaction) => {
-    const row = await getModels().RunLink.findOne({ where: { id: linkId, runId, teamId }, transaction });
+    const row = await getModels().RunLink.findOne({ where: { id: linkId, runId, teamId }, transaction, lock: transaction.LOCK.UPDATE });
     if (!row) throw notFound("No such link on this run.");
     if (!row.revokedAt) {
       row.revokedAt = new Date();
       await row.save({ transaction });
       await recordAudit(
-        { teamId, actorId, action: "link.revoked", targetType: "run", targetId: runId, details: { linkId } },
+        { teamId, actorId, action: "link.revoked", targetType: "run", targetId: runId, details: { linkId, label: row.label ?? null } },
         transaction,
       );
     }
@@ -110,7 +131,12 @@ export async function runForLinkToken({ token }: { token: string }) {
   if (link.expiresAt && new Date(link.expiresAt).getTime() <= Date.now()) throw gone("This link has expired.");
   const run = await Run.findOne({ where: { id: link.runId as string, teamId: link.teamId as string } });
   if (!run) throw notFound("This link is not valid.");
+  // Last use, for the link list ("who opened it, when"); one atomic UPDATE, no read-then-write.
+  await RunLink.update({ lastUsedAt: new Date() }, { where: { id: link.id } });
+  await RunLink.increment("useCount", { by: 1, where: { id: link.id } });
+  const scenarioName = (run.scenario as { name?: string } | null)?.name ?? null;
   return {
+    scenarioName,
     id: run.id,
     label: run.label,
     createdAt: iso(run.createdAt)!,
@@ -194,7 +220,34 @@ export async function addComment({
 
 // ---- Sign-offs ----
 
-export async function listSignoffs({ runId, teamId }: { runId: string; teamId: string }): Promise<SignoffJson[]> {
+type SignoffRowish = {
+  id: string;
+  runId: unknown;
+  decision: DecisionName;
+  note: string;
+  reviewerId: unknown;
+  createdAt: Date;
+  scenarioVersion?: number | null;
+  withdrawnAt?: Date | null;
+};
+
+function signoffJson(s: SignoffRowish, reviewerName?: string | null): SignoffRecord {
+  return {
+    id: s.id,
+    runId: s.runId as string,
+    decision: s.decision,
+    note: s.note,
+    reviewer: { id: (s.reviewerId as string | null) ?? null, name: reviewerName ?? "(removed account)" },
+    createdAt: iso(s.createdAt)!,
+    scenarioVersion: s.scenarioVersion ?? null,
+    withdrawnAt: iso(s.withdrawnAt),
+  };
+}
+
+const reviewerOf = (s: unknown) => (s as { reviewer?: Named }).reviewer?.name;
+
+/** Standing decisions (newest first; the first is the run's review state) and withdrawn ones. */
+export async function listSignoffs({ runId, teamId }: { runId: string; teamId: string }): Promise<SignoffList> {
   await runInTeamOrThrow({ runId, teamId });
   const { Signoff, User } = getModels();
   const rows = await Signoff.findAll({
@@ -205,17 +258,18 @@ export async function listSignoffs({ runId, teamId }: { runId: string; teamId: s
       ["id", "DESC"],
     ],
   });
-  return rows.map((s) => {
-    const reviewer = (s as unknown as { reviewer?: Named }).reviewer;
-    return {
-      id: s.id,
-      runId,
-      decision: s.decision,
-      note: s.note,
-      reviewer: { id: (s.reviewerId as string | null) ?? null, name: reviewer?.name ?? "(removed account)" },
-      createdAt: iso(s.createdAt)!,
-    };
-  });
+  const all = rows.map((s) => signoffJson(s, reviewerOf(s)));
+  return { items: all.filter((s) => !s.withdrawnAt), withdrawn: all.filter((s) => s.withdrawnAt) };
+}
+
+/** "approved your run" / "requested changes on your run", for mails and the audit log. */
+function decisionPhrase(decision: DecisionName): string {
+  return decision === "approved" ? "approved" : "requested changes on";
+}
+
+async function scenarioNameOf(scenarioId: string, transaction?: Transaction): Promise<{ name: string; version: number } | null> {
+  const row = await getModels().Scenario.findByPk(scenarioId, { attributes: ["name", "version"], transaction });
+  return row ? { name: row.name, version: row.version } : null;
 }
 
 export async function addSignoff({
@@ -232,40 +286,78 @@ export async function addSignoff({
   decision: DecisionName;
   note: string;
   request: Request;
-}): Promise<SignoffJson> {
-  const run = await runInTeamOrThrow({ runId, teamId });
-  const row = await getSequelize().transaction(async (transaction) => {
-    const created = await getModels().Signoff.create({ teamId, runId, reviewerId: reviewer.userId, decision, note }, { transaction });
+}): Promise<SignoffRecord> {
+  const { row, run, scenario } = await getSequelize().transaction(async (transaction) => {
+    const run = await runInTeamOrThrow({ runId, teamId, transaction });
+    const scenario = await scenarioNameOf(run.scenarioId as string, transaction);
+    // A reviewer has one standing decision per run: a new one replaces (withdraws) their earlier one.
+    await getModels().Signoff.update(
+      { withdrawnAt: new Date() },
+      { where: { runId, teamId, reviewerId: reviewer.userId, withdrawnAt: null }, transaction },
+    );
+    const created = await getModels().Signoff.create(
+      { teamId, runId, reviewerId: reviewer.userId, decision, note, scenarioVersion: run.scenarioVersion ?? null },
+      { transaction },
+    );
     await recordAudit(
-      { teamId, actorId: reviewer.userId, action: "signoff.created", targetType: "run", targetId: runId, details: { decision, signoffId: created.id } },
+      {
+        teamId,
+        actorId: reviewer.userId,
+        action: "signoff.created",
+        targetType: "run",
+        targetId: runId,
+        details: { decision, signoffId: created.id, runLabel: run.label, scenarioName: scenario?.name ?? null, scenarioVersion: run.scenarioVersion ?? null },
+      },
       transaction,
     );
-    return created;
+    return { row: created, run, scenario };
   });
   const authorId = run.createdBy as string | null;
   if (authorId && authorId !== reviewer.userId) {
     const author = await getModels().User.findByPk(authorId, { attributes: ["email"] });
     if (author) {
+      const what = `"${run.label}"${scenario ? ` of ${scenario.name}` : ""}${run.scenarioVersion ? `, version ${run.scenarioVersion}` : ""}`;
       void sendMail({
         to: author.email,
-        subject: `${DECISION_LABEL[decision]}: run "${run.label}"`,
+        subject: decision === "approved" ? `Approved: run "${run.label}"` : `Changes requested: run "${run.label}"`,
         text: [
-          `${reviewer.name} signed off your run "${run.label}": ${DECISION_LABEL[decision].toLowerCase()}.`,
-          ...(note ? ["", note] : []),
+          `${reviewer.name} ${decisionPhrase(decision)} your run ${what}.`,
+          ...(note ? ["", decision === "approved" ? "Note:" : "What must change:", note] : []),
           "",
           `Open the run: ${appBaseUrl(request)}/runs/${runId}`,
         ].join("\n"),
       });
     }
   }
-  return {
-    id: row.id,
-    runId,
-    decision: row.decision,
-    note: row.note,
-    reviewer: { id: reviewer.userId, name: reviewer.name },
-    createdAt: iso(row.createdAt)!,
-  };
+  return signoffJson(row, reviewer.name);
+}
+
+/** A reviewer takes back their own standing decision; others' decisions are a 403. */
+export async function withdrawSignoff({ runId, signoffId, teamId, actorId }: { runId: string; signoffId: string; teamId: string; actorId: string }): Promise<SignoffRecord> {
+  if (!isId(signoffId)) throw notFound("No such sign-off on this run.");
+  return getSequelize().transaction(async (transaction) => {
+    const run = await runInTeamOrThrow({ runId, teamId, transaction });
+    const row = await getModels().Signoff.findOne({ where: { id: signoffId, runId, teamId }, transaction, lock: transaction.LOCK.UPDATE });
+    if (!row) throw notFound("No such sign-off on this run.");
+    if (row.reviewerId !== actorId) throw forbidden("Only the reviewer who made a decision can withdraw it.");
+    if (row.withdrawnAt) throw conflict("This decision has already been withdrawn.");
+    row.withdrawnAt = new Date();
+    await row.save({ transaction });
+    const scenario = await scenarioNameOf(run.scenarioId as string, transaction);
+    await recordAudit(
+      {
+        teamId,
+        actorId,
+        action: "signoff.withdrawn",
+        targetType: "run",
+        targetId: runId,
+        details: { decision: row.decision, signoffId: row.id, runLabel: run.label, scenarioName: scenario?.name ?? null, scenarioVersion: row.scenarioVersion ?? null },
+      },
+      transaction,
+    );
+    const reviewer = await getModels().User.findByPk(actorId, { attributes: ["name"], transaction });
+    return signoffJson(row, reviewer?.name);
+  });
 }
 
 export interface LatestDecisionJson {
@@ -274,21 +366,28 @@ export interface LatestDecisionJson {
   by: { id: string | null; name: string };
   runId: string;
   note: string;
+  /** The scenario version the decision applies to (the run's), null for runs from before versions were kept. */
+  scenarioVersion: number | null;
+  /** The scenario was saved again after the decided version: the approval no longer covers it. */
+  outOfDate: boolean;
 }
 
 /**
- * The latest sign-off over all runs of each scenario, for the board's scenario table
+ * The latest standing sign-off over all runs of each scenario, for the board's scenario table
  * (`latestDecision` on the scenario objects). Scenarios without one are absent from the map.
  */
 export async function latestDecisionsByScenario({ teamId, scenarioIds }: { teamId: string; scenarioIds: string[] }): Promise<Map<string, LatestDecisionJson>> {
   const out = new Map<string, LatestDecisionJson>();
   if (scenarioIds.length === 0) return out;
-  const { Run, Signoff, User } = getModels();
-  const runs = await Run.findAll({ where: { teamId, scenarioId: { [Op.in]: scenarioIds } }, attributes: ["id", "scenarioId"] });
+  const { Run, Signoff, User, Scenario } = getModels();
+  const runs = await Run.findAll({ where: { teamId, scenarioId: { [Op.in]: scenarioIds } }, attributes: ["id", "scenarioId", "scenarioVersion"] });
   if (runs.length === 0) return out;
-  const scenarioOfRun = new Map(runs.map((r) => [r.id, r.scenarioId as string]));
+  const runById = new Map(runs.map((r) => [r.id, r]));
+  const versions = new Map(
+    (await Scenario.findAll({ where: { teamId, id: { [Op.in]: scenarioIds } }, attributes: ["id", "version"] })).map((s) => [s.id, s.version]),
+  );
   const signoffs = await Signoff.findAll({
-    where: { teamId, runId: { [Op.in]: [...scenarioOfRun.keys()] } },
+    where: { teamId, runId: { [Op.in]: [...runById.keys()] }, withdrawnAt: null },
     include: [{ model: User, as: "reviewer", attributes: ["id", "name"] }],
     order: [
       ["createdAt", "DESC"],
@@ -296,16 +395,236 @@ export async function latestDecisionsByScenario({ teamId, scenarioIds }: { teamI
     ],
   });
   for (const s of signoffs) {
-    const scenarioId = scenarioOfRun.get(s.runId as string);
-    if (!scenarioId || out.has(scenarioId)) continue;
-    const reviewer = (s as unknown as { reviewer?: Named }).reviewer;
+    const run = runById.get(s.runId as string);
+    const scenarioId = run?.scenarioId as string | undefined;
+    if (!run || !scenarioId || out.has(scenarioId)) continue;
+    const appliesTo = s.scenarioVersion ?? run.scenarioVersion ?? null;
+    const current = versions.get(scenarioId) ?? null;
     out.set(scenarioId, {
       decision: s.decision,
       at: iso(s.createdAt)!,
-      by: { id: (s.reviewerId as string | null) ?? null, name: reviewer?.name ?? "(removed account)" },
+      by: { id: (s.reviewerId as string | null) ?? null, name: reviewerOf(s) ?? "(removed account)" },
       runId: s.runId as string,
       note: s.note,
+      scenarioVersion: appliesTo,
+      outOfDate: appliesTo !== null && current !== null && current > appliesTo,
     });
   }
   return out;
+}
+
+// ---- Review requests and the queue ----
+
+const SIGNERS = ["owner", "reviewer"] as const;
+
+/**
+ * The author asks named members (who may sign off) to review a run; each new reviewer gets a mail.
+ * Asking the same reviewer again about the same run keeps the first request (no second mail).
+ */
+export async function requestReview({
+  runId,
+  teamId,
+  actor,
+  reviewerIds,
+  note,
+  request,
+}: {
+  runId: string;
+  teamId: string;
+  actor: { userId: string; name: string };
+  reviewerIds: string[];
+  note: string;
+  request: Request;
+}): Promise<ReviewRequestJson[]> {
+  const { Membership, User, ReviewRequest } = getModels();
+  const wanted = [...new Set(reviewerIds)];
+  const bad = wanted.findIndex((id) => !isId(id));
+  if (bad >= 0) throw badRequest("reviewerIds must be members of your team who can sign off", [{ path: ["reviewerIds", bad], message: "not a member id" }]);
+  const members = await Membership.findAll({ where: { teamId, userId: { [Op.in]: wanted } }, attributes: ["userId", "role"] });
+  const roleOf = new Map(members.map((m) => [m.userId as string, m.role]));
+  for (const [i, id] of wanted.entries()) {
+    const role = roleOf.get(id);
+    if (!role) throw badRequest("reviewerIds must be members of your team", [{ path: ["reviewerIds", i], message: "not a member of your team" }]);
+    if (!(SIGNERS as readonly string[]).includes(role)) {
+      throw badRequest(`reviewerIds: a ${role} cannot sign off; choose an owner or a reviewer`, [{ path: ["reviewerIds", i], message: `a ${role} cannot sign off` }]);
+    }
+    if (id === actor.userId) throw badRequest("reviewerIds: you cannot ask yourself to review your own run", [{ path: ["reviewerIds", i], message: "that is you" }]);
+  }
+  const { run, scenario, fresh } = await getSequelize().transaction(async (transaction) => {
+    const run = await runInTeamOrThrow({ runId, teamId, transaction });
+    const scenario = await scenarioNameOf(run.scenarioId as string, transaction);
+    const existing = await ReviewRequest.findAll({ where: { runId, teamId, reviewerId: { [Op.in]: wanted } }, attributes: ["reviewerId"], transaction });
+    const have = new Set(existing.map((r) => r.reviewerId as string));
+    const fresh: string[] = [];
+    for (const reviewerId of wanted) {
+      if (have.has(reviewerId)) continue;
+      await ReviewRequest.create({ teamId, runId, reviewerId, requestedBy: actor.userId, note }, { transaction });
+      fresh.push(reviewerId);
+    }
+    if (fresh.length) {
+      await recordAudit(
+        {
+          teamId,
+          actorId: actor.userId,
+          action: "review.requested",
+          targetType: "run",
+          targetId: runId,
+          details: { reviewerIds: fresh, runLabel: run.label, scenarioName: scenario?.name ?? null, scenarioVersion: run.scenarioVersion ?? null },
+        },
+        transaction,
+      );
+    }
+    return { run, scenario, fresh };
+  });
+  if (fresh.length) {
+    const users = await User.findAll({ where: { id: { [Op.in]: fresh } }, attributes: ["email"] });
+    const base = appBaseUrl(request);
+    const what = `"${run.label}"${scenario ? ` of ${scenario.name}` : ""}${run.scenarioVersion ? ` (version ${run.scenarioVersion})` : ""}`;
+    for (const u of users) {
+      void sendMail({
+        to: u.email,
+        subject: `Review requested: run "${run.label}"`,
+        text: [
+          `${actor.name} asks you to review the run ${what}.`,
+          ...(note ? ["", note] : []),
+          "",
+          `Open the run: ${base}/runs/${runId}`,
+          `Your review queue: ${base}/review`,
+        ].join("\n"),
+      });
+    }
+  }
+  return listReviewRequests({ runId, teamId });
+}
+
+type RequestRowish = { id: string; runId: unknown; reviewerId: unknown; requestedBy: unknown; note: string; createdAt: Date };
+
+function requestJson(r: RequestRowish, names: Map<string, string>, standing: Map<string, SignoffRecord>): ReviewRequestJson {
+  const reviewerId = r.reviewerId as string;
+  const decided = standing.get(`${r.runId as string}:${reviewerId}`);
+  const requester = (r.requestedBy as string | null) ?? null;
+  return {
+    id: r.id,
+    runId: r.runId as string,
+    reviewer: { id: reviewerId, name: names.get(reviewerId) ?? "(removed account)" },
+    requestedBy: { id: requester, name: requester ? (names.get(requester) ?? "(removed account)") : "(removed account)" },
+    note: r.note,
+    createdAt: iso(r.createdAt)!,
+    decision: decided?.decision ?? null,
+    decidedAt: decided?.createdAt ?? null,
+  };
+}
+
+async function namesOf(ids: Iterable<unknown>): Promise<Map<string, string>> {
+  const list = [...new Set([...ids].filter((x): x is string => typeof x === "string"))];
+  if (list.length === 0) return new Map();
+  const users = await getModels().User.findAll({ where: { id: { [Op.in]: list } }, attributes: ["id", "name"] });
+  return new Map(users.map((u) => [u.id, u.name]));
+}
+
+/** Standing sign-offs of the given runs, newest first. */
+async function standingSignoffs(teamId: string, runIds: string[]): Promise<SignoffRecord[]> {
+  if (runIds.length === 0) return [];
+  const { Signoff, User } = getModels();
+  const rows = await Signoff.findAll({
+    where: { teamId, runId: { [Op.in]: runIds }, withdrawnAt: null },
+    include: [{ model: User, as: "reviewer", attributes: ["id", "name"] }],
+    order: [
+      ["createdAt", "DESC"],
+      ["id", "DESC"],
+    ],
+  });
+  return rows.map((s) => signoffJson(s, reviewerOf(s)));
+}
+
+function byReviewer(signoffs: SignoffRecord[]): Map<string, SignoffRecord> {
+  const m = new Map<string, SignoffRecord>();
+  for (const s of signoffs) {
+    const key = `${s.runId}:${s.reviewer.id}`;
+    if (!m.has(key)) m.set(key, s);
+  }
+  return m;
+}
+
+export async function listReviewRequests({ runId, teamId }: { runId: string; teamId: string }): Promise<ReviewRequestJson[]> {
+  await runInTeamOrThrow({ runId, teamId });
+  const rows = await getModels().ReviewRequest.findAll({ where: { runId, teamId }, order: [["createdAt", "ASC"], ["id", "ASC"]] });
+  const names = await namesOf(rows.flatMap((r) => [r.reviewerId, r.requestedBy]));
+  const standing = byReviewer(await standingSignoffs(teamId, [runId]));
+  return rows.map((r) => requestJson(r, names, standing));
+}
+
+/**
+ * The review queue of one member: runs waiting on their decision, runs they asked others to
+ * review, and runs with a standing decision (the latest 50), each with the scenario it belongs to
+ * and whether the decision still covers the scenario's current version. `boardId` narrows it.
+ */
+export async function reviewQueue({ teamId, userId, boardId }: { teamId: string; userId: string; boardId?: string | null }): Promise<ReviewQueue> {
+  const { ReviewRequest, Run, Scenario, Board, Signoff } = getModels();
+  if (boardId != null && !isId(boardId)) throw notFound("No such board in your team.");
+  const requests = await ReviewRequest.findAll({ where: { teamId }, order: [["createdAt", "DESC"], ["id", "DESC"]] });
+  const decidedRows = await Signoff.findAll({
+    where: { teamId, withdrawnAt: null },
+    attributes: ["runId"],
+    order: [["createdAt", "DESC"], ["id", "DESC"]],
+    limit: 500,
+  });
+  const runIds = [...new Set([...requests.map((r) => r.runId as string), ...decidedRows.map((s) => s.runId as string)])];
+  const runs = runIds.length
+    ? await Run.findAll({ where: { teamId, id: { [Op.in]: runIds } }, attributes: ["id", "label", "createdAt", "scenarioId", "scenarioVersion"] })
+    : [];
+  const scenarioIds = [...new Set(runs.map((r) => r.scenarioId as string))];
+  const scenarios = scenarioIds.length
+    ? await Scenario.findAll({ where: { teamId, id: { [Op.in]: scenarioIds } }, attributes: ["id", "name", "version", "boardId"] })
+    : [];
+  const boards = scenarios.length
+    ? await Board.findAll({ where: { teamId, id: { [Op.in]: [...new Set(scenarios.map((s) => s.boardId as string))] } }, attributes: ["id", "name"] })
+    : [];
+  const boardName = new Map(boards.map((b) => [b.id, b.name]));
+  const scenarioById = new Map(scenarios.map((s) => [s.id, s]));
+  const refs = new Map<string, QueueItem["run"]>();
+  for (const r of runs) {
+    const s = scenarioById.get(r.scenarioId as string);
+    if (!s) continue;
+    if (boardId && s.boardId !== boardId) continue;
+    refs.set(r.id, {
+      id: r.id,
+      label: r.label,
+      createdAt: iso(r.createdAt)!,
+      scenarioVersion: r.scenarioVersion ?? null,
+      scenario: { id: s.id, name: s.name, version: s.version, boardId: s.boardId as string, boardName: boardName.get(s.boardId as string) ?? "" },
+    });
+  }
+  const signoffs = await standingSignoffs(teamId, [...refs.keys()]);
+  const standing = byReviewer(signoffs);
+  const latestOfRun = new Map<string, SignoffRecord>();
+  for (const s of signoffs) if (!latestOfRun.has(s.runId)) latestOfRun.set(s.runId, s);
+  const names = await namesOf(requests.flatMap((r) => [r.reviewerId, r.requestedBy]));
+  const requestsOfRun = new Map<string, ReviewRequestJson[]>();
+  for (const r of requests) {
+    if (!refs.has(r.runId as string)) continue;
+    const list = requestsOfRun.get(r.runId as string) ?? [];
+    list.push(requestJson(r, names, standing));
+    requestsOfRun.set(r.runId as string, list);
+  }
+  const item = (runId: string): QueueItem => {
+    const run = refs.get(runId)!;
+    const decision = latestOfRun.get(runId) ?? null;
+    const applies = decision?.scenarioVersion ?? run.scenarioVersion;
+    return {
+      run,
+      requests: requestsOfRun.get(runId) ?? [],
+      decision,
+      outOfDate: decision !== null && applies !== null && run.scenario.version > applies,
+    };
+  };
+  const waitingOnMe: QueueItem[] = [];
+  const requestedByMe: QueueItem[] = [];
+  for (const [runId, list] of requestsOfRun) {
+    if (list.some((r) => r.reviewer.id === userId && r.decision === null)) waitingOnMe.push(item(runId));
+    if (list.some((r) => r.requestedBy.id === userId)) requestedByMe.push(item(runId));
+  }
+  const decided = [...latestOfRun.keys()].slice(0, 50).map(item);
+  const newest = (a: QueueItem, b: QueueItem) => b.run.createdAt.localeCompare(a.run.createdAt);
+  return { waitingOnMe: waitingOnMe.sort(newest), requestedByMe: requestedByMe.sort(newest), decided };
 }

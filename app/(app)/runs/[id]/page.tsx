@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { RunScreen } from "@/components/run/run-screen";
 import { ReviewPanel } from "@/components/review/review-panel";
 import { RunReviewState } from "@/components/review/run-review-state";
+import { ButtonLink } from "@/components/ui/button";
 import { requirePageUser } from "@/lib/page-session";
 import { RunStudies } from "@/components/studies/run-studies";
 
@@ -14,11 +15,19 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
   return (
     <RunScreen
       runId={id}
-      // SLOT — review: the team side mounts sign-off, comments and run links here, e.g. review={<RunReview runId={id} />}.
-      review={<ReviewPanel runId={id} role={user.role} />}
-      // SLOT — studies: saved noise-margin / tolerance-spread studies of this run, e.g. studies={<RunStudies runId={id} />}.
+      review={<ReviewPanel runId={id} role={user.role} userId={user.id} />}
       studies={<RunStudies runId={id} />}
-      actions={<RunReviewState runId={id} />}
+      actions={
+        <>
+          <RunReviewState runId={id} />
+          <ButtonLink size="sm" variant="secondary" href={`/runs/${id}/compare`}>
+            Compare
+          </ButtonLink>
+          <ButtonLink size="sm" variant="secondary" href={`/runs/${id}/report`}>
+            Review report
+          </ButtonLink>
+        </>
+      }
     />
   );
 }
