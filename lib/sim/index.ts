@@ -3,14 +3,14 @@
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { ResultJson, SimOptions, SimResult, SolverName } from "./types";
 import { InputSignal, evaluateInputSignal } from "./signals";
-import { buildNetwork, outputLimits } from "./network";
-import { Recorder, defaultHoldOff, finishMetrics } from "./measure";
+import { buildNetwork, defaultInitialOutput, initialCapacitor, outputLimits, settledState } from "./network";
+import { Recorder, amplifierMetrics, defaultHoldOff, finishMetrics } from "./measure";
 import { ExactSolver, type ExactParams } from "./exact";
 import { runOdex } from "./odex-solver";
 import { noiseSegmentCount } from "./noise";
 
 export { SimCancelled, SimFailed } from "./errors";
-export { outputLimits } from "./network";
+export { defaultInitialOutput, isAmplifierKind, outputLimits } from "./network";
 export type * from "./types";
 
 /** Uniform sample times over [0, duration], both ends included. */
@@ -40,7 +40,17 @@ export function simulate(scenario: Scenario, options: SimOptions = {}): SimResul
   const td = op.propagationDelay ?? 0;
   const t = sampleTimes(duration, scenario.run.points);
   const output = new Float64Array(t.length);
+  const capacitor = scenario.stage.kind === "relaxation-oscillator" ? new Float64Array(t.length) : null;
   const recorder = new Recorder(rails, signal, td);
+  const start = scenario.run.initialOutput ?? defaultInitialOutput(scenario.stage.kind);
+  const u0 = signal.valueAt(0);
+  let vo0: number;
+  let x0: number;
+  if (start === "settled") ({ vo: vo0, x: x0 } = settledState(net, u0, op.openLoopGain, rails));
+  else {
+    vo0 = start === "high" ? rails.high : rails.low;
+    x0 = initialCapacitor(net, u0, vo0);
+  }
   const params: ExactParams = {
     net,
     signal,
@@ -51,10 +61,11 @@ export function simulate(scenario: Scenario, options: SimOptions = {}): SimResul
     slewRateFall: op.slewRateFall ?? op.slewRate,
     propagationDelay: td,
     duration,
-    vo0: (scenario.run.initialOutput ?? "low") === "high" ? rails.high : rails.low,
-    vc0: 0,
+    vo0,
+    x0,
     sampleTimes: t,
     output,
+    capacitor,
     recorder,
     trackVd: !net.amplifier,
     onProgress: options.onProgress,
@@ -66,6 +77,7 @@ export function simulate(scenario: Scenario, options: SimOptions = {}): SimResul
   if (solverName === "odex") {
     ({ steps, evaluations } = runOdex(params));
   } else {
+    params.maxSteps ??= defaultPieceBudget(scenario);
     const s = new ExactSolver(params);
     s.run();
     steps = s.steps;
@@ -80,15 +92,48 @@ export function simulate(scenario: Scenario, options: SimOptions = {}): SimResul
     inputConnected: net.alpha !== 0,
   });
   const input = evaluateInputSignal(signal, t);
+  if (net.amplifier) {
+    const A0 = op.openLoopGain;
+    metrics.amplifier = amplifierMetrics(recorder, (A0 * net.alpha) / (1 - A0 * net.beta));
+  }
   return {
     rails,
     t,
     input,
     output,
+    ...(capacitor !== null ? { capacitor } : {}),
     events: recorder.events,
     metrics,
     solver: { name: solverName, steps, evaluations, wallMs: performance.now() - started },
   };
+}
+
+/** Input corners, table points and noise segments over the run, and an oscillator's edges. */
+function runWork(scenario: Scenario): { segments: number; table: number; corners: number; edges: number } {
+  const T = scenario.run.duration;
+  const noise = scenario.input.noise;
+  const segments = noise && noise.rms > 0 ? noiseSegmentCount(noise, T) : 0;
+  let table = 0;
+  let corners = 0;
+  for (const c of scenario.input.components) {
+    if (c.kind === "pwl") table += c.points.length;
+    else if (c.kind === "capture") table += c.samples.length;
+    else if (c.kind === "pulse") corners += (4 * T) / c.period;
+    else if (c.kind === "triangle") corners += 2 * T * c.frequency;
+    else if (c.kind === "sine") corners += 8 * T * c.frequency;
+  }
+  const cycles = oscillatorCycles(scenario);
+  return { segments, table, corners, edges: cycles === null ? 0 : 2 * cycles };
+}
+
+/**
+ * The exact solver's default piece budget: a million pieces plus 16 per unit of work (input
+ * corner, table point, noise segment, oscillator edge). A healthy run uses a few pieces per
+ * unit; a run that uses all of them is stuck and fails with the time it reached.
+ */
+export function defaultPieceBudget(scenario: Scenario): number {
+  const w = runWork(scenario);
+  return Math.ceil(1_000_000 + 16 * (w.segments + w.table + w.corners + w.edges));
 }
 
 const plain = (a: Float64Array) => Array.from(a);
@@ -97,17 +142,24 @@ export function toResultJson(result: SimResult): ResultJson {
   return {
     schema: "railwise.result/1",
     rails: { ...result.rails },
-    samples: { t: plain(result.t), input: plain(result.input), output: plain(result.output) },
+    samples: {
+      t: plain(result.t),
+      input: plain(result.input),
+      output: plain(result.output),
+      ...(result.capacitor ? { capacitor: plain(result.capacitor) } : {}),
+    },
     events: result.events.map((e) => ({ ...e })),
-    metrics: { ...result.metrics },
+    metrics: { ...result.metrics, ...(result.metrics.amplifier ? { amplifier: { ...result.metrics.amplifier } } : {}) },
     solver: { ...result.solver },
   };
 }
 
-/** Samples as CSV with a header `t,input,output` (full double precision). */
+/** Samples as CSV with a header `t,input,output[,capacitor]` (full double precision). */
 export function resultToCsv(result: SimResult): string {
-  const lines = ["t,input,output"];
-  for (let i = 0; i < result.t.length; i++) lines.push(`${result.t[i]},${result.input[i]},${result.output[i]}`);
+  const cap = result.capacitor;
+  const lines = [cap ? "t,input,output,capacitor" : "t,input,output"];
+  for (let i = 0; i < result.t.length; i++)
+    lines.push(cap ? `${result.t[i]},${result.input[i]},${result.output[i]},${cap[i]}` : `${result.t[i]},${result.input[i]},${result.output[i]}`);
   return lines.join("\n") + "\n";
 }
 
@@ -158,34 +210,20 @@ export function checkRunBounds(scenario: Scenario, limits: Partial<RunLimits> = 
   const fmt = (n: number) => Math.round(n).toLocaleString("en");
   if (scenario.run.points > L.maxPoints)
     reasons.push(`run.points is ${fmt(scenario.run.points)}; runs are limited to ${fmt(L.maxPoints)} output points`);
-  const noise = scenario.input.noise;
-  let segments = 0;
-  if (noise && noise.rms > 0) {
-    segments = noiseSegmentCount(noise, T);
-    if (segments > L.maxNoiseSegments)
-      reasons.push(
-        `input.noise gives ${fmt(segments)} noise segments (2 × bandwidth × duration); the limit is ${fmt(L.maxNoiseSegments)}: lower the bandwidth or shorten the run`,
-      );
-  }
-  let table = 0;
-  let corners = 0;
-  for (const c of scenario.input.components) {
-    if (c.kind === "pwl") table += c.points.length;
-    else if (c.kind === "capture") table += c.samples.length;
-    else if (c.kind === "pulse") corners += (4 * T) / c.period;
-    else if (c.kind === "triangle") corners += 2 * T * c.frequency;
-    else if (c.kind === "sine") corners += 8 * T * c.frequency;
-  }
+  const { segments, table, corners, edges } = runWork(scenario);
+  if (segments > L.maxNoiseSegments)
+    reasons.push(
+      `input.noise gives ${fmt(segments)} noise segments (2 × bandwidth × duration); the limit is ${fmt(L.maxNoiseSegments)}: lower the bandwidth or shorten the run`,
+    );
   if (table > L.maxTablePoints)
     reasons.push(`the pwl and capture components hold ${fmt(table)} points together; the limit is ${fmt(L.maxTablePoints)}`);
   if (corners > L.maxPeriodicCorners)
     reasons.push(
       `the periodic components switch about ${fmt(corners)} times over the run; the limit is ${fmt(L.maxPeriodicCorners)}: lower the frequency or shorten the run`,
     );
-  const cycles = oscillatorCycles(scenario);
-  if (cycles !== null && 2 * cycles > L.maxEvents)
+  if (edges > L.maxEvents)
     reasons.push(
-      `the relaxation oscillator would switch about ${fmt(2 * cycles)} times over the run (limit ${fmt(L.maxEvents)}): shorten run.duration`,
+      `the relaxation oscillator would switch about ${fmt(edges)} times over the run (limit ${fmt(L.maxEvents)}): shorten run.duration`,
     );
   const solver = scenario.run.solver ?? "exact";
   if (solver === "odex") {

@@ -1,7 +1,7 @@
 // Measurements taken from the solution itself (never from the output sample grid), shared by
 // both solvers. Solvers report level crossings of the output and sign changes of the
 // differential input in time order; `finishMetrics` turns them into the Result JSON metrics.
-import type { SimEvent, SimMetrics } from "./types";
+import type { AmplifierMetrics, SimEvent, SimMetrics } from "./types";
 import type { InputSignal } from "./signals";
 
 /** Monitored output levels: 10 %, 50 % (events) and 90 % of the output span. */
@@ -27,6 +27,12 @@ export class Recorder {
   /** Initial direction of the output (+1 up, −1 down, 0 none). */
   startupDirection = 0;
   startupEvents = 0;
+  /** Input when the output first reaches Voh / Vol (NaN until it does). */
+  clipInputHigh = NaN;
+  clipInputLow = NaN;
+  /** Σ Δu·Δvo and Σ Δu² over linear-regime pieces after the power-on transient (amplifier gain). */
+  gainCross = 0;
+  gainInputSquares = 0;
 
   private lastL10Up = NaN;
   private lastL90Down = NaN;
@@ -178,6 +184,24 @@ export function finishMetrics(
     }
     dutyCycle = high / (last - first);
   }
+  if (opts.amplifier) {
+    // Amplifiers do not switch: no switching readings (DESIGN.md "The circuit as built").
+    return {
+      transitions: null,
+      upperThreshold: null,
+      lowerThreshold: null,
+      hysteresis: null,
+      chatter: null,
+      clippedFraction: Math.min(1, Math.max(0, rec.clippedTime / opts.duration)),
+      maxSlewRate: rec.maxSlew,
+      period: null,
+      dutyCycle: null,
+      propagationDelay: null,
+      riseTime: null,
+      fallTime: null,
+      holdOff: opts.holdOff,
+    };
+  }
   return {
     transitions: rec.events.length,
     upperThreshold: upper,
@@ -192,5 +216,21 @@ export function finishMetrics(
     riseTime: rec.riseTime(),
     fallTime: rec.fallTime(),
     holdOff: opts.holdOff,
+  };
+}
+
+/**
+ * Amplifier readings. `gain` is the least-squares slope of output against input increments
+ * over the solver's steady linear-regime pieces after the power-on transient (from the solution,
+ * not from the samples); when the input does not move there it is the small-signal closed-loop
+ * gain of the network, `smallSignalGain`. The clip inputs come from the solver (first arrival).
+ */
+export function amplifierMetrics(rec: Recorder, smallSignalGain: number): AmplifierMetrics {
+  const finite = (x: number) => (Number.isFinite(x) ? x : null);
+  const measured = rec.gainInputSquares > 0 ? rec.gainCross / rec.gainInputSquares : NaN;
+  return {
+    gain: finite(Number.isFinite(measured) ? measured : smallSignalGain),
+    clipInputHigh: finite(rec.clipInputHigh),
+    clipInputLow: finite(rec.clipInputLow),
   };
 }

@@ -1,6 +1,8 @@
 // Stage topologies (DESIGN.md "Stage topologies"): the op-amp's differential input
-// vd = v+ − v− + Vos is linear in the input u, the output vo and the timing-capacitor voltage vc:
-//   vd = alpha·u + beta·vo + gamma·vc + delta
+// vd = v+ − v− + Vos is linear in the input u, the output vo and, when the stage has one, a
+// capacitor voltage x (the oscillator's timing capacitor):
+//   vd    = alpha·u + beta·vo + gamma·x + delta
+//   dx/dt = kappaU·u + kappaX·x + kappaO·vo + kappa0
 // The coefficients are written once per run; the solvers never look at the stage kind again.
 import type { Scenario } from "@/lib/schemas/scenario";
 
@@ -9,12 +11,59 @@ export interface Network {
   beta: number;
   gamma: number;
   delta: number;
-  /** Timing constant rTiming·cTiming of the capacitor node (relaxation oscillator), else 0. */
-  tauC: number;
+  /** The capacitor state x, or null for a stage without one. */
+  state: CapacitorState | null;
   /** The input reaches v− (an upward input crossing gives a falling output edge). */
   inverting: boolean;
   /** Amplifier stages (negative feedback): no propagation-delay reading. */
   amplifier: boolean;
+}
+
+export interface CapacitorState {
+  kappaU: number;
+  kappaX: number;
+  kappaO: number;
+  kappa0: number;
+  /** How x starts: at 0 V, or at its steady value for the state at t = 0. */
+  start: "zero" | "steady";
+}
+
+/** The stage's kinds that amplify (negative feedback) rather than switch. */
+export function isAmplifierKind(kind: Scenario["stage"]["kind"]): boolean {
+  return kind === "noninverting-amplifier" || kind === "inverting-amplifier";
+}
+
+/** run.initialOutput when the scenario leaves it out: "settled" for amplifiers, else "low". */
+export function defaultInitialOutput(kind: Scenario["stage"]["kind"]): "low" | "settled" {
+  return isAmplifierKind(kind) ? "settled" : "low";
+}
+
+/**
+ * The DC operating point for input u at t = 0 (vo from vo = A0·vd with x at its steady value
+ * when it has one), with vo clamped to the output limits; x then steady for that vo.
+ */
+export function settledState(net: Network, u: number, openLoopGain: number, rails: { high: number; low: number }): { vo: number; x: number } {
+  const A0 = openLoopGain;
+  const s = net.state;
+  let vo: number;
+  if (s === null) vo = (A0 * (net.alpha * u + net.delta)) / (1 - A0 * net.beta);
+  else {
+    // x = −(kappaU·u + kappaO·vo + kappa0)/kappaX substituted into vo = A0·vd
+    const xu = -s.kappaU / s.kappaX;
+    const xo = -s.kappaO / s.kappaX;
+    const x0 = -s.kappa0 / s.kappaX;
+    vo = (A0 * (net.alpha * u + net.gamma * (xu * u + x0) + net.delta)) / (1 - A0 * (net.beta + net.gamma * xo));
+  }
+  if (!(vo < rails.high)) vo = rails.high;
+  if (!(vo > rails.low)) vo = rails.low;
+  return { vo, x: s === null ? 0 : initialCapacitor(net, u, vo) };
+}
+
+/** The capacitor's start for output vo and input u at t = 0 (0 V or steady, per the network). */
+export function initialCapacitor(net: Network, u: number, vo: number): number {
+  const s = net.state;
+  if (s === null || s.start === "zero") return 0;
+  return -(s.kappaU * u + s.kappaO * vo + s.kappa0) / s.kappaX;
 }
 
 export function outputLimits(scenario: Scenario): { high: number; low: number } {
@@ -32,37 +81,39 @@ export function buildNetwork(scenario: Scenario): Network {
     case "noninverting-amplifier": {
       // v+ = u; v− = ref + (vo − ref)·rG/(rG + rF)
       const g = st.rGround / (st.rGround + st.rFeedback);
-      return { alpha: 1, beta: -g, gamma: 0, delta: -ref * (1 - g) + vos, tauC: 0, inverting: false, amplifier: true };
+      return { alpha: 1, beta: -g, gamma: 0, delta: -ref * (1 - g) + vos, state: null, inverting: false, amplifier: true };
     }
     case "inverting-amplifier": {
       // v+ = ref; v− = (u·rF + vo·rI)/(rI + rF)
       const s = st.rInput + st.rFeedback;
-      return { alpha: -st.rFeedback / s, beta: -st.rInput / s, gamma: 0, delta: ref + vos, tauC: 0, inverting: true, amplifier: true };
+      return { alpha: -st.rFeedback / s, beta: -st.rInput / s, gamma: 0, delta: ref + vos, state: null, inverting: true, amplifier: true };
     }
     case "comparator":
       return st.inputAt === "inverting"
-        ? { alpha: -1, beta: 0, gamma: 0, delta: ref + vos, tauC: 0, inverting: true, amplifier: false }
-        : { alpha: 1, beta: 0, gamma: 0, delta: -ref + vos, tauC: 0, inverting: false, amplifier: false };
+        ? { alpha: -1, beta: 0, gamma: 0, delta: ref + vos, state: null, inverting: true, amplifier: false }
+        : { alpha: 1, beta: 0, gamma: 0, delta: -ref + vos, state: null, inverting: false, amplifier: false };
     case "schmitt-noninverting": {
       // v+ = (u·rF + vo·rI)/(rI + rF); v− = ref
       const s = st.rInput + st.rFeedback;
-      return { alpha: st.rFeedback / s, beta: st.rInput / s, gamma: 0, delta: -ref + vos, tauC: 0, inverting: false, amplifier: false };
+      return { alpha: st.rFeedback / s, beta: st.rInput / s, gamma: 0, delta: -ref + vos, state: null, inverting: false, amplifier: false };
     }
     case "schmitt-inverting": {
       // v+ = (ref·rF + vo·rR)/(rR + rF); v− = u
       const s = st.rReference + st.rFeedback;
-      return { alpha: -1, beta: st.rReference / s, gamma: 0, delta: (ref * st.rFeedback) / s + vos, tauC: 0, inverting: true, amplifier: false };
+      return { alpha: -1, beta: st.rReference / s, gamma: 0, delta: (ref * st.rFeedback) / s + vos, state: null, inverting: true, amplifier: false };
     }
     case "relaxation-oscillator": {
       // As schmitt-inverting, but v− is the capacitor node (rTiming from vo, cTiming to 0 V);
       // the input signal is not connected to the stage.
       const s = st.rReference + st.rFeedback;
+      const w = 1 / (st.rTiming * st.cTiming);
       return {
         alpha: 0,
         beta: st.rReference / s,
         gamma: -1,
         delta: (ref * st.rFeedback) / s + vos,
-        tauC: st.rTiming * st.cTiming,
+        // dx/dt = (vo − x)/(rTiming·cTiming); the capacitor starts at 0 V
+        state: { kappaU: 0, kappaX: -w, kappaO: w, kappa0: 0, start: "zero" },
         inverting: true,
         amplifier: false,
       };

@@ -23,9 +23,13 @@ const SUBDIVISIONS = 4;
 export function runOdex(p: OdexParams): OdexStats {
   const A0 = p.openLoopGain;
   const wp = (2 * Math.PI * p.gainBandwidth) / A0;
-  const { alpha: al, beta: be, gamma: ga, delta: de, tauC } = p.net;
-  const twoD = tauC > 0;
-  const w = twoD ? 1 / tauC : 0;
+  const { alpha: al, beta: be, gamma: ga, delta: de } = p.net;
+  const st = p.net.state;
+  const twoD = st !== null;
+  const kU = st?.kappaU ?? 0;
+  const kX = st?.kappaX ?? 0;
+  const kO = st?.kappaO ?? 0;
+  const k0 = st?.kappa0 ?? 0;
   const Voh = p.rails.high;
   const Vol = p.rails.low;
   const SR = p.slewRate;
@@ -35,10 +39,11 @@ export function runOdex(p: OdexParams): OdexStats {
   const sig = p.signal;
   const rec = p.recorder;
   const levels = rec.levels;
-  const n = twoD ? 3 : 2; // vo, [vc], clipped time
+  const n = twoD ? 3 : 2; // vo, [x], clipped time
   const iClip = n - 1;
 
-  const uSeen = (x: number) => (al === 0 ? 0 : sig.valueAt(Math.max(0, x - td)));
+  const inputConnected = al !== 0 || kU !== 0;
+  const uSeen = (x: number) => (inputConnected ? sig.valueAt(Math.max(0, x - td)) : 0);
   const rate = (x: number, vo: number, vc: number, u: number): number => {
     const v = vo > Voh ? Voh : vo < Vol ? Vol : vo;
     let f = wp * (A0 * (al * u + be * v + ga * vc + de) - v);
@@ -57,11 +62,11 @@ export function runOdex(p: OdexParams): OdexStats {
     const fl = wp * (A0 * (al * u + be * v + ga * vc + de) - v);
     const held = (vo >= Voh && fl >= 0) || (vo <= Vol && fl <= 0) ? 1 : 0;
     const dv = rate(x, vo, vc, u);
-    return twoD ? [dv, w * (v - vc), held] : [dv, held];
+    return twoD ? [dv, kU * u + kX * vc + kO * v + k0, held] : [dv, held];
   };
 
   let wMax = 0;
-  if (al !== 0) for (let j = 0; j < sig.sineOmega.length; j++) wMax = Math.max(wMax, sig.sineOmega[j]);
+  if (inputConnected) for (let j = 0; j < sig.sineOmega.length; j++) wMax = Math.max(wMax, sig.sineOmega[j]);
   const hMaxSine = wMax > 0 ? (2 * Math.PI) / wMax / 16 : Infinity;
 
   const solver = new Solver(n);
@@ -73,21 +78,25 @@ export function runOdex(p: OdexParams): OdexStats {
   const budget = p.maxSteps ?? 200_000; // total over the run
   let steps = 0;
   let reached = 0; // furthest time integrated so far
-  let y: number[] = twoD ? [p.vo0, p.vc0, 0] : [p.vo0, 0];
+  let y: number[] = twoD ? [p.vo0, p.x0, 0] : [p.vo0, 0];
   const sides = new Uint8Array(4);
   for (let i = 0; i < 3; i++) sides[i] = p.vo0 >= levels[i] ? 1 : 0;
-  sides[MONITOR_VD] = al * uSeen(0) + be * p.vo0 + ga * p.vc0 + de >= 0 ? 1 : 0;
+  sides[MONITOR_VD] = al * uSeen(0) + be * p.vo0 + ga * (twoD ? p.x0 : 0) + de >= 0 ? 1 : 0;
   {
-    const f0 = rate(0, p.vo0, p.vc0, uSeen(0));
+    const f0 = rate(0, p.vo0, twoD ? p.x0 : 0, uSeen(0));
     rec.startupDirection = f0 > 0 ? 1 : f0 < 0 ? -1 : 0;
     if (f0 === 0) rec.startupEnd = 0;
   }
   const ts = p.sampleTimes;
   const out = p.output;
   let sample = 0;
-  while (sample < ts.length && ts[sample] <= 0) out[sample++] = p.vo0;
+  const capOut = p.capacitor;
+  while (sample < ts.length && ts[sample] <= 0) {
+    if (capOut !== null) capOut[sample] = p.x0;
+    out[sample++] = p.vo0;
+  }
 
-  const nextBreak = (t: number) => (al === 0 ? Infinity : t < td ? td : sig.nextBreak(t - td) + td);
+  const nextBreak = (t: number) => (!inputConnected ? Infinity : t < td ? td : sig.nextBreak(t - td) + td);
 
   let dense: ((c: number, x: number) => number) | undefined;
   const voAt = (x: number) => dense!(0, x);
@@ -145,8 +154,12 @@ export function runOdex(p: OdexParams): OdexStats {
     rec.flush();
     while (sample < ts.length && ts[sample] <= x) {
       out[sample] = clampV(voAt(ts[sample]));
+      if (capOut !== null) capOut[sample] = d(1, ts[sample]);
       sample++;
     }
+    // First arrival at each limit (amplifier readings), located at the step end.
+    if (yy[0] >= Voh && rec.clipInputHigh !== rec.clipInputHigh) rec.clipInputHigh = uSeen(x);
+    if (yy[0] <= Vol && rec.clipInputLow !== rec.clipInputLow) rec.clipInputLow = uSeen(x);
     const r = Math.abs(rate(x, yy[0], twoD ? yy[1] : 0, uSeen(x)));
     if (r > rec.maxSlew && x > rec.startupEnd) rec.maxSlew = r;
 
@@ -171,7 +184,10 @@ export function runOdex(p: OdexParams): OdexStats {
     t = tEnd;
     p.onProgress?.(t / T);
   }
-  while (sample < ts.length) out[sample++] = y[0];
+  while (sample < ts.length) {
+    if (capOut !== null) capOut[sample] = twoD ? y[1] : 0;
+    out[sample++] = y[0];
+  }
   rec.clippedTime = y[iClip];
   return { steps, evaluations };
 }

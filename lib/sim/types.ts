@@ -13,7 +13,10 @@ export interface SimOptions {
   onProgress?: (fraction: number) => void;
   /** Polled now and then; returning true aborts the run with a `SimCancelled` error. */
   shouldCancel?: () => boolean;
-  /** Step budget over the run: odex default 200,000 steps; exact default unlimited (pieces). */
+  /**
+   * Step budget over the run: odex default 200,000 steps; exact default from the scenario's
+   * size (`defaultPieceBudget`). A run that uses it up fails with SimFailed naming the time reached.
+   */
   maxSteps?: number;
 }
 
@@ -24,16 +27,28 @@ export interface SimEvent {
   input: number;
 }
 
+/** Readings of an amplifier stage (DESIGN.md "The circuit as built"). */
+export interface AmplifierMetrics {
+  /** Measured vo/vin slope while the output is in its linear region. */
+  gain: number | null;
+  /** Input where the output first reaches Voh / Vol; null if it never does. */
+  clipInputHigh: number | null;
+  clipInputLow: number | null;
+}
+
+/** Switching metrics are null for the amplifier kinds (they do not switch). */
 export interface SimMetrics {
-  transitions: number;
+  transitions: number | null;
   upperThreshold: number | null;
   lowerThreshold: number | null;
   hysteresis: number | null;
-  chatter: number;
+  chatter: number | null;
   clippedFraction: number;
   maxSlewRate: number;
   period: number | null;
   dutyCycle: number | null;
+  /** Amplifier kinds only. */
+  amplifier?: AmplifierMetrics;
   /** Extras beyond the contract. */
   propagationDelay?: number | null;
   riseTime?: number | null;
@@ -53,6 +68,8 @@ export interface SimResult {
   t: Float64Array;
   input: Float64Array;
   output: Float64Array;
+  /** The timing-capacitor voltage (v−) of a relaxation oscillator. */
+  capacitor?: Float64Array;
   events: SimEvent[];
   metrics: SimMetrics;
   solver: SolverStats;
@@ -61,7 +78,7 @@ export interface SimResult {
 export interface ResultJson {
   schema: "railwise.result/1";
   rails: { high: number; low: number };
-  samples: { t: number[]; input: number[]; output: number[] };
+  samples: { t: number[]; input: number[]; output: number[]; capacitor?: number[] };
   events: SimEvent[];
   metrics: SimMetrics;
   solver: SolverStats;

@@ -1,0 +1,115 @@
+// The rail-hold fast path: while the output sits at a limit (the bulk of a noisy comparator or
+// Schmitt run) a piece needs no closed form at all. The output is held while the drive keeps
+// pushing into the rail, i.e. vd stays on the rail's side of V/A0, and (when tracked) vd keeps
+// its sign. Over a piece vd = alpha·u + beta·V + delta is affine in the input except for the
+// sines; a sine of amplitude A and angular frequency ω departs from its tangent by at most
+// A·ω²·h²/2 over a piece of length h (and from its chord by A·ω²·h²/8), so checking the affine
+// part at both ends with that margin dismisses a piece in one evaluation.
+// Stages with a capacitor state never take this path (their rail pieces still move x).
+import { MONITOR_VD } from "../measure";
+import { SLOT_ONE, SLOT_SINES, SLOT_TAU } from "./basis";
+import type { ExactSolver } from "./solver";
+
+/** Knots between re-seeding the rotated sine phases with Math.sin/cos. */
+const RESEED = 4096;
+
+/** Hold the output at the rail from t; returns the time reached (the caller goes on from there). */
+export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
+  const p = s.p;
+  const m = s.model;
+  const T = p.duration;
+  const V = high ? p.rails.high : p.rails.low;
+  const threshold = V / p.openLoopGain;
+  const vdSide = s.sides[MONITOR_VD] === 1;
+  const trackVd = p.trackVd;
+  const alpha = m.alpha;
+  const c0 = m.beta * V + m.delta;
+  const ts = p.sampleTimes;
+  const out = p.output;
+  const U = m.U;
+  const omega = m.basis.omega;
+  const sineCount = m.basis.sineCount;
+  const curvature = Math.abs(alpha) * s.sineCurvature; // |alpha|·Σ A_j·ω_j²
+  /** Both ends of the affine vd on the held side, with `margin` to spare. */
+  const holds = (a: number, b: number, margin: number): boolean => {
+    const lo = Math.min(a, b) - margin;
+    const hi = Math.max(a, b) + margin;
+    if (high ? lo < threshold : hi > threshold) return false;
+    return !trackVd || (vdSide ? lo >= 0 : hi < 0);
+  };
+  let held = 0;
+  const sig = p.signal;
+  const knots = sig.noise;
+  if (knots !== null && s.delay === 0) {
+    // Knot-stepping: between noise knots the rest of the input is affine (plus the sines), so
+    // checking vd at each knot is the whole test. Stops at the first knot that fails, at a
+    // breakpoint of the other components, or at the end; the per-piece loop below goes on.
+    s.pieceEnd(t, T); // validates the cache of the other components at t
+    const dt = sig.noiseDt;
+    const margin = (curvature * dt * dt) / 8;
+    const v0 = alpha * m.inputAtStart() + c0;
+    if (holds(v0, v0, margin)) {
+      const lastK = knots.length - 1;
+      let k = Math.floor(t / dt);
+      if ((k + 1) * dt <= t) k++;
+      const pEnd = Math.min(T, sig.partsTo);
+      const refT = sig.partsRefT;
+      const refV = sig.partsRefV;
+      const slope = sig.partsSlope;
+      const sn = s.sineSin;
+      const cs = s.sineCos;
+      let sinceSeed = RESEED;
+      while (k < lastK) {
+        const tb = (k + 1) * dt;
+        if (!(tb > t) || tb >= pEnd) break;
+        let sines = 0;
+        if (sineCount > 0) {
+          if (sinceSeed >= RESEED) {
+            for (let j = 0; j < sineCount; j++) {
+              const phase = omega[j] * tb + sig.sinePhase[j];
+              sn[j] = Math.sin(phase);
+              cs[j] = Math.cos(phase);
+            }
+            sinceSeed = 0;
+          } else {
+            for (let j = 0; j < sineCount; j++) {
+              const a = sn[j];
+              const b = cs[j];
+              sn[j] = a * s.stepCos[j] + b * s.stepSin[j];
+              cs[j] = b * s.stepCos[j] - a * s.stepSin[j];
+            }
+          }
+          sinceSeed++;
+          for (let j = 0; j < sineCount; j++) sines += sig.sineAmp[j] * sn[j];
+        }
+        const b = alpha * (refV + slope * (tb - refT) + knots[k + 1] + sines) + c0;
+        if (!holds(b, b, margin)) break;
+        while (s.sample < ts.length && ts[s.sample] <= tb) out[s.sample++] = V;
+        held += tb - t;
+        t = tb;
+        k++;
+        if ((++s.steps & 1023) === 0) s.checkIn(t);
+      }
+    }
+  }
+  while (t < T) {
+    let tb = s.pieceEnd(t, T);
+    if (sineCount > 0) tb = Math.min(tb, t + s.scan.chunkSine);
+    const h = tb - t;
+    let u0 = U[SLOT_ONE];
+    let u1 = U[SLOT_TAU];
+    for (let j = 0; j < sineCount; j++) {
+      u0 += U[SLOT_SINES + 1 + 2 * j];
+      u1 += omega[j] * U[SLOT_SINES + 2 * j];
+    }
+    const a = alpha * u0 + c0;
+    const b = alpha * (u0 + u1 * h) + c0;
+    if (!holds(a, b, (curvature * h * h) / 2)) break;
+    while (s.sample < ts.length && ts[s.sample] <= tb) out[s.sample++] = V;
+    held += h;
+    t = tb;
+    if ((++s.steps & 1023) === 0) s.checkIn(t);
+  }
+  p.recorder.clippedTime += held;
+  return t;
+}

@@ -1,0 +1,349 @@
+// The default solver: exact piecewise solution of the behavioural op-amp model (DESIGN.md).
+//
+// Between input breakpoints the input is affine in time plus sines, and in each regime
+// (regimes.ts) the model is a linear ODE with a closed-form solution (pieces.ts) on a small
+// basis (basis.ts). A piece starts in the regime its state calls for, runs to its earliest
+// regime exit or the end of the input piece, and reports the monitored crossings inside it;
+// exits and crossings are located by bracketing on the closed form (scan.ts, bracket.ts).
+// Nothing depends on the output sample grid, and a stiff negative-feedback loop costs nothing:
+// a 60 s ramp is a few pieces. The piece loop allocates nothing (events are the only objects
+// created, one per output edge).
+import type { Network } from "../network";
+import type { InputSignal } from "../signals";
+import { MONITOR_VD, type Recorder } from "../measure";
+import { SimCancelled, SimFailed } from "../errors";
+import { SLOT_ONE, SLOT_SINES, SLOT_TAU, type Basis } from "./basis";
+import { ulp } from "./bracket";
+import { PieceModel } from "./pieces";
+import { DRIVE, EXITS, LINEAR, RAIL_HIGH, RAIL_LOW, SLEW_DOWN, SLEW_UP, enterRegime, isRail, levelValues, type Regime } from "./regimes";
+import { Scanner } from "./scan";
+import { holdAtRail } from "./rail-hold";
+
+export interface ExactParams {
+  net: Network;
+  signal: InputSignal;
+  rails: { high: number; low: number };
+  openLoopGain: number;
+  gainBandwidth: number;
+  slewRate: number;
+  slewRateFall: number;
+  propagationDelay: number;
+  duration: number;
+  vo0: number;
+  /** Initial capacitor state x (ignored without one). */
+  x0: number;
+  sampleTimes: Float64Array;
+  output: Float64Array;
+  /** Samples of the capacitor state x at sampleTimes, when the stage has one. */
+  capacitor: Float64Array | null;
+  recorder: Recorder;
+  trackVd: boolean;
+  onProgress?: (fraction: number) => void;
+  shouldCancel?: () => boolean;
+  /** Piece budget over the run; simulate() always passes one. */
+  maxSteps?: number;
+}
+
+/** Relative size below which a condition at the start of a piece is "at the boundary". */
+const AT_BOUNDARY = 1e-12;
+
+export class ExactSolver {
+  readonly model: PieceModel;
+  readonly basis: Basis;
+  readonly scan: Scanner;
+  readonly delay: number;
+  readonly sides = new Uint8Array(4);
+  /** Σ A_j·ω_j² of the sines, and per-sine rotation by ω_j·noiseDt (rail-hold.ts). */
+  readonly sineCurvature: number;
+  readonly sineSin: Float64Array;
+  readonly sineCos: Float64Array;
+  readonly stepSin: Float64Array;
+  readonly stepCos: Float64Array;
+  steps = 0;
+  sample = 0;
+  private readonly levels: Float64Array;
+  private readonly maxSteps: number;
+  private readonly pieceCapSine: number;
+  private readonly G: Float64Array;
+  private readonly scratch: Float64Array;
+  private cap = Infinity;
+
+  constructor(readonly p: ExactParams) {
+    this.maxSteps = p.maxSteps ?? Infinity;
+    this.delay = p.propagationDelay;
+    this.model = new PieceModel(
+      p.net,
+      {
+        openLoopGain: p.openLoopGain,
+        gainBandwidth: p.gainBandwidth,
+        slewRate: p.slewRate,
+        slewRateFall: p.slewRateFall,
+        high: p.rails.high,
+        low: p.rails.low,
+      },
+      p.signal.sineOmega,
+    );
+    this.basis = this.model.basis;
+    this.scan = new Scanner(this.basis);
+    this.levels = levelValues(p.slewRate, p.slewRateFall, p.rails.high, p.rails.low);
+    const m = this.basis.sineCount;
+    const omega = this.basis.omega;
+    let curvature = 0;
+    let wMax = 0;
+    for (let j = 0; j < m; j++) {
+      curvature += Math.abs(p.signal.sineAmp[j]) * omega[j] * omega[j];
+      wMax = Math.max(wMax, omega[j]);
+    }
+    this.sineCurvature = curvature;
+    this.pieceCapSine = wMax > 0 ? (2 * Math.PI) / wMax / 8 : Infinity;
+    this.sineSin = new Float64Array(m);
+    this.sineCos = new Float64Array(m);
+    this.stepSin = new Float64Array(m);
+    this.stepCos = new Float64Array(m);
+    for (let j = 0; j < m; j++) {
+      this.stepSin[j] = Math.sin(omega[j] * p.signal.noiseDt);
+      this.stepCos[j] = Math.cos(omega[j] * p.signal.noiseDt);
+    }
+    this.G = new Float64Array(this.model.size);
+    this.scratch = new Float64Array(this.model.size);
+  }
+
+  get evaluations(): number {
+    return this.basis.evaluations;
+  }
+
+  /** Cancellation, progress and the piece budget, every 1024 pieces. */
+  checkIn(t: number): void {
+    const p = this.p;
+    if (p.shouldCancel?.()) throw new SimCancelled();
+    p.onProgress?.(t / p.duration);
+    if (this.steps > this.maxSteps)
+      throw new SimFailed(
+        `the exact solver used its budget of ${this.maxSteps.toLocaleString("en")} pieces and stopped at t = ${t.toPrecision(4)} s of ${p.duration} s`,
+      );
+  }
+
+  /**
+   * Input coefficients (model.U) of the piece starting at t, seen through the transport delay;
+   * returns the end of the input piece in solver time.
+   */
+  private inputPiece(t: number): number {
+    const U = this.model.U;
+    const sig = this.p.signal;
+    if (!this.model.inputConnected) return Infinity;
+    const ts = t - this.delay;
+    if (ts < 0) {
+      U.fill(0);
+      U[SLOT_ONE] = sig.valueAt(0);
+      return this.delay;
+    }
+    sig.piece(ts);
+    U[SLOT_ONE] = sig.pieceValue;
+    U[SLOT_TAU] = sig.pieceSlope;
+    const omega = this.basis.omega;
+    for (let j = 0; j < omega.length; j++) {
+      const phase = omega[j] * ts + sig.sinePhase[j];
+      U[SLOT_SINES + 2 * j] = sig.sineAmp[j] * Math.cos(phase);
+      U[SLOT_SINES + 1 + 2 * j] = sig.sineAmp[j] * Math.sin(phase);
+    }
+    return sig.pieceEnd + this.delay;
+  }
+
+  /**
+   * Sets up the input piece at t and returns its end (≤ T). A breakpoint closer than the time
+   * resolution at t (it can round onto t after the delay shift) would give an empty piece: the
+   * piece then runs to the next representable time.
+   */
+  pieceEnd(t: number, T: number): number {
+    const e = Math.min(T, this.inputPiece(t));
+    return e > t ? e : Math.min(T, t + ulp(t));
+  }
+
+  /** sign·(quantity − level) of an exit, as coefficients in G. */
+  private exitFunction(regime: Regime, index: number): Float64Array {
+    const e = EXITS[regime][index];
+    const q = e.quantity === DRIVE ? this.model.DRIVE : this.model.VO;
+    const G = this.G;
+    for (let i = 0; i < G.length; i++) G[i] = e.sign * q[i];
+    G[SLOT_ONE] -= e.sign * this.levels[e.level];
+    return G;
+  }
+
+  /**
+   * The regime a piece runs in: the one the state calls for, then, at the same instant, any
+   * exit whose condition already holds at the start, i.e. is past its boundary by more than
+   * rounding, or at the boundary and moving outward (the two regimes have the same motion
+   * there, so the slope decides). A regime is never revisited within one instant.
+   * Leaves model coefficients and `cap` set for the regime returned.
+   */
+  private resolveAtStart(regime: Regime, vo: number, x: number): Regime {
+    let visited = 1 << regime;
+    for (;;) {
+      this.cap = this.model.setup(regime, vo, x);
+      let next = -1;
+      const exits = EXITS[regime];
+      for (let i = 0; i < exits.length && next < 0; i++) {
+        const G = this.exitFunction(regime, i);
+        const g0 = this.basis.valueAtStart(G);
+        const tol = AT_BOUNDARY * this.basis.magnitudeAtStart(G);
+        if (g0 > tol || (g0 >= -tol && this.basis.slopeAtStart(G) > 0)) next = exits[i].to;
+      }
+      if (next < 0 || visited & (1 << next)) return regime;
+      visited |= 1 << next;
+      regime = next as Regime;
+    }
+  }
+
+  run(): void {
+    const p = this.p;
+    const model = this.model;
+    const T = p.duration;
+    const ts = p.sampleTimes;
+    const out = p.output;
+    const cap = p.capacitor;
+    const rec = p.recorder;
+    const levels = rec.levels;
+    const { VO, X, VD, DRIVE: F } = model;
+    const hasState = model.hasState;
+    const Voh = p.rails.high;
+    const Vol = p.rails.low;
+    let t = 0;
+    let vo = p.vo0;
+    let x = hasState ? p.x0 : 0;
+    for (let i = 0; i < 3; i++) this.sides[i] = vo >= levels[i] ? 1 : 0;
+    this.inputPiece(0);
+    {
+      const f0 = model.driveOf(model.inputAtStart(), vo, x);
+      const held = (vo >= Voh && f0 >= 0) || (vo <= Vol && f0 <= 0);
+      rec.startupDirection = held || f0 === 0 ? 0 : f0 > 0 ? 1 : -1;
+      if (p.trackVd) this.sides[MONITOR_VD] = model.vdOf(model.inputAtStart(), vo, x) >= 0 ? 1 : 0;
+    }
+    let stalled = 0;
+    let previousSettledLinear = false;
+    while (t < T) {
+      let tb = this.pieceEnd(t, T);
+      let regime = enterRegime(vo, model.driveOf(model.inputAtStart(), vo, x), this.levels);
+      if (isRail(regime)) this.noteRail(regime, t);
+      if (!hasState && isRail(regime)) {
+        if (rec.startupEnd === Infinity) rec.startupEnd = t;
+        t = holdAtRail(this, t, regime === RAIL_HIGH);
+        previousSettledLinear = false;
+        vo = regime === RAIL_HIGH ? Voh : Vol;
+        if (t >= T) break;
+        tb = this.pieceEnd(t, T);
+        regime = enterRegime(vo, model.driveOf(model.inputAtStart(), vo, x), this.levels);
+      }
+      if (this.basis.sineCount > 0) tb = Math.min(tb, t + this.pieceCapSine);
+      regime = this.resolveAtStart(regime, vo, x);
+      if (isRail(regime)) this.noteRail(regime, t);
+      const h = Math.min(tb - t, this.cap);
+      this.steps++;
+
+      // Earliest regime exit
+      let tx = h;
+      let next = -1;
+      const exits = EXITS[regime];
+      for (let i = 0; i < exits.length; i++) {
+        const tau = this.scan.firstExit(this.exitFunction(regime, i), tx, t);
+        if (tau <= tx) {
+          tx = tau;
+          next = exits[i].to;
+        }
+      }
+      // An exit closer than the time resolution at t would not move the clock.
+      if (!(t + tx > t)) tx = ulp(t);
+      const tEnd = next < 0 && h === tb - t ? tb : Math.min(T, t + tx);
+
+      // Monitored crossings within (0, tx]
+      if (!isRail(regime)) {
+        const G = this.G;
+        for (let lv = 0; lv < 3; lv++) {
+          for (let i = 0; i < G.length; i++) G[i] = VO[i];
+          G[SLOT_ONE] -= levels[lv];
+          this.sides[lv] = this.scan.crossings(G, lv, this.sides[lv] === 1, tx, t, rec) ? 1 : 0;
+        }
+      }
+      if (p.trackVd) this.sides[MONITOR_VD] = this.scan.crossings(VD, MONITOR_VD, this.sides[MONITOR_VD] === 1, tx, t, rec) ? 1 : 0;
+      if (rec.startupEnd === Infinity) this.startupCheck(regime, t, tx);
+      rec.flush();
+
+      // Output (and capacitor) samples inside the piece
+      while (this.sample < ts.length && ts[this.sample] <= tEnd) {
+        const tau = ts[this.sample] - t;
+        const v = this.basis.valueAt(VO, tau);
+        out[this.sample] = v > Voh ? Voh : v < Vol ? Vol : v;
+        if (cap !== null) cap[this.sample] = this.basis.valueAt(X, tau);
+        this.sample++;
+      }
+
+      // Clipping time and slew (the power-on transient does not count towards the slew rate)
+      if (isRail(regime)) rec.clippedTime += tx;
+      else if (t + tx > rec.startupEnd) {
+        if (regime === SLEW_UP) rec.maxSlew = Math.max(rec.maxSlew, p.slewRate);
+        else if (regime === SLEW_DOWN) rec.maxSlew = Math.max(rec.maxSlew, p.slewRateFall);
+        else rec.maxSlew = Math.max(rec.maxSlew, this.scan.maxAbs(F, this.scratch, Math.max(0, rec.startupEnd - t), tx, t));
+      }
+
+      // Advance
+      let voNext = this.basis.valueAt(VO, tx);
+      const xNext = hasState ? this.basis.valueAt(X, tx) : 0;
+      if (next === RAIL_HIGH || voNext > Voh || regime === RAIL_HIGH) voNext = Voh;
+      if (next === RAIL_LOW || voNext < Vol || regime === RAIL_LOW) voNext = Vol;
+      if (!Number.isFinite(voNext) || !Number.isFinite(xNext))
+        throw new SimFailed(`the exact solver reached a non-finite state at t = ${t.toPrecision(6)} s (a degenerate stage: check the resistor and capacitor values)`);
+      const settledLinear = regime === LINEAR && next < 0;
+      if (settledLinear && previousSettledLinear && !p.trackVd && t >= rec.startupEnd) {
+        // Amplifier gain from the solution: output against input increments over linear pieces
+        // that neither follow nor end in a regime change (where the loop's lag would bias it).
+        const du = p.signal.valueAt(Math.max(0, t + tx - this.delay)) - p.signal.valueAt(Math.max(0, t - this.delay));
+        rec.gainCross += du * (voNext - vo);
+        rec.gainInputSquares += du * du;
+      }
+      previousSettledLinear = settledLinear;
+      stalled = tEnd > t ? 0 : stalled + 1;
+      if (stalled > 1000) throw new SimFailed(`the exact solver could not advance past t = ${t} s`);
+      vo = voNext;
+      x = xNext;
+      t = tEnd;
+      if ((this.steps & 1023) === 0 || this.steps > this.maxSteps) this.checkIn(t);
+    }
+    // Any sample left (rounding at the very end) takes the final state.
+    while (this.sample < ts.length) {
+      if (cap !== null) cap[this.sample] = x;
+      out[this.sample++] = vo;
+    }
+  }
+
+  /** First time the output reaches each limit: the input there (amplifier readings). */
+  private noteRail(regime: Regime, t: number): void {
+    const rec = this.p.recorder;
+    if (regime === RAIL_HIGH ? rec.clipInputHigh === rec.clipInputHigh : rec.clipInputLow === rec.clipInputLow) return;
+    const u = this.p.signal.valueAt(Math.max(0, t - this.delay));
+    if (regime === RAIL_HIGH) rec.clipInputHigh = u;
+    else rec.clipInputLow = u;
+  }
+
+  /** End the power-on transient when dvo/dt turns against its initial direction (see Recorder). */
+  private startupCheck(regime: Regime, t0: number, tx: number): void {
+    const rec = this.p.recorder;
+    const dir = rec.startupDirection;
+    if (dir === 0 || isRail(regime)) {
+      rec.startupEnd = t0;
+      return;
+    }
+    if (regime === SLEW_UP || regime === SLEW_DOWN) {
+      if ((regime === SLEW_UP ? 1 : -1) !== dir) rec.startupEnd = t0;
+      return;
+    }
+    const G = this.scratch; // −dir·drive ≥ 0 means moving back
+    const F = this.model.DRIVE;
+    for (let i = 0; i < G.length; i++) G[i] = -dir * F[i];
+    if (this.basis.valueAtStart(G) >= 0) {
+      rec.startupEnd = t0;
+      return;
+    }
+    const tau = this.scan.firstExit(G, tx, t0);
+    if (tau === tau) rec.startupEnd = t0 + tau;
+  }
+}
+
