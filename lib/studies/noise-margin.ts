@@ -82,7 +82,7 @@ export function runNoiseTask(scenario: Scenario, config: NoiseMarginConfig, inde
     return { transitions: 0, hysteresis: null, upperThreshold: null, lowerThreshold: null, failed: true };
   }
   return {
-    transitions: r.metrics.transitions,
+    transitions: r.metrics.transitions ?? 0, // null for amplifier stages (they do not switch)
     hysteresis: r.metrics.hysteresis,
     upperThreshold: r.metrics.upperThreshold,
     lowerThreshold: r.metrics.lowerThreshold,
