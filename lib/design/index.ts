@@ -16,6 +16,8 @@ import {
 } from "./analysis";
 import { contextOf, DesignError, synthesize, type Role } from "./synthesis";
 import { sensorFrontEnd, type SensorSpec } from "./sensors";
+import { circuitWorstCase } from "./spread";
+import { CURRENT_DRAWING_KINDS, parseScenario, type ScenarioInput } from "@/lib/schemas/scenario";
 
 export { worstCase, monteCarlo, stageFigures, thevenin, outputSwing, conditionsOf } from "./analysis";
 export type { Figures, FigureName, Interval, WorstCase, MonteCarloOptions, MonteCarloResult, SpreadOptions, ReferenceDivider } from "./analysis";
@@ -23,9 +25,12 @@ export { DesignError } from "./synthesis";
 export { parseQuantity, formatQuantity, formatRkm } from "./notation";
 export { seriesValues, snapToSeries, seriesInRange, SERIES_TOLERANCE, SERIES_NAMES, type SeriesName } from "./eseries";
 
+/** Parts of the source in front of the stage (the design spec's sensor). */
+export type SourceRole = "sourceTop" | "sourceBottom" | "sourceFixed";
+
 export interface DesignPart {
   ref: string;
-  role: Role;
+  role: Role | SourceRole;
   value: number;
   series: SeriesName;
   /** RKM code for resistors (4K7), engineering notation for capacitors (100 nF). */
@@ -35,10 +40,20 @@ export interface DesignPart {
   note: string;
 }
 
+/**
+ * The scenario-ready stage as a parse gives it: with an "auto" reference it carries
+ * `referenceDivider`; `reference` (and for schmitt-inverting / the oscillator `rReference`) are the
+ * divider's Thevenin values the parse fills in, which a scenario accepts back. They are not parts:
+ * `parts` and the parts list (lib/design/bom) list the divider's two resistors.
+ */
+export type DesignStage = Stage;
+
 export interface DesignResult {
   schema: typeof DESIGN_SCHEMA_ID;
   kind: DesignSpec["kind"];
-  stage: Stage;
+  stage: DesignStage;
+  /** With a `sensor` in the spec: the scenario's `source`, so `{ stage, source }` drop into a scenario. */
+  source?: { sensor: DesignSensor; unit?: string };
   parts: DesignPart[];
   achieved: { upperThreshold: number | null; lowerThreshold: number | null; gain: number | null; hysteresis: number | null; frequency: number | null; dutyCycle: number | null };
   worstCase: Record<FigureName, Interval | null>;
@@ -82,7 +97,69 @@ export function design(input: unknown): DesignResult {
   const parsed = designSpecSchema.safeParse(input);
   if (!parsed.success) throw new DesignSpecError(describeIssues(parsed.error));
   const spec = parsed.data;
-  return spec.sensor ? designWithSensor(spec, spec.sensor) : designVolts(spec);
+  return asBuilt(spec, spec.sensor ? designWithSensor(spec, spec.sensor) : designVolts(spec));
+}
+
+const encodeEnd = (v: number, supply: { positive: number; negative: number }, bottom: boolean) =>
+  v === supply.positive ? "positive" : bottom && v === 0 ? "ground" : v === supply.negative ? "negative" : v;
+
+/**
+ * The circuit as built: the stage with its reference divider (no Thevenin stand-in), the source,
+ * every resistor in `parts`, and the worst case over every part of that network plus the supply
+ * tolerance and the NTC's R25/Beta tolerance (lib/design/spread, the same function the summary and
+ * the tolerance spread study use).
+ */
+function asBuilt(spec: DesignSpec, result: DesignResult): DesignResult {
+  const div = result.reference.divider;
+  let stage: ScenarioInput["stage"] = result.stage;
+  if (div) {
+    const { reference: _r, ...rest } = result.stage as Stage & Record<string, unknown>;
+    void _r;
+    const plain = { ...rest } as Record<string, unknown>;
+    if (result.stage.kind === "schmitt-inverting" || result.stage.kind === "relaxation-oscillator") delete plain.rReference;
+    plain.referenceDivider = {
+      rTop: div.rTop,
+      rBottom: div.rBottom,
+      top: encodeEnd(div.top, spec.supply, false),
+      bottom: encodeEnd(div.bottom, spec.supply, true),
+    };
+    stage = plain as ScenarioInput["stage"];
+  }
+  const parts = [...result.parts];
+  const tolerance = result.assumptions.tolerance;
+  const sensor = spec.sensor;
+  const addPart = (role: SourceRole, value: number, note: string) =>
+    parts.push({ ref: `R${parts.filter((p) => p.ref.startsWith("R")).length + 1}`, role, value, series: spec.series, code: formatRkm(value), tolerance, note });
+  if (sensor?.kind === "divider") {
+    addPart("sourceTop", sensor.rTop, "source divider, source to the sensing node (given in the spec)");
+    addPart("sourceBottom", sensor.rBottom, "source divider, sensing node to 0 V (given in the spec)");
+  } else if (sensor?.kind === "ntc") {
+    addPart("sourceFixed", sensor.rFixed, `fixed resistor of the NTC divider (${sensor.position === "bottom" ? "top" : "bottom"}; given in the spec)`);
+  }
+  const source = sensor ? { sensor } : undefined;
+  if (sensor?.kind === "ntc" && CURRENT_DRAWING_KINDS.includes(spec.kind))
+    throw new DesignError(
+      "sensor",
+      `an NTC cannot feed the ${spec.kind} input: that input draws current and the NTC's resistance changes with temperature; use schmitt-inverting or the comparator (a high-impedance input)`,
+    );
+  const scenario = parseScenario({
+    schema: "railwise.scenario/1",
+    supply: spec.supply,
+    opamp: spec.opamp,
+    stage,
+    ...(source ? { source } : {}),
+    tolerances: { resistor: tolerance, ...(result.assumptions.capacitorTolerance !== undefined ? { capacitor: result.assumptions.capacitorTolerance } : {}) },
+    input: { components: [{ kind: "dc", level: 0 }] },
+    run: { duration: 1, points: 2 },
+  });
+  const wc = circuitWorstCase(scenario, { headroomSpread: result.assumptions.headroomSpread });
+  const worst = { ...result.worstCase };
+  for (const n of FIGURE_NAMES) worst[n] = wc[n];
+  const out: DesignResult = { ...result, stage: scenario.stage, parts, worstCase: worst, ...(source ? { source } : {}) };
+  if (result.sensor) {
+    out.sensor = { ...result.sensor, worstCase: { upperThreshold: wc.sourceUpperThreshold, lowerThreshold: wc.sourceLowerThreshold } };
+  }
+  return out;
 }
 
 export interface SensorReport {
