@@ -121,7 +121,7 @@ export async function buildCli() {
   });
   const code = result.outputFiles[0].text;
   const hash = createHash("sha256").update(code).digest("hex").slice(0, 16);
-  const inputs = Object.keys(result.metafile.inputs).filter((f) => !f.startsWith("node_modules/") && !f.includes(":"));
+  const inputs = Object.keys(result.metafile.inputs).filter((f) => !f.includes("node_modules/") && !f.includes(":"));
   for (const f of readdirSync(outDir))
     if (f.startsWith(".railwise-") && !f.includes(hash)) rmSync(path.join(outDir, f), { force: true });
   // Rename into place so a concurrent run never loads half a file.
