@@ -205,6 +205,19 @@ function memoryGrowth(which: keyof typeof MEMORY_CASES): { growth: number; sampl
   }
 }
 
+const memoryRow = (mem: { growth: number; sampled: number } | null) => [
+  "  peak memory growth (fresh process)",
+  "exact",
+  "",
+  "",
+  "",
+  "",
+  "",
+  mem ? `${mb(mem.growth)} MB (sampled during run ${mb(mem.sampled)} MB)` : "not measured",
+  "< 100 MB",
+  mem ? (mem.growth < 100 * 1048576 ? "yes" : "NO") : "?",
+];
+
 const ms = (x: number) => (x < 10 ? x.toFixed(2) : x < 100 ? x.toFixed(1) : Math.round(x).toLocaleString("en"));
 const mb = (x: number) => (x / 1048576).toFixed(1);
 
@@ -282,18 +295,7 @@ async function coreRows(): Promise<void> {
       "≤ 120 ms",
       noisy.wallMs <= 120 ? "yes" : "NO",
     ],
-    [
-      "  peak memory growth (fresh process)",
-      "exact",
-      "",
-      "",
-      "",
-      "",
-      "",
-      mem ? `${mb(mem.growth)} MB (sampled during run ${mb(mem.sampled)} MB)` : "not measured",
-      "< 100 MB",
-      mem ? (mem.growth < 100 * 1048576 ? "yes" : "NO") : "?",
-    ],
+    memoryRow(mem),
     [
       "60 s ramp, 10 MHz GBW amplifier (stiff)",
       "exact",
@@ -470,18 +472,7 @@ async function sineRows(): Promise<void> {
     );
     if (memoryCase) {
       const mem = memoryGrowth(memoryCase);
-      rows.push([
-        "  peak memory growth (fresh process)",
-        "exact",
-        "",
-        "",
-        "",
-        "",
-        "",
-        mem ? `${mb(mem.growth)} MB (sampled during run ${mb(mem.sampled)} MB)` : "not measured",
-        "< 100 MB",
-        mem ? (mem.growth < 100 * 1048576 ? "yes" : "NO") : "?",
-      ]);
+      rows.push(memoryRow(mem));
     }
   }
   process.stdout.write("\nSine input beside the same model's C loop (this machine, this run)\n" + table(rows) + "\n");
