@@ -319,3 +319,14 @@ export function sourceReadings(lowered: LoweredCircuit, result: Pick<SimResult, 
     metrics: { unit: map.unit, upperThreshold: up, lowerThreshold: low, hysteresis: up !== null && low !== null ? up - low : null },
   };
 }
+
+/**
+ * The result of the lowered run in the as-built terms: with a source, `source` samples,
+ * `events[].source` and `metrics.source` (DESIGN.md result additions). Without one, unchanged.
+ */
+export function attachSourceReadings<R extends SimResult>(lowered: LoweredCircuit, result: R): R {
+  const readings = sourceReadings(lowered, result);
+  if (!readings) return result;
+  const events = result.events.map((e, i) => (readings.events[i] === null ? e : { ...e, source: readings.events[i]! }));
+  return { ...result, source: readings.source, events, metrics: { ...result.metrics, source: readings.metrics } };
+}

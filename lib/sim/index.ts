@@ -8,6 +8,7 @@ import { Recorder, amplifierMetrics, defaultHoldOff, finishMetrics } from "./mea
 import { ExactSolver, type ExactParams } from "./exact";
 import { runOdex } from "./odex-solver";
 import { noiseSegmentCount } from "./noise";
+import { attachSourceReadings, lowerCircuit } from "./circuit";
 
 export { SimCancelled, SimFailed } from "./errors";
 export { defaultInitialOutput, isAmplifierKind, outputLimits } from "./network";
@@ -29,8 +30,12 @@ export function evaluateInput(scenario: Scenario, t: Float64Array): Float64Array
   return evaluateInputSignal(new InputSignal(scenario, tMax), t);
 }
 
-export function simulate(scenario: Scenario, options: SimOptions = {}): SimResult {
+export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult {
   const started = performance.now();
+  // The circuit as built (source, reference divider, output) lowered to the plain stage; filter and
+  // open-drain output fail with SimFailed until the solver has them (lib/sim/circuit).
+  const circuit = lowerCircuit(asBuilt);
+  const scenario = circuit.scenario;
   const solverName: SolverName = options.solver ?? scenario.run.solver ?? "exact";
   const duration = scenario.run.duration;
   const signal = new InputSignal(scenario, duration);
@@ -96,7 +101,7 @@ export function simulate(scenario: Scenario, options: SimOptions = {}): SimResul
     const A0 = op.openLoopGain;
     metrics.amplifier = amplifierMetrics(recorder, (A0 * net.alpha) / (1 - A0 * net.beta));
   }
-  return {
+  return attachSourceReadings(circuit, {
     rails,
     t,
     input,
@@ -105,7 +110,7 @@ export function simulate(scenario: Scenario, options: SimOptions = {}): SimResul
     events: recorder.events,
     metrics,
     solver: { name: solverName, steps, evaluations, wallMs: performance.now() - started },
-  };
+  });
 }
 
 /** Input corners, table points and noise segments over the run, and an oscillator's edges. */
@@ -147,6 +152,7 @@ export function toResultJson(result: SimResult): ResultJson {
       input: plain(result.input),
       output: plain(result.output),
       ...(result.capacitor ? { capacitor: plain(result.capacitor) } : {}),
+      ...(result.source ? { source: plain(result.source) } : {}),
     },
     events: result.events.map((e) => ({ ...e })),
     metrics: { ...result.metrics, ...(result.metrics.amplifier ? { amplifier: { ...result.metrics.amplifier } } : {}) },

@@ -25,6 +25,8 @@ export interface SimEvent {
   edge: "rising" | "falling";
   /** Input (signal incl. noise) at the moment the output crossed mid-level. */
   input: number;
+  /** The source value at the edge, when the scenario has a source (lib/sim/circuit). */
+  source?: number;
 }
 
 /** Readings of an amplifier stage (DESIGN.md "The circuit as built"). */
@@ -49,6 +51,8 @@ export interface SimMetrics {
   dutyCycle: number | null;
   /** Amplifier kinds only. */
   amplifier?: AmplifierMetrics;
+  /** Thresholds in source units, when the scenario has a source (lib/sim/circuit). */
+  source?: { unit: string; upperThreshold: number | null; lowerThreshold: number | null; hysteresis: number | null };
   /** Extras beyond the contract. */
   propagationDelay?: number | null;
   riseTime?: number | null;
@@ -70,6 +74,8 @@ export interface SimResult {
   output: Float64Array;
   /** The timing-capacitor voltage (v−) of a relaxation oscillator. */
   capacitor?: Float64Array;
+  /** The input in source units, when the scenario has a source (lib/sim/circuit). */
+  source?: Float64Array;
   events: SimEvent[];
   metrics: SimMetrics;
   solver: SolverStats;
@@ -78,7 +84,7 @@ export interface SimResult {
 export interface ResultJson {
   schema: "railwise.result/1";
   rails: { high: number; low: number };
-  samples: { t: number[]; input: number[]; output: number[]; capacitor?: number[] };
+  samples: { t: number[]; input: number[]; output: number[]; capacitor?: number[]; source?: number[] };
   events: SimEvent[];
   metrics: SimMetrics;
   solver: SolverStats;

@@ -216,3 +216,30 @@ describe("not yet simulated parts fail clearly", () => {
     expect(lowerCircuit(g, { allowFilter: true }).filter).toEqual({ r: 25e3, c: 1e-6, rVaries: false });
   });
 });
+
+describe("simulate() runs the circuit as built", () => {
+  it("gives samples.source, events[].source and metrics.source in the result JSON", async () => {
+    const { toResultJson } = await import("@/lib/sim");
+    const s = make({
+      stage: { kind: "comparator", reference: 2.5 },
+      source: { quantity: "battery", sensor: { kind: "divider", rTop: 30e3, rBottom: 20e3 } },
+      input: sweep(4, 8),
+    });
+    const json = toResultJson(simulate(s));
+    // 2.5 V at the pin is 2.5·50k/20k = 6.25 V of source (voltage divider rule, common practice, no source)
+    expect(json.metrics.source!.unit).toBe("V");
+    expect(json.metrics.source!.upperThreshold!).toBeCloseTo(6.25, 2);
+    expect(json.events[0].source!).toBeCloseTo(6.25, 2);
+    expect(json.samples.source!.length).toBe(json.samples.t.length);
+    expect(json.samples.source![0]).toBeCloseTo(4, 9);
+    // The stage input is the divider output: 4 V · 0.4 = 1.6 V at t = 0
+    expect(json.samples.input[0]).toBeCloseTo(1.6, 9);
+  });
+
+  it("a plain scenario has no source readings; a filter fails with SimFailed until the solver has it", () => {
+    const r = simulate(make({ input: sweep(0, 5) }));
+    expect(r.source).toBeUndefined();
+    expect(r.metrics.source).toBeUndefined();
+    expect(() => simulate(make({ filter: { r: 10e3, c: 1e-6 } }))).toThrow(SimFailed);
+  });
+});
