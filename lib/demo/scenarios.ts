@@ -54,15 +54,17 @@ const batteryCutoff: ScenarioInput = {
   supply: { positive: 5, negative: 0 },
   opamp: RAIL_TO_RAIL_CMOS_1MHZ,
   stage: { kind: "schmitt-inverting", rReference: 33e3, rFeedback: 680e3, reference: 2.5 },
+  // The battery reaches v− through the 68 k / 18 k divider (a high-impedance input: unloaded).
+  source: { quantity: "battery", unit: "V", sensor: { kind: "divider", rTop: BATTERY_DIVIDER.top, rBottom: BATTERY_DIVIDER.bottom } },
   input: {
-    // A discharge from 13.0 V to 11.0 V over 60 s and a recharge back, seen through the divider.
+    // A discharge from 13.0 V to 11.0 V over 60 s and a recharge back, in battery volts.
     components: [
       {
         kind: "pwl",
         points: [
-          [0, batteryToInput(13.0)],
-          [60, batteryToInput(11.0)],
-          [120, batteryToInput(13.0)],
+          [0, 13.0],
+          [60, 11.0],
+          [120, 13.0],
         ],
       },
     ],
@@ -70,6 +72,19 @@ const batteryCutoff: ScenarioInput = {
     noise: { rms: 0.004, bandwidth: 50, seed: 11 },
   },
   run: { duration: 120, points: 6000, initialOutput: "low" },
+  tolerances: { resistor: 0.01 },
+  spec: {
+    schema: "railwise.design-spec/1",
+    name: "Battery cut at 11.4 V, reconnect at 12.5 V",
+    kind: "schmitt-inverting",
+    supply: { positive: 5, negative: 0 },
+    opamp: RAIL_TO_RAIL_CMOS_1MHZ,
+    target: { upperThreshold: 12.5, lowerThreshold: 11.4 },
+    series: "E24",
+    tolerance: 0.01,
+    reference: 2.5,
+    sensor: { kind: "divider", rTop: BATTERY_DIVIDER.top, rBottom: BATTERY_DIVIDER.bottom },
+  },
 };
 
 // ---------------------------------------------------------------------------------------------
@@ -131,11 +146,12 @@ const referenceTop = 7.5e3;
 const referenceBottom = 6.8e3;
 
 function temperatureProfile(): [number, number][] {
-  // The pen warms from 16 °C to 20.5 °C over 5 minutes and cools back: one point per 10 s.
+  // In °C: the pen warms from 16 °C to 20.5 °C over an afternoon hour and cools back the next
+  // hour, with a slow swell; one point per 5 minutes.
   const points: [number, number][] = [];
-  for (let t = 0; t <= 600; t += 10) {
-    const celsius = t <= 300 ? 16 + (4.5 * t) / 300 : 20.5 - (4.5 * (t - 300)) / 300;
-    points.push([t, ntcNodeVolts(celsius)]);
+  for (let t = 0; t <= 7200; t += 300) {
+    const ramp = t <= 3600 ? 16 + (4.5 * t) / 3600 : 20.5 - (4.5 * (t - 3600)) / 3600;
+    points.push([t, round(ramp + 0.15 * Math.sin((2 * Math.PI * t) / 1800), 4)]);
   }
   return points;
 }
@@ -147,15 +163,33 @@ const waterTemperatureAlarm: ScenarioInput = {
   opamp: RAIL_TO_RAIL_CMOS_1MHZ,
   stage: {
     kind: "schmitt-inverting",
-    rReference: round((referenceTop * referenceBottom) / (referenceTop + referenceBottom), 3),
     rFeedback: 200e3,
-    reference: round((5 * referenceBottom) / (referenceTop + referenceBottom)),
+    referenceDivider: { rTop: referenceTop, rBottom: referenceBottom },
+  },
+  source: {
+    quantity: "water temperature",
+    unit: "°C",
+    sensor: { kind: "ntc", model: { beta: NTC.beta, r25: NTC.r25 }, rFixed: NTC.seriesTop, position: "bottom" },
   },
   input: {
     components: [{ kind: "pwl", points: temperatureProfile() }],
-    noise: { rms: 0.003, bandwidth: 5, seed: 3 },
+    // Pick-up at the stage input (volts), well inside the 87 mV deadband.
+    noise: { rms: 0.003, bandwidth: 1, seed: 3 },
   },
-  run: { duration: 600, points: 6000, initialOutput: "low" },
+  run: { duration: 7200, points: 6000, initialOutput: "low" },
+  tolerances: { resistor: 0.01, ntcR25: 0.01, ntcBeta: 0.01 },
+  spec: {
+    schema: "railwise.design-spec/1",
+    name: "Alarm above 19 °C, clears below 17.5 °C",
+    kind: "schmitt-inverting",
+    supply: { positive: 5, negative: 0 },
+    opamp: RAIL_TO_RAIL_CMOS_1MHZ,
+    target: { upperThreshold: 19, lowerThreshold: 17.5 },
+    series: "E24",
+    tolerance: 0.01,
+    reference: "auto",
+    sensor: { kind: "ntc", model: { beta: NTC.beta, r25: NTC.r25 }, rFixed: NTC.seriesTop, position: "bottom" },
+  },
 };
 
 // ---------------------------------------------------------------------------------------------
