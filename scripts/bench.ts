@@ -494,6 +494,24 @@ const CLI_SCENARIO = JSON.stringify({
   run: { duration: 0.02, points: 101 },
 });
 
+const CLI_SPEC = JSON.stringify({
+  schema: "railwise.design-spec/1",
+  kind: "schmitt-inverting",
+  supply: { positive: 5, negative: 0 },
+  opamp: {
+    openLoopGain: 2e5,
+    gainBandwidth: 1e6,
+    slewRate: 1e6,
+    outputHeadroomHigh: 0.05,
+    outputHeadroomLow: 0.05,
+    inputOffset: 0,
+  },
+  target: { upperThreshold: 3.1, lowerThreshold: 1.9 },
+  series: "E24",
+  tolerance: 0.01,
+  reference: "auto",
+});
+
 const medianOf = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
 /** Wall time of whole processes started with spawnSync (includes the fork from this process). */
@@ -566,6 +584,16 @@ function cliRows(): void {
       hf === null ? "(hyperfine not installed or failed)" : ms(hf),
       "< 150 ms",
       Number.isFinite(med) ? (med < 150 && (hf === null || hf < 150) ? "yes" : "NO") : "?",
+    ]);
+    const designRun = spawnTimes([bin, "design", "-"], CLI_SPEC, 20);
+    rows.push([
+      "node build/cli/railwise.cjs design - (Schmitt spec; includes the synthesis work itself)",
+      String(designRun.times.length),
+      designRun.problem ? `failed: ${designRun.problem}` : ms(medianOf(designRun.times)),
+      designRun.times.length ? ms(Math.min(...designRun.times)) : "",
+      "",
+      "",
+      "",
     ]);
     rows.push([
       "  node -e 0 (Node's own start, for context)",

@@ -73,7 +73,7 @@ const CODE = ${JSON.stringify(code)};
     cachedData = fs.readFileSync(cacheFile);
   } catch {}
   const script = new vm.Script(require("node:module").wrap(CODE), { filename: __filename, cachedData });
-  if (cachedData === undefined || script.cachedDataRejected) {
+  if (cachedData === undefined || script.cachedDataRejected || process.env.RAILWISE_CLI_REWRITE_CACHE === "1") {
     process.once("exit", () => {
       const tmp = cacheFile + "." + process.pid + ".tmp";
       try {
@@ -89,15 +89,40 @@ const CODE = ${JSON.stringify(code)};
 `;
 }
 
-// A small scenario run once after each build, so the code cache holds the simulate path
-// compiled (the design path compiles lazily on its first use, as usual).
+// A small scenario and a small spec run once after each build, so the code cache holds both
+// the simulate and the design path compiled (the second run adds to the cache the first wrote).
 const WARM_SCENARIO = JSON.stringify({
   schema: "railwise.scenario/1",
   supply: { positive: 12, negative: 0 },
-  opamp: { openLoopGain: 1e5, gainBandwidth: 3e6, slewRate: 5e6, outputHeadroomHigh: 0.1, outputHeadroomLow: 0.1, inputOffset: 0 },
+  opamp: {
+    openLoopGain: 1e5,
+    gainBandwidth: 3e6,
+    slewRate: 5e6,
+    outputHeadroomHigh: 0.1,
+    outputHeadroomLow: 0.1,
+    inputOffset: 0,
+  },
   stage: { kind: "schmitt-noninverting", rInput: 22e3, rFeedback: 220e3, reference: 6 },
   input: { components: [{ kind: "sine", amplitude: 3, frequency: 50, offset: 6 }] },
   run: { duration: 0.04, points: 201 },
+});
+
+const WARM_SPEC = JSON.stringify({
+  schema: "railwise.design-spec/1",
+  kind: "schmitt-noninverting",
+  supply: { positive: 12, negative: 0 },
+  opamp: {
+    openLoopGain: 1e5,
+    gainBandwidth: 3e6,
+    slewRate: 5e6,
+    outputHeadroomHigh: 0.1,
+    outputHeadroomLow: 0.1,
+    inputOffset: 0,
+  },
+  target: { upperThreshold: 7, lowerThreshold: 5 },
+  series: "E12",
+  tolerance: 0.05,
+  reference: "auto",
 });
 
 export async function buildCli() {
@@ -130,11 +155,15 @@ export async function buildCli() {
   renameSync(tmp, bundlePath);
   writeFileSync(`${inputsPath}.${process.pid}.tmp`, JSON.stringify(inputs, null, 1) + "\n");
   renameSync(`${inputsPath}.${process.pid}.tmp`, inputsPath);
-  spawnSync(process.execPath, [bundlePath, "simulate", "-"], {
-    input: WARM_SCENARIO,
-    stdio: ["pipe", "ignore", "ignore"],
-    timeout: 60_000,
-  });
+  const warm = (args, input, env) =>
+    spawnSync(process.execPath, [bundlePath, ...args], {
+      input,
+      env: { ...process.env, ...env },
+      stdio: ["pipe", "ignore", "ignore"],
+      timeout: 60_000,
+    });
+  warm(["simulate", "-"], WARM_SCENARIO, {});
+  warm(["design", "-"], WARM_SPEC, { RAILWISE_CLI_REWRITE_CACHE: "1" });
   return { bundlePath, inputs: inputs.length, bytes: statSync(bundlePath).size };
 }
 

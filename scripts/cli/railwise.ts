@@ -21,6 +21,12 @@ export async function main(argv: string[]): Promise<void> {
   else fail(64, [command === undefined ? "missing command" : `unknown command ${JSON.stringify(command)}`, ...USAGE]);
 }
 
+// A reader that stops early (`railwise simulate x.json | head`) is not an error.
+process.stdout.on("error", (e: NodeJS.ErrnoException) => {
+  if (e.code === "EPIPE") process.exit(0);
+  throw e;
+});
+
 main(process.argv.slice(2)).catch((e: unknown) => {
   // Not a user error (those exit above with a message): a fault in Railwise itself.
   process.stderr.write(`railwise: internal error: ${e instanceof Error ? (e.stack ?? e.message) : String(e)}\n`);

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, rmSync, statSync, utimesSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 
@@ -133,6 +133,23 @@ describe("simulate CLI", { timeout: 120_000 }, () => {
     expect(bad.stdout).toBe("");
     expect(bad.stderr).toContain("run.duration");
     expect(bad.stderr).not.toMatch(/\n\s+at /); // no stack trace
+  });
+
+  it("npm run simulate rebuilds a bin older than its sources before running it", () => {
+    const inputs: string[] = JSON.parse(readFileSync(path.join(path.dirname(bin), "inputs.json"), "utf8"));
+    expect(inputs).toContain("scripts/cli/simulate-command.ts");
+    const newest = Math.max(...inputs.map((f) => statSync(path.join(root, f)).mtimeMs));
+    const old = new Date(newest - 3_600_000);
+    utimesSync(bin, old, old); // the bundle now looks an hour older than its newest source
+    const r = spawnSync("npm", ["run", "-s", "simulate", "--", "-"], {
+      cwd: root,
+      input: JSON.stringify(good),
+      encoding: "utf8",
+      timeout: 120_000,
+    });
+    expect(r.status, r.stderr).toBe(0);
+    expect(JSON.parse(r.stdout).schema).toBe("railwise.result/1");
+    expect(statSync(bin).mtimeMs).toBeGreaterThanOrEqual(newest);
   });
 
   it("the source entry (tsx scripts/simulate.ts) gives the same result as the bin", () => {
