@@ -136,6 +136,8 @@ export async function runForLinkToken({ token }: { token: string }) {
   await RunLink.increment("useCount", { by: 1, where: { id: link.id } });
   const scenarioName = (run.scenario as { name?: string } | null)?.name ?? null;
   return {
+    /** Server-side only (the share page checks whether a signed-in visitor is of this team). */
+    teamId: run.teamId as string,
     scenarioName,
     id: run.id,
     label: run.label,

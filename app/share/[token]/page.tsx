@@ -6,6 +6,7 @@ import { SharedRun } from "@/components/review/shared-run";
 import { AppError } from "@/lib/server/errors";
 import { runForLinkToken } from "@/lib/server/review";
 import type { RunRecord } from "@/lib/client/hooks";
+import { getPageUser } from "@/lib/page-session";
 
 export const metadata: Metadata = { title: "Shared run", robots: { index: false, follow: false } };
 // Checked on every request: a revoked or expired link stops working at once.
@@ -16,9 +17,16 @@ export default async function SharedRunPage({ params }: { params: Promise<{ toke
   const { token } = await params;
   let run: RunRecord;
   let expiresAt: string | null = null;
+  let scenarioName: string | null = null;
+  let sameTeam = false;
+  let signedIn = false;
   try {
     const shared = await runForLinkToken({ token });
     expiresAt = shared.link.expiresAt;
+    scenarioName = shared.scenarioName;
+    const viewer = await getPageUser().catch(() => null);
+    signedIn = !!viewer;
+    sameTeam = !!viewer && viewer.teamId === shared.teamId;
     // Only the run itself crosses to the browser: no scenario or team ids, no author.
     run = {
       id: shared.id,
@@ -46,14 +54,25 @@ export default async function SharedRunPage({ params }: { params: Promise<{ toke
             <span className="text-ink-mute">
               Read-only run link{expiresAt ? ` · valid until ${expiresAt.replace("T", " ").slice(0, 16)} UTC` : ""}
             </span>
-            {/* Team members who got the link can sign in and land on the run to comment or sign off. */}
-            <Link href={`/signin?callbackUrl=${encodeURIComponent(`/runs/${run.id}`)}`} className="font-medium text-copper hover:underline">
-              Team member? Sign in to review
-            </Link>
+            {/* A member of the run's team goes straight to the run; others may sign in to review. */}
+            {sameTeam ? (
+              <Link href={`/runs/${run.id}`} className="font-medium text-copper hover:underline">
+                Open this run in your team space to review
+              </Link>
+            ) : signedIn ? null : (
+              <Link href={`/signin?callbackUrl=${encodeURIComponent(`/runs/${run.id}`)}`} className="font-medium text-copper hover:underline">
+                Team member? Sign in to review
+              </Link>
+            )}
           </div>
         </div>
       </header>
       <main className="mx-auto w-full max-w-7xl flex-1 px-4 py-5 sm:px-6">
+        {scenarioName && (
+          <p className="mb-1 text-[13px] text-ink-mute" data-testid="shared-scenario-name">
+            Scenario: <span className="font-medium text-ink">{scenarioName}</span>
+          </p>
+        )}
         <SharedRun run={run} />
       </main>
       <footer className="mx-auto w-full max-w-7xl px-4 pb-5 text-[12px] text-ink-faint sm:px-6">

@@ -6,7 +6,10 @@ export async function GET(_request: Request, { params }: { params: Promise<{ tok
   try {
     const { token } = await params;
     // no-store: a revoked link must stop working at once, also behind caches.
-    return Response.json(await runForLinkToken({ token }), { headers: { "cache-control": "no-store" } });
+    // The team id stays on the server: a link holder sees the run, nothing of the team.
+    const { teamId: _teamId, ...shared } = await runForLinkToken({ token });
+    void _teamId;
+    return Response.json(shared, { headers: { "cache-control": "no-store" } });
   } catch (err) {
     return errorResponse(err);
   }
