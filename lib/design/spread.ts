@@ -28,6 +28,12 @@ export interface CircuitSpreadOptions {
   headroomSpread?: number;
   /** Offset magnitude swept ± around 0 V; default: the part's own offset, corners at ±|Vos|. */
   offset?: number;
+  /**
+   * Also vary the parts that do not move the DC figures but do move a simulated run (the filter
+   * capacitor, the filter resistor on high-impedance inputs): the tolerance spread study draws
+   * every resistor and capacitor.
+   */
+  everyPart?: boolean;
 }
 
 export interface CircuitFigures extends Figures {
@@ -66,10 +72,15 @@ export function spreadVariables(scenario: Scenario, options: CircuitSpreadOption
     add("source.sensor.rBottom", tol.resistor);
   } else if (sensor?.kind === "ntc") {
     add("source.sensor.rFixed", tol.resistor);
-    add("source.sensor.model.r25", tol.ntcR25);
-    if ("beta" in sensor.model) add("source.sensor.model.beta", tol.ntcBeta);
+    // R25 and Beta tolerances apply to a Beta-model NTC (the maker's data); a curve given by
+    // Steinhart–Hart coefficients or points is taken as measured.
+    if ("beta" in sensor.model) {
+      add("source.sensor.model.r25", tol.ntcR25);
+      add("source.sensor.model.beta", tol.ntcBeta);
+    }
   }
-  if (scenario.filter && CURRENT_DRAWING_KINDS.includes(scenario.stage.kind)) add("filter.r", tol.resistor);
+  if (scenario.filter && (options.everyPart || CURRENT_DRAWING_KINDS.includes(scenario.stage.kind))) add("filter.r", tol.resistor);
+  if (scenario.filter && options.everyPart) add("filter.c", tol.capacitor);
   if (scenario.output?.kind === "open-drain") add("output.pullUp", tol.resistor);
   const supplyTol = scenario.supply.tolerance ?? 0;
   if (scenario.supply.positive !== 0) add("supply.positive", supplyTol);
@@ -277,3 +288,27 @@ export function circuitMonteCarlo(scenario: Scenario, draws: number, seed: numbe
 }
 
 export type { FigureName };
+
+/**
+ * The scenario with each variable at nominal·(1 + tolerance·u) (the input offset at |Vos|·u):
+ * the same draw the corner search and circuitFigures make, as a scenario to simulate. A reference
+ * divider's filled Thevenin values are recomputed by lib/sim/circuit from the varied divider.
+ */
+export function perturbScenario(scenario: Scenario, u: Record<string, number>, options: CircuitSpreadOptions = {}): Scenario {
+  const vars = spreadVariables(scenario, options);
+  const out = structuredClone({ ...scenario, input: undefined }) as unknown as Record<string, unknown>;
+  out.input = scenario.input;
+  const offsetMag = Math.abs(options.offset ?? scenario.opamp.inputOffset);
+  for (const v of vars) {
+    const x = u[v.name];
+    if (x === undefined) continue;
+    const path = v.name.split(".");
+    let obj = out as Record<string, unknown>;
+    for (const key of path.slice(0, -1)) obj = obj[key] as Record<string, unknown>;
+    const leaf = path[path.length - 1];
+    if (v.name === "opamp.inputOffset") obj[leaf] = offsetMag * x;
+    else obj[leaf] = (obj[leaf] as number) * (1 + v.tolerance * x);
+  }
+  if (options.offset !== undefined && u["opamp.inputOffset"] === undefined) (out.opamp as Record<string, unknown>).inputOffset = 0;
+  return out as unknown as Scenario;
+}

@@ -2,7 +2,7 @@
 // sensor), a reference divider, an RC filter and an output stage to the plain scenario the solver
 // understands, plus the pieces the solver needs (filter node, output stage) and the mapping that
 // reads results back in source units. Pure TypeScript: no React, Next or database.
-import { CURRENT_DRAWING_KINDS, type InputComponent, type Scenario, type Stage } from "@/lib/schemas/scenario";
+import { CURRENT_DRAWING_KINDS, referenceDividerThevenin, type InputComponent, type Scenario, type Stage } from "@/lib/schemas/scenario";
 import { sensorFrontEnd, type SensorSpec } from "@/lib/design/sensors";
 import { InputSignal, evaluateInputSignal } from "./signals";
 import { SimFailed } from "./errors";
@@ -217,6 +217,12 @@ function plainStage(stage: Stage, scenario: Scenario, seriesInput: number): Stag
   const { referenceDivider, ...st } = stage as Stage & { referenceDivider?: unknown };
   const out = { ...st } as Record<string, unknown>;
   const div = scenario.stage.referenceDivider;
+  if (div) {
+    // From the divider itself (a varied draw may have changed it after the parse filled these).
+    const th = referenceDividerThevenin(div, scenario.supply);
+    out.reference = th.voltage;
+    if (stage.kind === "schmitt-inverting" || stage.kind === "relaxation-oscillator") out.rReference = th.resistance;
+  }
   if (div && stage.kind === "noninverting-amplifier") {
     // The reference connects through rGround: its Thevenin resistance sits in series (DESIGN.md).
     out.rGround = stage.rGround + parallel(div.rTop, div.rBottom);

@@ -1,19 +1,16 @@
-// Worst-case corners for the tolerance spread, from lib/design's closed forms, in the same
+// Worst-case corners for the tolerance spread, from lib/design/spread's corner search, in the same
 // figures (and units) the Monte Carlo measures by simulation.
 import type { Scenario } from "@/lib/schemas/scenario";
-import { worstCase } from "@/lib/design";
+import { circuitWorstCase } from "@/lib/design/spread";
 import type { ToleranceSpreadConfig } from "./schema";
-import type { Corners } from "./tolerance-spread";
+import { studyScenario, studySpreadOptions, type Corners } from "./tolerance-spread";
 
+/** The corners of the same model the draws sample (lib/design/spread): every part, the supply and the NTC. */
 export function studyCorners(scenario: Scenario, config: ToleranceSpreadConfig | undefined): Corners {
   if (!config) return {};
   let wc;
   try {
-    wc = worstCase(scenario.stage, scenario.opamp, scenario.supply, config.resistorTolerance, {
-      offset: config.offsetTolerance,
-      headroomSpread: config.headroomSpread,
-      capacitorTolerance: config.capacitorTolerance ?? config.resistorTolerance,
-    });
+    wc = circuitWorstCase(studyScenario(scenario, config), { ...studySpreadOptions(config), everyPart: false });
   } catch {
     return {}; // a stage the closed forms cannot bound: the histogram is shown without corners
   }

@@ -8,45 +8,41 @@ import type { DrawOutput, Measure, ToleranceSpreadConfig } from "./schema";
 import { createStream, drawDeviation, taskSeed } from "./random";
 import { studyRunSettings } from "./grid";
 import { histogram, summarize, wilsonInterval, type Histogram, type Summary } from "./stats";
+import { perturbScenario, spreadVariables, type CircuitSpreadOptions } from "@/lib/design/spread";
+import { sourceMap } from "@/lib/sim/circuit";
 
-/** Fixed draw order: a role absent from the stage still consumes its draw, so the stream of
- * every other figure does not depend on the topology. */
-export const PART_ROLES = ["rInput", "rFeedback", "rReference", "rGround", "rTiming", "cTiming"] as const;
-export type PartRole = (typeof PART_ROLES)[number];
+// The spread model is lib/design/spread's (so its corners bracket these draws): every resistor
+// and capacitor of the circuit as built — stage, reference divider, source divider or NTC (R25,
+// Beta, fixed resistor), filter, pull-up — at nominal·(1 + tol·u), the supply at ±supply.tolerance,
+// the input offset at offsetTolerance·u around zero, each output headroom at
+// nominal·(1 + headroomSpread·u), u ∈ [−1, 1]. Resistor and capacitor tolerances come from the
+// study configuration; the reference, NTC and supply tolerances from the scenario.
 
-// The spread model follows lib/design's worst case (so its corners bracket these draws):
-// each resistor (and cTiming) at nominal·(1 + tol·u), the input offset at offsetTolerance·u
-// around zero, each output headroom at nominal·(1 + headroomSpread·u), u ∈ [−1, 1].
-export interface Perturbation {
-  /** Relative deviation per part role (fraction, e.g. −0.0031). */
-  resistors: Partial<Record<PartRole, number>>;
-  inputOffset: number;
-  outputHeadroomHigh: number;
-  outputHeadroomLow: number;
+/** The study's tolerances applied to the scenario (the scenario's own for the rest). */
+export function studyScenario(scenario: Scenario, config: ToleranceSpreadConfig): Scenario {
+  return {
+    ...scenario,
+    tolerances: { ...(scenario.tolerances ?? {}), resistor: config.resistorTolerance, capacitor: config.capacitorTolerance ?? config.resistorTolerance },
+  };
 }
+
+export const studySpreadOptions = (config: ToleranceSpreadConfig): CircuitSpreadOptions => ({
+  offset: config.offsetTolerance,
+  headroomSpread: config.headroomSpread,
+  everyPart: true,
+});
 
 export function toleranceTaskCount(config: ToleranceSpreadConfig): number {
   return 1 + config.draws;
 }
 
-/** Deviations of task `index` (task 0: none). */
-export function drawPerturbation(scenario: Scenario, config: ToleranceSpreadConfig, index: number): Perturbation {
-  const { opamp, stage } = scenario;
-  if (index === 0) {
-    return { resistors: {}, inputOffset: opamp.inputOffset, outputHeadroomHigh: opamp.outputHeadroomHigh, outputHeadroomLow: opamp.outputHeadroomLow };
-  }
+/** Unit deviations u per varied quantity for task `index` (task 0: none, the nominal circuit). */
+export function drawPerturbation(scenario: Scenario, config: ToleranceSpreadConfig, index: number): Record<string, number> {
+  if (index === 0) return {};
   const s = createStream(taskSeed(config.seed, index));
-  const d = () => drawDeviation(s, config.distribution);
-  const resistors: Perturbation["resistors"] = {};
-  for (const role of PART_ROLES) {
-    const tol = role === "cTiming" ? (config.capacitorTolerance ?? config.resistorTolerance) : config.resistorTolerance;
-    const dev = d() * tol;
-    if (role in stage) resistors[role] = dev;
-  }
-  const inputOffset = d() * config.offsetTolerance;
-  const outputHeadroomHigh = opamp.outputHeadroomHigh * (1 + d() * config.headroomSpread);
-  const outputHeadroomLow = opamp.outputHeadroomLow * (1 + d() * config.headroomSpread);
-  return { resistors, inputOffset, outputHeadroomHigh, outputHeadroomLow };
+  const u: Record<string, number> = {};
+  for (const v of spreadVariables(studyScenario(scenario, config), studySpreadOptions(config))) u[v.name] = drawDeviation(s, config.distribution);
+  return u;
 }
 
 /** True when the stage's output goes high for a high input (the probe then starts low). */
@@ -63,25 +59,35 @@ function outputFollowsInput(stage: Stage): boolean {
 }
 
 export function toleranceTaskScenario(scenario: Scenario, config: ToleranceSpreadConfig, index: number): Scenario {
-  const p = drawPerturbation(scenario, config, index);
-  const stage = { ...scenario.stage } as Record<string, unknown>;
-  for (const [role, dev] of Object.entries(p.resistors)) stage[role] = (stage[role] as number) * (1 + dev);
-  const opamp = { ...scenario.opamp, inputOffset: p.inputOffset, outputHeadroomHigh: p.outputHeadroomHigh, outputHeadroomLow: p.outputHeadroomLow };
+  const u = drawPerturbation(scenario, config, index);
+  const varied = index === 0 ? scenario : perturbScenario(studyScenario(scenario, config), u, studySpreadOptions(config));
+  const { stage, opamp } = varied;
   // The spread of the parts is the question, not the noise: the probe never carries noise.
   const { noise: _dropped, ...ownInput } = scenario.input;
   let input: Scenario["input"] = ownInput;
   let run = scenario.run;
   if (config.probe.kind === "triangle") {
-    const { low, high } = config.probe;
+    let { low, high } = config.probe;
+    let follows = outputFollowsInput(scenario.stage);
+    // The probe is in stage-input volts; with a source the input is in source units, so the
+    // sweep runs between the source values that give those volts (nominal sensor).
+    const map = sourceMap(scenario);
+    if (map) {
+      const a = map.toSource(low);
+      const b = map.toSource(high);
+      if (a === null || b === null) throw new RangeError(`probe: ${low} V … ${high} V is outside what the ${map.unit} source can give at the stage input`);
+      [low, high] = [Math.min(a, b), Math.max(a, b)];
+      if (map.inverted) follows = !follows;
+    }
     // One sweep over the run: phase 270° starts the triangle at its minimum (DESIGN.md:
     // a triangle equals its offset at t = 0 and rises first; the phase shifts it).
     input = {
       components: [{ kind: "triangle", amplitude: (high - low) / 2, offset: (high + low) / 2, frequency: 1 / scenario.run.duration, phase: 270 }],
     };
-    run = { ...run, initialOutput: outputFollowsInput(scenario.stage) ? "low" : "high" };
+    run = { ...run, initialOutput: follows ? "low" : "high" };
   }
   run = studyRunSettings(run, config.measures.includes("gain"));
-  return { ...scenario, stage: stage as Stage, opamp, input, run };
+  return { ...varied, tolerances: scenario.tolerances, stage, opamp, input, run };
 }
 
 /**
