@@ -478,17 +478,19 @@ async function sineRows(): Promise<void> {
   process.stdout.write("\nSine input beside the same model's C loop (this machine, this run)\n" + table(rows) + "\n");
 }
 
+const CLI_OPAMP = {
+  openLoopGain: 2e5,
+  gainBandwidth: 1e6,
+  slewRate: 1e6,
+  outputHeadroomHigh: 0.05,
+  outputHeadroomLow: 0.05,
+  inputOffset: 0,
+};
+
 const CLI_SCENARIO = JSON.stringify({
   schema: "railwise.scenario/1",
   supply: { positive: 5, negative: 0 },
-  opamp: {
-    openLoopGain: 2e5,
-    gainBandwidth: 1e6,
-    slewRate: 1e6,
-    outputHeadroomHigh: 0.05,
-    outputHeadroomLow: 0.05,
-    inputOffset: 0,
-  },
+  opamp: CLI_OPAMP,
   stage: { kind: "comparator", inputAt: "noninverting", reference: 2.5 },
   input: { components: [{ kind: "triangle", amplitude: 2, frequency: 100, offset: 2.5 }] },
   run: { duration: 0.02, points: 101 },
@@ -498,14 +500,7 @@ const CLI_SPEC = JSON.stringify({
   schema: "railwise.design-spec/1",
   kind: "schmitt-inverting",
   supply: { positive: 5, negative: 0 },
-  opamp: {
-    openLoopGain: 2e5,
-    gainBandwidth: 1e6,
-    slewRate: 1e6,
-    outputHeadroomHigh: 0.05,
-    outputHeadroomLow: 0.05,
-    inputOffset: 0,
-  },
+  opamp: CLI_OPAMP,
   target: { upperThreshold: 3.1, lowerThreshold: 1.9 },
   series: "E24",
   tolerance: 0.01,

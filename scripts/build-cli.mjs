@@ -91,17 +91,19 @@ const CODE = ${JSON.stringify(code)};
 
 // A small scenario and a small spec run once after each build, so the code cache holds both
 // the simulate and the design path compiled (the second run adds to the cache the first wrote).
+const WARM_OPAMP = {
+  openLoopGain: 1e5,
+  gainBandwidth: 3e6,
+  slewRate: 5e6,
+  outputHeadroomHigh: 0.1,
+  outputHeadroomLow: 0.1,
+  inputOffset: 0,
+};
+
 const WARM_SCENARIO = JSON.stringify({
   schema: "railwise.scenario/1",
   supply: { positive: 12, negative: 0 },
-  opamp: {
-    openLoopGain: 1e5,
-    gainBandwidth: 3e6,
-    slewRate: 5e6,
-    outputHeadroomHigh: 0.1,
-    outputHeadroomLow: 0.1,
-    inputOffset: 0,
-  },
+  opamp: WARM_OPAMP,
   stage: { kind: "schmitt-noninverting", rInput: 22e3, rFeedback: 220e3, reference: 6 },
   input: { components: [{ kind: "sine", amplitude: 3, frequency: 50, offset: 6 }] },
   run: { duration: 0.04, points: 201 },
@@ -111,14 +113,7 @@ const WARM_SPEC = JSON.stringify({
   schema: "railwise.design-spec/1",
   kind: "schmitt-noninverting",
   supply: { positive: 12, negative: 0 },
-  opamp: {
-    openLoopGain: 1e5,
-    gainBandwidth: 3e6,
-    slewRate: 5e6,
-    outputHeadroomHigh: 0.1,
-    outputHeadroomLow: 0.1,
-    inputOffset: 0,
-  },
+  opamp: WARM_OPAMP,
   target: { upperThreshold: 7, lowerThreshold: 5 },
   series: "E12",
   tolerance: 0.05,
