@@ -12,7 +12,10 @@ import { StageTable, SupplyTable, PartProfileTable, InputTable } from "@/compone
 import { STAGE_KIND_LABEL } from "@/components/scenario/stage-labels";
 import { errorMessage } from "@/lib/client/fetcher";
 import { personName, useBoard, useRun, useRuns, useScenario } from "@/lib/client/hooks";
-import { conditionsOf, stageFigures, worstCase, type FigureName } from "@/lib/design/analysis";
+import type { FigureName } from "@/lib/design/analysis";
+import { circuitWorstCase, type CircuitWorstCase } from "@/lib/design/spread";
+import { sourceMap } from "@/lib/sim/circuit";
+import { PartsList } from "@/components/circuit/parts-list";
 import { formatQuantity } from "@/lib/design/notation";
 import { scenarioSchema, type Scenario } from "@/lib/schemas/scenario";
 import { StageDiagram } from "./stage-diagram";
@@ -36,7 +39,7 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
   const { data: record, error, isLoading } = useScenario(scenarioId);
   const board = useBoard(record?.boardId);
   const runs = useRuns(scenarioId);
-  const [tolerance, setTolerance] = useState(0.01);
+  const [toleranceChoice, setTolerance] = useState<number | null>(null);
 
   const scenario: Scenario | null = useMemo(() => {
     if (!record) return null;
@@ -44,18 +47,24 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
     return p.success ? p.data : null;
   }, [record]);
 
+  // The scenario's own resistor tolerance unless the reader picks another one here.
+  const tolerance = toleranceChoice ?? scenario?.tolerances?.resistor ?? 0.01;
   const figures = useMemo(() => {
     if (!scenario) return null;
-    const nominal = stageFigures(scenario.stage, conditionsOf(scenario.opamp, scenario.supply));
-    let worst: ReturnType<typeof worstCase> | null = null;
+    // One worst case (lib/design/spread): every part of the circuit as built, the supply and NTC
+    // tolerances — the same figures the design panel and the tolerance spread study give.
+    const spreadScenario = { ...scenario, tolerances: { ...(scenario.tolerances ?? {}), resistor: tolerance } };
+    let worst: CircuitWorstCase | null = null;
     let problem: string | null = null;
     try {
-      worst = worstCase(scenario.stage, scenario.opamp, scenario.supply, tolerance);
+      worst = circuitWorstCase(spreadScenario);
     } catch (e) {
       problem = e instanceof Error ? e.message : String(e);
     }
-    const names = (Object.keys(FIGURE_LABEL) as FigureName[]).filter((n) => nominal[n] !== null);
-    return { nominal, worst, names, problem };
+    const nominal = worst?.nominal ?? null;
+    const names = nominal ? (Object.keys(FIGURE_LABEL) as FigureName[]).filter((n) => nominal[n] !== null) : [];
+    const map = sourceMap(scenario);
+    return { nominal, worst, names, problem, unit: map?.unit ?? null, quantity: map?.quantity ?? null };
   }, [scenario, tolerance]);
 
   const latestId = useMemo(() => [...(runs.data?.items ?? [])].sort((a, b) => (a.createdAt < b.createdAt ? 1 : -1))[0]?.id ?? null, [runs.data]);
@@ -147,12 +156,27 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
             </tr>
           </thead>
           <tbody>
+            {figures.unit && figures.worst
+              ? (["sourceUpperThreshold", "sourceLowerThreshold"] as const).map((n) => (
+                  <tr key={n} className="border-b border-paper-line/60" data-figure={n}>
+                    <td className="py-1 text-ink-soft">
+                      {n === "sourceUpperThreshold" ? "Upper switching point" : "Lower switching point"}, {figures.quantity ?? "source"} ({figures.unit})
+                    </td>
+                    <td className="py-1 text-right font-mono">{show(figures.worst!.nominal[n], figures.unit!)}</td>
+                    <td className="py-1 text-right font-mono">{show(figures.worst![n]?.[0], figures.unit!)}</td>
+                    <td className="py-1 text-right font-mono">{show(figures.worst![n]?.[1], figures.unit!)}</td>
+                  </tr>
+                ))
+              : null}
             {figures.names.map((n) => {
               const w = figures.worst?.[n] ?? null;
               return (
                 <tr key={n} className="border-b border-paper-line/60">
-                  <td className="py-1 text-ink-soft">{FIGURE_LABEL[n].label}</td>
-                  <td className="py-1 text-right font-mono">{show(figures.nominal[n], FIGURE_LABEL[n].unit)}</td>
+                  <td className="py-1 text-ink-soft">
+                    {FIGURE_LABEL[n].label}
+                    {figures.unit && FIGURE_LABEL[n].unit === "V" ? " at the stage input" : ""}
+                  </td>
+                  <td className="py-1 text-right font-mono">{show(figures.nominal?.[n], FIGURE_LABEL[n].unit)}</td>
                   <td className="py-1 text-right font-mono">{show(w?.[0], FIGURE_LABEL[n].unit)}</td>
                   <td className="py-1 text-right font-mono">{show(w?.[1], FIGURE_LABEL[n].unit)}</td>
                 </tr>
@@ -163,9 +187,10 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
         <p className="mt-1 text-[11.5px] text-ink-mute">
           {figures.problem
             ? `Worst case not available: ${figures.problem}`
-            : `Corners over resistor tolerance, input offset ±${formatQuantity(Math.abs(scenario.opamp.inputOffset), "V")} and ±20 % output headroom (${figures.worst?.corners ?? 0} corners).`}
+            : `Corners over every part of the circuit (${figures.worst?.varied.map((v) => v.name).join(", ") || "none"}), input offset ±${formatQuantity(Math.abs(scenario.opamp.inputOffset), "V")} and ±20 % output headroom (${figures.worst?.corners ?? 0} corners).`}
         </p>
       </section>
+      <PartsList scenario={scenario} fileName={`${record.name.replace(/[^\w.-]+/g, "-")}-parts.csv`} />
       <section>
         <h2 className="mb-1 text-[13px] font-semibold uppercase tracking-wide text-ink-soft">Measurements</h2>
         {latest && measured ? (
