@@ -31,7 +31,11 @@ const api = {
         : undefined,
     });
     if (onProgress) void onProgress(1);
-    return Comlink.transfer(result, [result.t.buffer, result.input.buffer, result.output.buffer] as ArrayBuffer[]);
+    // Every sample column goes over by transfer, the oscillator's capacitor included when present.
+    const extra = (result as { capacitor?: unknown }).capacitor;
+    const buffers = [result.t.buffer, result.input.buffer, result.output.buffer];
+    if (extra instanceof Float64Array && !buffers.includes(extra.buffer)) buffers.push(extra.buffer);
+    return Comlink.transfer(result, buffers as ArrayBuffer[]);
   },
 };
 

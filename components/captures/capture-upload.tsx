@@ -5,7 +5,7 @@ import { Button } from "@/components/ui/button";
 import { Field, Select, TextInput } from "@/components/ui/field";
 import { Table, TBody, TD, TH, THead, TR } from "@/components/ui/table";
 import { HttpError, errorMessage } from "@/lib/client/fetcher";
-import { CAPTURE_MAX_BYTES, CaptureError, inspectCsv, parseCapture, TIME_UNIT_SCALE, type TimeUnit } from "@/lib/captures/parse";
+import { CAPTURE_MAX_BYTES, CaptureError, delimiterName, inspectCsv, parseCapture, TIME_UNIT_SCALE, type TimeUnit } from "@/lib/captures/parse";
 import { CaptureSparkline } from "./capture-sparkline";
 
 interface Loaded {
@@ -15,6 +15,8 @@ interface Loaded {
   hasHeader: boolean;
   preview: string[][];
   rows: number;
+  delimiter: string;
+  decimalComma: boolean;
 }
 
 const UNIT_LABEL: Record<TimeUnit, string> = { s: "seconds", ms: "milliseconds", us: "microseconds", ns: "nanoseconds" };
@@ -171,7 +173,10 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
               </TBody>
             </Table>
             <p className="border-t border-paper-line px-3 py-1.5 text-[12px] text-ink-mute">
-              First {loaded.preview.length} of {loaded.rows.toLocaleString("en")} data rows{loaded.hasHeader ? " (header row detected)" : " (no header row)"}.
+              First {loaded.preview.length} of {loaded.rows.toLocaleString("en")} data rows{loaded.hasHeader ? " (header row detected)" : " (no header row)"}.{" "}
+              <span data-testid="capture-detected">
+                Detected: {delimiterName(loaded.delimiter)}-separated{loaded.decimalComma ? ", decimal commas (1,5 = 1.5)" : ""}.
+              </span>
             </p>
           </div>
 

@@ -20,10 +20,14 @@ export interface LoopPlotProps {
   onCursor?: (idx: number | null) => void;
   height?: number;
   fileName?: string;
+  /** Scenario and run lines printed on an exported PNG. */
+  exportTitle?: string[];
+  /** Legend words for the threshold lines. */
+  thresholdLabel?: string;
 }
 
 export function LoopPlot(props: LoopPlotProps) {
-  const { input, output, t, rails, thresholds, cursorIdx, onCursor, height = 300, fileName = "loop.png" } = props;
+  const { input, output, t, rails, thresholds, cursorIdx, onCursor, height = 300, fileName = "loop.png", exportTitle, thresholdLabel = "designed switching points" } = props;
   const box = useRef<HTMLDivElement>(null);
   const marker = useRef<HTMLDivElement | null>(null);
   const emitted = useRef<number | null>(null);
@@ -146,17 +150,18 @@ export function LoopPlot(props: LoopPlotProps) {
 
   const reset = () => plot.current?.setScale("x", { min: xr.current[0], max: xr.current[1] });
   const i = cursorIdx != null && cursorIdx < input.length ? cursorIdx : null;
+  const legend = [
+    { color: PLOT_COLORS.output, label: "output vs input" },
+    ...(thresholds && (thresholds.upper != null || thresholds.lower != null) ? [{ color: PLOT_COLORS.threshold, label: thresholdLabel, dashed: true }] : []),
+    { color: PLOT_COLORS.rail, label: "output limits", dashed: true },
+  ];
 
   return (
     <div className="min-w-0" data-testid="loop-plot">
       <PlotToolbar
-        legend={[
-          { color: PLOT_COLORS.output, label: "output vs input" },
-          { color: PLOT_COLORS.threshold, label: "designed switching points", dashed: true },
-          { color: PLOT_COLORS.rail, label: "output limits", dashed: true },
-        ]}
+        legend={legend}
         onReset={reset}
-        onPng={() => plot.current && exportPlotPng(plot.current, "Loop — output against input", fileName)}
+        onPng={() => plot.current && exportPlotPng(plot.current, { title: "Loop — output against input", lines: exportTitle, legend, xUnit: "V (input)", yUnit: "V (output)" }, fileName)}
       />
       <div ref={box} className="min-w-0" />
       <Readout

@@ -5,7 +5,7 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import type uPlot from "uplot";
 import type { SimEvent } from "@/lib/sim/types";
-import { PlotToolbar, Readout, cursorItems } from "./plot-chrome";
+import { PlotToolbar, Readout, cursorItems, type LegendItem } from "./plot-chrome";
 import { exportPlotPng } from "./export";
 import { PLOT_COLORS, axis, hLine, siTicks, tagRight, useUPlot, wheelPan } from "./use-uplot";
 
@@ -21,13 +21,31 @@ export interface TimePlotProps {
   onFirstDraw?: () => void;
   height?: number;
   fileName?: string;
+  /** Timing-capacitor voltage (v−) of a relaxation oscillator, drawn as a third line. */
+  capacitor?: Float64Array | null;
+  /** Legend words for the threshold lines ("designed switching points" by default). */
+  thresholdLabel?: string;
+  /** Mark the measured output edges (off for amplifiers: they do not switch). */
+  showEdges?: boolean;
+  /** Title, scenario and run lines printed on an exported PNG. */
+  exportTitle?: string[];
 }
 
 export function TimePlot(props: TimePlotProps) {
-  const { t, input, output, rails, thresholds, events = [], cursorIdx, onCursor, onFirstDraw, height = 300, fileName = "trace.png" } = props;
+  const { t, input, output, rails, thresholds, cursorIdx, onCursor, onFirstDraw, height = 300, fileName = "trace.png", capacitor = null, showEdges = true, exportTitle } = props;
+  const events = useMemo(() => (showEdges ? (props.events ?? []) : []), [showEdges, props.events]);
+  const thresholdLabel = props.thresholdLabel ?? "designed switching points";
   const box = useRef<HTMLDivElement>(null);
   const emitted = useRef<number | null>(null);
   const view = useDisplayColumns(t, input, output);
+  // The capacitor follows the same display thinning as input and output.
+  const capView = useMemo(() => {
+    if (!capacitor || !view || capacitor.length !== t.length) return null;
+    if (!view.index) return capacitor;
+    const out = new Float64Array(view.index.length);
+    for (let j = 0; j < out.length; j++) out[j] = capacitor[view.index[j]];
+    return out;
+  }, [capacitor, view, t.length]);
   const cb = useRef({ onCursor, onFirstDraw });
   cb.current = { onCursor, onFirstDraw };
 
@@ -47,6 +65,7 @@ export function TimePlot(props: TimePlotProps) {
           {},
           { label: "input", stroke: PLOT_COLORS.input, width: 1.4 },
           { label: "output", stroke: PLOT_COLORS.output, width: 1.8 },
+          ...(capView ? [{ label: "capacitor", stroke: PLOT_COLORS.capacitor, width: 1.4 }] : []),
         ],
         axes: [axis({ values: siTicks("s"), size: 34 }), axis({ values: siTicks("V"), size: 64, label: "volts", labelSize: 16 })],
         plugins: [wheelPan()],
@@ -59,11 +78,11 @@ export function TimePlot(props: TimePlotProps) {
               tagRight(u, rails.low, "Vol", PLOT_COLORS.rail);
               if (thresholds?.upper != null) {
                 hLine(u, thresholds.upper, PLOT_COLORS.threshold, [7, 4]);
-                tagRight(u, thresholds.upper, "upper, designed", PLOT_COLORS.threshold);
+                tagRight(u, thresholds.upper, capView ? "upper level" : "upper, designed", PLOT_COLORS.threshold);
               }
               if (thresholds?.lower != null && thresholds.lower !== thresholds.upper) {
                 hLine(u, thresholds.lower, PLOT_COLORS.threshold, [7, 4]);
-                tagRight(u, thresholds.lower, "lower, designed", PLOT_COLORS.threshold, "y", "below");
+                tagRight(u, thresholds.lower, capView ? "lower level" : "lower, designed", PLOT_COLORS.threshold, "y", "below");
               }
             },
           ],
@@ -90,9 +109,10 @@ export function TimePlot(props: TimePlotProps) {
           ],
         },
       };
-      return { opts, data: [view.t, view.input, view.output] as unknown as uPlot.AlignedData };
+      const cols = capView ? [view.t, view.input, view.output, capView] : [view.t, view.input, view.output];
+      return { opts, data: cols as unknown as uPlot.AlignedData };
     },
-    [view, rails.high, rails.low, thresholds?.upper, thresholds?.lower, events, height],
+    [view, capView, rails.high, rails.low, thresholds?.upper, thresholds?.lower, events, height],
   );
 
   // A cursor set by the other plot moves ours (without echoing it back).
@@ -126,22 +146,24 @@ export function TimePlot(props: TimePlotProps) {
   };
 
   const i = cursorIdx != null && cursorIdx < t.length ? cursorIdx : null;
+  const legend: LegendItem[] = [
+    { color: PLOT_COLORS.input, label: "input" },
+    { color: PLOT_COLORS.output, label: "output" },
+    ...(capView ? [{ color: PLOT_COLORS.capacitor, label: "capacitor (v−)" }] : []),
+    ...(thresholds && (thresholds.upper != null || thresholds.lower != null) ? [{ color: PLOT_COLORS.threshold, label: thresholdLabel, dashed: true }] : []),
+    { color: PLOT_COLORS.rail, label: "output limits", dashed: true },
+    ...(showEdges ? [{ color: PLOT_COLORS.event, label: "measured edges", tick: true }] : []),
+  ];
   return (
-    <div className="min-w-0" data-testid="trace-plot">
+    <div className="min-w-0" data-testid="trace-plot" data-series={legend.map((l) => l.label).join("|")}>
       <PlotToolbar
-        legend={[
-          { color: PLOT_COLORS.input, label: "input" },
-          { color: PLOT_COLORS.output, label: "output" },
-          { color: PLOT_COLORS.threshold, label: "designed switching points", dashed: true },
-          { color: PLOT_COLORS.rail, label: "output limits", dashed: true },
-          { color: PLOT_COLORS.event, label: "measured edges", tick: true },
-        ]}
+        legend={legend}
         onZoomIn={() => zoom(0.5)}
         onZoomOut={() => zoom(2)}
         onPanLeft={() => pan(-0.25)}
         onPanRight={() => pan(0.25)}
         onReset={reset}
-        onPng={() => plot.current && exportPlotPng(plot.current, "Trace — input and output against time", fileName)}
+        onPng={() => plot.current && exportPlotPng(plot.current, { title: "Trace — input and output against time", lines: exportTitle, legend, xUnit: "s", yUnit: "V" }, fileName)}
       />
       <div ref={box} className="min-w-0" />
       <Readout

@@ -5,6 +5,7 @@
 import { useEffect, useRef, type DependencyList, type RefObject } from "react";
 import uPlot from "uplot";
 import "uplot/dist/uPlot.min.css";
+import { formatTicks } from "@/lib/design/notation";
 
 export function useUPlot(
   container: RefObject<HTMLDivElement | null>,
@@ -55,38 +56,21 @@ export function useUPlot(
   return plot;
 }
 
-/** Tick labels in the SI prefix that suits the visible span: 0, 20 ms, 40 ms … */
+/**
+ * Tick labels in engineering notation (lib/design/notation formatTicks): one SI prefix per axis,
+ * enough decimals for each tick's own value. The labels are also written to the plot's root as
+ * data-ticks-<axis> so a reader (or a browser test) can see what the canvas shows.
+ */
 export function siTicks(unit: string) {
-  return (_u: uPlot, splits: number[]): string[] => {
-    let span = 0;
-    for (const v of splits) span = Math.max(span, Math.abs(v));
-    const [scale, prefix] = pickPrefix(span);
-    const step = splits.length > 1 ? Math.abs(splits[1] - splits[0]) / scale : 1;
-    const dec = Math.max(0, Math.min(6, -Math.floor(Math.log10(step || 1) + 1e-9)));
-    return splits.map((v) => `${(v / scale).toFixed(dec)} ${prefix}${unit}`.trim());
+  return (u: uPlot, splits: number[], axisIdx?: number): string[] => {
+    const labels = formatTicks(splits, unit);
+    if (u?.root && axisIdx !== undefined) u.root.dataset[`ticks${axisIdx}`] = labels.join("|");
+    return labels;
   };
 }
 
-export function pickPrefix(span: number): [number, string] {
-  if (span >= 1e6) return [1e6, "M"];
-  if (span >= 1e3) return [1e3, "k"];
-  if (span >= 1 || span === 0) return [1, ""];
-  if (span >= 1e-3) return [1e-3, "m"];
-  if (span >= 1e-6) return [1e-6, "µ"];
-  return [1e-9, "n"];
-}
 
-/** [min, max] of a column in one pass (no spread of a million arguments). */
-export function extent(a: ArrayLike<number>): [number, number] {
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (let i = 0; i < a.length; i++) {
-    const v = a[i];
-    if (v < lo) lo = v;
-    if (v > hi) hi = v;
-  }
-  return [lo, hi];
-}
+export { extent } from "@/lib/workbench/extent";
 
 export const PLOT_COLORS = {
   input: "#3b4fa8",
@@ -96,6 +80,7 @@ export const PLOT_COLORS = {
   grid: "#eceee8",
   axis: "#3b4556",
   event: "#8a3d1a",
+  capacitor: "#2f7d7a",
 };
 
 /**

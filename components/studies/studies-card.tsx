@@ -10,7 +10,6 @@ import { Section, SelectRow, Tabs } from "@/components/workbench/controls";
 import { QuantityField } from "@/components/workbench/quantity-field";
 import { errorMessage } from "@/lib/client/fetcher";
 import { runStudyInPool, StudyCancelled, defaultPoolSize } from "@/lib/client/study-pool";
-import { conditionsOf, stageFigures } from "@/lib/design";
 import type { Scenario } from "@/lib/schemas/scenario";
 import { estimateCaptureNoise, type CaptureNoiseEstimate } from "@/lib/studies/capture-noise";
 import { studyCorners } from "@/lib/studies/corners";
@@ -24,8 +23,9 @@ import {
   type StudyUpload,
   type ToleranceSpreadConfig,
 } from "@/lib/studies/schema";
-import { defaultMeasures, summarizeToleranceSpread, type ToleranceSpreadSummary } from "@/lib/studies/tolerance-spread";
+import { summarizeToleranceSpread, type ToleranceSpreadSummary } from "@/lib/studies/tolerance-spread";
 import { MEASURE_LABEL, MEASURE_UNIT } from "./study-plots";
+import { inputRange, studyIssueText, suggestNoise, suggestTolerance } from "@/lib/workbench/study-suggest";
 import { NoiseMarginResult, ToleranceSpreadResult, fmtV } from "./study-readouts";
 
 type StudyTab = "noise" | "tolerance";
@@ -49,70 +49,13 @@ export interface StudiesCardProps {
   saveBlocked: string | null;
   /** Create a run of the saved scenario and store the study with it; resolves to the run id. */
   onSave: (upload: StudyUpload) => Promise<string>;
+  /** Asked before a study runs; false stops it (the workbench refuses while fields are invalid). */
+  beforeRun?: () => boolean;
 }
 
 function captureOf(s: Scenario) {
   for (const c of s.input.components) if (c.kind === "capture") return c.samples;
   return null;
-}
-
-/** Two significant figures, so suggested values read like ones an engineer would type. */
-function twoFigures(v: number): number {
-  if (!(v > 0)) return v;
-  const p = 10 ** (Math.floor(Math.log10(v)) - 1);
-  return Math.round(v / p) * p;
-}
-
-function suggestNoise(s: Scenario, capture: CaptureNoiseEstimate | null) {
-  const f = stageFigures(s.stage, conditionsOf(s.opamp, s.supply));
-  const deadband = f.hysteresis && f.hysteresis > 0 ? f.hysteresis : 0.01 * (s.supply.positive - s.supply.negative);
-  // Sweep to half the deadband: far past the 6.6 × rms rule, so the edge shows on the chart.
-  const rmsTo = twoFigures(deadband / 2);
-  return {
-    rmsFrom: twoFigures(rmsTo / 20),
-    rmsTo,
-    levels: 20,
-    seedsPerLevel: 50,
-    bandwidth: twoFigures(capture?.bandwidth ?? s.input.noise?.bandwidth ?? 1000 / s.run.duration),
-    limit: 0.01,
-    seed: 1,
-  };
-}
-
-function suggestTolerance(s: Scenario) {
-  const f = stageFigures(s.stage, conditionsOf(s.opamp, s.supply));
-  const measures = defaultMeasures(s.stage);
-  const window: Partial<Record<Measure, [number, number]>> = {};
-  const nominal: Partial<Record<Measure, number | null>> = {
-    upperThreshold: f.upperThreshold,
-    lowerThreshold: f.lowerThreshold,
-    gain: f.gain,
-    period: f.frequency ? 1 / f.frequency : null,
-  };
-  for (const m of measures) {
-    const v = nominal[m];
-    if (v !== null && v !== undefined && Number.isFinite(v)) window[m] = [v - Math.abs(v) * 0.02, v + Math.abs(v) * 0.02];
-  }
-  return {
-    draws: 1000,
-    resistorTolerance: 0.01,
-    offsetTolerance: Math.abs(s.opamp.inputOffset) || 1e-3,
-    headroomSpread: 0.2,
-    distribution: "uniform" as "uniform" | "normal",
-    probe: "scenario" as "scenario" | "triangle",
-    measures,
-    window,
-    seed: 1,
-  };
-}
-
-function inputRange(s: Scenario): [number, number] {
-  const f = stageFigures(s.stage, conditionsOf(s.opamp, s.supply));
-  const pts = [f.upperThreshold, f.lowerThreshold].filter((v): v is number => v !== null && Number.isFinite(v));
-  if (pts.length === 0) return [s.supply.negative, s.supply.positive];
-  const lo = Math.min(...pts), hi = Math.max(...pts);
-  const pad = Math.max(0.25 * (hi - lo), 0.05 * (s.supply.positive - s.supply.negative));
-  return [lo - pad, hi + pad];
 }
 
 /** Progress lives outside React state: only the bar re-renders, never the forms and charts. */
@@ -154,7 +97,7 @@ function StudyProgress({ store, onCancel }: { store: ProgressStore; onCancel: ()
 const NoiseResultMemo = memo(NoiseMarginResult);
 const ToleranceResultMemo = memo(ToleranceSpreadResult);
 
-export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps) {
+export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: StudiesCardProps) {
   const [tab, setTab] = useState<StudyTab>("noise");
   const [noise, setNoise] = useState<NoiseDone | null>(null);
   const [tolerance, setTolerance] = useState<ToleranceDone | null>(null);
@@ -186,6 +129,7 @@ export function StudiesCard({ scenario, saveBlocked, onSave }: StudiesCardProps)
 
   async function run(which: StudyTab, config: NoiseMarginConfig | ToleranceSpreadConfig) {
     if (!scenario) return;
+    if (beforeRun && !beforeRun()) return;
     setError(null);
     setSaved(null);
     setRunning(which);
@@ -362,7 +306,7 @@ function NoiseForm({ scenario, capture, busy, onRun }: { scenario: Scenario; cap
         )}
       </Section>
       <div className="flex items-center justify-between gap-2 px-3 pb-3">
-        <span className="text-[12px] text-ink-mute">{parsed.success ? `${(1 + f.levels * f.seedsPerLevel).toLocaleString("en")} runs` : <span className="text-alert">{parsed.error.issues[0]?.message}</span>}</span>
+        <span className="text-[12px] text-ink-mute">{parsed.success ? `${(1 + f.levels * f.seedsPerLevel).toLocaleString("en")} runs` : <span className="text-alert">{studyIssueText(parsed.error.issues)}</span>}</span>
         <Button type="submit" size="sm" variant="primary" disabled={busy || !parsed.success} data-testid="run-noise-study">
           Run study
         </Button>
@@ -428,7 +372,7 @@ function ToleranceForm({ scenario, busy, onRun }: { scenario: Scenario; busy: bo
         ))}
       </Section>
       <div className="flex items-center justify-between gap-2 px-3 pb-3">
-        <span className="text-[12px] text-ink-mute">{parsed.success ? `${(1 + f.draws).toLocaleString("en")} runs` : <span className="text-alert">{parsed.error.issues[0]?.message}</span>}</span>
+        <span className="text-[12px] text-ink-mute">{parsed.success ? `${(1 + f.draws).toLocaleString("en")} runs` : <span className="text-alert">{studyIssueText(parsed.error.issues)}</span>}</span>
         <Button type="submit" size="sm" variant="primary" disabled={busy || !parsed.success} data-testid="run-tolerance-study">
           Run spread
         </Button>

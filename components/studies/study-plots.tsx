@@ -127,7 +127,7 @@ export function SpreadHistogram({ spread, height = 190, fileName }: { spread: Me
         cursor: { drag: { x: false, y: false } },
         scales: { x: { time: false, range: [edges[0], edges[edges.length - 1]] }, y: { range: [0, maxCount * 1.12] } },
         axes: [
-          axis({ values: unit ? siTicks(unit) : (_u, s) => s.map((v) => v.toPrecision(4)), size: 30 }),
+          axis({ values: siTicks(unit ?? ""), size: 30 }),
           axis({ size: 40, values: (_u, s) => s.map((v) => (Number.isInteger(v) ? String(v) : "")) }),
         ],
         series: [

@@ -8,24 +8,25 @@ import { sendJson } from "@/lib/client/fetcher";
 import { runsKey, type RunRecord } from "@/lib/client/hooks";
 import { scenarioSchema } from "@/lib/schemas/scenario";
 import type { StudyUpload } from "@/lib/studies/schema";
-import { useWb } from "@/components/workbench/store";
+import { useWb, useWbApi } from "@/components/workbench/store";
+import { refuseIfInvalid } from "@/components/workbench/field-problems";
 import { StudiesCard } from "./studies-card";
 
 export function WorkbenchStudies() {
   const draft = useWb((s) => s.draft);
-  const saved = useWb((s) => s.saved);
+  const api = useWbApi();
   const scenarioId = useWb((s) => s.scenarioId);
   const { mutate } = useSWRConfig();
   const scenario = useMemo(() => {
     const r = scenarioSchema.safeParse(draft);
     return r.success ? r.data : null;
   }, [draft]);
-  const dirty = useMemo(() => draft !== saved && JSON.stringify(draft) !== JSON.stringify(saved), [draft, saved]);
+  const dirty = useWb((s) => s.revision !== s.savedRevision);
   const onSave = async (upload: StudyUpload) => {
     const run = await sendJson<RunRecord>("/api/runs", "POST", { scenarioId, label: "with studies" });
     await sendJson(`/api/runs/${run.id}/study`, "PUT", upload);
     await mutate(runsKey(scenarioId));
     return run.id;
   };
-  return <StudiesCard scenario={scenario} saveBlocked={dirty ? "Save the scenario first: the run is made from the saved version." : null} onSave={onSave} />;
+  return <StudiesCard scenario={scenario} beforeRun={() => !refuseIfInvalid(api, ["scenario", "study"], "Study run")} saveBlocked={dirty ? "Save the scenario first: the run is made from the saved version." : null} onSave={onSave} />;
 }

@@ -13,6 +13,7 @@ import { Button } from "@/components/ui/button";
 import { QuantityField } from "./quantity-field";
 import { MiniButton, Section, SelectRow } from "./controls";
 import { useWb, useWbApi } from "./store";
+import { refuseIfInvalid } from "./field-problems";
 import { frontEndOf, sensorToInput, type SensorSetup, SensorFields, defaultSensor } from "./spec-sensors";
 
 type TargetMode = "thresholds" | "threshold" | "gain" | "frequency";
@@ -93,9 +94,12 @@ export function FromSpecPanel() {
     }
   }, [sensor, form.upper, form.lower, form.threshold, usesSensor]);
 
+  const specInvalid = useWb((s) => Object.values(s.fieldProblems).some((p) => p.scope === "spec"));
+
   const run = () => {
     setProblem(null);
     setResult(null);
+    if (refuseIfInvalid(api, ["spec"], "Find parts")) return;
     let target: Record<string, number> = {};
     if (mode === "thresholds" && mapped) {
       // A sensor that falls as the quantity rises (NTC at the bottom) swaps the two points.
@@ -125,6 +129,7 @@ export function FromSpecPanel() {
 
   const apply = () => {
     if (!result) return;
+    if (refuseIfInvalid(api, ["spec"], "Apply to stage")) return;
     edit((d) => {
       d.stage = result.stage;
     });
@@ -145,8 +150,22 @@ export function FromSpecPanel() {
         {usesSensor ? <SensorFields sensor={sensor} onChange={(s) => (setSensor(s), setResult(null))} /> : null}
         {mode === "thresholds" ? (
           <>
-            <QuantityField label={`Upper (${sensorUnitLabel(sensor)})`} name="spec.upper" unit={sensorUnit(sensor)} value={form.upper} onCommit={set("upper")} />
-            <QuantityField label={`Lower (${sensorUnitLabel(sensor)})`} name="spec.lower" unit={sensorUnit(sensor)} value={form.lower} onCommit={set("lower")} />
+            <QuantityField
+              label={`Upper (${sensorUnitLabel(sensor)})`}
+              name="spec.upper"
+              unit={sensorUnit(sensor)}
+              value={form.upper}
+              onCommit={set("upper")}
+              validate={(v) => (v > form.lower ? null : `must be above Lower (${formatQuantity(form.lower, sensorUnit(sensor), 4)})`)}
+            />
+            <QuantityField
+              label={`Lower (${sensorUnitLabel(sensor)})`}
+              name="spec.lower"
+              unit={sensorUnit(sensor)}
+              value={form.lower}
+              onCommit={set("lower")}
+              validate={(v) => (v < form.upper ? null : `must be below Upper (${formatQuantity(form.upper, sensorUnit(sensor), 4)})`)}
+            />
           </>
         ) : null}
         {mode === "threshold" ? (
@@ -230,7 +249,7 @@ export function FromSpecPanel() {
           </ul>
         ) : null}
       </Section>
-      {result ? <DesignResultView result={result} onApply={apply} /> : null}
+      {result ? <DesignResultView result={result} onApply={apply} outOfDate={specInvalid} /> : null}
     </div>
   );
 }
@@ -251,11 +270,29 @@ const FIGURES: { key: keyof DesignResult["achieved"]; label: string; unit: strin
   { key: "dutyCycle", label: "Duty cycle", unit: "" },
 ];
 
-function DesignResultView({ result, onApply }: { result: DesignResult; onApply: () => void }) {
+function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult; onApply: () => void; outOfDate: boolean }) {
   const rows = FIGURES.filter((f) => result.achieved[f.key] != null);
   const show = (v: number | null | undefined, unit: string) => (unit ? fmtV(v, unit) : v == null ? "—" : `${(100 * v).toFixed(1)} %`);
   return (
-    <Section title="Proposal" aside={<MiniButton onClick={onApply} className="border-copper text-copper-deep" data-testid="apply-design">Apply to stage</MiniButton>}>
+    <Section
+      title="Proposal"
+      aside={
+        <MiniButton
+          onClick={onApply}
+          disabled={outOfDate}
+          title={outOfDate ? "Out of date: a spec field above is invalid. Fix it and press Find parts again." : undefined}
+          className="border-copper text-copper-deep"
+          data-testid="apply-design"
+        >
+          Apply to stage
+        </MiniButton>
+      }
+    >
+      {outOfDate ? (
+        <p className="mb-1.5 rounded border-l-[3px] border-caution bg-caution-soft/70 px-2 py-1 text-[12px]" data-testid="proposal-out-of-date">
+          Out of date: a spec field above is invalid. Fix it and press Find parts again.
+        </p>
+      ) : null}
       <table className="mb-2 w-full border-collapse text-[12.5px]" data-testid="design-parts">
         <thead>
           <tr className="border-b border-paper-line text-left text-[11px] text-ink-mute">

@@ -2,7 +2,8 @@
 // A value typed the way engineers write it — 4.7k, 100n, 2.2M, 10µ or RKM 4K7, 2R2 — with the
 // parsed value shown beside it. The text is local; only a value that parses reaches the store.
 import { useEffect, useId, useRef, useState } from "react";
-import { formatQuantity, parseQuantity } from "@/lib/design/notation";
+import { formatQuantity, parseQuantity, quantityProblem } from "@/lib/design/notation";
+import { useReportFieldProblem } from "./field-problems";
 
 export interface QuantityFieldProps {
   label: string;
@@ -35,11 +36,14 @@ export function QuantityField({ label, value, unit, onCommit, hint, validate, di
   const id = useId();
   const [text, setText] = useState(() => show(value, plain, digits));
   const committed = useRef<number | undefined>(value);
+  /** Typed text that parsed but broke the rule; it commits once the rule accepts it (another field moved). */
+  const pending = useRef(false);
 
   // An outside change (design applied, version restored) replaces what the field shows.
   useEffect(() => {
     if (value !== committed.current) {
       committed.current = value;
+      pending.current = false;
       setText(show(value, plain, digits));
     }
   }, [value, plain, digits]);
@@ -47,7 +51,16 @@ export function QuantityField({ label, value, unit, onCommit, hint, validate, di
   const parsed = plain ? (text.trim() === "" ? null : Number(text)) : parseQuantity(text);
   const valid = parsed !== null && Number.isFinite(parsed);
   const empty = text.trim() === "";
-  const problem = empty && onClear ? null : !valid ? (empty ? "required" : "not a value") : validate ? validate(parsed) : null;
+  const problem = empty && onClear ? null : !valid ? (empty ? "required" : plain ? "not a value" : (quantityProblem(text) ?? "not a value")) : validate ? validate(parsed) : null;
+  // Run, Save and Apply refuse while this is set (see field-problems.tsx).
+  useReportFieldProblem(id, label, disabled ? null : problem, id);
+  useEffect(() => {
+    if (pending.current && !problem && valid && !disabled) {
+      pending.current = false;
+      committed.current = parsed as number;
+      onCommit(parsed as number);
+    }
+  });
 
   return (
     <label htmlFor={id} className="grid grid-cols-[7.5rem_minmax(0,1fr)] items-center gap-x-2 py-0.5">
@@ -76,7 +89,9 @@ export function QuantityField({ label, value, unit, onCommit, hint, validate, di
               return;
             }
             const v = plain ? (t.trim() === "" ? null : Number(t)) : parseQuantity(t);
-            if (v !== null && Number.isFinite(v) && !(validate && validate(v))) {
+            const ok = v !== null && Number.isFinite(v);
+            pending.current = ok && !!(validate && validate(v));
+            if (ok && !pending.current) {
               committed.current = v;
               onCommit(v);
             }

@@ -4,11 +4,27 @@ import type { Scenario } from "@/lib/schemas/scenario";
 import type { SimMetrics, SolverStats } from "@/lib/sim/types";
 import { formatQuantity } from "@/lib/design/notation";
 import { cx } from "@/components/ui/cx";
-import type { Check, Warning } from "./readings-logic";
+import { isAmplifierKind, railsOf, type AmplifierReadings, type Check, type MetricsIn, type Rails, type Warning } from "@/lib/workbench/readings-logic";
 
 const fmt = (v: number | null | undefined, unit: string, digits = 4) => (v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, digits));
 
-export function metricRows(m: SimMetrics, gain: number | null, inputReferred = true): [string, string, string?][] {
+/**
+ * An amplifier's readings: gain, output limits, clipped share and the input levels where
+ * clipping starts. No switching rows: an amplifier does not switch (DESIGN.md).
+ */
+export function amplifierRows(m: MetricsIn | SimMetrics, amp: AmplifierReadings, rails: Rails): [string, string, string?][] {
+  return [
+    ["Gain (linear region)", amp.gain == null ? "—" : `${amp.gain.toPrecision(5)} V/V`, "slope of output vs input while the output is clear of its limits"],
+    ["Output high limit (Voh)", fmt(rails.high, "V")],
+    ["Output low limit (Vol)", fmt(rails.low, "V")],
+    ["Held at a limit", `${(100 * m.clippedFraction).toFixed(2)} %`, "share of the run the output is clipped"],
+    ["Clips high from input", amp.clipInputHigh == null ? "never reached" : fmt(amp.clipInputHigh, "V"), "input level at which the output first reaches Voh"],
+    ["Clips low from input", amp.clipInputLow == null ? "never reached" : fmt(amp.clipInputLow, "V"), "input level at which the output first reaches Vol"],
+    ["Fastest output slope", m.maxSlewRate > 0 ? `${(m.maxSlewRate / 1e6).toPrecision(3)} V/µs` : "0 V/µs"],
+  ];
+}
+
+export function metricRows(m: MetricsIn | SimMetrics, gain: number | null, inputReferred = true): [string, string, string?][] {
   // An oscillator has no input to refer switching points to; its capacitor node is internal.
   const thresholds: [string, string, string?][] = inputReferred
     ? [
@@ -19,8 +35,8 @@ export function metricRows(m: SimMetrics, gain: number | null, inputReferred = t
     : [];
   return [
     ...thresholds,
-    ["Output transitions", String(m.transitions)],
-    ["Chatter", String(m.chatter), m.holdOff != null ? `edges within ${fmt(m.holdOff, "s", 3)} of the previous` : "edges within the hold-off"],
+    ["Output transitions", m.transitions == null ? "—" : String(m.transitions)],
+    ["Chatter", m.chatter == null ? "—" : String(m.chatter), m.holdOff != null ? `edges within ${fmt(m.holdOff, "s", 3)} of the previous` : "edges within the hold-off"],
     ["Held at a limit", `${(100 * m.clippedFraction).toFixed(2)} %`, "share of the run"],
     ["Fastest output slope", m.maxSlewRate > 0 ? `${(m.maxSlewRate / 1e6).toPrecision(3)} V/µs` : "0 V/µs"],
     ["Period", fmt(m.period, "s")],
@@ -40,15 +56,24 @@ export function ReadingsTable({
   gain,
   solver,
   scenario,
+  rails,
+  amplifier,
 }: {
-  metrics: SimMetrics;
+  metrics: MetricsIn | SimMetrics;
   checks: Check[];
   warnings: Warning[];
   gain: number | null;
   solver?: SolverStats;
   scenario?: Scenario;
+  /** Output limits of the run (from the part profile when absent). */
+  rails?: Rails;
+  /** An amplifier's readings when the caller measured them (else the core's, else gain only). */
+  amplifier?: AmplifierReadings;
 }) {
-  const rows = metricRows(metrics, gain, scenario?.stage.kind !== "relaxation-oscillator");
+  const amp = scenario && isAmplifierKind(scenario.stage.kind);
+  const rows = amp
+    ? amplifierRows(metrics, amplifier ?? (metrics as MetricsIn).amplifier ?? { gain, clipInputHigh: null, clipInputLow: null }, rails ?? railsOf(scenario))
+    : metricRows(metrics, gain, scenario?.stage.kind !== "relaxation-oscillator");
   return (
     <div className="text-[13px]" data-testid="readings">
       {checks.length ? (
@@ -70,7 +95,7 @@ export function ReadingsTable({
                 <td className="whitespace-nowrap py-1 pl-3 text-right font-mono">{fmt(c.measured, c.unit)}</td>
                 <td className="py-1 pl-2 text-right">
                   <span
-                    title={`allowed ± ${fmt(c.tolerance, c.unit, 2)}`}
+                    title={c.unit === "edges" ? `at most ${c.designed} extra edges` : `allowed ± ${fmt(c.tolerance, c.unit, 2)}`}
                     className={cx(
                       "inline-block min-w-12 rounded px-1.5 text-center text-[11px] font-semibold",
                       c.pass === true && "bg-moss-soft text-moss",
@@ -104,7 +129,9 @@ export function ReadingsTable({
           ))}
         </ul>
       ) : (
-        <p className="mb-3 rounded border-l-[3px] border-moss bg-moss-soft/60 px-2 py-1 text-[12.5px]">No warnings: no clipping, chatter, slew limiting or out-of-span input seen.</p>
+        <p className="mb-3 rounded border-l-[3px] border-moss bg-moss-soft/60 px-2 py-1 text-[12.5px]">
+          {amp ? "No warnings: no clipping, slew limiting or out-of-span input seen." : "No warnings: no clipping, chatter, slew limiting or out-of-span input seen."}
+        </p>
       )}
 
       <table className="w-full border-collapse" data-testid="metrics">

@@ -1,7 +1,7 @@
 "use client";
 // "Signal": the input as a list of waveform components (added, removed, reordered, edited),
 // optional seeded noise, the run settings, and a small preview of the summed input.
-import { useMemo, useState } from "react";
+import { useMemo, useRef, useState } from "react";
 import type { InputComponent, Scenario } from "@/lib/schemas/scenario";
 import { InputSignal, evaluateInputSignal } from "@/lib/sim/signals";
 import { formatQuantity } from "@/lib/design/notation";
@@ -50,6 +50,11 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
   const components = useWb((s) => s.draft.input.components);
   const edit = useWb((s) => s.edit);
   const [adding, setAdding] = useState<Kind>("sine");
+  // Stable React keys per component: they follow a component when it moves or a neighbour is
+  // removed, so its fields keep their own text. A change of length from outside starts afresh.
+  const ids = useRef<number[]>([]);
+  const nextId = useRef(1);
+  if (ids.current.length !== components.length) ids.current = components.map(() => nextId.current++);
 
   return (
     <div data-testid="signal-panel">
@@ -74,9 +79,12 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
               <MiniButton
                 disabled={components.length >= 64}
                 onClick={() =>
-                  edit((d) => {
-                    d.input.components.push(freshComponent(adding, d as Scenario));
-                  })
+                  {
+                    ids.current = [...ids.current, nextId.current++];
+                    edit((d) => {
+                      d.input.components.push(freshComponent(adding, d as Scenario));
+                    });
+                  }
                 }
               >
                 Add
@@ -87,7 +95,7 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
       >
         <ol className="space-y-2">
           {components.map((c, i) => (
-            <li key={i} className="rounded border border-paper-line bg-paper/60 px-2 py-1.5">
+            <li key={ids.current[i]} className="rounded border border-paper-line bg-paper/60 px-2 py-1.5">
               <div className="mb-1 flex items-center justify-between gap-2">
                 <span className="text-[12.5px] font-medium text-ink">
                   <span className="mr-1.5 font-mono text-ink-faint">{i + 1}</span>
@@ -98,24 +106,28 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
                     <MiniButton
                       aria-label={`Move component ${i + 1} up`}
                       disabled={i === 0}
-                      onClick={() =>
+                      onClick={() => {
+                        const k = ids.current;
+                        [k[i - 1], k[i]] = [k[i], k[i - 1]];
                         edit((d) => {
                           const a = d.input.components;
                           [a[i - 1], a[i]] = [a[i], a[i - 1]];
-                        })
-                      }
+                        });
+                      }}
                     >
                       ↑
                     </MiniButton>
                     <MiniButton
                       aria-label={`Move component ${i + 1} down`}
                       disabled={i === components.length - 1}
-                      onClick={() =>
+                      onClick={() => {
+                        const k = ids.current;
+                        [k[i + 1], k[i]] = [k[i], k[i + 1]];
                         edit((d) => {
                           const a = d.input.components;
                           [a[i + 1], a[i]] = [a[i], a[i + 1]];
-                        })
-                      }
+                        });
+                      }}
                     >
                       ↓
                     </MiniButton>
@@ -123,11 +135,12 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
                       aria-label={`Remove component ${i + 1}`}
                       disabled={components.length <= 1}
                       title={components.length <= 1 ? "The input needs at least one component" : undefined}
-                      onClick={() =>
+                      onClick={() => {
+                        ids.current = ids.current.filter((_, j) => j !== i);
                         edit((d) => {
                           d.input.components.splice(i, 1);
-                        })
-                      }
+                        });
+                      }}
                     >
                       Remove
                     </MiniButton>
@@ -175,7 +188,7 @@ function ComponentFields({ index, c, readOnly }: { index: number; c: InputCompon
     case "triangle":
       return (
         <>
-          {q("amplitude", "Amplitude", "V", c.amplitude, nonNeg)}
+          {q("amplitude", "Amplitude (peak)", "V", c.amplitude, nonNeg)}
           {q("frequency", "Frequency", "Hz", c.frequency, pos)}
           {q("offset", "Offset", "V", c.offset)}
           {q("phase", "Phase (°)", "", c.phase)}

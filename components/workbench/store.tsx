@@ -9,8 +9,20 @@ import { useShallow } from "zustand/react/shallow";
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { SimEvent, SimMetrics, SimResult, SolverStats } from "@/lib/sim/types";
 
-export type RunStatus = "idle" | "running" | "done" | "error" | "cancelled";
+export type RunStatus = "idle" | "running" | "done" | "error" | "cancelled" | "refused";
 export type SideTab = "stage" | "signal" | "spec";
+
+/** Where a field lives decides what it blocks: scenario fields block Run and Save, spec fields Apply, study fields study runs. */
+export type FieldScope = "scenario" | "spec" | "study";
+
+/** A field whose text does not parse or breaks its rule; the store still holds its last good value. */
+export interface FieldProblem {
+  label: string;
+  message: string;
+  inputId: string;
+  scope: FieldScope;
+  tab: SideTab | null;
+}
 
 export interface ResultMeta {
   rails: { high: number; low: number };
@@ -40,9 +52,18 @@ export interface WorkbenchState {
   /** Sample index under the cursor, shared by the Trace and Loop plots. */
   cursorIdx: number | null;
   tab: SideTab;
-  notice: { tone: "ok" | "error"; text: string } | null;
+  /** `fields`: the invalid fields behind a refusal, listed as links that focus them. */
+  notice: { tone: "ok" | "error"; text: string; fields?: FieldProblem[] } | null;
   /** The worker has loaded and compiled the solver (after its warm-up slice). */
   solverReady: boolean;
+  /** Counts every change to the draft; dirty = revision ≠ savedRevision, stale = ≠ resultRevision. */
+  revision: number;
+  savedRevision: number;
+  resultRevision: number;
+  /** Fields that are invalid right now, by a per-field key. */
+  fieldProblems: Record<string, FieldProblem>;
+
+  setFieldProblem: (key: string, problem: FieldProblem | null) => void;
 
   edit: (recipe: (d: Scenario) => void) => void;
   replaceDraft: (s: Scenario) => void;
@@ -50,8 +71,9 @@ export interface WorkbenchState {
   setPartName: (name: string | null) => void;
   runStarted: () => void;
   runProgress: (p: number) => void;
-  runFinished: (key: number, meta: ResultMeta) => void;
-  runFailed: (status: "error" | "cancelled", message: string | null) => void;
+  /** `revision`: the draft revision the run was started from. */
+  runFinished: (key: number, meta: ResultMeta, revision: number) => void;
+  runFailed: (status: "error" | "cancelled" | "refused", message: string | null) => void;
   setCursor: (idx: number | null) => void;
   setTab: (t: SideTab) => void;
   setNotice: (n: WorkbenchState["notice"]) => void;
@@ -81,20 +103,32 @@ export function createWorkbenchStore(init: WorkbenchInit) {
       tab: "stage",
       notice: null,
       solverReady: false,
+      revision: 0,
+      savedRevision: 0,
+      resultRevision: -1,
+      fieldProblems: {},
 
+      setFieldProblem: (key, problem) =>
+        set((s) => {
+          if (problem) s.fieldProblems[key] = problem;
+          else delete s.fieldProblems[key];
+        }),
       edit: (recipe) =>
         set((s) => {
           recipe(s.draft as Scenario);
+          s.revision++;
         }),
       replaceDraft: (sc) =>
         set((s) => {
           s.draft = sc;
+          s.revision++;
         }),
       markSaved: (sc, version) =>
         set((s) => {
           s.saved = sc;
           s.draft = sc;
           s.version = version;
+          s.savedRevision = s.revision;
         }),
       setPartName: (name) =>
         set((s) => {
@@ -110,8 +144,9 @@ export function createWorkbenchStore(init: WorkbenchInit) {
         set((s) => {
           s.progress = p;
         }),
-      runFinished: (key, meta) =>
+      runFinished: (key, meta, revision) =>
         set((s) => {
+          s.resultRevision = revision;
           s.status = "done";
           s.progress = 1;
           s.resultKey = key;

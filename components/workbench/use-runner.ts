@@ -8,6 +8,7 @@ import type { SimResult } from "@/lib/sim/types";
 import type { SimWorkerClient } from "@/lib/client/sim-client";
 import { minMax } from "./readings-logic";
 import { useBank, useWbApi } from "./store";
+import { refuseIfInvalid } from "./field-problems";
 
 declare global {
   interface Window {
@@ -87,6 +88,11 @@ export function useRunner() {
   const run = useCallback(async () => {
     const st = api.getState();
     if (st.status === "running") return;
+    if (refuseIfInvalid(api, ["scenario"], "Run")) {
+      st.runFailed("refused", null);
+      return;
+    }
+    const revision = st.revision;
     const parsed = scenarioSchema.safeParse(st.draft);
     if (!parsed.success) {
       st.runFailed("error", `Fix these fields first — ${describeIssues(parsed.error).join("; ")}`);
@@ -132,7 +138,7 @@ export function useRunner() {
         inputMax,
         scenario: parsed.data,
         wallMs: performance.now() - started,
-      });
+      }, revision);
     } catch (err) {
       if (tm) tm.runStartedAt = null;
       const cancelled = ac.signal.aborted || (err instanceof Error && /cancel|abort/i.test(err.name + err.message));

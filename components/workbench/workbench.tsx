@@ -20,8 +20,10 @@ import { HistoryCard, RunsCard } from "./history-runs";
 import { LoopCard, ReadingsCard, TraceCard, slug } from "./result-panels";
 import { SignalPanel } from "./signal-panel";
 import { StagePanel } from "./stage-panel";
-import { WorkbenchProvider, useBank, useWb, useWbApi, type SideTab } from "./store";
+import { WorkbenchProvider, useBank, useWb, useWbApi, type FieldProblem, type SideTab } from "./store";
 import { useRunner } from "./use-runner";
+import { FieldScopeProvider, refuseIfInvalid } from "./field-problems";
+import { clearDraft, readDraft, writeDraft, type StoredDraft } from "@/lib/workbench/drafts";
 import { WorkbenchStudies } from "@/components/studies/workbench-studies";
 
 /** Loads the scenario and mounts one workbench store for it. */
@@ -60,6 +62,7 @@ function WorkbenchBody({ record }: { record: ScenarioRecord }) {
     <div className={bleed} data-testid="workbench">
       <ScenarioHeading record={{ ...record, version: useWb((s) => s.version) }} boardName={board.data?.name} actions={<SummaryLink id={record.id} />} />
       <SafetyCaution texts={[record.name, name]} className="mb-3" />
+      <DraftKeeper record={record} />
       <RunBar />
       <Notice />
       <div className="mt-3 grid gap-3 lg:grid-cols-[minmax(360px,420px)_minmax(0,1fr)] 2xl:grid-cols-[440px_minmax(0,1fr)]">
@@ -84,7 +87,7 @@ function WorkbenchBody({ record }: { record: ScenarioRecord }) {
           </div>
           {/* Below the fold: skip layout and paint of these until scrolled to (a run re-lays the page out). */}
           <div className="min-w-0 [contain-intrinsic-size:auto_700px] [content-visibility:auto]">
-            <WorkbenchStudies />
+            <StudiesScope />
           </div>
           <div className="grid min-w-0 gap-3 [contain-intrinsic-size:auto_360px] [content-visibility:auto] xl:grid-cols-2">
             <RunsCard action={<SaveRunControl />} />
@@ -102,18 +105,127 @@ function WorkbenchBody({ record }: { record: ScenarioRecord }) {
  */
 function EditorTab() {
   const tab = useWb((s) => s.tab);
+  const api = useWbApi();
   return (
     <>
       <div hidden={tab !== "stage"}>
-        <StagePanel />
+        <FieldScopeProvider api={api} scope="scenario" tab="stage">
+          <StagePanel />
+        </FieldScopeProvider>
       </div>
       <div hidden={tab !== "signal"}>
-        <SignalPanel />
+        <FieldScopeProvider api={api} scope="scenario" tab="signal">
+          <SignalPanel />
+        </FieldScopeProvider>
       </div>
       <div hidden={tab !== "spec"}>
-        <FromSpecPanel />
+        <FieldScopeProvider api={api} scope="spec" tab="spec">
+          <FromSpecPanel />
+        </FieldScopeProvider>
       </div>
     </>
+  );
+}
+
+/**
+ * Never lose an edit: unsaved drafts are kept in this browser per scenario (offered back after a
+ * reload), closing or reloading the tab asks first, and so does following a link in the app.
+ */
+function DraftKeeper({ record }: { record: ScenarioRecord }) {
+  const api = useWbApi();
+  const dirty = useDirty();
+  const [offer, setOffer] = useState<StoredDraft<Scenario> | null>(null);
+
+  useEffect(() => {
+    setOffer(readDraft<Scenario>(window.localStorage, record.id, api.getState().saved));
+  }, [api, record.id]);
+
+  // Keep the draft while it differs from the saved version (written a moment after the last edit).
+  useEffect(() => {
+    let timer = 0;
+    const unsub = api.subscribe((s, prev) => {
+      if (s.revision === prev.revision && s.savedRevision === prev.savedRevision) return;
+      clearTimeout(timer);
+      timer = window.setTimeout(() => {
+        const st = api.getState();
+        if (st.revision !== st.savedRevision) writeDraft(window.localStorage, st.scenarioId, st.version, st.draft);
+        else clearDraft(window.localStorage, st.scenarioId);
+      }, 300);
+    });
+    return () => {
+      clearTimeout(timer);
+      unsub();
+    };
+  }, [api]);
+
+  useEffect(() => {
+    if (!dirty) return;
+    const onBeforeUnload = (e: BeforeUnloadEvent) => {
+      e.preventDefault();
+      e.returnValue = "";
+    };
+    // Links inside the app: ask before leaving (capture phase, before the router sees the click).
+    const onClick = (e: MouseEvent) => {
+      if (e.defaultPrevented || e.button !== 0 || e.metaKey || e.ctrlKey || e.shiftKey || e.altKey) return;
+      const a = (e.target as Element | null)?.closest?.("a[href]") as HTMLAnchorElement | null;
+      if (!a || a.target === "_blank" || a.hasAttribute("download")) return;
+      const url = new URL(a.href, window.location.href);
+      if (url.origin !== window.location.origin || (url.pathname === window.location.pathname && url.search === window.location.search)) return;
+      if (!window.confirm("This scenario has unsaved edits. Leave the page anyway? The draft stays in this browser and is offered back when you return.")) {
+        e.preventDefault();
+        e.stopPropagation();
+      }
+    };
+    window.addEventListener("beforeunload", onBeforeUnload);
+    document.addEventListener("click", onClick, true);
+    return () => {
+      window.removeEventListener("beforeunload", onBeforeUnload);
+      document.removeEventListener("click", onClick, true);
+    };
+  }, [dirty]);
+
+  if (!offer) return null;
+  const when = new Date(offer.savedAt);
+  const newer = offer.baseVersion !== record.version;
+  return (
+    <div className="mb-3 flex flex-wrap items-center gap-2 rounded border-l-[3px] border-caution bg-caution-soft/70 px-3 py-1.5 text-[13px]" role="status" data-testid="draft-offer">
+      <span className="min-w-0 flex-1">
+        Unsaved edits from {when.toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" })} are kept in this browser
+        {newer ? ` (made on version ${offer.baseVersion}; the saved scenario is now version ${record.version})` : ""}.
+      </span>
+      <Button
+        size="sm"
+        variant="primary"
+        data-testid="restore-draft"
+        onClick={() => {
+          const parsed = scenarioSchema.safeParse(offer.draft);
+          api.getState().replaceDraft(parsed.success ? parsed.data : offer.draft);
+          setOffer(null);
+        }}
+      >
+        Restore them
+      </Button>
+      <Button
+        size="sm"
+        variant="ghost"
+        data-testid="discard-draft"
+        onClick={() => {
+          clearDraft(window.localStorage, record.id);
+          setOffer(null);
+        }}
+      >
+        Discard
+      </Button>
+    </div>
+  );
+}
+
+function StudiesScope() {
+  const api = useWbApi();
+  return (
+    <FieldScopeProvider api={api} scope="study">
+      <WorkbenchStudies />
+    </FieldScopeProvider>
   );
 }
 
@@ -125,10 +237,9 @@ function SummaryLink({ id }: { id: string }) {
   );
 }
 
+/** Unsaved edits: the draft has changed since it was loaded or saved (a revision counter, not a deep compare). */
 function useDirty(): boolean {
-  const draft = useWb((s) => s.draft);
-  const saved = useWb((s) => s.saved);
-  return useMemo(() => draft !== saved && JSON.stringify(draft) !== JSON.stringify(saved), [draft, saved]);
+  return useWb((s) => s.revision !== s.savedRevision);
 }
 
 function useSave() {
@@ -136,6 +247,7 @@ function useSave() {
   const { mutate } = useSWRConfig();
   return async (): Promise<boolean> => {
     const st = api.getState();
+    if (refuseIfInvalid(api, ["scenario"], "Save")) return false;
     const parsed = scenarioSchema.safeParse(st.draft);
     if (!parsed.success) {
       st.setNotice({ tone: "error", text: `Not saved — ${describeIssues(parsed.error).join("; ")}` });
@@ -165,6 +277,8 @@ function RunBar() {
   const runError = useWb((s) => s.runError);
   const result = useWb((s) => s.result);
   const dirty = useDirty();
+  // Invalid fields keep Save pressable, so pressing it says what is wrong instead of nothing.
+  const invalid = useWb((s) => Object.values(s.fieldProblems).some((p) => p.scope === "scenario"));
   const save = useSave();
   const [saving, setSaving] = useState(false);
   const bank = useBank();
@@ -195,7 +309,7 @@ function RunBar() {
   return (
     <div className="flex flex-wrap items-center gap-2 rounded-lg border border-paper-line bg-paper-card px-3 py-2" data-testid="run-bar">
       <Button variant="primary" size="sm" onClick={() => void run()} disabled={running} aria-keyshortcuts="Control+Enter" data-testid="run-button">
-        Run <kbd className="rounded bg-copper-deep/40 px-1 font-mono text-[10.5px]">Ctrl ↵</kbd>
+        Run <kbd className="hidden rounded bg-copper-deep/40 px-1 font-mono text-[10.5px] sm:inline">Ctrl ↵</kbd>
       </Button>
       {running ? (
         <Button size="sm" variant="secondary" onClick={cancel} data-testid="cancel-button">
@@ -220,7 +334,9 @@ function RunBar() {
               ? `Done in ${result.wallMs.toFixed(0)} ms · ${result.points.toLocaleString("en")} samples`
               : status === "cancelled"
                 ? "Cancelled."
-                : status === "error"
+                : status === "refused"
+                  ? "Not run: fix the fields listed below."
+                  : status === "error"
                   ? "Run failed."
                   : solverReady
                     ? "Solver ready."
@@ -232,7 +348,8 @@ function RunBar() {
       <Button
         size="sm"
         variant="secondary"
-        disabled={!dirty || saving}
+        disabled={(!dirty && !invalid) || saving}
+        title={!dirty && !invalid ? "Nothing to save: no edits since the last save" : undefined}
         data-testid="save-button"
         onClick={async () => {
           setSaving(true);
@@ -263,6 +380,7 @@ function SaveRunControl() {
       className="flex items-center gap-1.5"
       onSubmit={async (e) => {
         e.preventDefault();
+        if (refuseIfInvalid(api, ["scenario"], "Save run")) return;
         setBusy(true);
         try {
           if (dirty && !(await save())) return;
@@ -292,7 +410,13 @@ function SaveRunControl() {
   );
 }
 
+function focusField(api: ReturnType<typeof useWbApi>, f: FieldProblem) {
+  if (f.tab) api.getState().setTab(f.tab);
+  requestAnimationFrame(() => document.getElementById(f.inputId)?.focus());
+}
+
 function Notice() {
+  const api = useWbApi();
   const notice = useWb((s) => s.notice);
   const setNotice = useWb((s) => s.setNotice);
   useEffect(() => {
@@ -311,7 +435,21 @@ function Notice() {
       }`}
     >
       <span>
-        {runLink ? (
+        {notice.fields?.length ? (
+          <>
+            {notice.text}
+            <ul className="mt-0.5 list-disc pl-5" data-testid="fields-at-fault">
+              {notice.fields.map((f) => (
+                <li key={f.inputId}>
+                  <button type="button" className="text-left underline decoration-dotted" onClick={() => focusField(api, f)}>
+                    {f.label}
+                  </button>
+                  : {f.message}
+                </li>
+              ))}
+            </ul>
+          </>
+        ) : runLink ? (
           <>
             Run saved.{" "}
             <Link href={`/runs/${runLink[1]}`} className="font-medium text-copper-deep underline" data-testid="saved-run-link">

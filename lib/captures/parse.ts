@@ -25,6 +25,10 @@ export interface CaptureParseOptions {
 
 export interface ParsedCapture {
   samples: [number, number][];
+  /** The column separator detected in the file (papaparse's guess over the first rows). */
+  delimiter: string;
+  /** True when numbers were written with a decimal comma ("1,5"), accepted because the separator is not a comma. */
+  decimalComma: boolean;
   columns: string[];
   timeColumn: string;
   voltsColumn: string;
@@ -41,31 +45,46 @@ export class CaptureError extends Error {
   }
 }
 
-/** Strict decimal number (plain or exponent form); "", "NaN", "1,5", "12V" are refused. */
+/** Strict decimal number (plain or exponent form); "", "NaN", "12V" are refused. */
 const NUMBER_RE = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+/** The same with a decimal comma ("1,5", "-0,25e-3"): accepted only when the separator is not a comma. */
+const COMMA_NUMBER_RE = /^[+-]?(\d+,?\d*|,\d+)([eE][+-]?\d+)?$/;
 
-function toNumber(cell: string | undefined): number | null {
+/** Readable name of a separator, for the "detected" line. */
+export function delimiterName(d: string): string {
+  return d === "," ? "comma" : d === ";" ? "semicolon" : d === "\t" ? "tab" : d === "|" ? "vertical bar" : d === " " ? "space" : `"${d}"`;
+}
+
+function toNumber(cell: string | undefined, decimalComma = false): number | null {
   if (cell === undefined) return null;
-  const text = cell.trim();
+  let text = cell.trim();
+  if (decimalComma && text.includes(",") && !text.includes(".") && COMMA_NUMBER_RE.test(text)) text = text.replace(",", ".");
   if (!NUMBER_RE.test(text)) return null;
   const n = Number(text);
   return Number.isFinite(n) ? n : null;
 }
 
-function readRows(text: string): string[][] {
+function readRows(text: string): { rows: string[][]; delimiter: string } {
   if (text.length === 0 || text.trim().length === 0) throw new CaptureError("The file is empty.");
   // NUL bytes or undecodable bytes: a spreadsheet or scope binary, not a CSV export.
   if (/[\u0000\uFFFD]/.test(text.slice(0, 65536))) throw new CaptureError("The file is not a text CSV (it contains binary data); export it as CSV.");
-  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), { skipEmptyLines: "greedy", dynamicTyping: false });
+  // Papaparse guesses the separator (comma, tab, vertical bar, semicolon) from the first rows.
+  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), { skipEmptyLines: "greedy", dynamicTyping: false, delimitersToGuess: [",", ";", "\t", "|"] });
   const fatal = parsed.errors.find((e) => e.type === "Quotes");
   if (fatal) throw new CaptureError(`Row ${(fatal.row ?? 0) + 1}: ${fatal.message}.`);
   const rows = parsed.data.filter((r) => Array.isArray(r) && r.some((c) => c.trim() !== ""));
   if (rows.length === 0) throw new CaptureError("The file is empty.");
-  return rows;
+  return { rows, delimiter: parsed.meta.delimiter || "," };
 }
 
-function looksLikeHeader(row: string[]): boolean {
-  return row.some((c) => c.trim() !== "" && toNumber(c) === null);
+/** Decimal commas are possible only when the separator is something else; seen in any data cell. */
+function usesDecimalComma(rows: string[][], delimiter: string): boolean {
+  if (delimiter === ",") return false;
+  return rows.slice(0, 200).some((r) => r.some((c) => /\d,\d/.test(c) && COMMA_NUMBER_RE.test(c.trim())));
+}
+
+function looksLikeHeader(row: string[], decimalComma = false): boolean {
+  return row.some((c) => c.trim() !== "" && toNumber(c, decimalComma) === null);
 }
 
 function columnNames(rows: string[][], hasHeader: boolean): string[] {
@@ -95,24 +114,32 @@ function resolveColumn(ref: ColumnRef, names: string[], field: string, hasHeader
 }
 
 /** Columns and the first rows, for the column chooser and the preview before upload. */
-export function inspectCsv(text: string, previewRows = 8): { columns: string[]; hasHeader: boolean; preview: string[][]; rows: number } {
-  const rows = readRows(text);
-  const hasHeader = looksLikeHeader(rows[0]);
+export function inspectCsv(
+  text: string,
+  previewRows = 8,
+): { columns: string[]; hasHeader: boolean; preview: string[][]; rows: number; delimiter: string; decimalComma: boolean } {
+  const { rows, delimiter } = readRows(text);
+  const decimalComma = usesDecimalComma(rows, delimiter);
+  const hasHeader = looksLikeHeader(rows[0], decimalComma);
   const columns = columnNames(rows, hasHeader);
   const body = hasHeader ? rows.slice(1) : rows;
-  return { columns, hasHeader, preview: body.slice(0, previewRows), rows: body.length };
+  return { columns, hasHeader, preview: body.slice(0, previewRows), rows: body.length, delimiter, decimalComma };
 }
 
 export function parseCapture(text: string, options: CaptureParseOptions): ParsedCapture {
   if (text.length > CAPTURE_MAX_BYTES) {
     throw new CaptureError(`The file is larger than ${CAPTURE_MAX_BYTES / (1024 * 1024)} MB.`);
   }
-  const rows = readRows(text);
-  const hasHeader = options.hasHeader ?? looksLikeHeader(rows[0]);
+  const { rows, delimiter } = readRows(text);
+  const decimalComma = usesDecimalComma(rows, delimiter);
+  const hasHeader = options.hasHeader ?? looksLikeHeader(rows[0], decimalComma);
   const names = columnNames(rows, hasHeader);
+  if (names.length < 2) {
+    throw new CaptureError("The file has only one column: a capture needs a time column and a volts column, separated by a comma, semicolon, tab or vertical bar.");
+  }
   const ti = resolveColumn(options.timeColumn, names, "timeColumn", hasHeader);
   const vi = resolveColumn(options.voltsColumn, names, "voltsColumn", hasHeader);
-  if (ti === vi) throw new CaptureError("voltsColumn: choose a different column from the time column.", "voltsColumn");
+  if (ti === vi) throw new CaptureError(`Volts column: choose a different column from the time column (both are "${names[ti]}").`, "voltsColumn");
 
   const first = hasHeader ? 1 : 0;
   const count = rows.length - first;
@@ -131,11 +158,11 @@ export function parseCapture(text: string, options: CaptureParseOptions): Parsed
   for (let r = first; r < rows.length; r++) {
     const row = rows[r];
     const line = r + 1; // 1-based line in the file, counting the header
-    const t = toNumber(row[ti]);
+    const t = toNumber(row[ti], decimalComma);
     if (t === null) {
       throw new CaptureError(`Row ${line}, column "${names[ti]}": "${(row[ti] ?? "").trim()}" is not a number.`, "timeColumn");
     }
-    const v = toNumber(row[vi]);
+    const v = toNumber(row[vi], decimalComma);
     if (v === null) {
       throw new CaptureError(`Row ${line}, column "${names[vi]}": "${(row[vi] ?? "").trim()}" is not a number.`, "voltsColumn");
     }
@@ -156,6 +183,8 @@ export function parseCapture(text: string, options: CaptureParseOptions): Parsed
   }
   return {
     samples,
+    delimiter,
+    decimalComma,
     columns: names,
     timeColumn: names[ti],
     voltsColumn: names[vi],

@@ -14,9 +14,6 @@ const PREFIX: Record<string, number> = {
   k: 1e3,
   K: 1e3,
   M: 1e6,
-  meg: 1e6,
-  MEG: 1e6,
-  Meg: 1e6,
   G: 1e9,
   T: 1e12,
 };
@@ -42,8 +39,22 @@ const RKM_LETTER: Record<string, number> = {
 // Unit suffixes we strip (case-sensitive where a letter collides with a prefix).
 const UNIT_RE = /\s*(Ω|Ω|ohms?|Ohms?|OHMS?|F|V|Hz|hz|HZ|A|s)?$/;
 
-const ENG_RE = /^([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(meg|MEG|Meg|[fpnuµμmkKMGT])?$/;
+const ENG_RE = /^([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*([fpnuµμmkKMGT])?$/;
+/** "meg" in any case after a number: a netlist habit, not SI or IEC 60062 — refused with advice. */
+const MEG_RE = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?\s*meg/i;
 const RKM_RE = /^(\d*)([RrKkMGTpnuµμmF])(\d*)$/;
+
+/**
+ * Why `text` is not a quantity, in words for the person typing it, or null when it parses.
+ * "meg" (any case) is answered with what to write instead: SI "M" (2.2M) or the RKM code (2M2).
+ */
+export function quantityProblem(text: string): string | null {
+  const trimmed = typeof text === "string" ? text.trim() : "";
+  if (!trimmed) return "required";
+  if (parseQuantity(trimmed) !== null) return null;
+  if (MEG_RE.test(trimmed)) return 'write M for mega (2.2M or RKM 2M2), not "meg"';
+  return "not a value";
+}
 
 /**
  * Parse "4.7k", "100 nF", "2.2M", "10µ", "1e-3", "4K7", "2R2", "1M0", "470R", "4n7", "R47".
@@ -151,4 +162,50 @@ function rkmFromMantissa(mant: number, letter: string): string {
   // and the code cannot be misread; two or more digits end in the letter (10K, 470R).
   if (!frac) return whole.length === 1 ? `${whole}${letter}0` : `${whole}${letter}`;
   return `${whole}${letter}${frac}`;
+}
+
+/**
+ * Axis tick labels in engineering notation with one SI prefix for the whole axis, and as many
+ * decimals as the ticks need to show their own values: steps of 0.25 s read 0.00, 0.25, 0.50 s;
+ * steps of 2.5 V read 0.0, 2.5, 5.0 V. The prefix follows the largest tick magnitude.
+ */
+export function formatTicks(values: readonly number[], unit: string): string[] {
+  let span = 0;
+  for (const v of values) if (Number.isFinite(v)) span = Math.max(span, Math.abs(v));
+  let scale = 1;
+  let prefix = "";
+  if (span > 0) {
+    for (const [s, p] of FORMAT_PREFIXES) {
+      if (span / s >= 1 - 1e-12) {
+        scale = s;
+        prefix = p;
+        break;
+      }
+      scale = s;
+      prefix = p;
+    }
+  }
+  const scaled = values.map((v) => v / scale);
+  let decimals = 0;
+  for (; decimals < 9; decimals++) {
+    const f = 10 ** decimals;
+    // Every tick must round-trip at this many decimals (relative to the tick spacing).
+    const ok = scaled.every((x) => !Number.isFinite(x) || Math.abs(Math.round(x * f) / f - x) <= 1e-6 * Math.max(1e-9, tickStep(scaled)));
+    if (ok) break;
+  }
+  const sep = unit || prefix ? " " : "";
+  return scaled.map((x) => {
+    if (!Number.isFinite(x)) return "";
+    const text = (Object.is(Math.round(x * 10 ** decimals), -0) ? 0 : x).toFixed(decimals).replace(/^-0(\.0+)?$/, "0$1");
+    return `${text}${sep}${prefix}${unit}`;
+  });
+}
+
+function tickStep(xs: readonly number[]): number {
+  let step = Infinity;
+  for (let i = 1; i < xs.length; i++) {
+    const d = Math.abs(xs[i] - xs[i - 1]);
+    if (d > 0 && d < step) step = d;
+  }
+  return Number.isFinite(step) ? step : Math.max(1, Math.abs(xs[0] ?? 1));
 }

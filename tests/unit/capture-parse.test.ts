@@ -103,3 +103,33 @@ describe("inspectCsv", () => {
     expect(inspectCsv("0,1\n1,2").hasHeader).toBe(false);
   });
 });
+
+describe("separator and decimal comma", () => {
+  // Semicolon-separated files with decimal commas are what spreadsheets in comma-decimal
+  // locales write (common practice, no source); papaparse detects the separator.
+  it("reads a time;volts file with decimal commas and says what it detected", () => {
+    const p = parseCapture("time;volts\n0;1,5\n0,001;2,25\n0,002;-0,5\n", { timeColumn: "time", voltsColumn: "volts" });
+    expect(p.delimiter).toBe(";");
+    expect(p.decimalComma).toBe(true);
+    expect(p.samples).toEqual([
+      [0, 1.5],
+      [0.001, 2.25],
+      [0.002, -0.5],
+    ]);
+  });
+
+  it("reads tab-separated decimal commas, and keeps refusing 1,5 in a comma-separated file", () => {
+    const tab = parseCapture("t\tv\n0\t1,5\n1\t2\n", { timeColumn: "t", voltsColumn: "v" });
+    expect(tab.delimiter).toBe("\t");
+    expect(tab.samples[0]).toEqual([0, 1.5]);
+    const comma = inspectCsv("t,v\n0,1.5\n1,2\n");
+    expect(comma.delimiter).toBe(",");
+    expect(comma.decimalComma).toBe(false);
+    expect(refusal('t,v\n0,"1,5"\n1,2\n', { timeColumn: "t", voltsColumn: "v" })).toMatch(/"1,5" is not a number/);
+  });
+
+  it("names both columns when the same one is chosen twice, and refuses a one-column file", () => {
+    expect(refusal("time;volts\n0;1\n1;2\n", { timeColumn: "time", voltsColumn: "time" })).toMatch(/Volts column: choose a different column.*"time"/);
+    expect(refusal("volts\n1\n2\n", { timeColumn: 0, voltsColumn: 0 })).toMatch(/only one column/);
+  });
+});

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatQuantity, formatRkm, parseQuantity } from "@/lib/design/notation";
+import { formatQuantity, formatRkm, formatTicks, parseQuantity, quantityProblem } from "@/lib/design/notation";
 
 describe("RKM codes (IEC 60062)", () => {
   it("parses the published examples", () => {
@@ -65,5 +65,40 @@ describe("engineering notation", () => {
     expect(formatQuantity(0, "V")).toBe("0 V");
     expect(formatQuantity(4700, "")).toBe("4.7k");
     for (const v of [1, 4.7e3, 2.2e6, 1e-7, 3.3e-12]) expect(parseQuantity(formatQuantity(v, "Ω"))).toBeCloseTo(v, 20);
+  });
+});
+
+describe("only SI prefixes and RKM codes", () => {
+  // SI prefix symbols are case-sensitive single letters (BIPM SI Brochure, 9th ed., table 7);
+  // "meg" is neither an SI prefix nor an IEC 60062 letter code [published].
+  it("refuses meg in any case and says what to write instead", () => {
+    for (const text of ["2.2meg", "1MEG", "4.7Meg", "10 meg"]) {
+      expect(parseQuantity(text)).toBeNull();
+      expect(quantityProblem(text)).toMatch(/write M for mega.*2M2/);
+    }
+    expect(quantityProblem("2.2M")).toBeNull();
+    expect(quantityProblem("2M2")).toBeNull();
+    expect(quantityProblem("six")).toBe("not a value");
+    expect(quantityProblem("  ")).toBe("required");
+  });
+});
+
+describe("tick labels", () => {
+  // Each label must show its tick's value (common practice, no source): ticks every 0.25 s
+  // once read 0.3, 0.8 s and every 2.5 V read 3, 8 V.
+  it("shows quarter steps and half-volt steps exactly", () => {
+    expect(formatTicks([0, 0.25, 0.5, 0.75, 1], "s")).toEqual(["0.00 s", "0.25 s", "0.50 s", "0.75 s", "1.00 s"]);
+    expect(formatTicks([0, 2.5, 5, 7.5, 10], "V")).toEqual(["0.0 V", "2.5 V", "5.0 V", "7.5 V", "10.0 V"]);
+    expect(formatTicks([-5, -2.5, 0, 2.5, 5], "V")).toEqual(["-5.0 V", "-2.5 V", "0.0 V", "2.5 V", "5.0 V"]);
+  });
+
+  it("uses one engineering prefix per axis and parses back to the tick value", () => {
+    expect(formatTicks([0, 0.02, 0.04, 0.06], "s")).toEqual(["0 ms", "20 ms", "40 ms", "60 ms"]);
+    expect(formatTicks([0.0005, 0.001, 0.0015], "s")).toEqual(["0.5 ms", "1.0 ms", "1.5 ms"]);
+    expect(formatTicks([1e-6, 2e-6, 3e-6], "s")).toEqual(["1 µs", "2 µs", "3 µs"]);
+    expect(formatTicks([2000, 4000], "Hz")).toEqual(["2 kHz", "4 kHz"]);
+    const ticks = [0.1, 0.125, 0.15, 0.175];
+    const labels = formatTicks(ticks, "V");
+    labels.forEach((l, i) => expect(parseQuantity(l)).toBeCloseTo(ticks[i], 12));
   });
 });
