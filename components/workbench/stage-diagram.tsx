@@ -99,10 +99,10 @@ function Terminal({ at, label, color, side }: { at: Pt; label: string; color: st
   );
 }
 
-/** The reference: a moss tab carrying its voltage. */
-function Reference({ at, volts, side = "left" }: { at: Pt; volts: number; side?: "left" | "below" }) {
+/** The reference: a moss tab carrying its voltage (and its divider, when it has one). */
+function Reference({ at, volts, side = "left", divider }: { at: Pt; volts: number; side?: "left" | "below"; divider?: string }) {
   const [x, y] = at;
-  const text = `ref ${formatQuantity(volts, "V", 4)}`;
+  const text = divider ? `÷ ${divider} = ${formatQuantity(volts, "V", 4)}` : `ref ${formatQuantity(volts, "V", 4)}`;
   const w = 16 + text.length * 7.6;
   const bx = side === "left" ? x - w : x - w / 2;
   const by = side === "left" ? y - 11 : y + 2;
@@ -140,8 +140,37 @@ function Amp({ x0, y0, supply }: { x0: number; y0: number; supply: Scenario["sup
   );
 }
 
-export function StageDiagram({ scenario, className }: { scenario: Pick<Scenario, "stage" | "supply">; className?: string }) {
+/** The circuit as built around the stage, one short line each (drawn under the network). */
+function asBuiltLines(scenario: Pick<Scenario, "stage" | "supply"> & Partial<Pick<Scenario, "source" | "filter" | "output">>): string[] {
+  const lines: string[] = [];
+  const ohm = (v: number) => formatQuantity(v, "Ω", 3);
+  const s = scenario.source;
+  if (s) {
+    const what = s.quantity ? `${s.quantity} ` : "";
+    if (s.sensor.kind === "divider") lines.push(`in: ${what}through a divider ${ohm(s.sensor.rTop)} / ${ohm(s.sensor.rBottom)} to 0 V`);
+    else if (s.sensor.kind === "ntc")
+      lines.push(`in: ${what}NTC ${"r25" in s.sensor.model ? ohm(s.sensor.model.r25) : ""} at the ${s.sensor.position} of a divider with ${ohm(s.sensor.rFixed)}`);
+    else lines.push(`in: ${what}linear sensor, ${formatQuantity(s.sensor.voltsPerUnit, "V", 3)} per ${s.unit ?? s.sensor.unit ?? "unit"}`);
+  }
+  if (scenario.filter) lines.push(`RC filter before the input: ${ohm(scenario.filter.r)} in series, ${formatQuantity(scenario.filter.c, "F", 3)} to 0 V`);
+  const o = scenario.output;
+  if (o?.kind === "open-drain")
+    lines.push(`out: open drain, ${ohm(o.pullUp)} pull-up to ${typeof o.pullUpTo === "number" ? formatQuantity(o.pullUpTo, "V", 3) : "the positive supply"}${o.load ? `, load ${ohm(o.load.r)}` : ""}`);
+  return lines;
+}
+
+export function StageDiagram({
+  scenario,
+  className,
+}: {
+  scenario: Pick<Scenario, "stage" | "supply"> & Partial<Pick<Scenario, "source" | "filter" | "output">>;
+  className?: string;
+}) {
   const st = scenario.stage;
+  const div = st.referenceDivider;
+  const dividerText = div ? `${formatQuantity(div.rTop, "Ω", 3)}/${formatQuantity(div.rBottom, "Ω", 3)}` : undefined;
+  const inLabel = scenario.source?.quantity ? scenario.source.quantity.slice(0, 14) : "in";
+  const extra = asBuiltLines(scenario);
   const X0 = 290; // op-amp left edge
   const Y0 = 122;
   const NEG: Pt = [X0, Y0 - 25];
@@ -158,19 +187,19 @@ export function StageDiagram({ scenario, className }: { scenario: Pick<Scenario,
   switch (st.kind) {
     case "noninverting-amplifier": {
       push(<Wire pts={[[40, POS[1]], POS]} color={INDIGO} />);
-      push(<Terminal at={[36, POS[1]]} label="in" color={INDIGO} side="below" />);
+      push(<Terminal at={[36, POS[1]]} label={inLabel} color={INDIGO} side="below" />);
       push(<Wire pts={[NEG, [240, NEG[1]], [240, 40], [ON[0], 40], ON]} />);
       push(<Dot at={[240, NEG[1]]} />);
       push(<Dot at={ON} />);
       push(<Resistor c={[350, 40]} role="rFeedback" ohms={st.rFeedback} />);
       push(<Wire pts={[[240, NEG[1]], [150, NEG[1]]]} />);
       push(<Resistor c={[190, NEG[1]]} role="rGround" ohms={st.rGround} />);
-      push(<Reference at={[150, NEG[1]]} volts={st.reference} />);
+      push(<Reference at={[150, NEG[1]]} volts={st.reference} divider={dividerText} />);
       break;
     }
     case "inverting-amplifier": {
       push(<Wire pts={[[40, NEG[1]], [240, NEG[1]]]} color={INDIGO} />);
-      push(<Terminal at={[36, NEG[1]]} label="in" color={INDIGO} side="below" />);
+      push(<Terminal at={[36, NEG[1]]} label={inLabel} color={INDIGO} side="below" />);
       push(<Resistor c={[150, NEG[1]]} role="rInput" ohms={st.rInput} />);
       push(<Wire pts={[[240, NEG[1]], NEG]} />);
       push(<Dot at={[240, NEG[1]]} />);
@@ -178,21 +207,21 @@ export function StageDiagram({ scenario, className }: { scenario: Pick<Scenario,
       push(<Dot at={ON} />);
       push(<Resistor c={[350, 40]} role="rFeedback" ohms={st.rFeedback} />);
       push(<Wire pts={[POS, [240, POS[1]]]} />);
-      push(<Reference at={[240, POS[1]]} volts={st.reference} />);
+      push(<Reference at={[240, POS[1]]} volts={st.reference} divider={dividerText} />);
       break;
     }
     case "comparator": {
       const inPin = st.inputAt === "inverting" ? NEG : POS;
       const refPin = st.inputAt === "inverting" ? POS : NEG;
       push(<Wire pts={[[40, inPin[1]], inPin]} color={INDIGO} />);
-      push(<Terminal at={[36, inPin[1]]} label="in" color={INDIGO} side="below" />);
+      push(<Terminal at={[36, inPin[1]]} label={inLabel} color={INDIGO} side="below" />);
       push(<Wire pts={[refPin, [220, refPin[1]]]} />);
-      push(<Reference at={[220, refPin[1]]} volts={st.reference} />);
+      push(<Reference at={[220, refPin[1]]} volts={st.reference} divider={dividerText} />);
       break;
     }
     case "schmitt-noninverting": {
       push(<Wire pts={[[40, POS[1]], [240, POS[1]]]} color={INDIGO} />);
-      push(<Terminal at={[36, POS[1]]} label="in" color={INDIGO} side="below" />);
+      push(<Terminal at={[36, POS[1]]} label={inLabel} color={INDIGO} side="below" />);
       push(<Resistor c={[150, POS[1]]} role="rInput" ohms={st.rInput} />);
       push(<Wire pts={[[240, POS[1]], POS]} />);
       push(<Dot at={[240, POS[1]]} />);
@@ -200,14 +229,14 @@ export function StageDiagram({ scenario, className }: { scenario: Pick<Scenario,
       push(<Dot at={ON} />);
       push(<Resistor c={[350, 210]} role="rFeedback" ohms={st.rFeedback} />);
       push(<Wire pts={[NEG, [240, NEG[1]]]} />);
-      push(<Reference at={[240, NEG[1]]} volts={st.reference} />);
+      push(<Reference at={[240, NEG[1]]} volts={st.reference} divider={dividerText} />);
       break;
     }
     case "schmitt-inverting":
     case "relaxation-oscillator": {
       if (st.kind === "schmitt-inverting") {
         push(<Wire pts={[[40, NEG[1]], NEG]} color={INDIGO} />);
-        push(<Terminal at={[36, NEG[1]]} label="in" color={INDIGO} side="below" />);
+        push(<Terminal at={[36, NEG[1]]} label={inLabel} color={INDIGO} side="below" />);
       } else {
         // v− is the timing capacitor, charged from the output through rTiming.
         push(<Wire pts={[NEG, [240, NEG[1]], [240, 40], [ON[0], 40], ON]} />);
@@ -223,9 +252,20 @@ export function StageDiagram({ scenario, className }: { scenario: Pick<Scenario,
       push(<Dot at={ON} />);
       push(<Resistor c={[350, 210]} role="rFeedback" ohms={st.rFeedback} />);
       push(<Wire pts={[[240, POS[1]], [150, POS[1]], [150, 175]]} />);
-      push(<Resistor c={[150, 197]} vertical role="rReference" ohms={st.rReference} />);
-      push(<Wire pts={[[150, 219], [150, 226]]} />);
-      push(<Reference at={[150, 226]} volts={st.reference} side="below" />);
+      if (div) {
+        // The divider's two resistors meet v+ with rFeedback (no separate reference resistor).
+        push(<Resistor c={[150, 197]} vertical role="rBottom" ohms={div.rBottom} />);
+        push(<Wire pts={[[150, 219], [150, 228]]} />);
+        push(<Common at={[150, 228]} />);
+        push(<Wire pts={[[150, POS[1]], [150, 160], [100, 160], [100, 175]]} />);
+        push(<Resistor c={[100, 197]} vertical role="rTop" ohms={div.rTop} />);
+        push(<Wire pts={[[100, 219], [100, 226]]} />);
+        push(<Terminal at={[100, 230]} label={`+${formatQuantity(scenario.supply.positive, "V", 3)}`} color={MOSS} side="left" />);
+      } else {
+        push(<Resistor c={[150, 197]} vertical role="rReference" ohms={st.rReference} />);
+        push(<Wire pts={[[150, 219], [150, 226]]} />);
+        push(<Reference at={[150, 226]} volts={st.reference} side="below" />);
+      }
       break;
     }
   }
@@ -234,7 +274,8 @@ export function StageDiagram({ scenario, className }: { scenario: Pick<Scenario,
   const above = st.kind === "noninverting-amplifier" || st.kind === "inverting-amplifier" || st.kind === "relaxation-oscillator";
   const below = st.kind === "schmitt-noninverting" || st.kind === "schmitt-inverting" || st.kind === "relaxation-oscillator";
   const y0 = above ? 8 : 58;
-  const y1 = below ? (st.kind === "schmitt-noninverting" ? 244 : 256) : 186;
+  const yNet = below ? (st.kind === "schmitt-noninverting" ? 244 : 256) : 186;
+  const y1 = yNet + extra.length * 17;
   return (
     <svg
       viewBox={`0 ${y0} 580 ${y1 - y0}`}
@@ -249,8 +290,13 @@ export function StageDiagram({ scenario, className }: { scenario: Pick<Scenario,
           <path d="M10 0H0V10" fill="none" stroke="#eceee8" strokeWidth={0.6} />
         </pattern>
       </defs>
-      <rect x={0} y={0} width={580} height={260} fill="url(#rw-grid)" />
+      <rect x={0} y={0} width={580} height={260 + extra.length * 17} fill="url(#rw-grid)" />
       {body}
+      {extra.map((line, i) => (
+        <text key={line} x={20} y={yNet + 12 + i * 17} fontSize={12.5} fill={INDIGO} fontFamily="var(--font-plex), sans-serif" data-role="as-built">
+          {line}
+        </text>
+      ))}
       <Amp x0={X0} y0={Y0} supply={scenario.supply} />
     </svg>
   );

@@ -13,6 +13,7 @@ import { Section, SelectRow, MiniButton } from "./controls";
 import { StageDiagram } from "./stage-diagram";
 import { KIND_INFO, roleValue, stageRoles, switchStageKind, type ResistorRole } from "./stage-kinds";
 import { useWb, useWbShallow } from "./store";
+import { CircuitSections, ReferenceSection, syncReferenceDivider } from "@/components/circuit/circuit-sections";
 
 export interface PartOption {
   id: string;
@@ -45,13 +46,16 @@ const ohmsRule = (v: number) => (v > 0 ? (v <= 1e12 ? null : "at most 1 TΩ") : 
 export function StagePanel({ readOnly = false }: { readOnly?: boolean }) {
   const stage = useWb((s) => s.draft.stage);
   const supply = useWbShallow((s) => s.draft.supply);
+  const source = useWb((s) => s.draft.source);
+  const filter = useWb((s) => s.draft.filter);
+  const output = useWb((s) => s.draft.output);
   const edit = useWb((s) => s.edit);
   const info = KIND_INFO[stage.kind];
 
   return (
     <div data-testid="stage-panel">
       <div className="border-b border-paper-line bg-white px-2 py-2">
-        <StageDiagram scenario={{ stage, supply }} />
+        <StageDiagram scenario={{ stage, supply, source, filter, output }} />
       </div>
       <Section title="Network">
         <SelectRow
@@ -89,7 +93,10 @@ export function StagePanel({ readOnly = false }: { readOnly?: boolean }) {
             <option value="inverting">v− (output falls as the input rises)</option>
           </SelectRow>
         ) : null}
-        {stageRoles(stage).map((role: ResistorRole) => (
+        {stageRoles(stage)
+          // With a reference divider, rReference is the divider itself (edited below).
+          .filter((role: ResistorRole) => !(stage.referenceDivider && role === "rReference"))
+          .map((role: ResistorRole) => (
           <QuantityField
             key={`${stage.kind}-${role}`}
             name={`stage.${role}`}
@@ -122,20 +129,24 @@ export function StagePanel({ readOnly = false }: { readOnly?: boolean }) {
             }
           />
         ) : null}
-        <QuantityField
-          name="stage.reference"
-          label="Reference"
-          unit="V"
-          value={stage.reference}
-          disabled={readOnly}
-          validate={(v) => (v >= supply.negative && v <= supply.positive ? null : "outside the supplies")}
-          onCommit={(v) =>
-            edit((d) => {
-              d.stage.reference = v;
-            })
-          }
-        />
+        <ReferenceSection readOnly={readOnly} />
+        {stage.referenceDivider ? null : (
+          <QuantityField
+            name="stage.reference"
+            label="Reference"
+            unit="V"
+            value={stage.reference}
+            disabled={readOnly}
+            validate={(v) => (v >= supply.negative && v <= supply.positive ? null : "outside the supplies")}
+            onCommit={(v) =>
+              edit((d) => {
+                d.stage.reference = v;
+              })
+            }
+          />
+        )}
       </Section>
+      <CircuitSections readOnly={readOnly} />
       <Section title="Supplies">
         <QuantityField
           name="supply.positive"
@@ -147,6 +158,7 @@ export function StagePanel({ readOnly = false }: { readOnly?: boolean }) {
           onCommit={(v) =>
             edit((d) => {
               d.supply.positive = v;
+              syncReferenceDivider(d); // a divider from the supply follows it
             })
           }
         />
@@ -160,6 +172,7 @@ export function StagePanel({ readOnly = false }: { readOnly?: boolean }) {
           onCommit={(v) =>
             edit((d) => {
               d.supply.negative = v;
+              syncReferenceDivider(d); // a divider from the supply follows it
             })
           }
         />
