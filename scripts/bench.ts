@@ -476,6 +476,13 @@ async function sineRows(): Promise<void> {
     }
   }
   process.stdout.write("\nSine input beside the same model's C loop (this machine, this run)\n" + table(rows) + "\n");
+  if ("exe" in built) {
+    // Sanity check of the C loop: without noise a Schmitt trigger switches twice per period of
+    // a sine that crosses both switching points, so 3 Hz over 1 s gives 6 edges (common practice, no source).
+    const quiet = runCLoop(built.exe, sineSchmitt(1e-12), 1);
+    const edges = "edges" in quiet ? quiet.edges : Number.NaN;
+    process.stdout.write(`C loop check: without noise ${edges} edges (expected 6) — ${edges === 6 ? "ok" : "WRONG"}\n`);
+  }
 }
 
 const CLI_OPAMP = {
