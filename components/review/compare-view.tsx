@@ -60,7 +60,7 @@ function ComparePicker({ run, withId }: { run: Versioned; withId: string | null 
       <label htmlFor="compare-scenario" className="text-ink-soft">
         Compare with a run of
       </label>
-      <Select id="compare-scenario" className="h-8! w-64 py-0 text-[13px]" value={scenarioId} onChange={(e) => setScenarioId(e.target.value)}>
+      <Select id="compare-scenario" className="h-8! w-64! py-0 text-[13px]" value={scenarioId} onChange={(e) => setScenarioId(e.target.value)}>
         {(scenarios.length ? scenarios : [{ id: run.scenarioId, name: run.scenario.name ?? "this scenario" }]).map((s) => (
           <option key={s.id} value={s.id}>
             {s.id === run.scenarioId ? `${s.name} (this scenario)` : s.name}
@@ -69,7 +69,7 @@ function ComparePicker({ run, withId }: { run: Versioned; withId: string | null 
       </Select>
       <Select
         aria-label="Run to compare with"
-        className="h-8! w-80 py-0 text-[13px]"
+        className="h-8! w-80! py-0 text-[13px]"
         value={withId ?? ""}
         onChange={(e) => e.target.value && router.replace(`/runs/${run.id}/compare?with=${e.target.value}`)}
       >

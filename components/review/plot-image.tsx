@@ -75,7 +75,7 @@ export function renderPlotPng(spec: PlotSpec, width: number, height: number, sca
   ctx.fillStyle = "#ffffff";
   ctx.fillRect(0, 0, width, height);
   const left = 64;
-  const right = 14;
+  const right = 26;
   const top = 10;
   const bottom = 30;
   const w = width - left - right;
@@ -118,8 +118,12 @@ export function renderPlotPng(spec: PlotSpec, width: number, height: number, sca
   ctx.beginPath();
   ctx.rect(left, top, w, h);
   ctx.clip();
+  // Marks close together (the two switching points) label one above and the next below its line.
+  let lastLabelY = -Infinity;
   for (const m of spec.marks ?? []) {
     const y = Math.round(py(m.y)) + 0.5;
+    const below = Math.abs(y - lastLabelY) < 12;
+    lastLabelY = y;
     ctx.setLineDash([6, 4]);
     ctx.strokeStyle = m.color;
     ctx.beginPath();
@@ -129,9 +133,9 @@ export function renderPlotPng(spec: PlotSpec, width: number, height: number, sca
     ctx.setLineDash([]);
     ctx.fillStyle = m.color;
     ctx.textAlign = "right";
-    ctx.textBaseline = "bottom";
+    ctx.textBaseline = below ? "top" : "bottom";
     ctx.font = "10px system-ui, sans-serif";
-    ctx.fillText(m.label, left + w - 4, y - 2);
+    ctx.fillText(m.label, left + w - 4, below ? y + 2 : y - 2);
   }
   for (const s of spec.series) {
     ctx.strokeStyle = s.color;

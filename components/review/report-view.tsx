@@ -175,22 +175,41 @@ export function ReportView({ runId }: { runId: string }) {
   const standing = signoffs?.items ?? [];
   const withdrawn = signoffs?.withdrawn ?? [];
 
+  // With a source (divider, NTC, linear sensor) the spec is in the source's units: the source
+  // column pairs it with the measured value there; the stage columns stay at the stage input.
+  const src = m.source ?? null;
+  const at = scenario.source?.quantity ? scenario.source.quantity : "source";
+  const specAtSource = !!spec?.sensor;
+  const srcCol = (x: number | null | undefined) => (src ? [v(x, src.unit)] : []);
+  const specCell = (x: number | null | undefined, unit: string) => (x != null ? v(x, unit) : "—");
+  const t = spec?.target;
   const specRows: ReactNode[][] = switching
     ? [
-        ["Upper switching point", spec?.target?.upperThreshold != null ? v(spec.target.upperThreshold, specUnit) : "—", v(derived.designed.upperThreshold, "V"), range(derived.wc, "upperThreshold", "V"), v(m.upperThreshold, "V")],
-        ["Lower switching point", spec?.target?.lowerThreshold != null ? v(spec.target.lowerThreshold, specUnit) : "—", v(derived.designed.lowerThreshold, "V"), range(derived.wc, "lowerThreshold", "V"), v(m.lowerThreshold, "V")],
+        ["Upper switching point", specCell(t?.upperThreshold, specUnit), ...srcCol(src?.upperThreshold), v(derived.designed.upperThreshold, "V"), range(derived.wc, "upperThreshold", "V"), v(m.upperThreshold, "V")],
+        ["Lower switching point", specCell(t?.lowerThreshold, specUnit), ...srcCol(src?.lowerThreshold), v(derived.designed.lowerThreshold, "V"), range(derived.wc, "lowerThreshold", "V"), v(m.lowerThreshold, "V")],
         [
           "Deadband",
-          spec?.target?.upperThreshold != null && spec?.target?.lowerThreshold != null ? v(spec.target.upperThreshold - spec.target.lowerThreshold, specUnit) : "—",
+          t?.upperThreshold != null && t?.lowerThreshold != null ? v(t.upperThreshold - t.lowerThreshold, specUnit) : "—",
+          ...srcCol(src?.hysteresis),
           derived.designed.upperThreshold != null && derived.designed.lowerThreshold != null ? v(derived.designed.upperThreshold - derived.designed.lowerThreshold, "V") : "—",
           range(derived.wc, "hysteresis", "V"),
           v(m.hysteresis, "V"),
         ],
         ...(derived.designed.period != null || m.period != null
-          ? [["Period", "—", v(derived.designed.period, "s"), "—", v(m.period, "s")] as ReactNode[]]
+          ? [["Period", "—", ...(src ? ["—"] : []), v(derived.designed.period, "s"), "—", v(m.period, "s")] as ReactNode[]]
           : []),
       ]
-    : [["Gain", spec?.target?.gain != null ? `${spec.target.gain} V/V` : "—", derived.designed.gain != null ? `${Number(derived.designed.gain.toPrecision(4))} V/V` : "—", range(derived.wc, "gain", "V/V"), derived.gain != null ? `${Number(derived.gain.toPrecision(4))} V/V` : "—"]];
+    : [["Gain", t?.gain != null ? `${t.gain} V/V` : "—", ...(src ? ["—"] : []), derived.designed.gain != null ? `${Number(derived.designed.gain.toPrecision(4))} V/V` : "—", range(derived.wc, "gain", "V/V"), derived.gain != null ? `${Number(derived.gain.toPrecision(4))} V/V` : "—"]];
+  const specHead = src
+    ? [
+        "Figure",
+        specAtSource ? `Spec (${at})` : "Spec",
+        `Measured (${at})`,
+        "Designed (stage input)",
+        "Worst case (stage input)",
+        "Measured (stage input)",
+      ]
+    : ["Figure", "Spec", "Designed", "Worst case", "Measured"];
 
   return (
     <div className="report-page mx-auto max-w-[820px] space-y-4 rounded-lg border border-paper-line bg-white p-6 text-ink shadow-sm" data-testid="review-report">
@@ -323,7 +342,7 @@ export function ReportView({ runId }: { runId: string }) {
       </Section>
 
       <Section title="Spec, designed, worst case and measured">
-        <SmallTable label="Spec against result" head={["Figure", "Spec", "Designed", "Worst case", "Measured"]} rows={specRows} />
+        <SmallTable label="Spec against result" head={specHead} rows={specRows} />
         <p className="mt-1 text-[11px] text-ink-mute">
           Designed: closed forms with the chosen values. Worst case: every corner of resistor tolerance ({pct(scenario.tolerances?.resistor ?? 0.01)}), input offset and output headroom
           {derived.wc ? ` (${derived.wc.corners} corners)` : ""}. Measured: this run, re-simulated on the server.

@@ -40,7 +40,7 @@ export function ReviewPanel({ runId, role, userId }: { runId: string; role: Role
         <CommentsPanel runId={runId} canComment={canComment} />
       </Card>
       {run?.scenarioId && subject?.scenarioVersion ? (
-        <Card title="Changes since the previous version" className="lg:col-span-2" id="version-changes">
+        <Card title="Changes since the previous version" className="lg:col-span-2 xl:col-span-3" id="version-changes">
           <VersionChanges scenarioId={run.scenarioId} version={subject.scenarioVersion} />
         </Card>
       ) : null}

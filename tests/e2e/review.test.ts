@@ -231,6 +231,49 @@ describe("review you can sign", () => {
     await links.getByText("yard bench tech").waitFor();
     expect(await links.textContent()).toMatch(/last opened .*\(2×\)/);
     await screenshot(dPage, "review-run-links");
+
+    // A viewer reads the run but gets neither the sign-off form nor the request form.
+    const vPage = await newPage(errors);
+    await signInPage(vPage, server.url, EMAILS.viewer);
+    await vPage.goto(`${server.url}/runs/${runId}`);
+    await vPage.getByTestId("review-panel").waitFor();
+    await vPage.getByRole("list", { name: "Review requests" }).or(vPage.getByText("Nobody has been asked to review this run yet.")).waitFor();
+    expect(await vPage.getByRole("form", { name: "Sign off" }).count()).toBe(0);
+    expect(await vPage.getByRole("form", { name: "Request review" }).count()).toBe(0);
+
+    // The owner's audit log says which run the link was for, and whom it was labelled for.
+    const oPage = await newPage(errors);
+    await signInPage(oPage, server.url, EMAILS.owner);
+    await oPage.goto(`${server.url}/team`);
+    const audit = oPage.getByRole("table", { name: "Audit log" });
+    const linkRow = audit.locator("tr", { hasText: "created a run link" }).first();
+    await linkRow.waitFor();
+    expect(await linkRow.textContent()).toContain('run "Shared for the yard" of Battery low-voltage disconnect');
+    expect(await linkRow.textContent()).toContain("for yard bench tech");
+    await screenshot(oPage, "review-team-audit");
+    expect(errors).toEqual([]);
+  });
+
+  it("the report of an amplifier run shows gain, not switching points, and prints with its plots", async () => {
+    const errors: string[] = [];
+    const designer = await signIn(server.url, EMAILS.designer, DEMO_PASSWORD);
+    const scenarioId = await firstScenarioId(designer, "Hydrophone preamp");
+    const runId = await createRun(designer, scenarioId, "Loud burst clipping check");
+    const page = await newPage(errors);
+    await signInPage(page, server.url, EMAILS.designer);
+    await page.goto(`${server.url}/runs/${runId}/report`);
+    await page.getByTestId("report-trace").waitFor();
+    await page.getByTestId("report-loop").waitFor();
+    const spec = page.getByRole("table", { name: "Spec against result" });
+    expect(await spec.locator("tbody tr").first().textContent()).toContain("Gain");
+    expect(await spec.textContent()).not.toContain("switching point");
+    await screenshot(page, "review-report-amplifier");
+    const pdf = await page.pdf({ format: "A4", printBackground: true });
+    fs.mkdirSync(OUT, { recursive: true });
+    fs.writeFileSync(path.join(OUT, "review-report-amplifier-A4.pdf"), pdf);
+    const facts = pdfFacts(pdf);
+    expect(facts.pages).toBeGreaterThanOrEqual(1);
+    expect(facts.images).toBeGreaterThanOrEqual(2);
     expect(errors).toEqual([]);
   });
 });
