@@ -3,7 +3,7 @@
 // `warnings` and a seeded `monteCarlo` spread. Pure TypeScript: no React, Next or database.
 import { designSpecSchema, DESIGN_SCHEMA_ID, type DesignSensor, type DesignSpec } from "@/lib/schemas/design";
 import { describeIssues, type Stage } from "@/lib/schemas/scenario";
-import { SERIES_TOLERANCE, type SeriesName } from "./eseries";
+import { SERIES_TOLERANCE, snapToSeries, type SeriesName } from "./eseries";
 import { formatQuantity, formatRkm } from "./notation";
 import {
   DEFAULT_HEADROOM_SPREAD,
@@ -26,7 +26,7 @@ export { parseQuantity, formatQuantity, formatRkm } from "./notation";
 export { seriesValues, snapToSeries, seriesInRange, SERIES_TOLERANCE, SERIES_NAMES, type SeriesName } from "./eseries";
 
 /** Parts of the source in front of the stage (the design spec's sensor). */
-export type SourceRole = "sourceTop" | "sourceBottom" | "sourceFixed";
+export type SourceRole = "sourceTop" | "sourceBottom" | "sourceFixed" | "pullUp";
 
 export interface DesignPart {
   ref: string;
@@ -54,6 +54,8 @@ export interface DesignResult {
   stage: DesignStage;
   /** With a `sensor` in the spec: the scenario's `source`, so `{ stage, source }` drop into a scenario. */
   source?: { sensor: DesignSensor; unit?: string };
+  /** With an open-drain output in the spec: the scenario's `output` (with the chosen pull-up). */
+  output?: { kind: "open-drain"; pullUp: number; pullUpTo?: "positive" | number; load?: { r: number; to?: number } };
   parts: DesignPart[];
   achieved: { upperThreshold: number | null; lowerThreshold: number | null; gain: number | null; hysteresis: number | null; frequency: number | null; dutyCycle: number | null };
   worstCase: Record<FigureName, Interval | null>;
@@ -97,7 +99,68 @@ export function design(input: unknown): DesignResult {
   const parsed = designSpecSchema.safeParse(input);
   if (!parsed.success) throw new DesignSpecError(describeIssues(parsed.error));
   const spec = parsed.data;
+  if (spec.output) return designOpenDrain(spec, spec.output);
   return asBuilt(spec, spec.sensor ? designWithSensor(spec, spec.sensor) : designVolts(spec));
+}
+
+/** The pull-up when the spec does not give one: 10 kΩ snapped to the series (common practice, no source). */
+export const DEFAULT_PULL_UP = 10e3;
+
+/**
+ * Open-drain output: while released, the pin sits where the pull-up (and load) and the feedback
+ * network put it, so the stage is designed for that loaded high level. The level depends on the
+ * network chosen, so the design repeats with the level the previous network gives until it
+ * settles (a few rounds: the feedback resistors are large against the pull-up).
+ */
+function designOpenDrain(spec: DesignSpec, out: NonNullable<DesignSpec["output"]>): DesignResult {
+  const pullUp = out.pullUp ?? snapToSeries(DEFAULT_PULL_UP, spec.series as SeriesName);
+  const output = { kind: "open-drain" as const, pullUp, ...(out.pullUpTo !== undefined ? { pullUpTo: out.pullUpTo } : {}), ...(out.load ? { load: out.load } : {}) };
+  const pullTo = out.pullUpTo === undefined || out.pullUpTo === "positive" ? spec.supply.positive : out.pullUpTo;
+  const pin = out.load
+    ? { v: (pullTo * out.load.r + (out.load.to ?? 0) * pullUp) / (pullUp + out.load.r), r: (pullUp * out.load.r) / (pullUp + out.load.r) }
+    : { v: pullTo, r: pullUp };
+  let high = pin.v;
+  let result: DesignResult | null = null;
+  let bestError = Infinity;
+  // Error of the as-built circuit (loaded high level) against the spec's own targets.
+  const asBuiltError = (r: DesignResult) => {
+    const pairs: [number | null, number | undefined][] = r.sensor
+      ? [[r.sensor.achieved.upperThreshold, r.sensor.target.upperThreshold], [r.sensor.achieved.lowerThreshold, r.sensor.target.lowerThreshold]]
+      : [[r.achieved.upperThreshold, spec.target.upperThreshold ?? spec.target.threshold], [r.achieved.lowerThreshold, spec.target.lowerThreshold ?? spec.target.threshold]];
+    let worst = 0;
+    for (const [a, t] of pairs) if (t !== undefined) worst = Math.max(worst, a === null ? Infinity : Math.abs(a - t) / Math.max(Math.abs(t), 1e-12));
+    return worst;
+  };
+  for (let round = 0; round < 12; round++) {
+    const loaded: DesignSpec = { ...spec, output: undefined, opamp: { ...spec.opamp, outputHeadroomHigh: spec.supply.positive - high } };
+    const candidate = asBuilt(loaded, loaded.sensor ? designWithSensor(loaded, loaded.sensor) : designVolts(loaded), output, spec);
+    // The network changes with the level it is designed for; keep the round whose as-built circuit comes closest.
+    const err = asBuiltError(candidate);
+    if (err < bestError) {
+      bestError = err;
+      result = candidate;
+    }
+    const st = candidate.stage;
+    // The released pin's level with this network [derived, nodal analysis]:
+    let next = pin.v;
+    if (st.kind === "schmitt-inverting") next = (pin.v * (st.rReference + st.rFeedback) + st.reference * pin.r) / (pin.r + st.rReference + st.rFeedback);
+    else if (st.kind === "schmitt-noninverting") {
+      const u = candidate.achieved.lowerThreshold ?? st.reference;
+      const s = st.rInput + st.rFeedback;
+      next = (pin.v * s + u * pin.r) / (pin.r + s);
+    }
+    if (Math.abs(next - high) < 1e-9 * Math.max(1, Math.abs(high))) break;
+    // Damped: a network designed for one level may load the pin differently; halve the step.
+    high = round < 2 ? next : (high + next) / 2;
+  }
+  const r = result!;
+  const maxError = r.assumptions.maxError;
+  if (bestError > maxError)
+    r.warnings.push(`open-drain output: with the loaded high level the best ${spec.series} network is ${(100 * bestError).toFixed(2)} % off a target (maxError ${(100 * maxError).toFixed(1)} %); a smaller pull-up or larger feedback resistors load it less`);
+  r.notes.push(
+    `open-drain output: ${formatRkm(pullUp)} pull-up to ${formatQuantity(pullTo, "V")}; the thresholds are designed with the loaded high level ${formatQuantity(high, "V", 4)} (pull-up against the feedback network)`,
+  );
+  return r;
 }
 
 const encodeEnd = (v: number, supply: { positive: number; negative: number }, bottom: boolean) =>
@@ -109,7 +172,7 @@ const encodeEnd = (v: number, supply: { positive: number; negative: number }, bo
  * tolerance and the NTC's R25/Beta tolerance (lib/design/spread, the same function the summary and
  * the tolerance spread study use).
  */
-function asBuilt(spec: DesignSpec, result: DesignResult): DesignResult {
+function asBuilt(spec: DesignSpec, result: DesignResult, output?: { kind: "open-drain"; pullUp: number; pullUpTo?: "positive" | number; load?: { r: number; to?: number } }, original: DesignSpec = spec): DesignResult {
   const div = result.reference.divider;
   let stage: ScenarioInput["stage"] = result.stage;
   if (div) {
@@ -136,6 +199,7 @@ function asBuilt(spec: DesignSpec, result: DesignResult): DesignResult {
   } else if (sensor?.kind === "ntc") {
     addPart("sourceFixed", sensor.rFixed, `fixed resistor of the NTC divider (${sensor.position === "bottom" ? "top" : "bottom"}; given in the spec)`);
   }
+  if (output) addPart("pullUp", output.pullUp, "pull-up, output pin to the pull-up rail (open-drain output)");
   const source = sensor ? { sensor } : undefined;
   if (sensor?.kind === "ntc" && CURRENT_DRAWING_KINDS.includes(spec.kind))
     throw new DesignError(
@@ -144,10 +208,11 @@ function asBuilt(spec: DesignSpec, result: DesignResult): DesignResult {
     );
   const scenario = parseScenario({
     schema: "railwise.scenario/1",
-    supply: spec.supply,
-    opamp: spec.opamp,
+    supply: original.supply,
+    opamp: original.opamp,
     stage,
     ...(source ? { source } : {}),
+    ...(output ? { output } : {}),
     tolerances: { resistor: tolerance, ...(result.assumptions.capacitorTolerance !== undefined ? { capacitor: result.assumptions.capacitorTolerance } : {}) },
     input: { components: [{ kind: "dc", level: 0 }] },
     run: { duration: 1, points: 2 },
@@ -155,9 +220,19 @@ function asBuilt(spec: DesignSpec, result: DesignResult): DesignResult {
   const wc = circuitWorstCase(scenario, { headroomSpread: result.assumptions.headroomSpread });
   const worst = { ...result.worstCase };
   for (const n of FIGURE_NAMES) worst[n] = wc[n];
-  const out: DesignResult = { ...result, stage: scenario.stage, parts, worstCase: worst, ...(source ? { source } : {}) };
+  const out: DesignResult = { ...result, stage: scenario.stage, parts, worstCase: worst, ...(source ? { source } : {}), ...(output ? { output } : {}) };
+  if (output) {
+    // Achieved figures of the as-built circuit (loaded high level), not of the stand-in part.
+    const n = wc.nominal;
+    out.achieved = { ...out.achieved, upperThreshold: n.upperThreshold, lowerThreshold: n.lowerThreshold, hysteresis: n.hysteresis };
+    out.kind = original.kind;
+  }
   if (result.sensor) {
-    out.sensor = { ...result.sensor, worstCase: { upperThreshold: wc.sourceUpperThreshold, lowerThreshold: wc.sourceLowerThreshold } };
+    out.sensor = {
+      ...result.sensor,
+      ...(output ? { achieved: { upperThreshold: wc.nominal.sourceUpperThreshold, lowerThreshold: wc.nominal.sourceLowerThreshold } } : {}),
+      worstCase: { upperThreshold: wc.sourceUpperThreshold, lowerThreshold: wc.sourceLowerThreshold },
+    };
   }
   return out;
 }

@@ -332,6 +332,15 @@ export const designSpecSchema = z
     /** Share of each nominal output headroom that the worst case sweeps (± this fraction); default 0.2. */
     headroomSpread: fraction("headroomSpread", 1).optional(),
     sensor: sensorSchema.optional(),
+    /** Open-drain output: the pull-up (chosen from the series unless given) and the load; thresholds are designed with the loaded high level. */
+    output: z
+      .strictObject({
+        kind: z.literal("open-drain", { error: 'output.kind must be "open-drain" (push-pull is the default)' }),
+        pullUp: pos("output.pullUp (Ω)").optional(),
+        pullUpTo: z.union([z.literal("positive"), volts("output.pullUpTo")], { error: 'output.pullUpTo must be "positive" or a voltage' }).optional(),
+        load: z.strictObject({ r: pos("output.load.r (Ω)"), to: volts("output.load.to").optional() }).optional(),
+      })
+      .optional(),
     monteCarlo: z
       .union([
         z.literal(false),
@@ -417,6 +426,8 @@ export const designSpecSchema = z
         break;
     }
     if (s.inputAt !== undefined && s.kind !== "comparator") issue(["inputAt"], "inputAt applies to the comparator only");
+    if (s.output && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
+      issue(["output"], "an open-drain output applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)");
     if (s.sensor && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
       issue(["sensor"], "a sensor applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)");
   });

@@ -100,3 +100,45 @@ describe("design output as built", () => {
     ).toThrow(/^sensor: an NTC cannot feed the schmitt-noninverting input/);
   });
 });
+
+describe("open-drain output in the spec", () => {
+  it("chooses a 10 k pull-up from the series and designs with the loaded high level", () => {
+    const spec = {
+      schema: "railwise.design-spec/1",
+      kind: "schmitt-inverting",
+      supply: { positive: 5, negative: 0 },
+      opamp: { ...CMOS, inputOffset: 0 },
+      target: { upperThreshold: 3.3, lowerThreshold: 1.7 },
+      series: "E24",
+      tolerance: 0.01,
+      reference: "auto",
+      output: { kind: "open-drain" },
+      monteCarlo: false,
+    };
+    const d = design(spec);
+    expect(d.output).toEqual({ kind: "open-drain", pullUp: 10e3 });
+    expect(d.parts.find((p) => p.role === "pullUp")?.code).toBe("10K");
+    const st = d.stage;
+    if (st.kind !== "schmitt-inverting") throw new Error("kind");
+    // Released pin: 5 V through 10 k into rReference + rFeedback to the reference (the divider's
+    // Thevenin form, filled by the parse); the
+    // inverting Schmitt closed form with that high level (REFERENCES.md; nodal analysis, common
+    // practice, no source). Low level Vol = 0.02 V (the part's headroom).
+    expect(st.referenceDivider).toBeDefined();
+    const vref = st.reference;
+    const voh = (5 * (st.rReference + st.rFeedback) + vref * 10e3) / (10e3 + st.rReference + st.rFeedback);
+    const k = st.rReference / (st.rReference + st.rFeedback);
+    expect(d.achieved.upperThreshold!).toBeCloseTo(vref * (1 - k) + k * voh, 9);
+    expect(d.achieved.lowerThreshold!).toBeCloseTo(vref * (1 - k) + k * 0.02, 9);
+    // Designed for the loaded level: within the default 2 % of the targets
+    expect(Math.abs(d.achieved.upperThreshold! - 3.3) / 3.3).toBeLessThan(0.02);
+    expect(Math.abs(d.achieved.lowerThreshold! - 1.7) / 1.7).toBeLessThan(0.02);
+    // The worst case includes the pull-up's tolerance and brackets the nominal
+    expect(d.worstCase.upperThreshold![0]).toBeLessThan(d.achieved.upperThreshold!);
+    expect(d.worstCase.upperThreshold![1]).toBeGreaterThan(d.achieved.upperThreshold!);
+  });
+
+  it("refuses an open-drain output on an amplifier, naming the field", () => {
+    expect(() => design({ ...batterySpec, kind: "noninverting-amplifier", target: { gain: 10 }, reference: 0, sensor: undefined, output: { kind: "open-drain" } })).toThrow(/output: an open-drain output applies to threshold stages only/);
+  });
+});
