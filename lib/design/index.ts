@@ -3,7 +3,7 @@
 // `warnings` and a seeded `monteCarlo` spread. Pure TypeScript: no React, Next or database.
 import { designSpecSchema, DESIGN_SCHEMA_ID, type DesignSensor, type DesignSpec } from "@/lib/schemas/design";
 import { describeIssues, type Stage } from "@/lib/schemas/scenario";
-import { SERIES_TOLERANCE, snapToSeries, type SeriesName } from "./eseries";
+import { SERIES_TOLERANCE, seriesInRange, snapToSeries, type SeriesName } from "./eseries";
 import { formatQuantity, formatRkm } from "./notation";
 import {
   DEFAULT_HEADROOM_SPREAD,
@@ -26,7 +26,7 @@ export { parseQuantity, formatQuantity, formatRkm } from "./notation";
 export { seriesValues, snapToSeries, seriesInRange, SERIES_TOLERANCE, SERIES_NAMES, type SeriesName } from "./eseries";
 
 /** Parts of the source in front of the stage (the design spec's sensor). */
-export type SourceRole = "sourceTop" | "sourceBottom" | "sourceFixed" | "pullUp";
+export type SourceRole = "sourceTop" | "sourceBottom" | "sourceFixed" | "pullUp" | "filterR" | "filterC";
 
 export interface DesignPart {
   ref: string;
@@ -54,6 +54,8 @@ export interface DesignResult {
   stage: DesignStage;
   /** With a `sensor` in the spec: the scenario's `source`, so `{ stage, source }` drop into a scenario. */
   source?: { sensor: DesignSensor; unit?: string };
+  /** With a filter in the spec: the suggested RC low-pass, the scenario's `filter`. */
+  filter?: { r: number; c: number };
   /** With an open-drain output in the spec: the scenario's `output` (with the chosen pull-up). */
   output?: { kind: "open-drain"; pullUp: number; pullUpTo?: "positive" | number; load?: { r: number; to?: number } };
   parts: DesignPart[];
@@ -99,8 +101,50 @@ export function design(input: unknown): DesignResult {
   const parsed = designSpecSchema.safeParse(input);
   if (!parsed.success) throw new DesignSpecError(describeIssues(parsed.error));
   const spec = parsed.data;
-  if (spec.output) return designOpenDrain(spec, spec.output);
-  return asBuilt(spec, spec.sensor ? designWithSensor(spec, spec.sensor) : designVolts(spec));
+  const result = spec.output ? designOpenDrain(spec, spec.output) : asBuilt(spec, spec.sensor ? designWithSensor(spec, spec.sensor) : designVolts(spec));
+  return spec.filter ? withFilterSuggestion(spec, spec.filter, result) : result;
+}
+
+/**
+ * RC filter for a wanted bounce time: after a step from 0 V to `step` at the filter input, the
+ * stage input reaches the upper switching point Vth at t = RC·ln(step/(step − Vth)) (first-order
+ * RC step response), so RC = bounceTime / ln(step/(step − Vth)). The capacitor comes from E6 in
+ * 1 nF–10 µF and the resistor from the spec's series in its range, the pair nearest that RC.
+ * The input resistance of a current-drawing stage is left out (it shortens the time slightly).
+ */
+function withFilterSuggestion(spec: DesignSpec, f: NonNullable<DesignSpec["filter"]>, result: DesignResult): DesignResult {
+  const step = f.step ?? spec.supply.positive;
+  const vth = result.achieved.upperThreshold;
+  if (vth === null || !(step > vth && vth > 0))
+    throw new DesignError("filter", `filter.step (${step} V) must be above the upper switching point (${vth === null ? "none" : `${Number(vth.toPrecision(4))} V`}) at the stage input, and that point above 0 V`);
+  const rc = f.bounceTime / Math.log(step / (step - vth));
+  const range = spec.range ?? { min: 1e3, max: 1e6 };
+  let best: { r: number; c: number; err: number } | null = null;
+  for (const c of seriesInRange("E6", 1e-9, 10e-6)) {
+    const r = snapToSeries(rc / c, spec.series as SeriesName);
+    if (r < range.min || r > range.max) continue;
+    const err = Math.abs(Math.log((r * c) / rc));
+    if (!best || err < best.err) best = { r, c, err };
+  }
+  if (!best) throw new DesignError("filter", `no ${spec.series} resistor in ${formatQuantity(range.min, "Ω")}–${formatQuantity(range.max, "Ω")} with an E6 capacitor gives RC = ${formatQuantity(rc, "s")}`);
+  const filter = { r: best.r, c: best.c };
+  const nR = result.parts.filter((p) => p.ref.startsWith("R")).length;
+  const nC = result.parts.filter((p) => p.ref.startsWith("C")).length;
+  const parts: DesignPart[] = [
+    ...result.parts,
+    { ref: `R${nR + 1}`, role: "filterR", value: best.r, series: spec.series as SeriesName, code: formatRkm(best.r), tolerance: result.assumptions.tolerance, note: "RC filter, sensor output to the stage input" },
+    { ref: `C${nC + 1}`, role: "filterC", value: best.c, series: "E6", code: formatQuantity(best.c, "F"), tolerance: 0.05, note: "RC filter, stage input to 0 V" },
+  ];
+  const delay = best.r * best.c * Math.log(step / (step - vth));
+  return {
+    ...result,
+    filter,
+    parts,
+    notes: [
+      ...result.notes,
+      `filter: RC = ${formatQuantity(best.r * best.c, "s")} (${formatRkm(best.r)} with ${formatQuantity(best.c, "F")}) holds a ${formatQuantity(step, "V")} step below the ${formatQuantity(vth, "V", 4)} switching point for ${formatQuantity(delay, "s", 3)} (wanted ${formatQuantity(f.bounceTime, "s", 3)})`,
+    ],
+  };
 }
 
 /** The pull-up when the spec does not give one: 10 kΩ snapped to the series (common practice, no source). */

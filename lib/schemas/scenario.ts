@@ -332,6 +332,13 @@ export const designSpecSchema = z
     /** Share of each nominal output headroom that the worst case sweeps (± this fraction); default 0.2. */
     headroomSpread: fraction("headroomSpread", 1).optional(),
     sensor: sensorSchema.optional(),
+    /** RC filter suggestion: the input must not reach the switching point within `bounceTime` of a step of `step` volts at the stage input (default the positive supply). */
+    filter: z
+      .strictObject({
+        bounceTime: pos("filter.bounceTime (s)").refine((v) => v <= 100, { message: "filter.bounceTime must be at most 100 s" }),
+        step: volts("filter.step").optional(),
+      })
+      .optional(),
     /** Open-drain output: the pull-up (chosen from the series unless given) and the load; thresholds are designed with the loaded high level. */
     output: z
       .strictObject({
@@ -426,6 +433,8 @@ export const designSpecSchema = z
         break;
     }
     if (s.inputAt !== undefined && s.kind !== "comparator") issue(["inputAt"], "inputAt applies to the comparator only");
+    if (s.filter && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
+      issue(["filter"], "a filter suggestion applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)");
     if (s.output && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
       issue(["output"], "an open-drain output applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)");
     if (s.sensor && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))

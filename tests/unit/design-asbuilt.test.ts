@@ -142,3 +142,34 @@ describe("open-drain output in the spec", () => {
     expect(() => design({ ...batterySpec, kind: "noninverting-amplifier", target: { gain: 10 }, reference: 0, sensor: undefined, output: { kind: "open-drain" } })).toThrow(/output: an open-drain output applies to threshold stages only/);
   });
 });
+
+describe("filter suggestion from a bounce time", () => {
+  it("picks R and C so that a step reaches the upper switching point after the bounce time", () => {
+    const d = design({
+      schema: "railwise.design-spec/1",
+      kind: "schmitt-inverting",
+      supply: { positive: 5, negative: 0 },
+      opamp: CMOS,
+      target: { upperThreshold: 3.3, lowerThreshold: 1.7 },
+      series: "E24",
+      reference: "auto",
+      filter: { bounceTime: 0.01 },
+      monteCarlo: false,
+    });
+    expect(d.filter).toBeDefined();
+    const { r, c } = d.filter!;
+    // First-order RC step response: v(t) = Vstep(1 − e^(−t/RC)) → t = RC·ln(Vstep/(Vstep − Vth))
+    // (any circuit-theory text; the closed form)
+    const t = r * c * Math.log(5 / (5 - d.achieved.upperThreshold!));
+    expect(Math.abs(t - 0.01) / 0.01).toBeLessThan(0.05);
+    expect(d.parts.map((p) => p.role)).toEqual(expect.arrayContaining(["filterR", "filterC"]));
+    // The suggested filter drops into a scenario
+    expect(() => parseScenario({ schema: "railwise.scenario/1", supply: { positive: 5, negative: 0 }, opamp: CMOS, stage: d.stage, filter: d.filter, input: { components: [{ kind: "dc", level: 0 }] }, run: { duration: 1, points: 2 } })).not.toThrow();
+  });
+
+  it("refuses a step that never reaches the switching point, naming filter", () => {
+    expect(() =>
+      design({ ...batterySpec, sensor: undefined, target: { upperThreshold: 3.3, lowerThreshold: 1.7 }, reference: "auto", filter: { bounceTime: 0.01, step: 2 } }),
+    ).toThrow(/^filter: filter\.step \(2 V\) must be above the upper switching point/);
+  });
+});
