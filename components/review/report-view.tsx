@@ -66,7 +66,7 @@ function SmallTable({ head, rows, label }: { head: string[]; rows: ReactNode[][]
         {rows.map((r, i) => (
           <tr key={i} className="align-top">
             {r.map((c, j) => (
-              <td key={j} className={`border-b border-paper-line/60 px-1.5 py-1 ${j === 0 ? "text-left" : "text-right font-mono"}`}>
+              <td key={j} className={`border-b border-paper-line/60 px-1.5 py-1 ${j === 0 ? "text-left" : "text-right font-mono whitespace-nowrap"}`}>
                 {c}
               </td>
             ))}
@@ -203,11 +203,11 @@ export function ReportView({ runId }: { runId: string }) {
   const specHead = src
     ? [
         "Figure",
-        specAtSource ? `Spec (${at})` : "Spec",
-        `Measured (${at})`,
-        "Designed (stage input)",
-        "Worst case (stage input)",
-        "Measured (stage input)",
+        specAtSource ? `Spec, ${at}` : "Spec",
+        `Measured, ${at}`,
+        "Designed, input",
+        "Worst case, input",
+        "Measured, input",
       ]
     : ["Figure", "Spec", "Designed", "Worst case", "Measured"];
 
@@ -254,7 +254,9 @@ export function ReportView({ runId }: { runId: string }) {
                   <li key={s.id} className="py-0.5">
                     <span className="font-semibold">{DECISION_LABEL[s.decision]}</span> by {s.reviewer.name}, {formatDate(s.createdAt)}
                     {s.scenarioVersion ? `, for version ${s.scenarioVersion}` : ""}
-                    {outOfDate && s.scenarioVersion != null && s.scenarioVersion < (scenarioRow?.version ?? 0) ? <span className="font-semibold text-alert"> — out of date</span> : null}
+                    {outOfDate && s.scenarioVersion != null && s.scenarioVersion < (scenarioRow?.version ?? 0) ? (
+                      <span className="block font-semibold text-alert">Out of date: the scenario is now at version {scenarioRow?.version}</span>
+                    ) : null}
                     {s.note && <span className="block whitespace-pre-wrap break-words text-ink-soft">{s.note}</span>}
                   </li>
                 ))}
@@ -344,7 +346,7 @@ export function ReportView({ runId }: { runId: string }) {
       <Section title="Spec, designed, worst case and measured">
         <SmallTable label="Spec against result" head={specHead} rows={specRows} />
         <p className="mt-1 text-[11px] text-ink-mute">
-          Designed: closed forms with the chosen values. Worst case: every corner of resistor tolerance ({pct(scenario.tolerances?.resistor ?? 0.01)}), input offset and output headroom
+          {src ? `“${at}”: in the source's units (${src.unit}); “input”: volts at the stage input. ` : ""}Designed: closed forms with the chosen values. Worst case: every corner of resistor tolerance ({pct(scenario.tolerances?.resistor ?? 0.01)}), input offset and output headroom
           {derived.wc ? ` (${derived.wc.corners} corners)` : ""}. Measured: this run, re-simulated on the server.
         </p>
         {derived.checks.length > 0 && (

@@ -179,7 +179,7 @@ describe("review you can sign", () => {
     const reportText = (await report.textContent()) ?? "";
     expect(reportText).toContain("Battery low-voltage disconnect");
     expect(reportText).toContain("Approved by Maren Lie");
-    expect(reportText).toContain("out of date");
+    expect(reportText).toContain(`Out of date: the scenario is now at version ${reviewedVersion + 1}`);
     expect(reportText).toContain(`/runs/${runId}`);
     expect(await rPage.getByRole("table", { name: "Parts list" }).locator("tbody tr").count()).toBeGreaterThanOrEqual(2);
     expect(await rPage.getByTestId("safety-caution").count()).toBe(1);

