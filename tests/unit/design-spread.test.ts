@@ -104,3 +104,39 @@ describe("circuitWorstCase", () => {
     expect(Math.max(...xs)).toBeLessThanOrEqual(wc.sourceUpperThreshold![1]);
   });
 });
+
+describe("one worst case: design panel, summary and tolerance spread agree", () => {
+  it("gives the same corners for a designed battery cut-off with an auto reference", async () => {
+    const { design } = await import("@/lib/design");
+    const { studyCorners } = await import("@/lib/studies/corners");
+    const { toleranceSpreadConfigSchema } = await import("@/lib/studies/schema");
+    const d = design({
+      schema: "railwise.design-spec/1",
+      kind: "schmitt-inverting",
+      supply: { positive: 5, negative: 0, tolerance: 0.02 },
+      opamp: CMOS,
+      target: { upperThreshold: 12.5, lowerThreshold: 11.4 },
+      series: "E24",
+      tolerance: 0.01,
+      reference: "auto",
+      sensor: { kind: "divider", rTop: 68e3, rBottom: 18e3 },
+      monteCarlo: false,
+    });
+    const scenario = make({ supply: { positive: 5, negative: 0, tolerance: 0.02 }, stage: d.stage, source: d.source, tolerances: { resistor: 0.01 } });
+    // The summary's figure
+    const summary = circuitWorstCase(scenario);
+    // The study's corners (its own resistor tolerance, offset and headroom settings)
+    const config = toleranceSpreadConfigSchema.parse({
+      kind: "tolerance-spread", seed: 1, draws: 10, resistorTolerance: 0.01, offsetTolerance: Math.abs(CMOS.inputOffset), headroomSpread: 0.2,
+      distribution: "uniform", probe: { kind: "scenario" }, measures: ["upperThreshold", "lowerThreshold"],
+    });
+    const study = studyCorners(scenario, config);
+    for (const n of ["upperThreshold", "lowerThreshold"] as const) {
+      expect(summary[n]![0]).toBeCloseTo(d.worstCase[n]![0], 12);
+      expect(summary[n]![1]).toBeCloseTo(d.worstCase[n]![1], 12);
+      expect(study[n]![0]).toBeCloseTo(d.worstCase[n]![0], 12);
+      expect(study[n]![1]).toBeCloseTo(d.worstCase[n]![1], 12);
+    }
+    expect(summary.sourceUpperThreshold).toEqual(d.sensor!.worstCase.upperThreshold);
+  });
+});
