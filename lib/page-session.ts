@@ -2,8 +2,11 @@ import "server-only";
 import { getServerSession } from "next-auth";
 import { redirect } from "next/navigation";
 import { authOptions } from "@/lib/auth";
+import type { Role } from "@/lib/schemas/roles";
+import { CAN } from "@/lib/server/session";
 
-export type MemberRole = "owner" | "designer" | "reviewer" | "viewer";
+/** A member's role as pages see it: the one role list of lib/schemas/roles.ts. */
+export type MemberRole = Role;
 
 export interface PageUser {
   id: string;
@@ -14,18 +17,16 @@ export interface PageUser {
   teamName: string;
 }
 
-/** Roles that may create, edit and delete scenarios, runs, captures and part profiles (DESIGN.md). */
-export const EDITOR_ROLES: readonly MemberRole[] = ["owner", "designer"];
-
+/** May create, edit and delete scenarios, runs, captures and part profiles: the role table's `edit` row (lib/server/session.ts, DEVELOPERS.md § Roles). */
 export function canEdit(role: MemberRole): boolean {
-  return EDITOR_ROLES.includes(role);
+  return (CAN.edit as readonly Role[]).includes(role);
 }
 
 /** The signed-in member for a server page, or null. Pages only decide what to show; route handlers enforce. */
 export async function getPageUser(): Promise<PageUser | null> {
   const session = await getServerSession(authOptions);
   const u = session?.user;
-  if (!u || !u.id || !u.role) return null;
+  if (!u?.id || !u.role) return null;
   return {
     id: u.id,
     name: u.name ?? null,
