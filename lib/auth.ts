@@ -1,8 +1,19 @@
-// next-auth v4 options: credentials sign-in (bcryptjs), JWT sessions carrying user id, team
-// and role. The route at app/api/auth/[...nextauth] only re-exports GET/POST (next-auth#7498).
+// next-auth v4 options: credentials sign-in (bcryptjs), JWT sessions carrying user id, team,
+// role and the user's session generation. The route at app/api/auth/[...nextauth] wraps
+// next-auth's GET/POST with the sign-in rate limit (next-auth#7498 for the re-export form).
+//
+// Ending sessions: a JWT cannot be recalled, so every token carries the user's
+// `sessionGeneration` (users table, migration 0003) and the role it was issued for. Each
+// request re-reads both in one indexed query (primary key of users joined with the unique
+// (userId, teamId) index of memberships); sign-out, role change and removal bump the generation,
+// so a copied cookie stops working at once instead of at the 12 h expiry.
 import type { NextAuthOptions } from "next-auth";
+import type { JWT } from "next-auth/jwt";
 import CredentialsProvider from "next-auth/providers/credentials";
-import { findMembership, verifyCredentials } from "@/lib/server/accounts";
+import { QueryTypes, type Transaction } from "sequelize";
+import { verifyCredentials } from "@/lib/server/accounts";
+import type { Role } from "@/lib/schemas/roles";
+import { getSequelize } from "@/models";
 
 /** Used only outside production so `npm run dev` and tests work without configuration. */
 export const DEV_AUTH_SECRET = "railwise-development-secret-not-for-production";
@@ -15,9 +26,61 @@ export function authSecret(): string | undefined {
   return process.env.NODE_ENV === "production" ? undefined : DEV_AUTH_SECRET;
 }
 
+/** Cookies get the Secure flag (and the __Secure- prefix) when the app is served over https. */
+export function servedOverHttps(): boolean {
+  const base = process.env.NEXTAUTH_URL || process.env.APP_URL || "";
+  return base.toLowerCase().startsWith("https://");
+}
+
+export interface SessionState {
+  generation: number;
+  role: Role;
+  name: string;
+  email: string;
+  teamName: string;
+}
+
+/** The user's current generation and membership in one query; null when the membership is gone. */
+export async function readSessionState(userId: string, teamId: string): Promise<SessionState | null> {
+  const rows = await getSequelize().query<SessionState>(
+    `SELECT u."sessionGeneration" AS "generation", m."role" AS "role", u."name" AS "name", u."email" AS "email", t."name" AS "teamName"
+       FROM "memberships" m
+       JOIN "users" u ON u."id" = m."userId"
+       JOIN "teams" t ON t."id" = m."teamId"
+      WHERE m."userId" = :userId AND m."teamId" = :teamId`,
+    { replacements: { userId, teamId }, type: QueryTypes.SELECT },
+  );
+  const row = rows[0];
+  return row ? { ...row, generation: Number(row.generation) } : null;
+}
+
+/** Ends every session of a user (sign-out, role change, removal). Safe inside a transaction. */
+export async function bumpSessionGeneration(userId: string, transaction?: Transaction): Promise<void> {
+  await getSequelize().query(`UPDATE "users" SET "sessionGeneration" = "sessionGeneration" + 1 WHERE "id" = :userId`, {
+    replacements: { userId },
+    transaction,
+  });
+}
+
+async function currentGeneration(userId: string): Promise<number> {
+  const rows = await getSequelize().query<{ generation: number }>(`SELECT "sessionGeneration" AS "generation" FROM "users" WHERE "id" = :userId`, {
+    replacements: { userId },
+    type: QueryTypes.SELECT,
+  });
+  return Number(rows[0]?.generation ?? 0);
+}
+
+type RailwiseJwt = JWT & { gen?: number };
+
+/** An ended session: next-auth then answers an empty session and handlers a 401. */
+function ended(token: RailwiseJwt): RailwiseJwt {
+  return { ...token, role: undefined, teamId: undefined, gen: undefined, ended: true } as RailwiseJwt;
+}
+
 export const authOptions: NextAuthOptions = {
   secret: authSecret(),
   session: { strategy: "jwt", maxAge: 12 * 60 * 60 },
+  useSecureCookies: servedOverHttps(),
   pages: { signIn: "/signin", signOut: "/signout" },
   providers: [
     CredentialsProvider({
@@ -46,25 +109,24 @@ export const authOptions: NextAuthOptions = {
   ],
   callbacks: {
     async jwt({ token, user }) {
+      const t = token as RailwiseJwt;
       if (user) {
-        token.sub = user.id;
-        token.role = user.role;
-        token.teamId = user.teamId;
-        token.teamName = user.teamName;
-        return token;
+        t.sub = user.id;
+        t.role = user.role;
+        t.teamId = user.teamId;
+        t.teamName = user.teamName;
+        t.gen = await currentGeneration(user.id);
+        return t;
       }
-      // A role can change (or a member be removed) after sign-in: refresh from the database.
-      if (token.sub && token.teamId) {
-        const member = await findMembership({ userId: token.sub, teamId: token.teamId });
-        if (member) {
-          token.role = member.role;
-          token.teamName = member.teamName;
-          token.name = member.name;
-        } else {
-          delete token.role;
-        }
-      }
-      return token;
+      if (!t.sub || !t.teamId || !t.role || typeof t.gen !== "number") return ended(t);
+      // Every request: one query. A bumped generation (sign-out elsewhere, role change,
+      // removal), a changed role or a missing membership ends this session.
+      const state = await readSessionState(t.sub, t.teamId);
+      if (!state || state.generation !== t.gen || state.role !== t.role) return ended(t);
+      t.teamName = state.teamName;
+      t.name = state.name;
+      t.email = state.email;
+      return t;
     },
     async session({ session, token }) {
       if (token.sub && token.role && token.teamId) {
@@ -76,8 +138,18 @@ export const authOptions: NextAuthOptions = {
           teamId: token.teamId,
           teamName: token.teamName ?? "",
         };
+      } else {
+        // next-auth keeps `user` from the default session; an ended session carries none.
+        (session as { user?: unknown }).user = undefined;
       }
       return session;
+    },
+  },
+  events: {
+    // Sign-out ends every session of the user, including copies of this cookie.
+    async signOut({ token }) {
+      const sub = (token as RailwiseJwt | null)?.sub;
+      if (sub) await bumpSessionGeneration(sub);
     },
   },
 };

@@ -67,13 +67,38 @@ export function errorResponse(err: unknown): Response {
 /** Largest JSON body accepted (a scenario with a long capture fits well inside). */
 export const MAX_JSON_BYTES = 32 * 1024 * 1024;
 
+/** The body's bytes, counted while streaming; throws `tooBig()` as soon as they pass the limit. */
+export async function readBodyBytes(request: Request, limitBytes: number, tooBig: () => AppError): Promise<Uint8Array> {
+  if (!request.body) return new Uint8Array(0);
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > limitBytes) {
+      await reader.cancel().catch(() => undefined);
+      throw tooBig();
+    }
+    chunks.push(value);
+  }
+  const out = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.byteLength;
+  }
+  return out;
+}
+
 /** Reads a JSON body; malformed or missing JSON is a 400, an oversized one 413, never a 500. */
 export async function readJson(request: Request, limitBytes = MAX_JSON_BYTES): Promise<unknown> {
   const declared = Number(request.headers.get("content-length") ?? "NaN");
   const tooBig = () => tooLarge(`The request body is larger than ${Math.round(limitBytes / (1024 * 1024))} MB.`);
   if (Number.isFinite(declared) && declared > limitBytes) throw tooBig();
-  const text = await request.text();
-  if (text.length > limitBytes) throw tooBig();
+  // A chunked body has no Content-Length: count while streaming and stop at the limit (413).
+  const text = new TextDecoder().decode(await readBodyBytes(request, limitBytes, tooBig));
   if (!text.trim()) throw badRequest("The request body must be JSON (it was empty).");
   try {
     return JSON.parse(text) as unknown;

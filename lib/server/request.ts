@@ -1,12 +1,12 @@
 import "server-only";
-import { AppError, badRequest, tooLarge } from "@/lib/server/errors";
+import { AppError, badRequest, MAX_JSON_BYTES, readBodyBytes, tooLarge } from "@/lib/server/errors";
 
 // Request bodies beyond plain JSON (which is errors.ts's readJson): an optional JSON body, and
 // uploads cut off at a byte limit while streaming (413) instead of being buffered whole first.
 
 /** Like readJson, but an empty body means `{}` (e.g. a run link without options). */
-export async function readOptionalJson(request: Request): Promise<unknown> {
-  const text = await request.text();
+export async function readOptionalJson(request: Request, limitBytes = MAX_JSON_BYTES): Promise<unknown> {
+  const text = new TextDecoder().decode(await readLimitedBody(request, limitBytes));
   if (!text.trim()) return {};
   try {
     return JSON.parse(text) as unknown;
@@ -24,27 +24,7 @@ function tooLargeError(limitBytes: number): AppError {
 export async function readLimitedBody(request: Request, limitBytes: number): Promise<Uint8Array> {
   const declared = Number(request.headers.get("content-length") ?? "NaN");
   if (Number.isFinite(declared) && declared > limitBytes) throw tooLargeError(limitBytes);
-  if (!request.body) return new Uint8Array(0);
-  const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > limitBytes) {
-      await reader.cancel().catch(() => undefined);
-      throw tooLargeError(limitBytes);
-    }
-    chunks.push(value);
-  }
-  const out = new Uint8Array(total);
-  let at = 0;
-  for (const c of chunks) {
-    out.set(c, at);
-    at += c.byteLength;
-  }
-  return out;
+  return readBodyBytes(request, limitBytes, () => tooLargeError(limitBytes));
 }
 
 /** multipart/form-data with a byte limit on the whole body. */

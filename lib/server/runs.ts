@@ -1,22 +1,18 @@
 import "server-only";
 // Runs: the server re-runs the stored scenario with lib/sim (the same deterministic core as the
-// browser) and stores the snapshot, events, metrics and decimated samples. Runs are immutable.
-import { checkRunBounds, simulate, toResultJson, SimFailed, type SimResult } from "@/lib/sim";
-import { scenarioSchema, describeIssues, type Scenario } from "@/lib/schemas/scenario";
-import type { ResultJson } from "@/lib/sim/types";
+// browser) in the simulation worker pool (sim-pool.ts: off the request thread, with a wall-time
+// budget and a heap limit) and stores the snapshot, events, metrics and decimated samples.
+// Runs are immutable.
+import type { Scenario } from "@/lib/schemas/scenario";
 import { getModels, getSequelize, type RunRow } from "@/models";
 import { recordAudit } from "./audit";
-import { badRequest, notFound } from "./errors";
+import { notFound } from "./errors";
 import { isId, iso, person, type PersonJson } from "./ids";
 import { getScenarioDataOrThrow } from "./scenarios";
+import { runBudgetMs, runInPool, type StoredResultJson } from "./sim-pool";
 
-/** Stored waveforms are thinned to at most this many points (the plots decimate anyway). */
-export const MAX_STORED_POINTS = 4000;
-
-export interface StoredResultJson extends ResultJson {
-  /** Present when the samples were thinned: how many points the run produced and the method. */
-  decimation?: { from: number; kept: number; method: "min-max" };
-}
+export { decimationIndices, MAX_STORED_POINTS } from "./sim-worker";
+export type { StoredResultJson };
 
 export interface RunJson {
   id: string;
@@ -37,59 +33,12 @@ export interface RunSummaryJson extends Omit<RunJson, "scenario" | "result"> {
 }
 
 /**
- * Indices to keep: both ends, then in each of ⌊(max − 2)/2⌋ equal buckets the samples where the
- * output is lowest and highest (in time order), so narrow pulses and chatter stay visible.
+ * Simulates a stored scenario in the worker pool, refusing (400) what is malformed or past the
+ * server's bounds and (422) what runs past the budget or the heap limit.
  */
-export function decimationIndices(output: ArrayLike<number>, max = MAX_STORED_POINTS): number[] {
-  const n = output.length;
-  if (n <= max) return Array.from({ length: n }, (_, i) => i);
-  const keep: number[] = [0];
-  const buckets = Math.floor((max - 2) / 2);
-  const inner = n - 2;
-  for (let b = 0; b < buckets; b++) {
-    const from = 1 + Math.floor((b * inner) / buckets);
-    const to = 1 + Math.floor(((b + 1) * inner) / buckets);
-    if (to <= from) continue;
-    let lo = from;
-    let hi = from;
-    for (let i = from + 1; i < to; i++) {
-      if (output[i] < output[lo]) lo = i;
-      if (output[i] > output[hi]) hi = i;
-    }
-    if (lo === hi) keep.push(lo);
-    else keep.push(Math.min(lo, hi), Math.max(lo, hi));
-  }
-  keep.push(n - 1);
-  return keep;
-}
-
-function storedResult(result: SimResult): StoredResultJson {
-  const n = result.t.length;
-  if (n <= MAX_STORED_POINTS) return toResultJson(result);
-  const idx = decimationIndices(result.output);
-  const pick = (a: Float64Array) => Float64Array.from(idx, (i) => a[i]);
-  const thinned: SimResult = { ...result, t: pick(result.t), input: pick(result.input), output: pick(result.output) };
-  return { ...toResultJson(thinned), decimation: { from: n, kept: idx.length, method: "min-max" } };
-}
-
-/** Simulates a stored scenario, refusing (400) what is malformed or past the server's bounds. */
-export function runOnServer(data: unknown): { scenario: Scenario; result: StoredResultJson } {
-  const parsed = scenarioSchema.safeParse(data);
-  if (!parsed.success) {
-    const lines = describeIssues(parsed.error);
-    throw badRequest(`The stored scenario is not valid: ${lines.join("; ")}`, parsed.error.issues.map((i) => ({ path: ["scenario", ...i.path.map(String)], message: i.message })));
-  }
-  const scenario = parsed.data;
-  const reasons = checkRunBounds(scenario);
-  if (reasons.length) {
-    throw badRequest(`This run is too large for the server: ${reasons.join("; ")}`, reasons.map((message) => ({ path: ["scenario"], message })));
-  }
-  try {
-    return { scenario, result: storedResult(simulate(scenario)) };
-  } catch (err) {
-    if (err instanceof SimFailed) throw badRequest(`The simulation could not finish: ${err.message}`);
-    throw err;
-  }
+export async function runOnServer(data: unknown): Promise<{ scenario: Scenario; result: StoredResultJson }> {
+  const answer = await runInPool({ kind: "run", scenario: data, budgetMs: runBudgetMs() });
+  return { scenario: answer.scenario, result: answer.result };
 }
 
 type Named = { name: string } | null | undefined;
@@ -131,7 +80,7 @@ export async function createRun({
   label?: string;
 }): Promise<RunJson> {
   const current = await getScenarioDataOrThrow({ id: scenarioId, teamId });
-  const { scenario, result } = runOnServer(current.scenario);
+  const { scenario, result } = await runOnServer(current.scenario);
   const row = await getModels().Run.create({
     teamId,
     scenarioId: current.id,

@@ -1,11 +1,18 @@
 import "server-only";
-// Who is calling, for route handlers. The role is re-read from the database on every call
-// (a token's role can be stale after a role change or removal), so writes use today's role.
+// Who is calling, for route handlers, plus the two request guards every handler goes through:
+// - the session: lib/auth.ts's jwt callback re-reads the member's generation and role from the
+//   database on every request (one indexed query), so this takes today's role from the session
+//   without a second query, and a signed-out or demoted cookie is already empty here;
+// - cross-site request forgery: state-changing requests must come from our own origin and carry
+//   a JSON (or multipart upload) body, or they are refused with 403 before anything is read.
 import { getServerSession } from "next-auth";
+import { QueryTypes } from "sequelize";
 import { authOptions } from "@/lib/auth";
 import type { Role } from "@/lib/schemas/roles";
-import { findMembership } from "./accounts";
-import { forbidden, unauthorized } from "./errors";
+import { notFound } from "next/navigation";
+import { getModels, getSequelize } from "@/models";
+import { isId } from "./ids";
+import { AppError, forbidden, unauthorized } from "./errors";
 
 export interface Member {
   userId: string;
@@ -25,16 +32,100 @@ export const CAN = {
   manageTeam: ["owner"], // invite, change roles, remove members, create boards
 } as const satisfies Record<string, readonly Role[]>;
 
-/** The signed-in member (401 without a valid session). `request` is accepted for symmetry; the
- * session cookie is read through next/headers. */
-export async function requireMember(_request?: Request): Promise<Member> {
-  void _request;
+const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+
+/** The origin the browser saw: Host (or the forwarded host) with the request's scheme. */
+function ownOrigins(request: Request): Set<string> {
+  const url = new URL(request.url);
+  const out = new Set<string>([url.origin]);
+  const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host");
+  if (host) {
+    const proto = (request.headers.get("x-forwarded-proto") ?? url.protocol.replace(":", "")).split(",")[0].trim();
+    out.add(`${proto}://${host}`);
+  }
+  for (const base of [process.env.APP_URL, process.env.NEXTAUTH_URL]) {
+    if (base) {
+      try {
+        out.add(new URL(base).origin);
+      } catch {
+        // a malformed APP_URL is reported by the start script, not here
+      }
+    }
+  }
+  return out;
+}
+
+/**
+ * Refuses (403) a state-changing request a browser sent from another site: its `Origin` must be
+ * ours, or — without Origin — `Sec-Fetch-Site` must be same-origin. Browsers send at least one
+ * of the two on every non-GET request, so a request with neither is not a browser acting for a
+ * signed-in victim (curl, the test client) and passes this check.
+ */
+export function checkSameOrigin(request: Request): void {
+  if (SAFE_METHODS.has(request.method.toUpperCase())) return;
+  const origin = request.headers.get("origin");
+  if (origin !== null) {
+    if (!ownOrigins(request).has(origin)) {
+      throw new AppError(403, "cross_origin", `Requests from another site are refused (Origin ${origin.slice(0, 100)}).`);
+    }
+    return;
+  }
+  const site = request.headers.get("sec-fetch-site");
+  if (site !== null && site !== "same-origin" && site !== "none") {
+    throw new AppError(403, "cross_origin", `Requests from another site are refused (Sec-Fetch-Site ${site.slice(0, 40)}).`);
+  }
+}
+
+/** Whether the request has a body (declared length above 0, or a chunked stream). */
+function hasBody(request: Request): boolean {
+  const length = request.headers.get("content-length");
+  if (length !== null) return Number(length) > 0;
+  // HTTP/1.1: without Content-Length or Transfer-Encoding a request has no body (the platform
+  // may still hand an empty stream to the handler).
+  return request.headers.has("transfer-encoding");
+}
+
+/**
+ * Refuses (403) a body a plain HTML form or `text/plain` fetch could send across sites: bodies
+ * must be `application/json`, or `multipart/form-data` where the route takes an upload.
+ */
+export function checkBodyType(request: Request, { multipart = false }: { multipart?: boolean } = {}): void {
+  if (SAFE_METHODS.has(request.method.toUpperCase()) || !hasBody(request)) return;
+  const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
+  if (type === "application/json" || (multipart && type === "multipart/form-data")) return;
+  const want = multipart ? "application/json or multipart/form-data" : "application/json";
+  throw new AppError(403, "unsupported_content_type", `Send the body as ${want} (content-type was ${type ? `"${type.slice(0, 80)}"` : "missing"}).`);
+}
+
+/** Both request guards; upload routes pass `multipart: true`. */
+export function guardRequest(request: Request, options: { multipart?: boolean } = {}): void {
+  checkSameOrigin(request);
+  checkBodyType(request, options);
+}
+
+/** Routes that take multipart uploads (the captures and part-profile CSV imports). */
+function takesUpload(request: Request): boolean {
+  const path = new URL(request.url).pathname;
+  return path === "/api/captures" || path === "/api/parts/import";
+}
+
+/**
+ * The signed-in member (401 without a valid session). With the request, non-GET calls are first
+ * checked for cross-site forgery (403).
+ */
+export async function requireMember(request?: Request): Promise<Member> {
+  if (request) guardRequest(request, { multipart: takesUpload(request) });
   const session = await getServerSession(authOptions);
   const user = session?.user;
-  if (!user?.id || !user.teamId) throw unauthorized();
-  const member = await findMembership({ userId: user.id, teamId: user.teamId });
-  if (!member) throw unauthorized("Your membership has ended; sign in again.");
-  return member;
+  if (!user?.id || !user.teamId || !user.role) throw unauthorized();
+  return {
+    userId: user.id,
+    teamId: user.teamId,
+    teamName: user.teamName ?? "",
+    role: user.role,
+    name: user.name ?? "",
+    email: user.email ?? "",
+  };
 }
 
 /** Throws 403 unless the member's role is one of `roles`; returns the member for chaining. */
@@ -43,4 +134,82 @@ export function requireRole(member: Member, roles: readonly Role[]): Member {
     throw forbidden(`Your role (${member.role}) does not allow this; it needs ${roles.join(" or ")}.`);
   }
   return member;
+}
+
+// ---- Rate limits (sign-in and invitation acceptance), stored in the database ----
+
+export interface RateRule {
+  /** Failures allowed inside `windowMs` before the key is locked. */
+  maxFailures: number;
+  windowMs: number;
+  lockMs: number;
+}
+
+/** Per account: 5 wrong passwords in 15 min lock it for 15 min. Per address: 20. */
+export const SIGN_IN_ACCOUNT: RateRule = { maxFailures: 5, windowMs: 15 * 60_000, lockMs: 15 * 60_000 };
+export const SIGN_IN_ADDRESS: RateRule = { maxFailures: 20, windowMs: 15 * 60_000, lockMs: 15 * 60_000 };
+export const INVITE_ADDRESS: RateRule = { maxFailures: 20, windowMs: 15 * 60_000, lockMs: 15 * 60_000 };
+
+export const tooManyRequests = (retryAfterS: number) =>
+  new AppError(429, "rate_limited", `Too many failed attempts; try again in ${Math.ceil(retryAfterS / 60)} min.`, undefined);
+
+/** Seconds until `key` may try again, or 0 when it is not locked. */
+export async function lockedFor(key: string, now = Date.now()): Promise<number> {
+  const rows = await getSequelize().query<{ lockedUntil: number | string }>(`SELECT "lockedUntil" FROM "rate_limits" WHERE "key" = :key`, {
+    replacements: { key },
+    type: QueryTypes.SELECT,
+  });
+  const until = Number(rows[0]?.lockedUntil ?? 0);
+  return until > now ? Math.ceil((until - now) / 1000) : 0;
+}
+
+/** Counts one failure against `key`; locks it once the rule's count is reached in its window. */
+export async function recordFailure(key: string, rule: RateRule, now = Date.now()): Promise<void> {
+  const sequelize = getSequelize();
+  await sequelize.transaction(async (transaction) => {
+    const rows = await sequelize.query<{ failures: number | string; windowStart: number | string }>(
+      `SELECT "failures", "windowStart" FROM "rate_limits" WHERE "key" = :key`,
+      { replacements: { key }, type: QueryTypes.SELECT, transaction },
+    );
+    const row = rows[0];
+    const fresh = !row || now - Number(row.windowStart) > rule.windowMs;
+    const failures = fresh ? 1 : Number(row.failures) + 1;
+    const windowStart = fresh ? now : Number(row.windowStart);
+    const lockedUntil = failures >= rule.maxFailures ? now + rule.lockMs : 0;
+    // One upsert statement both dialects understand (SQLite ≥ 3.24, PostgreSQL ≥ 9.5).
+    await sequelize.query(
+      `INSERT INTO "rate_limits" ("key", "failures", "windowStart", "lockedUntil") VALUES (:key, :failures, :windowStart, :lockedUntil)
+       ON CONFLICT ("key") DO UPDATE SET "failures" = :failures, "windowStart" = :windowStart, "lockedUntil" = :lockedUntil`,
+      { replacements: { key, failures, windowStart, lockedUntil }, transaction },
+    );
+  });
+}
+
+/** A success clears the key (the account's count, not the address's). */
+export async function clearFailures(key: string): Promise<void> {
+  await getSequelize().query(`DELETE FROM "rate_limits" WHERE "key" = :key`, { replacements: { key } });
+}
+
+/**
+ * The caller's network address as the server saw it. Next's server puts the socket address in
+ * x-forwarded-for (first entry) when no proxy set one; a trusted reverse proxy sets it too.
+ */
+export function clientAddress(request: Request): string {
+  const forwarded = request.headers.get("x-forwarded-for");
+  const first = forwarded?.split(",")[0]?.trim();
+  return (first || request.headers.get("x-real-ip") || "unknown").slice(0, 64);
+}
+
+// ---- Pages for one item ----
+
+/**
+ * For pages of one board, scenario or run: 404 (Next's not-found page) unless `id` names an
+ * item of the viewer's team, like the API answers — never an empty view of another team's id.
+ */
+export async function requireTeamItemOr404(kind: "board" | "scenario" | "run", id: string, teamId: string): Promise<void> {
+  if (!isId(id)) notFound();
+  const { Board, Scenario, Run } = getModels();
+  const where = { where: { id, teamId }, attributes: ["id"] };
+  const row = kind === "board" ? await Board.findOne(where) : kind === "scenario" ? await Scenario.findOne(where) : await Run.findOne(where);
+  if (!row) notFound();
 }

@@ -1,42 +1,35 @@
 import "server-only";
 // Studies stored with their run (runs.study). The client uploads the configuration and the raw
-// per-task outputs; here the summaries are recomputed and a few tasks re-simulated on the run's
-// own scenario snapshot, so a saved study holds no number the client made up.
+// per-task outputs; the server re-runs every task itself in the simulation pool (sim-worker.ts:
+// each task through the same run bounds as a run, the whole study under one wall-time budget),
+// refuses an upload that disagrees on any task, and stores only its own task outputs and the
+// summaries computed from them — so a saved study holds no number the client made up.
 import { getModels, getSequelize } from "@/models";
 import { parseScenario, ScenarioError } from "@/lib/schemas/scenario";
-import { simulate } from "@/lib/sim";
-import { buildSavedStudy, StudyMismatch, type SavedStudy, type StudyUpload } from "@/lib/studies";
-import { studyCorners } from "@/lib/studies/corners";
+import type { SavedStudy, StudyUpload } from "@/lib/studies";
 import { recordAudit } from "./audit";
-import { AppError, badRequest, notFound } from "./errors";
+import { AppError, notFound } from "./errors";
+import { isId } from "./ids";
+import { runInPool, studyBudgetMs } from "./sim-pool";
 
 /** Saved studies are read with the run; this one is for the study alone. */
 export async function getRunStudyOrThrow({ runId, teamId }: { runId: string; teamId: string }): Promise<SavedStudy | null> {
-  const run = await getModels().Run.findOne({ where: { id: runId, teamId }, attributes: ["id", "study"] });
+  const run = isId(runId) ? await getModels().Run.findOne({ where: { id: runId, teamId }, attributes: ["id", "study"] }) : null;
   if (!run) throw notFound("No such run in your team.");
   return (run.study as SavedStudy | null) ?? null;
 }
 
 export async function saveRunStudy({ runId, teamId, actorId, upload }: { runId: string; teamId: string; actorId: string; upload: StudyUpload }): Promise<SavedStudy> {
   const { Run } = getModels();
-  const run = await Run.findOne({ where: { id: runId, teamId }, attributes: ["id", "scenario"] });
+  const run = isId(runId) ? await Run.findOne({ where: { id: runId, teamId }, attributes: ["id", "scenario"] }) : null;
   if (!run) throw notFound("No such run in your team.");
-  let scenario;
   try {
-    scenario = parseScenario(run.scenario);
+    parseScenario(run.scenario);
   } catch (err) {
     if (err instanceof ScenarioError) throw new AppError(409, "conflict", "This run's scenario snapshot no longer parses; re-run the scenario first.");
     throw err;
   }
-  let saved: SavedStudy;
-  try {
-    saved = buildSavedStudy(scenario, upload, simulate, { corners: studyCorners(scenario, upload.toleranceSpread?.config) });
-  } catch (err) {
-    if (err instanceof StudyMismatch) {
-      throw badRequest(`${err.message}. Run the study again on this run's scenario before saving.`, [{ path: err.field.split("."), message: err.message }]);
-    }
-    throw err;
-  }
+  const { study: saved } = await runInPool({ kind: "study", scenario: run.scenario, upload, budgetMs: studyBudgetMs() });
   await getSequelize().transaction(async (transaction) => {
     await Run.update({ study: saved }, { where: { id: runId, teamId }, transaction });
     await recordAudit(

@@ -5,6 +5,7 @@ import { getModels, getSequelize } from "@/models";
 import { badRequest, conflict, gone, notFound } from "@/lib/server/errors";
 import { recordAudit } from "@/lib/server/audit";
 import { sendMail, appBaseUrl } from "@/lib/server/mail";
+import { bumpSessionGeneration } from "@/lib/auth";
 import { hashToken, newToken, plausibleToken } from "@/lib/server/tokens";
 import {
   INVITATION_TTL_HOURS,
@@ -76,6 +77,7 @@ export async function changeMemberRole({
     }
     m.role = role;
     await m.save({ transaction });
+    await bumpSessionGeneration(m.userId as string, transaction); // the member signs in again with the new role
     await recordAudit(
       { teamId, actorId, action: "member.role_changed", targetType: "user", targetId: m.userId as string, details: { from, to: role } },
       transaction,
@@ -95,6 +97,7 @@ export async function removeMember({ teamId, actorId, memberId }: { teamId: stri
     }
     const user = await getModels().User.findByPk(m.userId as string, { attributes: ["email", "name"], transaction });
     await m.destroy({ transaction });
+    await bumpSessionGeneration(m.userId as string, transaction); // ends the removed member's sessions
     await recordAudit(
       {
         teamId,

@@ -3,7 +3,7 @@ import { notFound } from "next/navigation";
 import { Card } from "@/components/ui/card";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
-import { listMailbox, mailboxVisible, mailDir } from "@/lib/server/mailbox";
+import { listMailboxFor, mailboxVisible, mailDir } from "@/lib/server/mailbox";
 import { smtpUrl } from "@/lib/server/mail";
 import { requirePageUser } from "@/lib/page-session";
 
@@ -33,18 +33,17 @@ function Linkified({ text }: { text: string }) {
 export default async function MailboxPage() {
   if (!mailboxVisible()) notFound();
   const user = await requirePageUser();
-  // The owner (who can invite anyway) sees every mail; others only mail addressed to them, so
-  // an invitation link in the sink cannot be picked up by another member.
+  // The sink holds every team's mail: a member sees only mail addressed to them, an owner also
+  // the own team's outgoing mail (invitations, run notifications), never another team's.
   const everything = user.role === "owner";
-  const mine = (user.email ?? "").toLowerCase();
-  const mails = (await listMailbox()).filter((m) => everything || m.to.some((to) => to.toLowerCase() === mine));
+  const mails = await listMailboxFor({ email: user.email, role: user.role, teamId: user.teamId });
   return (
     <div className="flex flex-col gap-4">
       <PageHeader
         title="Mailbox"
         description={
           <>
-            {everything ? "All mail" : "Mail to you"} caught by the local sink ({smtpUrl().replace(/\/\/[^@]*@/, "//")}), stored in{" "}
+            {everything ? "Mail to you and your team's outgoing mail" : "Mail to you"} caught by the local sink ({smtpUrl().replace(/\/\/[^@]*@/, "//")}), stored in{" "}
             <span className="font-mono">{mailDir()}</span>. Not shown once real SMTP is configured in production.
           </>
         }

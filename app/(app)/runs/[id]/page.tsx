@@ -5,6 +5,7 @@ import { RunReviewState } from "@/components/review/run-review-state";
 import { ButtonLink } from "@/components/ui/button";
 import { requirePageUser } from "@/lib/page-session";
 import { RunStudies } from "@/components/studies/run-studies";
+import { requireTeamItemOr404 } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Run" };
 
@@ -12,6 +13,7 @@ export const metadata: Metadata = { title: "Run" };
 export default async function RunPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const user = await requirePageUser();
+  await requireTeamItemOr404("run", id, user.teamId);
   return (
     <RunScreen
       runId={id}

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { ScenarioWorkbench } from "@/components/workbench/workbench";
 import { ScenarioReadOnly } from "@/components/workbench/scenario-readonly";
 import { canEdit, requirePageUser } from "@/lib/page-session";
+import { requireTeamItemOr404 } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Scenario" };
 
@@ -9,5 +10,6 @@ export const metadata: Metadata = { title: "Scenario" };
 // saved runs' plots. Route handlers enforce the roles again on every write.
 export default async function ScenarioPage({ params }: { params: Promise<{ id: string }> }) {
   const [{ id }, user] = await Promise.all([params, requirePageUser()]);
+  await requireTeamItemOr404("scenario", id, user.teamId);
   return canEdit(user.role) ? <ScenarioWorkbench scenarioId={id} /> : <ScenarioReadOnly scenarioId={id} />;
 }

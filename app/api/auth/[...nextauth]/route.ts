@@ -22,6 +22,30 @@ const handler = NextAuth(authOptions) as (request: Request, ctx: Ctx) => Promise
 
 const isCredentialsCallback = (request: Request) => new URL(request.url).pathname === "/api/auth/callback/credentials";
 
+// The endpoints next-auth serves for a credentials-only set-up; any other path under /api/auth
+// is a 404 here (next-auth itself throws on unknown actions, which would be a 500).
+const KNOWN = {
+  GET: new Set(["csrf", "session", "providers", "signin", "signout", "error", "callback/credentials", "signin/credentials"]),
+  POST: new Set(["signin/credentials", "callback/credentials", "signout", "session", "_log"]),
+};
+
+function known(request: Request, method: "GET" | "POST"): boolean {
+  const action = new URL(request.url).pathname.replace(/^\/api\/auth\/?/, "").replace(/\/+$/, "");
+  return KNOWN[method].has(action);
+}
+
+const notFoundHere = () => Response.json({ error: "not_found", message: "No such sign-in endpoint." }, { status: 404 });
+
+/** next-auth with a last guard: anything it throws on a malformed request is a 400, not a 500. */
+async function delegate(request: Request, ctx: Ctx): Promise<Response> {
+  try {
+    return await handler(request, ctx);
+  } catch (err) {
+    console.error("[railwise] sign-in endpoint refused a malformed request:", err instanceof Error ? err.message : String(err));
+    return Response.json({ error: "invalid_input", message: "The sign-in request could not be read." }, { status: 400 });
+  }
+}
+
 function limited(seconds: number): Response {
   const res = errorResponse(tooManyRequests(seconds));
   res.headers.set("Retry-After", String(seconds));
@@ -32,7 +56,8 @@ export async function GET(request: Request, ctx: Ctx) {
   if (isCredentialsCallback(request)) {
     return Response.json({ error: "method_not_allowed", message: "Sign in with a POST from the sign-in page." }, { status: 405, headers: { Allow: "POST" } });
   }
-  return handler(request, ctx);
+  if (!known(request, "GET")) return notFoundHere();
+  return delegate(request, ctx);
 }
 
 export async function POST(request: Request, ctx: Ctx) {
@@ -41,7 +66,8 @@ export async function POST(request: Request, ctx: Ctx) {
   } catch (err) {
     return errorResponse(err);
   }
-  if (!isCredentialsCallback(request)) return handler(request, ctx);
+  if (!known(request, "POST")) return notFoundHere();
+  if (!isCredentialsCallback(request)) return delegate(request, ctx);
 
   // Read the form once (next-auth reads its own copy), bounded: a sign-in form is tiny.
   const copy = request.clone();
@@ -57,7 +83,7 @@ export async function POST(request: Request, ctx: Ctx) {
   const wait = Math.max(await lockedFor(addressKey), accountKey ? await lockedFor(accountKey) : 0);
   if (wait > 0) return limited(wait);
 
-  const res = await handler(request, ctx);
+  const res = await delegate(request, ctx);
   const signedIn = res.headers.getSetCookie().some((c) => /next-auth\.session-token=[^;]+/.test(c));
   if (signedIn) {
     if (accountKey) await clearFailures(accountKey);
