@@ -12,6 +12,7 @@ import { PageHeader } from "@/components/ui/page-header";
 import { PLOT_COLORS } from "@/components/plots/use-uplot";
 import { VersionDiffTable } from "@/components/scenario/version-diff-table";
 import { useRun, useRuns, useScenario, useScenarios, type RunRecord } from "@/lib/client/hooks";
+import { NotFoundNote } from "./not-found-note";
 import { PlotImage, type PlotSpec } from "./plot-image";
 import { ReadingsCompare } from "./readings-compare";
 
@@ -88,7 +89,8 @@ function ComparePicker({ run, withId }: { run: Versioned; withId: string | null 
 }
 
 export function CompareView({ runId, withId }: { runId: string; withId: string | null }) {
-  const a = useRun(runId).data as Versioned | undefined;
+  const aState = useRun(runId);
+  const a = aState.data as Versioned | undefined;
   const siblings = (useRuns(a?.scenarioId ?? null).data?.items ?? []) as Versioned[];
   // Default: the newest earlier run of the same scenario.
   const fallback = useMemo(() => {
@@ -101,6 +103,7 @@ export function CompareView({ runId, withId }: { runId: string; withId: string |
   const trace = useMemo(() => (a && b ? traceOverlay(a, b) : null), [a, b]);
   const loop = useMemo(() => (a && b ? loopOverlay(a, b) : null), [a, b]);
 
+  if (aState.error) return <NotFoundNote error={aState.error} />;
   if (!a) return <LoadingRows rows={6} />;
   const aTitle = runTitle(a, "This run");
   return (

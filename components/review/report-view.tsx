@@ -22,6 +22,7 @@ import { useComments, useRunLinks } from "@/lib/client/team-hooks";
 import { useReviewRequests, useSignoffList } from "@/lib/client/review-hooks";
 import { DECISION_LABEL } from "@/lib/schemas/team";
 import type { SavedStudy } from "@/lib/studies/saved";
+import { NotFoundNote } from "./not-found-note";
 import { PlotImage, type PlotSpec } from "./plot-image";
 
 type Versioned = RunRecord & { scenarioVersion?: number | null };
@@ -105,7 +106,8 @@ function studyVerdicts(study: SavedStudy | null | undefined): string[] {
 }
 
 export function ReportView({ runId }: { runId: string }) {
-  const run = useRun(runId).data as Versioned | undefined;
+  const runState = useRun(runId);
+  const run = runState.data as Versioned | undefined;
   const scenarioRow = useScenario(run?.scenarioId || null).data;
   const signoffs = useSignoffList(runId).data;
   const comments = useComments(runId).data;
@@ -160,6 +162,7 @@ export function ReportView({ runId }: { runId: string }) {
     };
   }, [run]);
 
+  if (runState.error) return <NotFoundNote error={runState.error} />;
   if (!run || !derived) return <LoadingRows rows={10} />;
   const { scenario, result } = run;
   const m = result.metrics;

@@ -251,6 +251,16 @@ describe("review you can sign", () => {
     expect(await linkRow.textContent()).toContain('run "Shared for the yard" of Battery low-voltage disconnect');
     expect(await linkRow.textContent()).toContain("for yard bench tech");
     await screenshot(oPage, "review-team-audit");
+
+    // Another team's member: the report and the comparison of this run are "not found", and show nothing of it.
+    const xPage = await newPage(errors);
+    await signInPage(xPage, server.url, EMAILS.other);
+    for (const sub of ["report", "compare"]) {
+      await xPage.goto(`${server.url}/runs/${runId}/${sub}`);
+      // Either the page's own "Run not found" or the app's 404 page: both say it is not there.
+      await xPage.getByText(/^(Run not found|Nothing at this address)$/).first().waitFor();
+      expect(await xPage.content()).not.toContain("Shared for the yard");
+    }
     expect(errors).toEqual([]);
   });
 
