@@ -18,7 +18,8 @@
 //  server load test as the last section.
 // GCs are counted from PerformanceObserver "gc" entries whose start falls inside a timed run
 // (the entries arrive asynchronously, so they are matched by time after the runs).
-// Flags: --only-sine (just section 4), --no-cli (skip 5), --no-studies, --no-load.
+// Flags: --only-sine (just section 4), --only-load (just the load test), --no-cli (skip 5),
+// --no-studies, --no-load.
 import { spawnSync } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
 import os from "node:os";
@@ -248,6 +249,10 @@ async function main(): Promise<void> {
     "wall = median of 7 in-process runs after 5 warm-ups (3 for the sine rows; cold = the very first run, JIT not warm); cpu = process CPU time of the median run\n" +
       "(wall ≫ cpu means other processes were competing for the 2 cores)\n\n",
   );
+  if (flag("--only-load")) {
+    loadSection();
+    return;
+  }
   if (!flag("--only-sine")) await coreRows();
   await sineRows();
   if (!flag("--only-sine") && !flag("--no-cli")) cliRows();
@@ -610,12 +615,23 @@ function cliRows(): void {
   process.stdout.write("\nCLI start through the railwise bin (wall time of the whole process)\n" + table(rows) + "\n");
 }
 
-/** Server load test (scripts/bench-load.ts, when it exists) as the last section; never fails the bench. */
+/**
+ * Server load test (scripts/bench-load.ts, when it exists) as the last section. It starts
+ * `next start` from the production build in NEXT_DIST_DIR (default .next-test); without that
+ * build the section says so and is skipped. It never fails the bench. Skip it with --no-load.
+ */
 function loadSection(): void {
   const file = path.join(ROOT, "scripts/bench-load.ts");
-  process.stdout.write("\nServer load test (scripts/bench-load.ts)\n");
+  process.stdout.write("\nServer load test (scripts/bench-load.ts; skip with --no-load)\n");
   if (!existsSync(file)) {
     process.stdout.write("  skipped: scripts/bench-load.ts does not exist in this tree\n");
+    return;
+  }
+  const distDir = process.env.NEXT_DIST_DIR ?? ".next-test";
+  if (!existsSync(path.join(ROOT, distDir, "BUILD_ID"))) {
+    process.stdout.write(
+      `  skipped: no production build in ${distDir} (build one with \`NEXT_DIST_DIR=${distDir} npx next build\`, or set NEXT_DIST_DIR to an existing build)\n`,
+    );
     return;
   }
   const r = spawnSync(path.join(ROOT, "node_modules/.bin/tsx"), [file], {
@@ -625,7 +641,7 @@ function loadSection(): void {
   });
   if (r.status !== 0) {
     process.stdout.write(
-      `  the load test did not complete (exit ${r.status ?? r.signal}); it needs a production build (npx next build) — the rest of the bench stands\n`,
+      `  the load test did not complete (exit ${r.status ?? r.signal}); the rest of the bench stands\n`,
     );
   }
 }
