@@ -191,7 +191,11 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
       className="min-w-0"
       actions={
         <span className="flex items-center gap-2">
-          {blocked && (noise || tolerance) ? <span className="text-[12px] text-caution" data-testid="study-save-blocked">{blocked}</span> : null}
+          {blocked && (noise || tolerance) ? (
+            <span className="text-[12px] text-caution" data-testid="study-save-blocked">{blocked}</span>
+          ) : !(noise || tolerance) ? (
+            <span className="text-[12px] text-ink-mute" data-testid="study-save-blocked">Run a study first; then save it with a new run.</span>
+          ) : null}
           <Button size="sm" variant="primary" disabled={!(noise || tolerance) || !!blocked || saving || !!running} onClick={() => void save()} data-testid="save-study-button">
             {saving ? "Saving…" : "Save with a new run"}
           </Button>
@@ -211,7 +215,7 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
         {!scenario ? (
           <p className="px-4 py-3 text-[13px] text-alert">Fix the scenario's fields first: a study needs a valid scenario.</p>
         ) : (
-          <div className="grid min-w-0 gap-0 lg:grid-cols-[300px_minmax(0,1fr)]">
+          <div className="grid min-w-0 gap-0 lg:grid-cols-[340px_minmax(0,1fr)]">
             <div className="border-b border-paper-line lg:border-b-0 lg:border-r">
               {tab === "noise" ? (
                 <NoiseFormMemo key={`n-${scenario.stage.kind}`} scenario={scenario} capture={capture} busy={!!running} onRun={runNoise} />

@@ -14,6 +14,7 @@ import { QuantityField } from "./quantity-field";
 import { MiniButton, Section, SelectRow } from "./controls";
 import { useWb, useWbApi } from "./store";
 import { refuseIfInvalid } from "./field-problems";
+import { designWarningText } from "@/lib/workbench/design-words";
 import { frontEndOf, sensorToInput, type SensorSetup, SensorFields, defaultSensor } from "./spec-sensors";
 
 type TargetMode = "thresholds" | "threshold" | "gain" | "frequency";
@@ -352,7 +353,7 @@ function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult
         <ul className="mt-2 space-y-1">
           {result.warnings.map((w) => (
             <li key={w} className="rounded border-l-[3px] border-caution bg-caution-soft/60 px-2 py-1 text-[12px]">
-              {w}
+              {designWarningText(w)}
             </li>
           ))}
         </ul>

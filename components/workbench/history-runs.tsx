@@ -55,7 +55,13 @@ export function HistoryCard({ canEdit }: { canEdit: boolean }) {
   };
 
   return (
-    <Card title="History" description="Every save is a version; restoring one saves it again as the newest." padded={false} className="min-w-0">
+    <Card
+      title="History"
+      description="Every save is a version; restoring one saves it again as the newest."
+      padded={false}
+      // A version being viewed gets the full width: its tables need it.
+      className={viewing?.scenario ? "min-w-0 xl:col-span-2" : "min-w-0"}
+    >
       {error ? (
         <p className="px-4 py-3 text-[13px] text-alert">Could not load versions: {errorMessage(error)}</p>
       ) : isLoading ? (
@@ -65,7 +71,7 @@ export function HistoryCard({ canEdit }: { canEdit: boolean }) {
           {items.map((v) => (
             <li key={v.version} className="px-4 py-1.5">
               <div className="flex items-center justify-between gap-2 text-[13px]">
-                <span className="min-w-0 truncate">
+                <span className="min-w-0 leading-snug">
                   <span className="mr-2 font-mono text-ink">v{v.version}</span>
                   {v.version === current ? <Badge tone="copper">current</Badge> : null}{" "}
                   <span className="text-ink-mute">
@@ -112,26 +118,26 @@ export function RunsCard({ action }: { action?: React.ReactNode }) {
             <thead className="sticky top-0 bg-paper-card">
               <tr className="border-b border-paper-line text-left text-[11.5px] text-ink-mute">
                 <th className="px-4 py-1.5 font-medium">run</th>
-                <th className="py-1.5 font-medium">saved</th>
-                <th className="py-1.5 text-right font-medium">upper</th>
-                <th className="py-1.5 text-right font-medium">lower</th>
-                <th className="py-1.5 pr-4 text-right font-medium">edges</th>
+                <th className="px-2 py-1.5 font-medium">saved</th>
+                <th className="px-2 py-1.5 text-right font-medium">upper</th>
+                <th className="px-2 py-1.5 text-right font-medium">lower</th>
+                <th className="py-1.5 pl-2 pr-4 text-right font-medium">edges</th>
               </tr>
             </thead>
             <tbody>
               {items.map((r) => (
                 <tr key={r.id} className="border-b border-paper-line/70 last:border-0 hover:bg-paper/60">
-                  <td className="max-w-[14rem] truncate px-4 py-1.5">
+                  <td className="max-w-[14rem] break-words px-4 py-1.5">
                     <Link href={`/runs/${r.id}`} className="text-copper-deep hover:underline">
                       {r.label || `Run ${r.id.slice(0, 8)}`}
                     </Link>
                   </td>
-                  <td className="py-1.5 text-ink-mute">
+                  <td className="px-2 py-1.5 text-ink-mute">
                     {when(r.createdAt)} · {personName(r.createdBy)}
                   </td>
-                  <td className="py-1.5 text-right font-mono">{r.result?.metrics.upperThreshold == null ? "—" : formatQuantity(r.result.metrics.upperThreshold, "V", 4)}</td>
-                  <td className="py-1.5 text-right font-mono">{r.result?.metrics.lowerThreshold == null ? "—" : formatQuantity(r.result.metrics.lowerThreshold, "V", 4)}</td>
-                  <td className="py-1.5 pr-4 text-right font-mono">{r.result?.metrics.transitions ?? "—"}</td>
+                  <td className="whitespace-nowrap px-2 py-1.5 text-right font-mono">{r.result?.metrics.upperThreshold == null ? "—" : formatQuantity(r.result.metrics.upperThreshold, "V", 4)}</td>
+                  <td className="whitespace-nowrap px-2 py-1.5 text-right font-mono">{r.result?.metrics.lowerThreshold == null ? "—" : formatQuantity(r.result.metrics.lowerThreshold, "V", 4)}</td>
+                  <td className="whitespace-nowrap py-1.5 pl-2 pr-4 text-right font-mono">{r.result?.metrics.transitions ?? "—"}</td>
                 </tr>
               ))}
             </tbody>

@@ -67,7 +67,7 @@ export function QuantityField({ label, value, unit, onCommit, hint, validate, di
       <span className="truncate text-[13px] text-ink-soft" title={hint ? `${label}: ${hint}` : undefined}>
         {label}
       </span>
-      <span className="flex min-w-0 items-center gap-2">
+      <span className="flex min-w-0 flex-wrap items-center gap-x-2">
         <input
           id={id}
           name={name ?? label}
@@ -99,12 +99,12 @@ export function QuantityField({ label, value, unit, onCommit, hint, validate, di
           onBlur={() => {
             if (!problem) setText(show(committed.current, plain, digits));
           }}
-          className={`w-24 shrink-0 rounded border bg-white px-1.5 py-0.5 font-mono text-[13px] text-ink outline-none focus:border-indigo disabled:bg-paper-sunk disabled:text-ink-mute ${
+          className={`w-[5.5rem] shrink-0 rounded border bg-white px-1.5 py-0.5 font-mono text-[13px] text-ink outline-none focus:border-indigo disabled:bg-paper-sunk disabled:text-ink-mute ${
             problem ? "border-alert bg-alert-soft/40" : "border-paper-line"
           }`}
         />
         <span
-          className={`min-w-0 truncate font-mono text-[12px] ${problem ? "text-alert" : "text-ink-mute"}`}
+          className={`min-w-0 font-mono text-[12px] ${problem ? "text-alert" : "whitespace-nowrap text-ink-mute"}`}
           data-parsed={name ?? label}
           aria-live="polite"
         >

@@ -91,8 +91,8 @@ export function ReadingsTable({
             {checks.map((c) => (
               <tr key={c.label} className="border-b border-paper-line/70 last:border-0" data-check={c.label}>
                 <td className="py-1 pr-2 leading-tight text-ink-soft">{c.label.replace(" switching point", " point")}</td>
-                <td className="whitespace-nowrap py-1 pl-2 text-right font-mono">{fmt(c.designed, c.unit)}</td>
-                <td className="whitespace-nowrap py-1 pl-3 text-right font-mono">{fmt(c.measured, c.unit)}</td>
+                <td className="whitespace-nowrap py-1 pl-2 text-right font-mono">{c.unit === "edges" ? `≤ ${c.designed}` : fmt(c.designed, c.unit)}</td>
+                <td className="whitespace-nowrap py-1 pl-3 text-right font-mono">{c.unit === "edges" ? (c.measured == null ? "—" : String(c.measured)) : fmt(c.measured, c.unit)}</td>
                 <td className="py-1 pl-2 text-right">
                   <span
                     title={c.unit === "edges" ? `at most ${c.designed} extra edges` : `allowed ± ${fmt(c.tolerance, c.unit, 2)}`}

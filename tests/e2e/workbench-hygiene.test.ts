@@ -148,9 +148,14 @@ describe("tick labels (#16 item 3)", () => {
       await openWorkbench(page, scenarioId(/status-lamp|blinker/i));
       await runAndWait(page);
       const seen: string[][] = [];
-      for (const width of [1680, 1280, 1100, 900, 700, 390]) {
+      // The oscillator's capacitor is on the Trace with its two switching levels (#10).
+      expect(await page.getByTestId("trace-plot").getAttribute("data-series")).toMatch(/capacitor \(v−\).*switching levels of the capacitor/);
+      // Widths in small steps: uPlot picks 1, 2, 2.5 or 5 × 10ⁿ per tick from the pixels it has.
+      const widths = [390, 480];
+      for (let w = 640; w <= 1840; w += 60) widths.push(w);
+      for (const width of widths) {
         await page.setViewportSize({ width, height: 900 });
-        await page.waitForTimeout(400);
+        await page.waitForTimeout(250);
         const sets = await page.evaluate(() =>
           Array.from(document.querySelectorAll<HTMLElement>("[data-testid=trace-plot] .uplot, [data-testid=loop-plot] .uplot")).flatMap((el) =>
             [el.dataset.ticks0, el.dataset.ticks1].filter((x): x is string => !!x).map((x) => x.split("|")),
@@ -173,6 +178,8 @@ describe("tick labels (#16 item 3)", () => {
         if (Math.abs(mant - 2.5) < 1e-9) nonRound++;
       }
       console.log(`[hygiene] tick sets read: ${seen.length}, with 2.5-type steps: ${nonRound}; e.g. ${seen.slice(0, 3).map((s) => s.join(" ")).join(" / ")}`);
+      // The sweep must have met the case that used to be mislabelled (0.25 s read as 0.3 s).
+      expect(nonRound).toBeGreaterThan(0);
     } finally {
       await ctx.close();
     }

@@ -125,3 +125,13 @@ describe("study messages in the form's words", () => {
     expect(studyIssueText([{ message: "rmsTo must be above rmsFrom" }])).toBe("“rms to” must be above “rms from”");
   });
 });
+
+describe("design warnings in the panel's words", () => {
+  it("names the figure by its label and says where the window came from", async () => {
+    const { designWarningText } = await import("@/lib/workbench/design-words");
+    const t = designWarningText("lowerThreshold: the worst case [1.957, 2.04] leaves the ±2.0 % window [1.96, 2.04]; tighter tolerance would help");
+    expect(t).toMatch(/^Lower switching point: /);
+    expect(t).toMatch(/±2\.0 % window \(the default allowed error of a design\)/);
+    expect(designWarningText("gain: the best E24 combination is 3.10 % off the target (maxError 2.00 %); a finer series")).toMatch(/^Gain: .*\(the default allowed error is 2\.00 %\)/);
+  });
+});
