@@ -313,3 +313,35 @@ describe("captures (#16 item 7)", () => {
     }
   });
 });
+
+describe("exports stand on their own (#16 items 8 and 9)", () => {
+  it("exports the Trace as a PNG with a heading above the plot, and CSV times at the grid's precision", async () => {
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+    const page = await ctx.newPage();
+    try {
+      await signInPage(page, server.url, DESIGNER);
+      await openWorkbench(page, scenarioId(/hydrophone/i));
+      await runAndWait(page);
+      const canvasHeight = await page.locator("[data-testid=trace-plot] canvas").first().evaluate((c) => (c as HTMLCanvasElement).height);
+      const [png] = await Promise.all([page.waitForEvent("download"), page.getByTestId("trace-plot").getByRole("button", { name: "PNG" }).click()]);
+      const file = await png.path();
+      const { readFileSync } = await import("node:fs");
+      const bytes = readFileSync(file!);
+      // PNG signature and IHDR height (PNG specification, ISO/IEC 15948: IHDR at byte 16, big-endian).
+      expect(bytes.subarray(1, 4).toString("latin1")).toBe("PNG");
+      const height = bytes.readUInt32BE(20);
+      console.log(`[hygiene] trace PNG ${bytes.readUInt32BE(16)} × ${height} px, plot canvas ${canvasHeight} px high`);
+      // Title, scenario and run lines, export date, axis units and the legend sit above the plot.
+      expect(height - canvasHeight).toBeGreaterThanOrEqual(80);
+
+      const [csv] = await Promise.all([page.waitForEvent("download"), page.getByTestId("run-bar").getByRole("button", { name: "CSV" }).click()]);
+      const text = readFileSync((await csv.path())!, "utf8");
+      const times = text.split(/\r?\n/).slice(1, 50).map((l) => l.split(",")[0]);
+      // 12,000 points over 12 ms: steps of about 1 µs need ~10 decimals, not 17 digits of binary noise.
+      for (const t of times) expect(t.replace(/^-?\d*\.?/, "").length).toBeLessThanOrEqual(10);
+      expect(new Set(times).size).toBe(times.length);
+    } finally {
+      await ctx.close();
+    }
+  });
+});
