@@ -97,3 +97,26 @@ describe("every run is bounded", () => {
     expect(() => simulate(s, { maxSteps: 50 })).toThrow(/stopped at t = [0-9.e-]+ s of 2 s/);
   });
 });
+
+describe("fuzz finds (tests/unit/sim-fuzz-gen.ts seeds)", () => {
+  it("seed 77: oscillator whose linear edge is a growing complex pair reaches the rail (was missed inside one scan chunk)", async () => {
+    const { fuzzScenario } = await import("./sim-fuzz-gen");
+    const { scenario } = fuzzScenario(77);
+    const a = simulate(scenario, BUDGET);
+    const b = simulate(scenario, { solver: "odex" });
+    // odex (independent integrator) as the reference, 1e-6 of the run on event times
+    expect(a.events.length).toBe(b.events.length);
+    for (let i = 0; i < a.events.length; i++) expect(Math.abs(a.events[i].time - b.events[i].time)).toBeLessThan(1e-6 * scenario.run.duration);
+    expect(Math.abs(a.metrics.clippedFraction - b.metrics.clippedFraction)).toBeLessThan(1e-5);
+  });
+
+  it("seed 2483: output on the rail with a near-zero drive no longer creeps by one ulp per piece", async () => {
+    const { fuzzScenario } = await import("./sim-fuzz-gen");
+    const { scenario } = fuzzScenario(2483);
+    const a = simulate(scenario, BUDGET);
+    const b = simulate(scenario, { solver: "odex" });
+    expect(a.solver.steps).toBeLessThan(100);
+    expect(Math.abs(a.metrics.clippedFraction - b.metrics.clippedFraction)).toBeLessThan(1e-5);
+    expect(Math.abs(a.output[a.output.length - 1] - b.output[b.output.length - 1])).toBeLessThan(1e-6);
+  });
+});

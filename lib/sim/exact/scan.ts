@@ -2,7 +2,7 @@
 // and every monitored crossing. Sine-free real pieces are split at their one analytic extremum
 // (so each part is monotone and needs one bracket); pieces with sines or a complex pair are
 // scanned in chunks short against their fastest oscillation.
-import type { Basis } from "./basis";
+import { SLOT_E1, SLOT_E2, SLOT_TAU, type Basis } from "./basis";
 import { bracketRoot } from "./bracket";
 import type { Recorder } from "../measure";
 
@@ -20,16 +20,43 @@ export class Scanner {
     return this.basis.valueAt(c, tau);
   }
 
-  /** Scan step for c over (0, tMax): Infinity when one analytic split suffices. */
+  /**
+   * Scan step for c over (0, tMax): Infinity when one analytic split suffices, −1 when the
+   * scan steps from extremum to extremum of a complex pair (each step monotone).
+   */
   chunkFor(c: Float64Array, tMax: number): number {
     const basis = this.basis;
+    if (this.periodicExtrema(c)) return -1;
     let chunk = basis.sineCount > 0 ? this.chunkSine : Infinity;
     if (basis.complex) chunk = Math.min(chunk, Math.PI / (4 * basis.nu));
     if (chunk === Infinity && basis.extremum(c, tMax) === -1) chunk = tMax / 64;
     return chunk;
   }
 
-  private static nextPoint(a: number, chunk: number, extremum: number, tMax: number): number {
+  /**
+   * A complex pair without sines or slope: c = c0 + e^{μτ}(A·cos ντ + B·sin ντ) has its extrema
+   * where (μA + νB)·cos ντ + (μB − νA)·sin ντ = 0, every π/ν: true when that applies to c.
+   */
+  private periodicExtrema(c: Float64Array): boolean {
+    return this.basis.complex && this.basis.sineCount === 0 && c[SLOT_TAU] === 0;
+  }
+
+  /** First extremum of such a c strictly after a. */
+  private nextComplexExtremum(c: Float64Array, a: number): number {
+    const { lambda1: mu, nu } = this.basis;
+    const A = c[SLOT_E1];
+    const B = c[SLOT_E2];
+    const P = mu * A + nu * B;
+    const Q = mu * B - nu * A;
+    const theta0 = Q === 0 ? Math.PI / 2 : Math.atan(-P / Q);
+    let k = Math.floor((nu * a - theta0) / Math.PI) + 1;
+    let tau = (theta0 + k * Math.PI) / nu;
+    while (!(tau > a)) tau = (theta0 + ++k * Math.PI) / nu;
+    return tau;
+  }
+
+  private nextPoint(c: Float64Array, a: number, chunk: number, extremum: number, tMax: number): number {
+    if (chunk === -1) return Math.min(tMax, this.nextComplexExtremum(c, a));
     let b = chunk === Infinity ? tMax : Math.min(tMax, a + chunk);
     if (extremum > a && extremum < b) b = extremum;
     return b;
@@ -45,8 +72,9 @@ export class Scanner {
     let a = 0;
     // At or just past the boundary by rounding, moving inward: count the start as inside.
     let ga = Math.min(this.valueAt(c, 0), -Number.MIN_VALUE);
+    if (ga >= 0) ga = -Number.MIN_VALUE;
     while (a < tMax) {
-      const b = Scanner.nextPoint(a, chunk, ext, tMax);
+      const b = this.nextPoint(c, a, chunk, ext, tMax);
       const gb = this.valueAt(c, b);
       if (gb >= 0) return bracketRoot(this, c, a, b, ga, gb, t0);
       a = b;
@@ -65,7 +93,7 @@ export class Scanner {
     let a = 0;
     let ga = NaN;
     while (a < tEnd) {
-      const b = Scanner.nextPoint(a, chunk, ext, tEnd);
+      const b = this.nextPoint(c, a, chunk, ext, tEnd);
       const gb = this.valueAt(c, b);
       const sb = gb >= 0;
       if (sb !== side) {
@@ -91,7 +119,8 @@ export class Scanner {
     }
     const D = scratch;
     basis.derivative(c, D);
-    const chunk = Math.min(this.chunkFor(D, tMax), (tMax - tMin) / 4);
+    const dChunk = this.chunkFor(D, tMax);
+    const chunk = Math.min(dChunk === -1 ? Math.PI / (4 * basis.nu) : dChunk, (tMax - tMin) / 4);
     let a = tMin;
     let da = this.valueAt(D, tMin);
     while (a < tMax) {

@@ -67,6 +67,7 @@ export class ExactSolver {
   private readonly G: Float64Array;
   private readonly scratch: Float64Array;
   private cap = Infinity;
+  private tol = 0;
 
   constructor(readonly p: ExactParams) {
     this.maxSteps = p.maxSteps ?? Infinity;
@@ -159,21 +160,28 @@ export class ExactSolver {
     return e > t ? e : Math.min(T, t + ulp(t));
   }
 
-  /** sign·(quantity − level) of an exit, as coefficients in G. */
+  /**
+   * An exit's condition as coefficients in G: sign·(quantity − level) − tol, so it holds where
+   * G > 0. The margin tol (AT_BOUNDARY of the magnitudes that round into the value) keeps the
+   * rounding of a state sitting on a boundary from reading as a crossing; it moves a real exit
+   * by tol/slope, far below the time resolution. Sets `this.tol`.
+   */
   private exitFunction(regime: Regime, index: number): Float64Array {
     const e = EXITS[regime][index];
     const q = e.quantity === DRIVE ? this.model.DRIVE : this.model.VO;
     const G = this.G;
     for (let i = 0; i < G.length; i++) G[i] = e.sign * q[i];
     G[SLOT_ONE] -= e.sign * this.levels[e.level];
+    this.tol = AT_BOUNDARY * this.basis.magnitudeAtStart(G);
+    G[SLOT_ONE] -= this.tol;
     return G;
   }
 
   /**
    * The regime a piece runs in: the one the state calls for, then, at the same instant, any
-   * exit whose condition already holds at the start, i.e. is past its boundary by more than
-   * rounding, or at the boundary and moving outward (the two regimes have the same motion
-   * there, so the slope decides). A regime is never revisited within one instant.
+   * exit whose condition already holds at the start: past its boundary by more than rounding,
+   * or on the boundary (within rounding) and moving outward; the two regimes have the same
+   * motion there, so the slope decides. A regime is never revisited within one instant.
    * Leaves model coefficients and `cap` set for the regime returned.
    */
   private resolveAtStart(regime: Regime, vo: number, x: number): Regime {
@@ -184,9 +192,8 @@ export class ExactSolver {
       const exits = EXITS[regime];
       for (let i = 0; i < exits.length && next < 0; i++) {
         const G = this.exitFunction(regime, i);
-        const g0 = this.basis.valueAtStart(G);
-        const tol = AT_BOUNDARY * this.basis.magnitudeAtStart(G);
-        if (g0 > tol || (g0 >= -tol && this.basis.slopeAtStart(G) > 0)) next = exits[i].to;
+        const g0 = this.basis.valueAtStart(G); // already less tol
+        if (g0 > 0 || (g0 >= -2 * this.tol && this.basis.slopeAtStart(G) > 0)) next = exits[i].to;
       }
       if (next < 0 || visited & (1 << next)) return regime;
       visited |= 1 << next;
