@@ -19,7 +19,32 @@ export type Dialect = "sqlite" | "postgres";
 export function dialectOf(url: string): Dialect {
   if (/^postgres(ql)?:\/\//i.test(url)) return "postgres";
   if (/^sqlite:/i.test(url)) return "sqlite";
-  throw new Error(`DATABASE_URL must start with "sqlite:" or "postgres://" (got "${url}")`);
+  throw new Error(`DATABASE_URL must start with "sqlite:" or "postgres://" (got "${maskUrl(url)}")`);
+}
+
+/** The URL with its password (and any `password=` query parameter) replaced by `***`, for logs. */
+export function maskUrl(url: string): string {
+  return url
+    .replace(/^([a-z][a-z0-9+.-]*:\/\/[^/@:?#]*):[^@/?#]*@/i, "$1:***@")
+    .replace(/([?&](?:password|sslpassword)=)[^&#]*/gi, "$1***");
+}
+
+/** Any text (an error message, a stack) with every database URL in it masked. */
+export function maskSecrets(text: string): string {
+  let out = text.replace(/\b(postgres(?:ql)?:\/\/[^\s"'`]+)/gi, (m) => maskUrl(m));
+  const pass = passwordOf(databaseUrl());
+  if (pass && pass.length >= 3) out = out.split(pass).join("***");
+  return out;
+}
+
+function passwordOf(url: string): string | null {
+  try {
+    if (dialectOf(url) !== "postgres") return null;
+    const parsed = new URL(url);
+    return parsed.password ? decodeURIComponent(parsed.password) : null;
+  } catch {
+    return null;
+  }
 }
 
 /** `sqlite:./data/x.sqlite`, `sqlite:///abs/x.sqlite`, `sqlite:/abs/x.sqlite`, `sqlite::memory:` → storage path. */
@@ -67,7 +92,9 @@ function applyPragmasOnEveryConnection(sequelize: Sequelize) {
 function serializeManagedTransactions(sequelize: Sequelize) {
   const original = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>;
   let queue: Promise<unknown> = Promise.resolve();
-  (sequelize as unknown as { transaction: (...args: unknown[]) => Promise<unknown> }).transaction = (...args: unknown[]) => {
+  (sequelize as unknown as { transaction: (...args: unknown[]) => Promise<unknown> }).transaction = (
+    ...args: unknown[]
+  ) => {
     if (typeof args[args.length - 1] !== "function") return original(...args); // unmanaged: caller commits
     const run = queue.then(() => original(...args));
     queue = run.catch(() => undefined);
@@ -81,8 +108,17 @@ export function createSequelize(url = databaseUrl()): Sequelize {
     define: { freezeTableName: true },
   };
   if (dialectOf(url) === "postgres") {
-    // Needs the `pg` driver installed (`npm i pg`); same models and migrations.
-    return new Sequelize(url, { ...common, dialect: "postgres" });
+    // The `pg` driver is a pinned dependency; same models and migrations. Every session runs
+    // in UTC so timestamps compare the same as on SQLite; READ COMMITTED plus explicit row locks
+    // (see models/transactions.ts) make read-then-write transactions safe.
+    return new Sequelize(url, {
+      ...common,
+      dialect: "postgres",
+      timezone: "+00:00",
+      isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED,
+      pool: { max: Number(process.env.RAILWISE_PG_POOL_MAX || 10), min: 0, idle: 10_000, acquire: 30_000 },
+      dialectOptions: { application_name: "railwise" },
+    });
   }
   const storage = sqliteStorage(url);
   if (storage !== ":memory:") fs.mkdirSync(path.dirname(storage), { recursive: true });

@@ -2,7 +2,7 @@
 // these definitions mirror them (never `sync()` at run time). Ids are UUID strings.
 import {
   DataTypes,
-  Model,
+  type Model,
   type CreationOptional,
   type ForeignKey,
   type InferAttributes,
@@ -11,6 +11,7 @@ import {
   type Sequelize,
 } from "sequelize";
 import { getSequelize } from "./db";
+import { stripNul } from "./text";
 
 import { DECISIONS, ROLES, type Decision, type Role } from "@/lib/schemas/roles";
 
@@ -24,7 +25,6 @@ export interface UserRow extends Model<Attrs<UserRow>, Creation<UserRow>> {
   email: string;
   name: string;
   passwordHash: string;
-  sessionGeneration: CreationOptional<number>;
   createdAt: CreationOptional<Date>;
   updatedAt: CreationOptional<Date>;
 }
@@ -193,25 +193,34 @@ export interface AuditRow extends Model<Attrs<AuditRow>, Creation<AuditRow>> {
 
 const id = { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true };
 const ref = (allowNull = false) => ({ type: DataTypes.UUID, allowNull });
-const text = (allowNull = false) => ({ type: DataTypes.STRING, allowNull });
+// TEXT, not VARCHAR(255): the API's limits (notes 500, descriptions 2000, e-mail 254 …) decide
+// lengths, and migration 0002 widened PostgreSQL's columns to match (SQLite ignores lengths).
+const text = (allowNull = false) => ({ type: DataTypes.TEXT, allowNull });
 const json = (allowNull = false) => ({ type: DataTypes.JSON, allowNull });
 const createdOnly = { timestamps: true, updatedAt: false } as const;
 
+function stripInstance(instance: Model) {
+  const values = (instance as unknown as { dataValues: Record<string, unknown> }).dataValues;
+  for (const key of Object.keys(values)) {
+    if (instance.isNewRecord || instance.changed(key as never)) values[key] = stripNul(values[key]);
+  }
+}
+
 export function defineModels(sequelize: Sequelize) {
-  const User = sequelize.define<UserRow>(
-    "users",
-    {
-      id,
-      email: { ...text(), unique: true },
-      name: text(),
-      passwordHash: text(),
-      // 0003: bumped to end every session of the user (lib/auth.ts).
-      sessionGeneration: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-      createdAt: DataTypes.DATE,
-      updatedAt: DataTypes.DATE,
-    },
-  );
-  const Team = sequelize.define<TeamRow>("teams", { id, name: text(), createdAt: DataTypes.DATE, updatedAt: DataTypes.DATE });
+  const User = sequelize.define<UserRow>("users", {
+    id,
+    email: { ...text(), unique: true },
+    name: text(),
+    passwordHash: text(),
+    createdAt: DataTypes.DATE,
+    updatedAt: DataTypes.DATE,
+  });
+  const Team = sequelize.define<TeamRow>("teams", {
+    id,
+    name: text(),
+    createdAt: DataTypes.DATE,
+    updatedAt: DataTypes.DATE,
+  });
   const Membership = sequelize.define<MembershipRow>("memberships", {
     id,
     userId: ref(),
@@ -289,7 +298,14 @@ export function defineModels(sequelize: Sequelize) {
   );
   const Comment = sequelize.define<CommentRow>(
     "comments",
-    { id, teamId: ref(), runId: ref(), authorId: ref(true), body: { type: DataTypes.TEXT, allowNull: false }, createdAt: DataTypes.DATE },
+    {
+      id,
+      teamId: ref(),
+      runId: ref(),
+      authorId: ref(true),
+      body: { type: DataTypes.TEXT, allowNull: false },
+      createdAt: DataTypes.DATE,
+    },
     createdOnly,
   );
   const Signoff = sequelize.define<SignoffRow>(
@@ -372,6 +388,29 @@ export function defineModels(sequelize: Sequelize) {
     },
     createdOnly,
   );
+
+  // U+0000 never reaches a database: PostgreSQL refuses it in text and the SQLite driver cuts
+  // strings at it, so the same input would be stored differently. The request edge strips it
+  // too (lib/server/errors.ts readJson); this covers every other writer (seed, scripts).
+  for (const model of [
+    User,
+    Team,
+    Membership,
+    Board,
+    Scenario,
+    ScenarioVersion,
+    Run,
+    RunLink,
+    Comment,
+    Signoff,
+    PartProfile,
+    Capture,
+    Invitation,
+    Audit,
+  ] as ModelStatic<Model>[]) {
+    model.addHook("beforeValidate", stripInstance);
+    model.addHook("beforeBulkCreate", (instances: Model[]) => instances.forEach(stripInstance));
+  }
 
   // Associations (for includes); cascades live in the migration's foreign keys.
   Membership.belongsTo(User, { foreignKey: "userId", as: "user" });

@@ -1,5 +1,5 @@
 // `npm run db:setup` – apply pending migrations, then seed the demo data (idempotent).
-import { databaseUrl, getSequelize } from "@/models/db";
+import { databaseUrl, getSequelize, maskSecrets, maskUrl } from "@/models/db";
 import { migrate } from "@/models/migrate";
 import { seed } from "@/models/seed";
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from "@/lib/demo/accounts";
@@ -12,9 +12,11 @@ async function main() {
     const applied = await migrate(sequelize);
     const report = skipSeed ? { created: [] } : await seed(sequelize);
     if (!quiet) {
-      console.log(`database: ${databaseUrl()}`);
+      console.log(`database: ${maskUrl(databaseUrl())}`);
       console.log(`migrations applied: ${applied.length ? applied.join(", ") : "none pending"}`);
-      console.log(`seed: ${report.created.length ? `${report.created.length} rows created` : "demo data already present"}`);
+      console.log(
+        `seed: ${report.created.length ? `${report.created.length} rows created` : "demo data already present"}`,
+      );
       if (!skipSeed) {
         console.log(`demo accounts (password "${DEMO_PASSWORD}"):`);
         for (const a of DEMO_ACCOUNTS) console.log(`  ${a.email.padEnd(30)} ${a.role.padEnd(9)} ${a.team}`);
@@ -26,6 +28,6 @@ async function main() {
 }
 
 main().catch((err: unknown) => {
-  console.error(`db:setup failed: ${err instanceof Error ? err.message : String(err)}`);
+  console.error(`db:setup failed: ${maskSecrets(err instanceof Error ? err.message : String(err))}`);
   process.exit(1);
 });

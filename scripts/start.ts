@@ -5,7 +5,7 @@ import { randomBytes } from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from "@/lib/demo/accounts";
-import { databaseUrl, getSequelize } from "@/models/db";
+import { databaseUrl, getSequelize, maskSecrets, maskUrl } from "@/models/db";
 import { migrate } from "@/models/migrate";
 import { seed } from "@/models/seed";
 import { buildNeeded, nextBuild, ROOT } from "./build-state";
@@ -40,7 +40,7 @@ async function prepareDatabase() {
     const applied = await migrate(sequelize);
     const report = hideDemo ? { created: [] } : await seed(sequelize);
     console.log(
-      `database ${databaseUrl()}: ${applied.length ? `migrated (${applied.join(", ")})` : "schema up to date"}, ` +
+      `database ${maskUrl(databaseUrl())}: ${applied.length ? `migrated (${applied.join(", ")})` : "schema up to date"}, ` +
         `${report.created.length ? `${report.created.length} demo rows created` : "demo data present"}`,
     );
   } finally {
@@ -56,12 +56,16 @@ async function startSink(): Promise<MailSink | null> {
     console.log(`local mail sink on 127.0.0.1:${sink.port} (set SMTP_URL to send real mail)`);
     return sink;
   } catch (err) {
-    console.warn(`mail sink not started (${err instanceof Error ? err.message : String(err)}); mails will fail until one listens on ${sinkPort} or SMTP_URL is set`);
+    console.warn(
+      `mail sink not started (${err instanceof Error ? err.message : String(err)}); mails will fail until one listens on ${sinkPort} or SMTP_URL is set`,
+    );
     return null;
   }
 }
 
 async function main() {
+  // The server makes no outbound calls: no Next.js telemetry.
+  process.env.NEXT_TELEMETRY_DISABLED = "1";
   process.env.NEXTAUTH_SECRET = ensureAuthSecret();
   const publicUrl = process.env.NEXTAUTH_URL || `http://localhost:${port}`;
   process.env.NEXTAUTH_URL = publicUrl;
@@ -105,6 +109,6 @@ async function main() {
 }
 
 main().catch((err: unknown) => {
-  console.error(`start failed: ${err instanceof Error ? err.message : String(err)}`);
+  console.error(`start failed: ${maskSecrets(err instanceof Error ? err.message : String(err))}`);
   process.exit(1);
 });

@@ -4,7 +4,7 @@ import { useEffect, useState } from "react";
 import { FormDialog } from "@/components/ui/dialog";
 import { Field, Select, TextInput } from "@/components/ui/field";
 import { STAGE_KIND_LABEL } from "@/components/scenario/stage-labels";
-import { sendJson } from "@/lib/client/fetcher";
+import { fetchJson, sendJson } from "@/lib/client/fetcher";
 import type { ScenarioRecord } from "@/lib/client/hooks";
 import { blankScenario } from "@/lib/client/scenario-templates";
 import { STAGE_KINDS } from "@/lib/schemas/scenario";
@@ -37,7 +37,9 @@ export function NewScenarioDialog({ open, boardId, existing, onClose, onCreated 
   async function create() {
     const trimmed = requireName(name);
     const [how, ref] = source.split(":");
-    const original = how === "copy" ? existing.find((s) => s.id === ref) : undefined;
+    const listed = how === "copy" ? existing.find((s) => s.id === ref) : undefined;
+    // List items leave out waveform arrays: copy from the whole stored document.
+    const original = listed ? await fetchJson<ScenarioRecord>(`/api/scenarios/${listed.id}`) : undefined;
     const scenario = original
       ? { ...structuredClone(original.scenario), name: trimmed }
       : blankScenario(STAGE_KINDS.find((k) => k === ref) ?? "comparator", trimmed);
@@ -106,8 +108,8 @@ export function RenameScenarioDialog({ target, onClose, onDone }: ScenarioTarget
     // A rename is a new version like any edit; the document's own name follows the record's.
     onDone(
       await sendJson<ScenarioRecord>(`/api/scenarios/${target.id}`, "PUT", {
+        // Name only: the server keeps the stored document (list items lack waveform arrays).
         name: trimmed,
-        scenario: { ...target.scenario, name: trimmed },
         // Someone saved in between → 409 instead of silently overwriting their edit.
         baseVersion: target.version,
       }),

@@ -2,6 +2,7 @@ import "server-only";
 // Boards: a team's design folders. Every lookup is scoped by teamId (another team's id → 404).
 import { fn, col } from "sequelize";
 import { getModels, getSequelize } from "@/models";
+import { byText } from "@/models/transactions";
 import type { BoardCreate, BoardPatch } from "@/lib/schemas/api";
 import { recordAudit } from "./audit";
 import { notFound } from "./errors";
@@ -42,7 +43,7 @@ async function countScenarios(boardIds: string[]): Promise<Map<string, number>> 
 }
 
 export async function listBoards({ teamId }: { teamId: string }): Promise<BoardJson[]> {
-  const rows = await getModels().Board.findAll({ where: { teamId }, order: [["name", "ASC"]] });
+  const rows = await getModels().Board.findAll({ where: { teamId }, order: [byText("boards", "name"), ["id", "ASC"]] });
   const counts = await countScenarios(rows.map((r) => r.id));
   return rows.map((r) => boardJson(r, counts.get(r.id) ?? 0));
 }
@@ -58,19 +59,45 @@ export async function getBoardOrThrow({ id, teamId }: { id: string; teamId: stri
   return boardJson(row, (await countScenarios([row.id])).get(row.id) ?? 0);
 }
 
-export async function createBoard({ teamId, actorId, input }: { teamId: string; actorId: string; input: BoardCreate }): Promise<BoardJson> {
+export async function createBoard({
+  teamId,
+  actorId,
+  input,
+}: {
+  teamId: string;
+  actorId: string;
+  input: BoardCreate;
+}): Promise<BoardJson> {
   const row = await getSequelize().transaction(async (transaction) => {
     const board = await getModels().Board.create(
       { teamId, name: input.name, description: input.description ?? "", createdBy: actorId },
       { transaction },
     );
-    await recordAudit({ teamId, actorId, action: "board.created", targetType: "board", targetId: board.id, details: { name: board.name } }, transaction);
+    await recordAudit(
+      {
+        teamId,
+        actorId,
+        action: "board.created",
+        targetType: "board",
+        targetId: board.id,
+        details: { name: board.name },
+      },
+      transaction,
+    );
     return board;
   });
   return boardJson(row, 0);
 }
 
-export async function updateBoard({ id, teamId, patch }: { id: string; teamId: string; patch: BoardPatch }): Promise<BoardJson> {
+export async function updateBoard({
+  id,
+  teamId,
+  patch,
+}: {
+  id: string;
+  teamId: string;
+  patch: BoardPatch;
+}): Promise<BoardJson> {
   const row = await getBoardRowOrThrow({ id, teamId });
   if (patch.name !== undefined) row.name = patch.name;
   if (patch.description !== undefined) row.description = patch.description;
@@ -79,11 +106,22 @@ export async function updateBoard({ id, teamId, patch }: { id: string; teamId: s
 }
 
 /** Deletes the board with its scenarios, versions and runs (foreign keys cascade). */
-export async function deleteBoard({ id, teamId, actorId }: { id: string; teamId: string; actorId: string }): Promise<void> {
+export async function deleteBoard({
+  id,
+  teamId,
+  actorId,
+}: {
+  id: string;
+  teamId: string;
+  actorId: string;
+}): Promise<void> {
   await getSequelize().transaction(async (transaction) => {
     const row = isId(id) ? await getModels().Board.findOne({ where: { id, teamId }, transaction }) : null;
     if (!row) throw notFound("No such board in your team.");
     await row.destroy({ transaction });
-    await recordAudit({ teamId, actorId, action: "board.deleted", targetType: "board", targetId: id, details: { name: row.name } }, transaction);
+    await recordAudit(
+      { teamId, actorId, action: "board.deleted", targetType: "board", targetId: id, details: { name: row.name } },
+      transaction,
+    );
   });
 }

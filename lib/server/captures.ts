@@ -1,6 +1,7 @@
 import "server-only";
 import { getModels, getSequelize } from "@/models";
 import { notFound } from "@/lib/server/errors";
+import { isId } from "@/lib/server/ids";
 import { recordAudit } from "@/lib/server/audit";
 import type { ParsedCapture } from "@/lib/captures/parse";
 
@@ -24,7 +25,15 @@ export interface CaptureJson extends CaptureSummaryJson {
   samples: [number, number][];
 }
 
-type CaptureRow = { id: string; name: string; samples?: unknown; columns: unknown; sourceFilename: string | null; createdBy: unknown; createdAt: Date };
+type CaptureRow = {
+  id: string;
+  name: string;
+  samples?: unknown;
+  columns: unknown;
+  sourceFilename: string | null;
+  createdBy: unknown;
+  createdAt: Date;
+};
 
 /** Stored in the row's `columns` JSON beside the column names, so lists need not load the samples. */
 interface CaptureColumns {
@@ -65,7 +74,10 @@ export async function listCaptures({ teamId }: { teamId: string }): Promise<Capt
   const rows = await getModels().Capture.findAll({
     where: { teamId },
     attributes: { exclude: ["samples"] },
-    order: [["createdAt", "DESC"]],
+    order: [
+      ["createdAt", "DESC"],
+      ["id", "ASC"],
+    ],
   });
   return Promise.all(
     rows.map(async (r) => {
@@ -78,7 +90,7 @@ export async function listCaptures({ teamId }: { teamId: string }): Promise<Capt
 }
 
 export async function getCaptureOrThrow({ id, teamId }: { id: string; teamId: string }): Promise<CaptureJson> {
-  const row = await getModels().Capture.findOne({ where: { id, teamId } });
+  const row = isId(id) ? await getModels().Capture.findOne({ where: { id, teamId } }) : null;
   if (!row) throw notFound("No such capture in your team.");
   return captureJson(row, row.samples as [number, number][]) as CaptureJson;
 }
@@ -100,18 +112,35 @@ export async function createCapture({
     teamId,
     name,
     samples: parsed.samples,
-    columns: { time: parsed.timeColumn, value: parsed.voltsColumn, stats: statsOf(parsed.samples) } satisfies CaptureColumns,
+    columns: {
+      time: parsed.timeColumn,
+      value: parsed.voltsColumn,
+      stats: statsOf(parsed.samples),
+    } satisfies CaptureColumns,
     sourceFilename,
     createdBy: actorId,
   });
   return captureJson(row, parsed.samples) as CaptureJson;
 }
 
-export async function deleteCapture({ id, teamId, actorId }: { id: string; teamId: string; actorId: string }): Promise<void> {
+export async function deleteCapture({
+  id,
+  teamId,
+  actorId,
+}: {
+  id: string;
+  teamId: string;
+  actorId: string;
+}): Promise<void> {
   await getSequelize().transaction(async (transaction) => {
-    const row = await getModels().Capture.findOne({ where: { id, teamId }, attributes: ["id", "name"], transaction });
+    const row = isId(id)
+      ? await getModels().Capture.findOne({ where: { id, teamId }, attributes: ["id", "name"], transaction })
+      : null;
     if (!row) throw notFound("No such capture in your team.");
     await row.destroy({ transaction });
-    await recordAudit({ teamId, actorId, action: "capture.deleted", targetType: "capture", targetId: id, details: { name: row.name } }, transaction);
+    await recordAudit(
+      { teamId, actorId, action: "capture.deleted", targetType: "capture", targetId: id, details: { name: row.name } },
+      transaction,
+    );
   });
 }

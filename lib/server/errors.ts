@@ -3,6 +3,8 @@ import "server-only";
 // user error → 4xx with a message naming the field; anything unknown → logged + generic 500.
 import { ZodError } from "zod";
 import { describeIssues } from "@/lib/schemas/scenario";
+import { maskSecrets } from "@/models/db";
+import { stripNul } from "@/models/text";
 
 export interface IssueJson {
   path: (string | number)[];
@@ -22,7 +24,8 @@ export class AppError extends Error {
   }
 }
 
-export const badRequest = (message: string, issues?: IssueJson[]) => new AppError(400, "invalid_input", message, issues);
+export const badRequest = (message: string, issues?: IssueJson[]) =>
+  new AppError(400, "invalid_input", message, issues);
 export const unauthorized = (message = "Sign in to continue.") => new AppError(401, "unauthorized", message);
 export const forbidden = (message = "Your role does not allow this.") => new AppError(403, "forbidden", message);
 export const notFound = (message = "Not found.") => new AppError(404, "not_found", message);
@@ -31,7 +34,16 @@ export const gone = (message: string) => new AppError(410, "gone", message);
 export const tooLarge = (message: string) => new AppError(413, "too_large", message);
 
 function zodIssues(err: ZodError): IssueJson[] {
-  return err.issues.map((i) => ({ path: i.path.map((p) => (typeof p === "symbol" ? String(p) : p)), message: i.message, code: i.code }));
+  return err.issues.map((i) => ({
+    path: i.path.map((p) => (typeof p === "symbol" ? String(p) : p)),
+    message: i.message,
+    code: i.code,
+  }));
+}
+
+/** An error as one log text with any database credentials masked. */
+function logText(err: unknown): string {
+  return maskSecrets(err instanceof Error ? (err.stack ?? `${err.name}: ${err.message}`) : String(err));
 }
 
 /** Maps any thrown value to a JSON response. Use once, at the edge of each handler. */
@@ -51,16 +63,29 @@ export function errorResponse(err: unknown): Response {
   const name = err instanceof Error ? err.name : "";
   // Driver errors that a user can cause (duplicate name, a reference to a row that is gone).
   if (name === "SequelizeUniqueConstraintError") {
-    return Response.json({ error: "conflict", message: "That already exists." }, { status: 409 });
+    const fields = Object.keys((err as { fields?: Record<string, unknown> }).fields ?? {}).filter(
+      (f) => !/^(id|teamId|userId|scenarioId)$/.test(f),
+    );
+    const what = fields.length ? ` (same ${fields.join(" and ")})` : "";
+    return Response.json(
+      {
+        error: "conflict",
+        message: `That already exists${what}; it may have been saved at the same moment by another request.`,
+      },
+      { status: 409 },
+    );
   }
   if (name === "SequelizeForeignKeyConstraintError") {
     return Response.json({ error: "conflict", message: "A referenced item no longer exists." }, { status: 409 });
   }
   if (name === "SequelizeTimeoutError" || (err instanceof Error && /SQLITE_BUSY/.test(err.message))) {
-    console.error("[railwise] database busy:", err);
-    return Response.json({ error: "busy", message: "The database is busy; try again." }, { status: 503, headers: { "Retry-After": "1" } });
+    console.error("[railwise] database busy:", logText(err));
+    return Response.json(
+      { error: "busy", message: "The database is busy; try again." },
+      { status: 503, headers: { "Retry-After": "1" } },
+    );
   }
-  console.error("[railwise] unexpected error:", err);
+  console.error("[railwise] unexpected error:", logText(err));
   return Response.json({ error: "internal", message: "Something went wrong on the server." }, { status: 500 });
 }
 
@@ -100,9 +125,12 @@ export async function readJson(request: Request, limitBytes = MAX_JSON_BYTES): P
   // A chunked body has no Content-Length: count while streaming and stop at the limit (413).
   const text = new TextDecoder().decode(await readBodyBytes(request, limitBytes, tooBig));
   if (!text.trim()) throw badRequest("The request body must be JSON (it was empty).");
+  let parsed: unknown;
   try {
-    return JSON.parse(text) as unknown;
+    parsed = JSON.parse(text) as unknown;
   } catch {
     throw badRequest("The request body is not valid JSON.");
   }
+  // U+0000 is removed from every string at the edge, so both databases store the same text.
+  return stripNul(parsed);
 }

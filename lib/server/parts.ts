@@ -1,6 +1,10 @@
 import "server-only";
 import { UniqueConstraintError } from "sequelize";
+import type { Transaction } from "sequelize";
 import { getModels, getSequelize } from "@/models";
+import { byText, withWriteTransaction } from "@/models/transactions";
+import { lockTeam } from "@/lib/server/team";
+import { isId } from "@/lib/server/ids";
 import { conflict, notFound } from "@/lib/server/errors";
 import { recordAudit } from "@/lib/server/audit";
 import type { PartProfileInput } from "@/lib/schemas/part";
@@ -33,26 +37,44 @@ function partJson(row: PartRow): PartProfileJson {
 const duplicate = (name: string) => conflict(`A part profile named "${name}" already exists in your team.`);
 
 /** Names compare without regard to case, so "Fast comparator" and "fast comparator" do not both exist. */
-async function nameTaken(teamId: string, name: string, exceptId?: string): Promise<boolean> {
-  const rows = await getModels().PartProfile.findAll({ where: { teamId }, attributes: ["id", "name"] });
+async function nameTaken(teamId: string, name: string, transaction: Transaction, exceptId?: string): Promise<boolean> {
+  const rows = await getModels().PartProfile.findAll({ where: { teamId }, attributes: ["id", "name"], transaction });
   return rows.some((r) => r.name.toLowerCase() === name.toLowerCase() && r.id !== exceptId);
 }
 
 export async function listParts({ teamId }: { teamId: string }): Promise<PartProfileJson[]> {
-  const rows = await getModels().PartProfile.findAll({ where: { teamId }, order: [["name", "ASC"]] });
+  const rows = await getModels().PartProfile.findAll({
+    where: { teamId },
+    order: [byText("part_profiles", "name"), ["id", "ASC"]],
+  });
   return rows.map(partJson);
 }
 
 export async function getPartOrThrow({ id, teamId }: { id: string; teamId: string }): Promise<PartProfileJson> {
-  const row = await getModels().PartProfile.findOne({ where: { id, teamId } });
+  const row = isId(id) ? await getModels().PartProfile.findOne({ where: { id, teamId } }) : null;
   if (!row) throw notFound("No such part profile in your team.");
   return partJson(row);
 }
 
-export async function createPart({ teamId, actorId, part }: { teamId: string; actorId: string; part: PartProfileInput }): Promise<PartProfileJson> {
-  if (await nameTaken(teamId, part.name)) throw duplicate(part.name);
+export async function createPart({
+  teamId,
+  actorId,
+  part,
+}: {
+  teamId: string;
+  actorId: string;
+  part: PartProfileInput;
+}): Promise<PartProfileJson> {
   try {
-    const row = await getModels().PartProfile.create({ teamId, name: part.name, params: part.opamp, createdBy: actorId });
+    // The team row is locked so the case-insensitive name check holds until the insert.
+    const row = await withWriteTransaction(async (transaction) => {
+      await lockTeam(teamId, transaction);
+      if (await nameTaken(teamId, part.name, transaction)) throw duplicate(part.name);
+      return getModels().PartProfile.create(
+        { teamId, name: part.name, params: part.opamp, createdBy: actorId },
+        { transaction },
+      );
+    });
     return partJson(row);
   } catch (err) {
     if (err instanceof UniqueConstraintError) throw duplicate(part.name);
@@ -60,34 +82,72 @@ export async function createPart({ teamId, actorId, part }: { teamId: string; ac
   }
 }
 
-export async function updatePart({ id, teamId, part }: { id: string; teamId: string; part: PartProfileInput }): Promise<PartProfileJson> {
-  const row = await getModels().PartProfile.findOne({ where: { id, teamId } });
-  if (!row) throw notFound("No such part profile in your team.");
-  if (await nameTaken(teamId, part.name, id)) throw duplicate(part.name);
-  row.name = part.name;
-  row.params = part.opamp;
+export async function updatePart({
+  id,
+  teamId,
+  part,
+}: {
+  id: string;
+  teamId: string;
+  part: PartProfileInput;
+}): Promise<PartProfileJson> {
   try {
-    await row.save();
+    const row = await withWriteTransaction(async (transaction) => {
+      await lockTeam(teamId, transaction);
+      const found = isId(id) ? await getModels().PartProfile.findOne({ where: { id, teamId }, transaction }) : null;
+      if (!found) throw notFound("No such part profile in your team.");
+      if (await nameTaken(teamId, part.name, transaction, id)) throw duplicate(part.name);
+      found.name = part.name;
+      found.params = part.opamp;
+      return found.save({ transaction });
+    });
+    return partJson(row);
   } catch (err) {
     if (err instanceof UniqueConstraintError) throw duplicate(part.name);
     throw err;
   }
-  return partJson(row);
 }
 
-export async function deletePart({ id, teamId, actorId }: { id: string; teamId: string; actorId: string }): Promise<void> {
+export async function deletePart({
+  id,
+  teamId,
+  actorId,
+}: {
+  id: string;
+  teamId: string;
+  actorId: string;
+}): Promise<void> {
   await getSequelize().transaction(async (transaction) => {
-    const row = await getModels().PartProfile.findOne({ where: { id, teamId }, transaction });
+    const row = isId(id) ? await getModels().PartProfile.findOne({ where: { id, teamId }, transaction }) : null;
     if (!row) throw notFound("No such part profile in your team.");
     await row.destroy({ transaction });
-    await recordAudit({ teamId, actorId, action: "part.deleted", targetType: "part_profile", targetId: id, details: { name: row.name } }, transaction);
+    await recordAudit(
+      {
+        teamId,
+        actorId,
+        action: "part.deleted",
+        targetType: "part_profile",
+        targetId: id,
+        details: { name: row.name },
+      },
+      transaction,
+    );
   });
 }
 
 /** All or nothing: a name already in the library refuses the whole file (409, names listed). */
-export async function importParts({ teamId, actorId, parts }: { teamId: string; actorId: string; parts: PartProfileInput[] }): Promise<PartProfileJson[]> {
+export async function importParts({
+  teamId,
+  actorId,
+  parts,
+}: {
+  teamId: string;
+  actorId: string;
+  parts: PartProfileInput[];
+}): Promise<PartProfileJson[]> {
   const { PartProfile } = getModels();
-  return getSequelize().transaction(async (transaction) => {
+  return withWriteTransaction(async (transaction) => {
+    await lockTeam(teamId, transaction);
     const existing = await PartProfile.findAll({ where: { teamId }, attributes: ["name"], transaction });
     const taken = new Set(existing.map((r) => r.name.toLowerCase()));
     const clashes = parts.filter((p) => taken.has(p.name.toLowerCase())).map((p) => p.name);
@@ -96,8 +156,17 @@ export async function importParts({ teamId, actorId, parts }: { teamId: string; 
       parts.map((p) => ({ teamId, name: p.name, params: p.opamp, createdBy: actorId })),
       { transaction },
     );
-    await recordAudit({ teamId, actorId, action: "parts.imported", targetType: "part_profile", targetId: null, details: { count: rows.length } }, transaction);
+    await recordAudit(
+      {
+        teamId,
+        actorId,
+        action: "parts.imported",
+        targetType: "part_profile",
+        targetId: null,
+        details: { count: rows.length },
+      },
+      transaction,
+    );
     return rows.map(partJson);
   });
 }
-

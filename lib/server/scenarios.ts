@@ -3,6 +3,7 @@ import "server-only";
 // scenario's current data forward; a restore is a save of an old version's data.
 import type { Transaction } from "sequelize";
 import { getModels, getSequelize } from "@/models";
+import { byText, lockRow, withWriteTransaction } from "@/models/transactions";
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { ScenarioCreate, ScenarioUpdate } from "@/lib/schemas/api";
 import { recordAudit } from "./audit";
@@ -53,12 +54,40 @@ const withUpdater = () => [{ model: getModels().User, as: "updater", attributes:
 
 export async function listScenarios({ boardId, teamId }: { boardId: string; teamId: string }): Promise<ScenarioJson[]> {
   await getBoardRowOrThrow({ id: boardId, teamId });
-  const rows = await getModels().Scenario.findAll({ where: { boardId, teamId }, order: [["name", "ASC"]], include: withUpdater() });
+  const rows = await getModels().Scenario.findAll({
+    where: { boardId, teamId },
+    order: [byText("scenarios", "name"), ["id", "ASC"]],
+    include: withUpdater(),
+  });
   const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: rows.map((r) => r.id) });
-  return rows.map((r) => scenarioJson(r, decisions.get(r.id) ?? null));
+  return rows.map((r) => leanScenarioJson(scenarioJson(r, decisions.get(r.id) ?? null)));
 }
 
-async function scenarioRowOrThrow({ id, teamId, transaction }: { id: string; teamId: string; transaction?: Transaction }) {
+/**
+ * A list item: the scenario without its waveform arrays (a pwl's points, a capture's samples),
+ * which can be megabytes; each such component keeps its kind and says how many points it has
+ * (`pointCount`) and `lean: true` marks the item. GET /api/scenarios/:id has the whole document.
+ */
+export function leanScenarioJson(item: ScenarioJson): ScenarioJson & { lean: true } {
+  const input = item.scenario.input;
+  const components = (input?.components ?? []).map((c) => {
+    const arrays = c as { points?: unknown[]; samples?: unknown[] };
+    if (Array.isArray(arrays.points)) return { ...c, points: [], pointCount: arrays.points.length };
+    if (Array.isArray(arrays.samples)) return { ...c, samples: [], pointCount: arrays.samples.length };
+    return c;
+  });
+  return { ...item, scenario: { ...item.scenario, input: { ...input, components } } as Scenario, lean: true };
+}
+
+async function scenarioRowOrThrow({
+  id,
+  teamId,
+  transaction,
+}: {
+  id: string;
+  teamId: string;
+  transaction?: Transaction;
+}) {
   const row = isId(id)
     ? await getModels().Scenario.findOne({ where: { id, teamId }, include: withUpdater(), transaction })
     : null;
@@ -92,8 +121,14 @@ export async function createScenario({
   const data: Scenario = { ...input.scenario, name };
   const id = await getSequelize().transaction(async (transaction) => {
     const { Scenario: S, ScenarioVersion } = getModels();
-    const row = await S.create({ teamId, boardId: board.id, name, version: 1, data, updatedBy: actorId }, { transaction });
-    await ScenarioVersion.create({ scenarioId: row.id, version: 1, name, data, authorId: actorId, note: null }, { transaction });
+    const row = await S.create(
+      { teamId, boardId: board.id, name, version: 1, data, updatedBy: actorId },
+      { transaction },
+    );
+    await ScenarioVersion.create(
+      { scenarioId: row.id, version: 1, name, data, authorId: actorId, note: null },
+      { transaction },
+    );
     return row.id;
   });
   return getScenarioOrThrow({ id, teamId });
@@ -116,38 +151,91 @@ async function saveVersion({
   note?: string | null;
   baseVersion?: number;
 }): Promise<ScenarioJson> {
-  await getSequelize().transaction(async (transaction) => {
-    const row = await scenarioRowOrThrow({ id, teamId, transaction });
+  // The scenario row is locked for the whole transaction (FOR UPDATE on PostgreSQL; SQLite's
+  // writer lock), so concurrent saves line up: each reads the version the previous one wrote.
+  // The answer is built from the row as written here, never re-read after another save.
+  const { Scenario: S, ScenarioVersion, User } = getModels();
+  const written = await withWriteTransaction(async (transaction) => {
+    const row = isId(id) ? await lockRow(S, { id, teamId }, transaction) : null;
+    if (!row) throw notFound("No such scenario in your team.");
     if (baseVersion !== undefined && baseVersion !== row.version) {
-      throw conflict(`The scenario was saved by someone else meanwhile (now version ${row.version}, you edited version ${baseVersion}); reload and apply your change again.`);
+      throw conflict(
+        `The scenario was saved by someone else meanwhile (now version ${row.version}, you edited version ${baseVersion}); reload and apply your change again.`,
+      );
     }
     const nextName = name ?? row.name;
     const nextData: Scenario = { ...((data ?? row.data) as Scenario), name: nextName };
     const version = row.version + 1;
-    await getModels().ScenarioVersion.create(
+    await ScenarioVersion.create(
       { scenarioId: row.id, version, name: nextName, data: nextData, authorId: actorId, note: note ?? null },
       { transaction },
     );
     row.set({ name: nextName, data: nextData, version, updatedBy: actorId });
     row.changed("data", true);
     await row.save({ transaction });
+    const updater = await User.findByPk(actorId, { attributes: ["name"], transaction });
+    return { row, updater };
   });
-  return getScenarioOrThrow({ id, teamId });
+  const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: [written.row.id] });
+  (written.row as unknown as { updater?: Named }).updater = written.updater;
+  return scenarioJson(written.row, decisions.get(written.row.id) ?? null);
 }
 
-export function updateScenario({ id, teamId, actorId, input }: { id: string; teamId: string; actorId: string; input: ScenarioUpdate }) {
-  return saveVersion({ id, teamId, actorId, name: input.name, data: input.scenario, note: input.note, baseVersion: input.baseVersion });
+export function updateScenario({
+  id,
+  teamId,
+  actorId,
+  input,
+}: {
+  id: string;
+  teamId: string;
+  actorId: string;
+  input: ScenarioUpdate;
+}) {
+  return saveVersion({
+    id,
+    teamId,
+    actorId,
+    name: input.name,
+    data: input.scenario,
+    note: input.note,
+    baseVersion: input.baseVersion,
+  });
 }
 
-export async function deleteScenario({ id, teamId, actorId }: { id: string; teamId: string; actorId: string }): Promise<void> {
+export async function deleteScenario({
+  id,
+  teamId,
+  actorId,
+}: {
+  id: string;
+  teamId: string;
+  actorId: string;
+}): Promise<void> {
   await getSequelize().transaction(async (transaction) => {
     const row = await scenarioRowOrThrow({ id, teamId, transaction });
     await row.destroy({ transaction });
-    await recordAudit({ teamId, actorId, action: "scenario.deleted", targetType: "scenario", targetId: id, details: { name: row.name } }, transaction);
+    await recordAudit(
+      {
+        teamId,
+        actorId,
+        action: "scenario.deleted",
+        targetType: "scenario",
+        targetId: id,
+        details: { name: row.name },
+      },
+      transaction,
+    );
   });
 }
 
-export async function listScenarioVersions({ id, teamId }: { id: string; teamId: string }): Promise<ScenarioVersionJson[]> {
+export async function listScenarioVersions({
+  id,
+  teamId,
+}: {
+  id: string;
+  teamId: string;
+}): Promise<ScenarioVersionJson[]> {
   const row = await scenarioRowOrThrow({ id, teamId });
   const { ScenarioVersion, User } = getModels();
   const rows = await ScenarioVersion.findAll({
@@ -165,7 +253,15 @@ export async function listScenarioVersions({ id, teamId }: { id: string; teamId:
   }));
 }
 
-export async function getScenarioVersionOrThrow({ id, teamId, version }: { id: string; teamId: string; version: number }): Promise<ScenarioVersionJson> {
+export async function getScenarioVersionOrThrow({
+  id,
+  teamId,
+  version,
+}: {
+  id: string;
+  teamId: string;
+  version: number;
+}): Promise<ScenarioVersionJson> {
   const row = await scenarioRowOrThrow({ id, teamId });
   const { ScenarioVersion, User } = getModels();
   const v = await ScenarioVersion.findOne({
@@ -184,7 +280,17 @@ export async function getScenarioVersionOrThrow({ id, teamId, version }: { id: s
 }
 
 /** Stores the old version's document as a new version (history is never rewritten). */
-export async function restoreScenarioVersion({ id, teamId, actorId, version }: { id: string; teamId: string; actorId: string; version: number }) {
+export async function restoreScenarioVersion({
+  id,
+  teamId,
+  actorId,
+  version,
+}: {
+  id: string;
+  teamId: string;
+  actorId: string;
+  version: number;
+}) {
   const old = await getScenarioVersionOrThrow({ id, teamId, version });
   return saveVersion({ id, teamId, actorId, name: old.name, data: old.scenario, note: `restored version ${version}` });
 }

@@ -1,11 +1,12 @@
 import "server-only";
 import bcrypt from "bcryptjs";
-import { Op, type Transaction } from "sequelize";
-import { getModels, getSequelize } from "@/models";
+import { Op, UniqueConstraintError, type Transaction } from "sequelize";
+import { getModels } from "@/models";
+import { lockRow, withWriteTransaction } from "@/models/transactions";
+import { isId } from "@/lib/server/ids";
 import { badRequest, conflict, gone, notFound } from "@/lib/server/errors";
 import { recordAudit } from "@/lib/server/audit";
 import { sendMail, appBaseUrl } from "@/lib/server/mail";
-import { bumpSessionGeneration } from "@/lib/auth";
 import { hashToken, newToken, plausibleToken } from "@/lib/server/tokens";
 import {
   INVITATION_TTL_HOURS,
@@ -27,7 +28,10 @@ export async function listMembers({ teamId }: { teamId: string }): Promise<Membe
   const rows = await Membership.findAll({
     where: { teamId },
     include: [{ model: User, as: "user", attributes: ["id", "name", "email"] }],
-    order: [["createdAt", "ASC"]],
+    order: [
+      ["createdAt", "ASC"],
+      ["id", "ASC"],
+    ],
   });
   return rows.map((m) => {
     const user = (m as unknown as WithUser).user;
@@ -42,8 +46,20 @@ export async function listMembers({ teamId }: { teamId: string }): Promise<Membe
   });
 }
 
+/**
+ * Every transaction that changes a team's memberships or invitations first locks the team's row
+ * (FOR UPDATE on PostgreSQL; SQLite's writer lock), so two of them for the same team run one
+ * after the other: the owner count read by one is still true when it writes (last-owner rule).
+ */
+export async function lockTeam(teamId: string, transaction: Transaction) {
+  const team = await lockRow(getModels().Team, { id: teamId }, transaction);
+  if (!team) throw notFound("Your team no longer exists.");
+  return team;
+}
+
 async function findMembershipOrThrow(teamId: string, memberId: string, transaction: Transaction) {
   const { Membership } = getModels();
+  if (!isId(memberId)) throw notFound("No such member in your team.");
   // The path id is the member's user id (as listed); a membership id is accepted too.
   const m = await Membership.findOne({
     where: { teamId, [Op.or]: [{ userId: memberId }, { id: memberId }] },
@@ -68,7 +84,8 @@ export async function changeMemberRole({
   memberId: string;
   role: RoleName;
 }): Promise<MemberJson> {
-  await getSequelize().transaction(async (transaction) => {
+  await withWriteTransaction(async (transaction) => {
+    await lockTeam(teamId, transaction);
     const m = await findMembershipOrThrow(teamId, memberId, transaction);
     const from = m.role;
     if (from === role) return;
@@ -77,9 +94,15 @@ export async function changeMemberRole({
     }
     m.role = role;
     await m.save({ transaction });
-    await bumpSessionGeneration(m.userId as string, transaction); // the member signs in again with the new role
     await recordAudit(
-      { teamId, actorId, action: "member.role_changed", targetType: "user", targetId: m.userId as string, details: { from, to: role } },
+      {
+        teamId,
+        actorId,
+        action: "member.role_changed",
+        targetType: "user",
+        targetId: m.userId as string,
+        details: { from, to: role },
+      },
       transaction,
     );
   });
@@ -89,15 +112,23 @@ export async function changeMemberRole({
   return member;
 }
 
-export async function removeMember({ teamId, actorId, memberId }: { teamId: string; actorId: string; memberId: string }): Promise<void> {
-  await getSequelize().transaction(async (transaction) => {
+export async function removeMember({
+  teamId,
+  actorId,
+  memberId,
+}: {
+  teamId: string;
+  actorId: string;
+  memberId: string;
+}): Promise<void> {
+  await withWriteTransaction(async (transaction) => {
+    await lockTeam(teamId, transaction);
     const m = await findMembershipOrThrow(teamId, memberId, transaction);
     if (m.role === "owner" && (await ownerCount(teamId, transaction)) <= 1) {
       throw conflict("This is the team's only owner; a team cannot be left without an owner.");
     }
     const user = await getModels().User.findByPk(m.userId as string, { attributes: ["email", "name"], transaction });
     await m.destroy({ transaction });
-    await bumpSessionGeneration(m.userId as string, transaction); // ends the removed member's sessions
     await recordAudit(
       {
         teamId,
@@ -114,7 +145,14 @@ export async function removeMember({ teamId, actorId, memberId }: { teamId: stri
 
 // ---- Invitations ----
 
-function invitationJson(row: { id: string; email: string; role: RoleName; expiresAt: Date; createdAt: Date; invitedBy?: unknown }): InvitationJson {
+function invitationJson(row: {
+  id: string;
+  email: string;
+  role: RoleName;
+  expiresAt: Date;
+  createdAt: Date;
+  invitedBy?: unknown;
+}): InvitationJson {
   return {
     id: row.id,
     email: row.email,
@@ -128,7 +166,10 @@ function invitationJson(row: { id: string; email: string; role: RoleName; expire
 export async function listPendingInvitations({ teamId }: { teamId: string }): Promise<InvitationJson[]> {
   const rows = await getModels().Invitation.findAll({
     where: { teamId, acceptedAt: null, expiresAt: { [Op.gt]: new Date() } },
-    order: [["createdAt", "DESC"]],
+    order: [
+      ["createdAt", "DESC"],
+      ["id", "ASC"],
+    ],
   });
   return rows.map(invitationJson);
 }
@@ -152,16 +193,27 @@ export async function createInvitation({
   const { token, tokenHash } = newToken();
   const teamName = (await Team.findByPk(teamId, { attributes: ["name"] }))?.name ?? "your team";
   const expiresAt = new Date(Date.now() + INVITATION_TTL_HOURS * 3_600_000);
-  const created = await getSequelize().transaction(async (transaction) => {
+  const created = await withWriteTransaction(async (transaction) => {
+    await lockTeam(teamId, transaction);
     const user = await User.findOne({ where: { email }, attributes: ["id"], transaction });
     if (user && (await Membership.count({ where: { teamId, userId: user.id }, transaction })) > 0) {
       throw conflict(`${email} is already a member of this team.`);
     }
     // A new invitation replaces any earlier pending one for the same address.
     await Invitation.destroy({ where: { teamId, email, acceptedAt: null }, transaction });
-    const row = await Invitation.create({ teamId, email, role, tokenHash, expiresAt, invitedBy: actorId }, { transaction });
+    const row = await Invitation.create(
+      { teamId, email, role, tokenHash, expiresAt, invitedBy: actorId },
+      { transaction },
+    );
     await recordAudit(
-      { teamId, actorId, action: "invitation.created", targetType: "invitation", targetId: row.id, details: { email, role } },
+      {
+        teamId,
+        actorId,
+        action: "invitation.created",
+        targetType: "invitation",
+        targetId: row.id,
+        details: { email, role },
+      },
       transaction,
     );
     return row;
@@ -183,13 +235,33 @@ export async function createInvitation({
   return { ...invitationJson(created), mailSent: mail.sent };
 }
 
-export async function revokeInvitation({ teamId, actorId, invitationId }: { teamId: string; actorId: string; invitationId: string }): Promise<void> {
-  await getSequelize().transaction(async (transaction) => {
-    const row = await getModels().Invitation.findOne({ where: { id: invitationId, teamId, acceptedAt: null }, transaction });
+export async function revokeInvitation({
+  teamId,
+  actorId,
+  invitationId,
+}: {
+  teamId: string;
+  actorId: string;
+  invitationId: string;
+}): Promise<void> {
+  await withWriteTransaction(async (transaction) => {
+    if (!isId(invitationId)) throw notFound("No such pending invitation.");
+    await lockTeam(teamId, transaction);
+    const row = await getModels().Invitation.findOne({
+      where: { id: invitationId, teamId, acceptedAt: null },
+      transaction,
+    });
     if (!row) throw notFound("No such pending invitation.");
     await row.destroy({ transaction });
     await recordAudit(
-      { teamId, actorId, action: "invitation.revoked", targetType: "invitation", targetId: row.id, details: { email: row.email, role: row.role } },
+      {
+        teamId,
+        actorId,
+        action: "invitation.revoked",
+        targetType: "invitation",
+        targetId: row.id,
+        details: { email: row.email, role: row.role },
+      },
       transaction,
     );
   });
@@ -197,10 +269,16 @@ export async function revokeInvitation({ teamId, actorId, invitationId }: { team
 
 async function usableInvitation(token: string, transaction?: Transaction) {
   if (!plausibleToken(token)) throw notFound("This invitation link is not valid.");
-  const row = await getModels().Invitation.findOne({ where: { tokenHash: hashToken(token) }, transaction });
+  const where = { tokenHash: hashToken(token) };
+  // Inside the accepting transaction the row is locked, so a second accept waits and then
+  // sees acceptedAt set (single use on PostgreSQL too).
+  const row = transaction
+    ? await lockRow(getModels().Invitation, where, transaction)
+    : await getModels().Invitation.findOne({ where });
   if (!row) throw notFound("This invitation link is not valid.");
   if (row.acceptedAt) throw gone("This invitation has already been used.");
-  if (new Date(row.expiresAt).getTime() <= Date.now()) throw gone("This invitation has expired; ask the team owner for a new one.");
+  if (new Date(row.expiresAt).getTime() <= Date.now())
+    throw gone("This invitation has expired; ask the team owner for a new one.");
   return row;
 }
 
@@ -209,7 +287,13 @@ export async function previewInvitation({ token }: { token: string }): Promise<I
   const { Team, User } = getModels();
   const team = await Team.findByPk(row.teamId as string, { attributes: ["name"] });
   const existing = await User.count({ where: { email: row.email } });
-  return { email: row.email, role: row.role, teamName: team?.name ?? "", expiresAt: iso(row.expiresAt)!, existingAccount: existing > 0 };
+  return {
+    email: row.email,
+    role: row.role,
+    teamName: team?.name ?? "",
+    expiresAt: iso(row.expiresAt)!,
+    existingAccount: existing > 0,
+  };
 }
 
 /**
@@ -223,8 +307,9 @@ export async function acceptInvitation({ token, name, password }: { token: strin
   // writer lock is shared by every request). The check is repeated inside for single use.
   await usableInvitation(token);
   const passwordHash = await bcrypt.hash(password, 10);
-  return getSequelize().transaction(async (transaction) => {
+  return withWriteTransaction(async (transaction) => {
     const invitation = await usableInvitation(token, transaction);
+    await lockTeam(invitation.teamId as string, transaction);
     let user = await User.findOne({ where: { email: invitation.email }, transaction });
     if (user) {
       if (!(await bcrypt.compare(password, user.passwordHash))) {
@@ -232,13 +317,28 @@ export async function acceptInvitation({ token, name, password }: { token: strin
           { path: ["password"], message: "does not match the existing account's password" },
         ]);
       }
-      if ((await Membership.count({ where: { teamId: invitation.teamId as string, userId: user.id }, transaction })) > 0) {
+      if (
+        (await Membership.count({ where: { teamId: invitation.teamId as string, userId: user.id }, transaction })) > 0
+      ) {
         throw conflict("You are already a member of this team.");
       }
     } else {
-      user = await User.create({ email: invitation.email, name, passwordHash }, { transaction });
+      try {
+        user = await User.create({ email: invitation.email, name, passwordHash }, { transaction });
+      } catch (err) {
+        // Another team's invitation to the same address was accepted at the same moment.
+        if (err instanceof UniqueConstraintError) {
+          throw conflict(
+            `An account for ${invitation.email} was created by another invitation just now; open the link again and enter that account's password.`,
+          );
+        }
+        throw err;
+      }
     }
-    await Membership.create({ teamId: invitation.teamId as string, userId: user.id, role: invitation.role }, { transaction });
+    await Membership.create(
+      { teamId: invitation.teamId as string, userId: user.id, role: invitation.role },
+      { transaction },
+    );
     invitation.acceptedAt = new Date();
     await invitation.save({ transaction });
     await recordAudit(

@@ -2,7 +2,7 @@
 // under tsx, vitest and the Next server without a TypeScript loader for dynamic requires.
 import type { QueryInterface } from "sequelize";
 import * as m0001 from "./0001-initial";
-import * as m0003 from "./0003-sessions-and-limits";
+import * as m0002 from "./0002-text-columns";
 import * as m0004 from "./0004-review";
 
 export interface Migration {
@@ -11,4 +11,8 @@ export interface Migration {
   down(params: { context: QueryInterface }): Promise<void>;
 }
 
-export const MIGRATIONS: Migration[] = [{ name: "0001-initial", ...m0001 }, { name: "0003-sessions-and-limits", ...m0003 }, { name: "0004-review", ...m0004 }];
+export const MIGRATIONS: Migration[] = [
+  { name: "0001-initial", ...m0001 },
+  { name: "0002-text-columns", ...m0002 },
+  { name: "0004-review", ...m0004 },
+];

@@ -1,9 +1,10 @@
-// Team flows end to end against the real server, its SMTP sink and a fresh SQLite file:
+// Team flows end to end against the real server, its SMTP sink and a fresh database (SQLite, or PostgreSQL with RAILWISE_TEST_PG):
 // invitations by mail, the last-owner rule, run links (open without a session, revoke,
 // expire), review mails, the audit log, upload limits and malformed CSVs (never a 5xx,
 // nothing stored), and 50 concurrent writes that lose nothing.
-import sqlite3 from "sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { DEMO_PASSWORD } from "@/lib/demo/accounts";
+import { withServerDb } from "@/tests/helpers/db";
 import { signIn, startServer, type TestServer } from "@/tests/helpers/server";
 import { EMAILS, firstScenarioId, readMails, setupTeam, waitForMail, type TeamFixture } from "@/tests/helpers/team";
 
@@ -18,15 +19,6 @@ afterAll(async () => {
   await server?.stop();
 });
 
-/** One SQL statement straight on the server's database file (WAL lets both write). */
-function sql(statement: string, params: unknown[] = []): Promise<void> {
-  return new Promise((resolve, reject) => {
-    const db = new sqlite3.Database(server.dbPath);
-    db.configure("busyTimeout", 10_000);
-    db.run(statement, params, (err) => db.close(() => (err ? reject(err) : resolve())));
-  });
-}
-
 async function count(path: string, as = fx.sessions.owner): Promise<number> {
   const res = await as.fetch(path);
   expect(res.status).toBe(200);
@@ -34,7 +26,10 @@ async function count(path: string, as = fx.sessions.owner): Promise<number> {
 }
 
 async function invite(email: string, role: string) {
-  const res = await fx.sessions.owner.fetch("/api/team/invitations", { method: "POST", body: JSON.stringify({ email, role }) });
+  const res = await fx.sessions.owner.fetch("/api/team/invitations", {
+    method: "POST",
+    body: JSON.stringify({ email, role }),
+  });
   expect(res.status).toBe(201);
   const body = (await res.json()) as { id: string; mailSent: boolean };
   expect(body.mailSent).toBe(true);
@@ -78,8 +73,17 @@ describe("invitations through the SMTP sink", () => {
     expect(ada.session.user.role).toBe("reviewer");
     expect(ada.session.user.teamName).toBe("Fjordline Aquaculture");
     // The new reviewer can do what reviewers do, and no more.
-    expect((await ada.fetch(`/api/runs/${fx.runId}/comments`, { method: "POST", body: JSON.stringify({ body: "Joined, reading the run." }) })).status).toBe(201);
-    expect((await ada.fetch("/api/parts", { method: "POST", body: JSON.stringify({ name: "nope" }) })).status).toBe(403);
+    expect(
+      (
+        await ada.fetch(`/api/runs/${fx.runId}/comments`, {
+          method: "POST",
+          body: JSON.stringify({ body: "Joined, reading the run." }),
+        })
+      ).status,
+    ).toBe(201);
+    expect((await ada.fetch("/api/parts", { method: "POST", body: JSON.stringify({ name: "nope" }) })).status).toBe(
+      403,
+    );
 
     // Single use: a second accept is refused; so is a made-up token.
     const again = await fetch(`${server.url}/api/invitations/${token}/accept`, {
@@ -95,13 +99,22 @@ describe("invitations through the SMTP sink", () => {
     });
     expect(bogus.status).toBe(404);
 
-    const members = (await (await fx.sessions.owner.fetch("/api/team/members")).json()) as { items: { email: string; role: string; name: string }[] };
-    expect(members.items.find((m) => m.email === "ada.new@fjordline.example")).toMatchObject({ role: "reviewer", name: "Ada New" });
+    const members = (await (await fx.sessions.owner.fetch("/api/team/members")).json()) as {
+      items: { email: string; role: string; name: string }[];
+    };
+    expect(members.items.find((m) => m.email === "ada.new@fjordline.example")).toMatchObject({
+      role: "reviewer",
+      name: "Ada New",
+    });
   });
 
   it("an expired invitation answers 410 and creates no account", async () => {
     const { id, token } = await invite("late.comer@fjordline.example", "viewer");
-    await sql("UPDATE invitations SET expiresAt = ? WHERE id = ?", ["2000-01-01 00:00:00.000 +00:00", id]);
+    // Moved into the past through the app's own models (works on SQLite and PostgreSQL).
+    const [changed] = await withServerDb(server, ({ models }) =>
+      models.Invitation.update({ expiresAt: new Date("2000-01-01T00:00:00Z") }, { where: { id } }),
+    );
+    expect(changed).toBe(1);
     const res = await fetch(`${server.url}/api/invitations/${token}/accept`, {
       method: "POST",
       headers: { "content-type": "application/json" },
@@ -113,7 +126,10 @@ describe("invitations through the SMTP sink", () => {
   });
 
   it("inviting an existing member is a 409", async () => {
-    const res = await fx.sessions.owner.fetch("/api/team/invitations", { method: "POST", body: JSON.stringify({ email: EMAILS.viewer, role: "designer" }) });
+    const res = await fx.sessions.owner.fetch("/api/team/invitations", {
+      method: "POST",
+      body: JSON.stringify({ email: EMAILS.viewer, role: "designer" }),
+    });
     expect(res.status).toBe(409);
   });
 });
@@ -122,26 +138,53 @@ describe("membership", () => {
   it("never leaves the team without an owner (409), and a removed member loses access at once", async () => {
     const owner = fx.sessions.owner;
     const me = owner.session.user.id;
-    const demote = await owner.fetch(`/api/team/members/${me}`, { method: "PATCH", body: JSON.stringify({ role: "designer" }) });
+    const demote = await owner.fetch(`/api/team/members/${me}`, {
+      method: "PATCH",
+      body: JSON.stringify({ role: "designer" }),
+    });
     expect(demote.status).toBe(409);
     expect(((await demote.json()) as { message: string }).message).toMatch(/only owner/);
     expect((await owner.fetch(`/api/team/members/${me}`, { method: "DELETE" })).status).toBe(409);
 
     // Bring in a member by invitation, promote, demote, remove.
     const { token } = await invite("temp.member@fjordline.example", "designer");
-    expect((await fetch(`${server.url}/api/invitations/${token}/accept`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ name: "Temp Member", password: "temporary-pass" }) })).status).toBe(201);
+    expect(
+      (
+        await fetch(`${server.url}/api/invitations/${token}/accept`, {
+          method: "POST",
+          headers: { "content-type": "application/json" },
+          body: JSON.stringify({ name: "Temp Member", password: "temporary-pass" }),
+        })
+      ).status,
+    ).toBe(201);
     const temp = await signIn(server.url, "temp.member@fjordline.example", "temporary-pass");
     const tempId = temp.session.user.id;
-    expect((await owner.fetch(`/api/team/members/${tempId}`, { method: "PATCH", body: JSON.stringify({ role: "owner" }) })).status).toBe(200);
+    expect(
+      (await owner.fetch(`/api/team/members/${tempId}`, { method: "PATCH", body: JSON.stringify({ role: "owner" }) }))
+        .status,
+    ).toBe(200);
+    // A role change ends the member's sessions (issue 15 item 6): sign in again with the new role.
+    expect((await temp.fetch("/api/team/members")).status).toBe(401);
+    Object.assign(temp, await signIn(server.url, "temp.member@fjordline.example", "temporary-pass"));
     // Two owners now: the first may step down, and step back up (via the second).
-    expect((await owner.fetch(`/api/team/members/${me}`, { method: "PATCH", body: JSON.stringify({ role: "designer" }) })).status).toBe(200);
-    expect((await temp.fetch(`/api/team/members/${me}`, { method: "PATCH", body: JSON.stringify({ role: "owner" }) })).status).toBe(200);
+    expect(
+      (await owner.fetch(`/api/team/members/${me}`, { method: "PATCH", body: JSON.stringify({ role: "designer" }) }))
+        .status,
+    ).toBe(200);
+    expect(
+      (await temp.fetch(`/api/team/members/${me}`, { method: "PATCH", body: JSON.stringify({ role: "owner" }) }))
+        .status,
+    ).toBe(200);
+    // The owner's own cookie ended with the step-down; the shared fixture session signs in again.
+    Object.assign(owner, await signIn(server.url, EMAILS.owner, DEMO_PASSWORD));
     const removed = await owner.fetch(`/api/team/members/${tempId}`, { method: "DELETE" });
     expect(removed.status).toBe(204);
     // The removed member's session no longer opens anything.
     expect((await temp.fetch("/api/team/members")).status).toBe(401);
 
-    const audit = (await (await owner.fetch("/api/team/audit")).json()) as { items: { action: string; targetId: string | null }[] };
+    const audit = (await (await owner.fetch("/api/team/audit")).json()) as {
+      items: { action: string; targetId: string | null }[];
+    };
     const actions = audit.items.filter((e) => e.targetId === tempId).map((e) => e.action);
     expect(actions).toEqual(expect.arrayContaining(["member.joined", "member.role_changed", "member.removed"]));
   });
@@ -149,7 +192,10 @@ describe("membership", () => {
 
 describe("run links", () => {
   it("create → open without a session → revoke → 410 at once; the page follows", async () => {
-    const create = await fx.sessions.designer.fetch(`/api/runs/${fx.runId}/links`, { method: "POST", body: JSON.stringify({ expiresInDays: 7 }) });
+    const create = await fx.sessions.designer.fetch(`/api/runs/${fx.runId}/links`, {
+      method: "POST",
+      body: JSON.stringify({ expiresInDays: 7 }),
+    });
     expect(create.status).toBe(201);
     const link = (await create.json()) as { id: string; token: string; url: string; expiresAt: string };
     expect(link.token).toMatch(/^[A-Za-z0-9_-]{43}$/);
@@ -177,14 +223,19 @@ describe("run links", () => {
     expect((await fetch(`${server.url}/share/${link.token}`)).status).toBe(404);
     expect((await fetch(`${server.url}/api/links/${"x".repeat(43)}`)).status).toBe(404);
 
-    const audit = (await (await fx.sessions.owner.fetch("/api/team/audit")).json()) as { items: { action: string; details: { linkId?: string } }[] };
+    const audit = (await (await fx.sessions.owner.fetch("/api/team/audit")).json()) as {
+      items: { action: string; details: { linkId?: string } }[];
+    };
     const linkActions = audit.items.filter((e) => e.details?.linkId === link.id).map((e) => e.action);
     expect(linkActions.sort()).toEqual(["link.created", "link.revoked"]);
   });
 
   it("an expired link stops working without anyone revoking it", async () => {
     const expiresAt = new Date(Date.now() + 1500).toISOString();
-    const res = await fx.sessions.designer.fetch(`/api/runs/${fx.runId}/links`, { method: "POST", body: JSON.stringify({ expiresAt }) });
+    const res = await fx.sessions.designer.fetch(`/api/runs/${fx.runId}/links`, {
+      method: "POST",
+      body: JSON.stringify({ expiresAt }),
+    });
     expect(res.status).toBe(201);
     const { token } = (await res.json()) as { token: string };
     expect((await fetch(`${server.url}/api/links/${token}`)).status).toBe(200);
@@ -206,27 +257,42 @@ describe("review", () => {
     const signoff = (await res.json()) as { id: string; decision: string; reviewer: { name: string } };
     expect(signoff).toMatchObject({ decision: "approved", reviewer: { name: "Maren Lie" } });
 
-    const mail = await waitForMail(server.mailDir, (m) => m.to.includes(EMAILS.designer) && m.subject.startsWith("Approved"));
+    const mail = await waitForMail(
+      server.mailDir,
+      (m) => m.to.includes(EMAILS.designer) && m.subject.startsWith("Approved"),
+    );
     expect(mail.text).toContain("Thresholds 11.4 V / 12.5 V within 1 %.");
     expect(mail.text).toContain(`/runs/${fx.runId}`);
     expect(readMails(server.mailDir).length).toBeGreaterThan(before);
 
-    const latest = (await (await fx.sessions.viewer.fetch(`/api/runs/${fx.runId}/signoffs`)).json()) as { items: { id: string }[] };
+    const latest = (await (await fx.sessions.viewer.fetch(`/api/runs/${fx.runId}/signoffs`)).json()) as {
+      items: { id: string }[];
+    };
     expect(latest.items[0].id).toBe(signoff.id);
 
-    const scenario = (await (await fx.sessions.viewer.fetch(`/api/scenarios/${fx.scenarioId}`)).json()) as { latestDecision: { decision: string; runId: string } | null };
+    const scenario = (await (await fx.sessions.viewer.fetch(`/api/scenarios/${fx.scenarioId}`)).json()) as {
+      latestDecision: { decision: string; runId: string } | null;
+    };
     expect(scenario.latestDecision).toMatchObject({ decision: "approved", runId: fx.runId });
 
-    const audit = (await (await fx.sessions.owner.fetch("/api/team/audit")).json()) as { items: { action: string; details: { signoffId?: string } }[] };
+    const audit = (await (await fx.sessions.owner.fetch("/api/team/audit")).json()) as {
+      items: { action: string; details: { signoffId?: string } }[];
+    };
     expect(audit.items.some((e) => e.action === "signoff.created" && e.details?.signoffId === signoff.id)).toBe(true);
   });
 
   it("a comment mails the other participants, not its author; text stays plain", async () => {
     const body = "Deadband looks <b>wide</b> enough;\nsee the Loop plot.";
-    const res = await fx.sessions.owner.fetch(`/api/runs/${fx.runId}/comments`, { method: "POST", body: JSON.stringify({ body }) });
+    const res = await fx.sessions.owner.fetch(`/api/runs/${fx.runId}/comments`, {
+      method: "POST",
+      body: JSON.stringify({ body }),
+    });
     expect(res.status).toBe(201);
     expect(((await res.json()) as { body: string }).body).toBe(body);
-    const mail = await waitForMail(server.mailDir, (m) => m.subject.startsWith("New comment") && m.text.includes("<b>wide</b>"));
+    const mail = await waitForMail(
+      server.mailDir,
+      (m) => m.subject.startsWith("New comment") && m.text.includes("<b>wide</b>"),
+    );
     expect(mail.to).toContain(EMAILS.designer); // the run's author
     expect(mail.to).toContain(EMAILS.reviewer); // signed off earlier
     expect(mail.to).not.toContain(EMAILS.owner); // the commenter
@@ -254,7 +320,12 @@ describe("uploads: limits and malformed CSVs (never a 5xx, nothing stored)", () 
       ["t,v\n0,1\n1,2\n", { timeColumn: "t", voltsColumn: "v", timeUnit: "fortnight" }, 400, /timeUnit/],
       ['t,v\n0,"1\n1,2\n', undefined, 400, /Row|not a number|Quote/i],
       [new Blob([new Uint8Array([0xff, 0xfe, 0x00, 0x01, 0x02])]), undefined, 400, /not a text CSV/],
-      ["t,v\n" + Array.from({ length: 200_001 }, (_, i) => `${i},0`).join("\n"), undefined, 413, /200,001 data rows; at most 200,000/],
+      [
+        "t,v\n" + Array.from({ length: 200_001 }, (_, i) => `${i},0`).join("\n"),
+        undefined,
+        413,
+        /200,001 data rows; at most 200,000/,
+      ],
       ["t,v\n" + "0.000000,0.000000\n".repeat(300_000), undefined, 413, /larger than 5 MB/],
     ];
     for (const [csv, fields, status, message] of bad) {
@@ -264,7 +335,11 @@ describe("uploads: limits and malformed CSVs (never a 5xx, nothing stored)", () 
       expect(body.message).toMatch(message);
     }
     // Not multipart at all, and no file field.
-    const raw = await fx.sessions.designer.fetch("/api/captures", { method: "POST", headers: { "content-type": "text/csv" }, body: "t,v\n0,1\n1,2\n" });
+    const raw = await fx.sessions.designer.fetch("/api/captures", {
+      method: "POST",
+      headers: { "content-type": "text/csv" },
+      body: "t,v\n0,1\n1,2\n",
+    });
     expect(raw.status).toBe(400);
     const noFile = new FormData();
     noFile.set("timeColumn", "t");
@@ -287,7 +362,9 @@ describe("uploads: limits and malformed CSVs (never a 5xx, nothing stored)", () 
     expect(res.status).toBe(201);
     const created = (await res.json()) as { id: string; points: number; columns: { time: string; value: string } };
     expect(created).toMatchObject({ points: 3, columns: { time: "time_ms", value: "ch1" } });
-    const full = (await (await fx.sessions.viewer.fetch(`/api/captures/${created.id}`)).json()) as { samples: [number, number][] };
+    const full = (await (await fx.sessions.viewer.fetch(`/api/captures/${created.id}`)).json()) as {
+      samples: [number, number][];
+    };
     expect(full.samples).toEqual([
       [0, 0.1],
       [0.0005, 0.12],
@@ -295,12 +372,21 @@ describe("uploads: limits and malformed CSVs (never a 5xx, nothing stored)", () 
     ]);
 
     // Columns by 1-based number, and the default (first = time, second = volts) when none is chosen.
-    const byNumber = await fx.sessions.designer.fetch("/api/captures", { method: "POST", body: form(csv, { timeColumn: "1", voltsColumn: "3" }) });
+    const byNumber = await fx.sessions.designer.fetch("/api/captures", {
+      method: "POST",
+      body: form(csv, { timeColumn: "1", voltsColumn: "3" }),
+    });
     expect(byNumber.status).toBe(201);
     expect(((await byNumber.json()) as { columns: unknown }).columns).toEqual({ time: "time_ms", value: "ch2" });
-    const byDefault = await fx.sessions.designer.fetch("/api/captures", { method: "POST", body: form("0,1\n0.1,2\n0.2,1.5\n", {}) });
+    const byDefault = await fx.sessions.designer.fetch("/api/captures", {
+      method: "POST",
+      body: form("0,1\n0.1,2\n0.2,1.5\n", {}),
+    });
     expect(byDefault.status).toBe(201);
-    expect(((await byDefault.json()) as { points: number; duration: number })).toMatchObject({ points: 3, duration: 0.2 });
+    expect((await byDefault.json()) as { points: number; duration: number }).toMatchObject({
+      points: 3,
+      duration: 0.2,
+    });
   });
 
   it("parts CSV import is all or nothing", async () => {
@@ -324,7 +410,11 @@ describe("uploads: limits and malformed CSVs (never a 5xx, nothing stored)", () 
     expect(await count("/api/parts")).toBe(before);
 
     const f = new FormData();
-    f.set("file", new Blob([`${header}\nfresh one,1e5,1M,1e6,0.1,0.1,1m\nfresh two,2e5,10M,20e6,0.1,0.1,2m\n`]), "parts.csv");
+    f.set(
+      "file",
+      new Blob([`${header}\nfresh one,1e5,1M,1e6,0.1,0.1,1m\nfresh two,2e5,10M,20e6,0.1,0.1,2m\n`]),
+      "parts.csv",
+    );
     const ok = await fx.sessions.designer.fetch("/api/parts/import", { method: "POST", body: f });
     expect(ok.status).toBe(201);
     expect(await count("/api/parts")).toBe(before + 2);
@@ -337,20 +427,35 @@ describe("concurrency", () => {
     const writers = [fx.sessions.owner, fx.sessions.designer, fx.sessions.reviewer];
     const comments = await Promise.all(
       Array.from({ length: 50 }, (_, i) =>
-        writers[i % 3].fetch(`/api/runs/${fx.runId}/comments`, { method: "POST", body: JSON.stringify({ body: `parallel comment ${i}` }) }),
+        writers[i % 3].fetch(`/api/runs/${fx.runId}/comments`, {
+          method: "POST",
+          body: JSON.stringify({ body: `parallel comment ${i}` }),
+        }),
       ),
     );
     expect(comments.map((r) => r.status)).toEqual(Array(50).fill(201));
-    const list = (await (await fx.sessions.viewer.fetch(`/api/runs/${fx.runId}/comments`)).json()) as { items: { body: string }[] };
+    const list = (await (await fx.sessions.viewer.fetch(`/api/runs/${fx.runId}/comments`)).json()) as {
+      items: { body: string }[];
+    };
     expect(list.items.length).toBe(before + 50);
     const bodies = new Set(list.items.map((c) => c.body));
     for (let i = 0; i < 50; i++) expect(bodies.has(`parallel comment ${i}`)).toBe(true);
 
     const partsBefore = await count("/api/parts");
-    const opamp = { openLoopGain: 2e5, gainBandwidth: 1e6, slewRate: 5e5, outputHeadroomHigh: 1.5, outputHeadroomLow: 1.5, inputOffset: 1e-3 };
+    const opamp = {
+      openLoopGain: 2e5,
+      gainBandwidth: 1e6,
+      slewRate: 5e5,
+      outputHeadroomHigh: 1.5,
+      outputHeadroomLow: 1.5,
+      inputOffset: 1e-3,
+    };
     const saves = await Promise.all(
       Array.from({ length: 50 }, (_, i) =>
-        (i % 2 ? fx.sessions.owner : fx.sessions.designer).fetch("/api/parts", { method: "POST", body: JSON.stringify({ name: `parallel part ${i}`, opamp }) }),
+        (i % 2 ? fx.sessions.owner : fx.sessions.designer).fetch("/api/parts", {
+          method: "POST",
+          body: JSON.stringify({ name: `parallel part ${i}`, opamp }),
+        }),
       ),
     );
     expect(saves.map((r) => r.status)).toEqual(Array(50).fill(201));
@@ -369,9 +474,15 @@ describe("concurrency", () => {
       ),
     );
     expect(saves.map((r) => r.status)).toEqual(Array(50).fill(200));
+    // Each answer carries the version that save wrote (read inside its own transaction), so the
+    // 50 answers name 50 different versions, exactly before+1 … before+50.
+    const answered = await Promise.all(saves.map(async (r) => ((await r.json()) as { version: number }).version));
+    expect([...answered].sort((a, b) => a - b)).toEqual(Array.from({ length: 50 }, (_, i) => before.version + 1 + i));
     const after = (await (await fx.sessions.viewer.fetch(`/api/scenarios/${id}`)).json()) as { version: number };
     expect(after.version).toBe(before.version + 50);
-    const versions = (await (await fx.sessions.viewer.fetch(`/api/scenarios/${id}/versions`)).json()) as { items: { version: number; note?: string | null }[] };
+    const versions = (await (await fx.sessions.viewer.fetch(`/api/scenarios/${id}/versions`)).json()) as {
+      items: { version: number; note?: string | null }[];
+    };
     const numbers = versions.items.map((v) => v.version).sort((a, b) => a - b);
     expect(new Set(numbers).size).toBe(numbers.length);
     for (let i = 0; i < 50; i++) expect(versions.items.some((v) => v.note === `parallel save ${i}`)).toBe(true);

@@ -27,7 +27,10 @@ afterAll(async () => {
 });
 
 const pragma = async (name: string, transaction?: unknown) => {
-  const rows = await sequelize.query<Record<string, unknown>>(`PRAGMA ${name}`, { type: QueryTypes.SELECT, transaction: transaction as never });
+  const rows = await sequelize.query<Record<string, unknown>>(`PRAGMA ${name}`, {
+    type: QueryTypes.SELECT,
+    transaction: transaction as never,
+  });
   return Object.values(rows[0])[0];
 };
 
