@@ -19,7 +19,12 @@ export interface SeedReport {
   created: string[];
 }
 
-async function findOrCreate<T>(find: () => Promise<T | null>, create: () => Promise<T>, label: string, report: SeedReport) {
+async function findOrCreate<T>(
+  find: () => Promise<T | null>,
+  create: () => Promise<T>,
+  label: string,
+  report: SeedReport,
+) {
   const found = await find();
   if (found) return found;
   report.created.push(label);
@@ -37,7 +42,11 @@ async function seedBoard(
 ) {
   const row = await findOrCreate(
     () => m.Board.findOne({ where: { teamId, name: board.name }, transaction: t }),
-    () => m.Board.create({ teamId, name: board.name, description: board.description, createdBy: ownerId }, { transaction: t }),
+    () =>
+      m.Board.create(
+        { teamId, name: board.name, description: board.description, createdBy: ownerId },
+        { transaction: t },
+      ),
     `board ${board.name}`,
     report,
   );
@@ -79,7 +88,11 @@ export async function seed(sequelize: Sequelize): Promise<SeedReport> {
       for (const profile of DEMO_PART_PROFILES) {
         await findOrCreate(
           () => m.PartProfile.findOne({ where: { teamId: team.id, name: profile.name }, transaction: t }),
-          () => m.PartProfile.create({ teamId: team.id, name: profile.name, params: profile.params, createdBy: null }, { transaction: t }),
+          () =>
+            m.PartProfile.create(
+              { teamId: team.id, name: profile.name, params: profile.params, createdBy: null },
+              { transaction: t },
+            ),
           `part profile ${profile.name} (${name})`,
           report,
         );
