@@ -13,6 +13,14 @@ import type { ExactSolver } from "./solver";
 /** Knots between re-seeding the rotated sine phases with Math.sin/cos. */
 const RESEED = 4096;
 
+/** Both ends of the affine vd on the held side of the rail (and of 0 when tracked), with `margin` to spare. */
+function holds(a: number, b: number, margin: number, high: boolean, threshold: number, trackVd: boolean, vdSide: boolean): boolean {
+  const lo = Math.min(a, b) - margin;
+  const hi = Math.max(a, b) + margin;
+  if (high ? lo < threshold : hi > threshold) return false;
+  return !trackVd || (vdSide ? lo >= 0 : hi < 0);
+}
+
 /** Hold the output at the rail from t; returns the time reached (the caller goes on from there). */
 export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
   const p = s.p;
@@ -30,13 +38,6 @@ export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
   const omega = m.basis.omega;
   const sineCount = m.basis.sineCount;
   const curvature = Math.abs(alpha) * s.sineCurvature; // |alpha|·Σ A_j·ω_j²
-  /** Both ends of the affine vd on the held side, with `margin` to spare. */
-  const holds = (a: number, b: number, margin: number): boolean => {
-    const lo = Math.min(a, b) - margin;
-    const hi = Math.max(a, b) + margin;
-    if (high ? lo < threshold : hi > threshold) return false;
-    return !trackVd || (vdSide ? lo >= 0 : hi < 0);
-  };
   let held = 0;
   const sig = p.signal;
   const knots = sig.noise;
@@ -48,7 +49,7 @@ export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
     const dt = sig.noiseDt;
     const margin = (curvature * dt * dt) / 8;
     const v0 = alpha * m.inputAtStart() + c0;
-    if (holds(v0, v0, margin)) {
+    if (holds(v0, v0, margin, high, threshold, trackVd, vdSide)) {
       const lastK = knots.length - 1;
       let k = Math.floor(t / dt);
       if ((k + 1) * dt <= t) k++;
@@ -83,7 +84,7 @@ export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
           for (let j = 0; j < sineCount; j++) sines += sig.sineAmp[j] * sn[j];
         }
         const b = alpha * (refV + slope * (tb - refT) + knots[k + 1] + sines) + c0;
-        if (!holds(b, b, margin)) break;
+        if (!holds(b, b, margin, high, threshold, trackVd, vdSide)) break;
         while (s.sample < ts.length && ts[s.sample] <= tb) out[s.sample++] = V;
         held += tb - t;
         t = tb;
@@ -104,7 +105,7 @@ export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
     }
     const a = alpha * u0 + c0;
     const b = alpha * (u0 + u1 * h) + c0;
-    if (!holds(a, b, (curvature * h * h) / 2)) break;
+    if (!holds(a, b, (curvature * h * h) / 2, high, threshold, trackVd, vdSide)) break;
     while (s.sample < ts.length && ts[s.sample] <= tb) out[s.sample++] = V;
     held += h;
     t = tb;
