@@ -43,6 +43,7 @@ export function describeDetails(details: unknown): string {
     const v = typeof d.scenarioVersion === "number" ? `, version ${d.scenarioVersion}` : "";
     return `${DECISION_WORDS[d.decision] ?? d.decision.replace("_", " ")}${v}`;
   }
+  if (Array.isArray(d.reviewerNames) && d.reviewerNames.length) return `from ${d.reviewerNames.join(", ")}`;
   if (Array.isArray(d.reviewerIds)) return `${d.reviewerIds.length} reviewer${d.reviewerIds.length === 1 ? "" : "s"}`;
   if (typeof d.label === "string" && d.label) return `for ${d.label}`;
   if (typeof d.email === "string" && typeof d.role === "string") return `${d.email} as ${d.role}`;

@@ -452,6 +452,7 @@ export async function requestReview({
     }
     if (id === actor.userId) throw badRequest("reviewerIds: you cannot ask yourself to review your own run", [{ path: ["reviewerIds", i], message: "that is you" }]);
   }
+  const reviewerNames = await namesOf(wanted);
   const { run, scenario, fresh } = await getSequelize().transaction(async (transaction) => {
     const run = await runInTeamOrThrow({ runId, teamId, transaction });
     const scenario = await scenarioNameOf(run.scenarioId as string, transaction);
@@ -471,7 +472,7 @@ export async function requestReview({
           action: "review.requested",
           targetType: "run",
           targetId: runId,
-          details: { reviewerIds: fresh, runLabel: run.label, scenarioName: scenario?.name ?? null, scenarioVersion: run.scenarioVersion ?? null },
+          details: { reviewerIds: fresh, reviewerNames: fresh.map((id) => reviewerNames.get(id) ?? "(removed account)"), runLabel: run.label, scenarioName: scenario?.name ?? null, scenarioVersion: run.scenarioVersion ?? null },
         },
         transaction,
       );
