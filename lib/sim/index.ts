@@ -3,7 +3,7 @@
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { ResultJson, SimOptions, SimResult, SolverName } from "./types";
 import { InputSignal, evaluateInputSignal } from "./signals";
-import { buildNetwork, defaultInitialOutput, initialCapacitor, outputLimits, settledState } from "./network";
+import { buildNetwork, withFilter, defaultInitialOutput, initialCapacitor, outputLimits, settledState } from "./network";
 import { Recorder, amplifierMetrics, defaultHoldOff, finishMetrics } from "./measure";
 import { ExactSolver, type ExactParams } from "./exact";
 import { runOdex } from "./odex-solver";
@@ -34,18 +34,19 @@ export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult
   const started = performance.now();
   // The circuit as built (source, reference divider, output) lowered to the plain stage; filter and
   // open-drain output fail with SimFailed until the solver has them (lib/sim/circuit).
-  const circuit = lowerCircuit(asBuilt);
+  const circuit = lowerCircuit(asBuilt, { allowFilter: true });
   const scenario = circuit.scenario;
   const solverName: SolverName = options.solver ?? scenario.run.solver ?? "exact";
   const duration = scenario.run.duration;
   const signal = new InputSignal(scenario, duration);
-  const net = buildNetwork(scenario);
+  const plainNet = buildNetwork(scenario);
+  const net = circuit.filter ? withFilter(plainNet, scenario, circuit.filter) : plainNet;
   const rails = outputLimits(scenario);
   const op = scenario.opamp;
   const td = op.propagationDelay ?? 0;
   const t = sampleTimes(duration, scenario.run.points);
   const output = new Float64Array(t.length);
-  const capacitor = scenario.stage.kind === "relaxation-oscillator" ? new Float64Array(t.length) : null;
+  const capacitor = scenario.stage.kind === "relaxation-oscillator" || circuit.filter ? new Float64Array(t.length) : null;
   const recorder = new Recorder(rails, signal, td);
   const start = scenario.run.initialOutput ?? defaultInitialOutput(scenario.stage.kind);
   const u0 = signal.valueAt(0);
@@ -94,7 +95,7 @@ export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult
     holdOff,
     inverting: net.inverting,
     amplifier: net.amplifier,
-    inputConnected: net.alpha !== 0,
+    inputConnected: net.alpha !== 0 || (net.state?.kappaU ?? 0) !== 0,
   });
   const input = evaluateInputSignal(signal, t);
   if (net.amplifier) {
@@ -106,7 +107,7 @@ export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult
     t,
     input,
     output,
-    ...(capacitor !== null ? { capacitor } : {}),
+    ...(capacitor !== null ? (circuit.filter ? { filtered: capacitor } : { capacitor }) : {}),
     events: recorder.events,
     metrics,
     solver: { name: solverName, steps, evaluations, wallMs: performance.now() - started },
@@ -152,6 +153,7 @@ export function toResultJson(result: SimResult): ResultJson {
       input: plain(result.input),
       output: plain(result.output),
       ...(result.capacitor ? { capacitor: plain(result.capacitor) } : {}),
+      ...(result.filtered ? { filtered: plain(result.filtered) } : {}),
       ...(result.source ? { source: plain(result.source) } : {}),
     },
     events: result.events.map((e) => ({ ...e })),

@@ -120,3 +120,24 @@ export function buildNetwork(scenario: Scenario): Network {
     }
   }
 }
+
+/**
+ * The network with an RC low-pass (r, c to 0 V) between the input u and the stage input: the
+ * filter node is the capacitor state x and the stage sees x where it saw u. On a high-impedance
+ * input dx/dt = (u − x)/(r·c); where the stage input draws current through rInput to a node
+ * (x·rF + vo·rI)/(rI + rF) (schmitt-noninverting, inverting-amplifier) the node also loses
+ * (x − vo)/(rI + rF) (Kirchhoff's current law at the node). It starts at its steady value.
+ */
+export function withFilter(net: Network, scenario: Scenario, filter: { r: number; c: number }): Network {
+  const st = scenario.stage;
+  if (net.state !== null) throw new Error("filter is not for the relaxation oscillator");
+  const w = 1 / (filter.r * filter.c);
+  let leak = 0;
+  if (st.kind === "schmitt-noninverting" || st.kind === "inverting-amplifier") leak = 1 / ((st.rInput + st.rFeedback) * filter.c);
+  return {
+    ...net,
+    alpha: 0,
+    gamma: net.alpha,
+    state: { kappaU: w, kappaX: -w - leak, kappaO: leak, kappa0: 0, start: "steady" },
+  };
+}

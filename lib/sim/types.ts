@@ -74,6 +74,8 @@ export interface SimResult {
   output: Float64Array;
   /** The timing-capacitor voltage (v−) of a relaxation oscillator. */
   capacitor?: Float64Array;
+  /** The filter node (RC low-pass before the stage input), when the scenario has a filter. */
+  filtered?: Float64Array;
   /** The input in source units, when the scenario has a source (lib/sim/circuit). */
   source?: Float64Array;
   events: SimEvent[];
@@ -84,7 +86,7 @@ export interface SimResult {
 export interface ResultJson {
   schema: "railwise.result/1";
   rails: { high: number; low: number };
-  samples: { t: number[]; input: number[]; output: number[]; capacitor?: number[]; source?: number[] };
+  samples: { t: number[]; input: number[]; output: number[]; capacitor?: number[]; filtered?: number[]; source?: number[] };
   events: SimEvent[];
   metrics: SimMetrics;
   solver: SolverStats;
