@@ -236,10 +236,11 @@ describe("simulate() runs the circuit as built", () => {
     expect(json.samples.input[0]).toBeCloseTo(1.6, 9);
   });
 
-  it("a plain scenario has no source readings; a filter fails with SimFailed until the solver has it", () => {
+  it("a plain scenario has no source readings; a filter is simulated and reports samples.filtered", () => {
     const r = simulate(make({ input: sweep(0, 5) }));
     expect(r.source).toBeUndefined();
     expect(r.metrics.source).toBeUndefined();
-    expect(() => simulate(make({ filter: { r: 10e3, c: 1e-6 } }))).toThrow(SimFailed);
+    // The solver has the filter node now (tests/unit/sim-filter.test.ts checks it against the RC formula).
+    expect(simulate(make({ filter: { r: 10e3, c: 1e-6 } })).filtered).toHaveLength(r.t.length);
   });
 });
