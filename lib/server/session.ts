@@ -87,13 +87,15 @@ function hasBody(request: Request): boolean {
 
 /**
  * Refuses (403) a body a plain HTML form or `text/plain` fetch could send across sites: bodies
- * must be `application/json`, or `multipart/form-data` where the route takes an upload.
+ * must be `application/json`, or `multipart/form-data` / `text/csv` where the route takes an upload.
  */
 export function checkBodyType(request: Request, { multipart = false }: { multipart?: boolean } = {}): void {
   if (SAFE_METHODS.has(request.method.toUpperCase()) || !hasBody(request)) return;
   const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
-  if (type === "application/json" || (multipart && type === "multipart/form-data")) return;
-  const want = multipart ? "application/json or multipart/form-data" : "application/json";
+  // Upload routes also take raw text/csv: not a type a cross-site form or a fetch without a CORS
+  // preflight can send, so it cannot carry a forged request.
+  if (type === "application/json" || (multipart && (type === "multipart/form-data" || type === "text/csv"))) return;
+  const want = multipart ? "application/json, multipart/form-data or text/csv" : "application/json";
   throw new AppError(403, "unsupported_content_type", `Send the body as ${want} (content-type was ${type ? `"${type.slice(0, 80)}"` : "missing"}).`);
 }
 
