@@ -84,7 +84,9 @@ export function storedResult(result: SimResult): StoredResultJson {
   if (n <= MAX_STORED_POINTS) return toResultJson(result);
   const idx = decimationIndices(result.output);
   const pick = (a: Float64Array) => Float64Array.from(idx, (i) => a[i]);
-  const thinned: SimResult = { ...result, t: pick(result.t), input: pick(result.input), output: pick(result.output) };
+  // Optional columns (capacitor, filter node, source units) are picked at the same indices.
+  const opt = (a: Float64Array | undefined) => (a && a.length === n ? pick(a) : undefined);
+  const thinned: SimResult = { ...result, t: pick(result.t), input: pick(result.input), output: pick(result.output), capacitor: opt(result.capacitor), filtered: opt(result.filtered), source: opt(result.source) };
   return { ...toResultJson(thinned), decimation: { from: n, kept: idx.length, method: "min-max" } };
 }
 
