@@ -66,7 +66,7 @@ export function NewScenarioDialog({ open, boardId, existing, onClose, onCreated 
           autoFocus
         />
       </Field>
-      <Field label="Start from" htmlFor="scenario-source" hint="Blank stages use a generic rail-to-rail part on round values.">
+      <Field label="Start from" htmlFor="scenario-source" hint="A blank stage starts with custom values for the op-amp (1 MHz, 1 V/µs, output 50 mV from each rail), not a library part; choose one in the Stage panel.">
         <Select id="scenario-source" value={source} onChange={(e) => setSource(e.target.value)}>
           <optgroup label="Blank stage">
             {STAGE_KINDS.map((k) => (
