@@ -25,6 +25,7 @@ export interface UserRow extends Model<Attrs<UserRow>, Creation<UserRow>> {
   email: string;
   name: string;
   passwordHash: string;
+  sessionGeneration: CreationOptional<number>;
   createdAt: CreationOptional<Date>;
   updatedAt: CreationOptional<Date>;
 }
@@ -212,6 +213,8 @@ export function defineModels(sequelize: Sequelize) {
     email: { ...text(), unique: true },
     name: text(),
     passwordHash: text(),
+    // 0003: bumped to end every session of the user (lib/auth.ts).
+    sessionGeneration: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
   });

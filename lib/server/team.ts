@@ -7,6 +7,7 @@ import { isId } from "@/lib/server/ids";
 import { badRequest, conflict, gone, notFound } from "@/lib/server/errors";
 import { recordAudit } from "@/lib/server/audit";
 import { sendMail, appBaseUrl } from "@/lib/server/mail";
+import { bumpSessionGeneration } from "@/lib/auth";
 import { hashToken, newToken, plausibleToken } from "@/lib/server/tokens";
 import {
   INVITATION_TTL_HOURS,
@@ -94,6 +95,7 @@ export async function changeMemberRole({
     }
     m.role = role;
     await m.save({ transaction });
+    await bumpSessionGeneration(m.userId as string, transaction); // the member signs in again with the new role
     await recordAudit(
       {
         teamId,
@@ -129,6 +131,7 @@ export async function removeMember({
     }
     const user = await getModels().User.findByPk(m.userId as string, { attributes: ["email", "name"], transaction });
     await m.destroy({ transaction });
+    await bumpSessionGeneration(m.userId as string, transaction); // ends the removed member's sessions
     await recordAudit(
       {
         teamId,

@@ -2,6 +2,7 @@
 // under tsx, vitest and the Next server without a TypeScript loader for dynamic requires.
 import type { QueryInterface } from "sequelize";
 import * as m0001 from "./0001-initial";
+import * as m0003 from "./0003-sessions-and-limits";
 import * as m0002 from "./0002-text-columns";
 import * as m0004 from "./0004-review";
 
@@ -14,5 +15,6 @@ export interface Migration {
 export const MIGRATIONS: Migration[] = [
   { name: "0001-initial", ...m0001 },
   { name: "0002-text-columns", ...m0002 },
+  { name: "0003-sessions-and-limits", ...m0003 },
   { name: "0004-review", ...m0004 },
 ];
