@@ -3,7 +3,8 @@
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { ResultJson, SimOptions, SimResult, SolverName } from "./types";
 import { InputSignal, evaluateInputSignal } from "./signals";
-import { buildNetwork, withFilter, defaultInitialOutput, initialCapacitor, outputLimits, settledState } from "./network";
+import { buildNetwork, withFilter, defaultInitialOutput, highLevelAt, initialCapacitor, openDrainHigh, outputLimits, settledState } from "./network";
+import { SimFailed } from "./errors";
 import { Recorder, amplifierMetrics, defaultHoldOff, finishMetrics } from "./measure";
 import { ExactSolver, type ExactParams } from "./exact";
 import { runOdex } from "./odex-solver";
@@ -32,9 +33,9 @@ export function evaluateInput(scenario: Scenario, t: Float64Array): Float64Array
 
 export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult {
   const started = performance.now();
-  // The circuit as built (source, reference divider, output) lowered to the plain stage; filter and
-  // open-drain output fail with SimFailed until the solver has them (lib/sim/circuit).
-  const circuit = lowerCircuit(asBuilt, { allowFilter: true });
+  // The circuit as built (source, reference divider, filter, output) lowered to the plain stage
+  // plus the filter node and the output stage (lib/sim/circuit).
+  const circuit = lowerCircuit(asBuilt, { allowFilter: true, allowOpenDrain: true });
   const scenario = circuit.scenario;
   const solverName: SolverName = options.solver ?? scenario.run.solver ?? "exact";
   const duration = scenario.run.duration;
@@ -42,6 +43,17 @@ export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult
   const plainNet = buildNetwork(scenario);
   const net = circuit.filter ? withFilter(plainNet, scenario, circuit.filter) : plainNet;
   const rails = outputLimits(scenario);
+  const u0 = signal.valueAt(0);
+  if (circuit.output.kind === "open-drain") {
+    // The pin's high level is set by the pull-up, the load and the feedback network; at t = 0
+    // (with the state for a low output) it stands in for Voh in the recorder's levels.
+    net.high = openDrainHigh(scenario, circuit.output, circuit.filter !== null);
+    rails.high = highLevelAt(net.high, u0, initialCapacitor(net, u0, rails.low));
+    if (!(rails.high > rails.low))
+      throw new SimFailed(
+        `output: the open-drain high level (${rails.high.toPrecision(4)} V, from the pull-up, load and feedback) is not above the low level ${rails.low} V; check output.pullUpTo and output.load`,
+      );
+  }
   const op = scenario.opamp;
   const td = op.propagationDelay ?? 0;
   const t = sampleTimes(duration, scenario.run.points);
@@ -49,7 +61,6 @@ export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult
   const capacitor = scenario.stage.kind === "relaxation-oscillator" || circuit.filter ? new Float64Array(t.length) : null;
   const recorder = new Recorder(rails, signal, td);
   const start = scenario.run.initialOutput ?? defaultInitialOutput(scenario.stage.kind);
-  const u0 = signal.valueAt(0);
   let vo0: number;
   let x0: number;
   if (start === "settled") ({ vo: vo0, x: x0 } = settledState(net, u0, op.openLoopGain, rails));
@@ -80,15 +91,19 @@ export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult
   };
   let steps: number;
   let evaluations: number;
+  let firstHigh: number;
   if (solverName === "odex") {
-    ({ steps, evaluations } = runOdex(params));
+    ({ steps, evaluations, firstHigh } = runOdex(params));
   } else {
     params.maxSteps ??= defaultPieceBudget(scenario);
     const s = new ExactSolver(params);
     s.run();
     steps = s.steps;
     evaluations = s.evaluations;
+    firstHigh = s.firstHigh;
   }
+  // An open drain's high level: the loaded level at the first high state (DESIGN.md).
+  const resultRails = net.high && Number.isFinite(firstHigh) ? { high: firstHigh, low: rails.low } : rails;
   const holdOff = options.holdOff ?? scenario.run.holdOff ?? defaultHoldOff(duration, signal.longestPeriod);
   const metrics = finishMetrics(recorder, {
     duration,
@@ -103,7 +118,7 @@ export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult
     metrics.amplifier = amplifierMetrics(recorder, (A0 * net.alpha) / (1 - A0 * net.beta));
   }
   return attachSourceReadings(circuit, {
-    rails,
+    rails: resultRails,
     t,
     input,
     output,

@@ -17,6 +17,18 @@ export interface Network {
   inverting: boolean;
   /** Amplifier stages (negative feedback): no propagation-delay reading. */
   amplifier: boolean;
+  /**
+   * An open-drain output's high level: with the output transistor off the pin sits at
+   * h0 + hU·u + hX·x (the Thevenin voltage of the pull-up, the load and the feedback network).
+   * Absent (or null) for a push-pull output, whose high level is the constant Voh.
+   */
+  high?: HighLevel | null;
+}
+
+export interface HighLevel {
+  h0: number;
+  hU: number;
+  hX: number;
 }
 
 export interface CapacitorState {
@@ -140,4 +152,40 @@ export function withFilter(net: Network, scenario: Scenario, filter: { r: number
     gamma: net.alpha,
     state: { kappaU: w, kappaX: -w - leak, kappaO: leak, kappa0: 0, start: "steady" },
   };
+}
+
+/** The open-drain output as lowered by lib/sim/circuit (voltages numeric). */
+export interface OpenDrainOutput {
+  pullUp: number;
+  pullUpTo: number;
+  load: { r: number; to: number } | null;
+}
+
+/**
+ * The pin's level with the output transistor off, by nodal analysis at the pin [derived,
+ * Kirchhoff's current law]: conductances to the pull-up supply, to the load's far end and
+ * through the feedback resistor to the node it returns to, each weighted by that node's
+ * voltage. The feedback returns to the input u (schmitt-noninverting through rInput + rFeedback;
+ * to the filter node x when there is a filter) or to the reference (schmitt-inverting through
+ * rReference + rFeedback); a comparator has none.
+ */
+export function openDrainHigh(scenario: Scenario, out: OpenDrainOutput, filtered: boolean): HighLevel {
+  const st = scenario.stage;
+  const gP = 1 / out.pullUp;
+  const gL = out.load ? 1 / out.load.r : 0;
+  let num = gP * out.pullUpTo + (out.load ? gL * out.load.to : 0);
+  let gF = 0;
+  let gR = 0;
+  if (st.kind === "schmitt-noninverting") gF = 1 / (st.rInput + st.rFeedback);
+  else if (st.kind === "schmitt-inverting") {
+    gR = 1 / (st.rReference + st.rFeedback);
+    num += gR * st.reference;
+  } else if (st.kind !== "comparator") throw new Error(`open-drain output on a ${st.kind}`);
+  const G = gP + gL + gF + gR;
+  return { h0: num / G, hU: filtered ? 0 : gF / G, hX: filtered ? gF / G : 0 };
+}
+
+/** The open-drain high level for input u and state x. */
+export function highLevelAt(h: HighLevel, u: number, x: number): number {
+  return h.h0 + h.hU * u + h.hX * x;
 }

@@ -16,6 +16,8 @@ export interface OdexParams extends ExactParams {
 export interface OdexStats {
   steps: number;
   evaluations: number;
+  /** The high level the first time the output is held there (NaN if never). */
+  firstHigh: number;
 }
 
 const SUBDIVISIONS = 4;
@@ -44,12 +46,36 @@ export function runOdex(p: OdexParams): OdexStats {
 
   const inputConnected = al !== 0 || kU !== 0;
   const uSeen = (x: number) => (inputConnected ? sig.valueAt(Math.max(0, x - td)) : 0);
+  // An open drain's high level h0 + hU·u + hX·x (the constant Voh for a push-pull output).
+  const hi = p.net.high ?? null;
+  const h0 = hi?.h0 ?? Voh;
+  const hU = hi?.hU ?? 0;
+  const hX = hi?.hX ?? 0;
+  const variableHigh = hU !== 0 || hX !== 0;
+  const highOf = (u: number, vc: number) => (variableHigh ? h0 + hU * u + hX * vc : Voh);
+  /** du/dt seen by the stage at x (right derivative: odex restarts at every input corner). */
+  const slopeSeen = (x: number): number => {
+    if (!inputConnected || x < td) return 0;
+    const ts = x - td;
+    sig.affineAt(ts);
+    let d = sig.slope;
+    for (let j = 0; j < sig.sineAmp.length; j++) d += sig.sineAmp[j] * sig.sineOmega[j] * Math.cos(sig.sineOmega[j] * ts + sig.sinePhase[j]);
+    return d;
+  };
   const rate = (x: number, vo: number, vc: number, u: number): number => {
-    const v = vo > Voh ? Voh : vo < Vol ? Vol : vo;
+    const H = highOf(u, vc);
+    const v = vo > H ? H : vo < Vol ? Vol : vo;
     let f = wp * (A0 * (al * u + be * v + ga * vc + de) - v);
     if (f > SR) f = SR;
     else if (f < -SRf) f = -SRf;
-    if ((vo >= Voh && f > 0) || (vo <= Vol && f < 0)) f = 0;
+    if (vo >= H && f > 0) {
+      // Held at the high level: a push-pull output stands still, an open drain's level follows
+      // the input and the state.
+      if (!variableHigh) return 0;
+      const xDot = twoD ? kU * u + kX * vc + kO * H + k0 : 0;
+      return hU * slopeSeen(x) + hX * xDot;
+    }
+    if (vo <= Vol && f < 0) f = 0;
     return f;
   };
   let evaluations = 0;
@@ -58,9 +84,10 @@ export function runOdex(p: OdexParams): OdexStats {
     const u = uSeen(x);
     const vo = y[0];
     const vc = twoD ? y[1] : 0;
-    const v = vo > Voh ? Voh : vo < Vol ? Vol : vo;
+    const H = highOf(u, vc);
+    const v = vo > H ? H : vo < Vol ? Vol : vo;
     const fl = wp * (A0 * (al * u + be * v + ga * vc + de) - v);
-    const held = (vo >= Voh && fl >= 0) || (vo <= Vol && fl <= 0) ? 1 : 0;
+    const held = (vo >= H && fl >= 0) || (vo <= Vol && fl <= 0) ? 1 : 0;
     const dv = rate(x, vo, vc, u);
     return twoD ? [dv, kU * u + kX * vc + kO * v + k0, held] : [dv, held];
   };
@@ -100,8 +127,14 @@ export function runOdex(p: OdexParams): OdexStats {
 
   let dense: ((c: number, x: number) => number) | undefined;
   const voAt = (x: number) => dense!(0, x);
-  const vdAt = (x: number) => al * uSeen(x) + be * clampV(dense!(0, x)) + ga * (twoD ? dense!(1, x) : 0) + de;
+  const vcAt = (x: number) => (twoD ? dense!(1, x) : 0);
+  const clampAt = (x: number, v: number) => {
+    const H = variableHigh ? highOf(uSeen(x), vcAt(x)) : Voh;
+    return v > H ? H : v < Vol ? Vol : v;
+  };
+  const vdAt = (x: number) => al * uSeen(x) + be * clampAt(x, dense!(0, x)) + ga * vcAt(x) + de;
   const clampV = (v: number) => (v > Voh ? Voh : v < Vol ? Vol : v);
+  let firstHigh = NaN;
 
   /** Bisection on the dense output for a sign change of g between a and b. */
   const locate = (g: (x: number) => number, a: number, b: number, sa: boolean): number => {
@@ -153,12 +186,16 @@ export function runOdex(p: OdexParams): OdexStats {
     }
     rec.flush();
     while (sample < ts.length && ts[sample] <= x) {
-      out[sample] = clampV(voAt(ts[sample]));
+      out[sample] = clampAt(ts[sample], voAt(ts[sample]));
       if (capOut !== null) capOut[sample] = d(1, ts[sample]);
       sample++;
     }
     // First arrival at each limit (amplifier readings), located at the step end.
     if (yy[0] >= Voh && rec.clipInputHigh !== rec.clipInputHigh) rec.clipInputHigh = uSeen(x);
+    if (firstHigh !== firstHigh) {
+      const H = highOf(uSeen(x), twoD ? yy[1] : 0);
+      if (yy[0] >= H - 1e-9 * Math.max(1, Math.abs(H))) firstHigh = H;
+    }
     if (yy[0] <= Vol && rec.clipInputLow !== rec.clipInputLow) rec.clipInputLow = uSeen(x);
     const r = Math.abs(rate(x, yy[0], twoD ? yy[1] : 0, uSeen(x)));
     if (r > rec.maxSlew && x > rec.startupEnd) rec.maxSlew = r;
@@ -180,7 +217,10 @@ export function runOdex(p: OdexParams): OdexStats {
       );
     }
     y = r.y.slice();
-    y[0] = clampV(y[0]);
+    if (variableHigh) {
+      const H = highOf(uSeen(tEnd), twoD ? y[1] : 0);
+      y[0] = y[0] > H ? H : y[0] < Vol ? Vol : y[0];
+    } else y[0] = clampV(y[0]);
     t = tEnd;
     p.onProgress?.(t / T);
   }
@@ -189,5 +229,5 @@ export function runOdex(p: OdexParams): OdexStats {
     out[sample++] = y[0];
   }
   rec.clippedTime = y[iClip];
-  return { steps, evaluations };
+  return { steps, evaluations, firstHigh };
 }

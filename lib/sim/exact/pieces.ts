@@ -38,12 +38,19 @@ export class PieceModel {
   readonly kappa0: number;
   /** The stage sees the input (directly or through the capacitor state). */
   readonly inputConnected: boolean;
+  /** Open-drain output whose high level moves with u or x (network.ts HighLevel). */
+  readonly variableHigh: boolean;
+  readonly h0: number;
+  readonly hU: number;
+  readonly hX: number;
 
   readonly U: Float64Array;
   readonly VO: Float64Array;
   readonly X: Float64Array;
   readonly VD: Float64Array;
   readonly DRIVE: Float64Array;
+  /** The high level h0 + hU·u + hX·x over the piece (variableHigh only). */
+  readonly HIGH: Float64Array;
   private readonly force: Float64Array;
 
   constructor(
@@ -63,6 +70,11 @@ export class PieceModel {
     this.kappaO = net.state?.kappaO ?? 0;
     this.kappa0 = net.state?.kappa0 ?? 0;
     this.inputConnected = this.alpha !== 0 || this.kappaU !== 0;
+    const high = net.high ?? null;
+    this.variableHigh = high !== null && (high.hU !== 0 || high.hX !== 0);
+    this.h0 = high?.h0 ?? k.high;
+    this.hU = high?.hU ?? 0;
+    this.hX = high?.hX ?? 0;
     // A stage that ignores the input (the oscillator) drops the sines from its basis.
     this.basis = new Basis(this.inputConnected ? sineOmega : new Float64Array(0));
     this.size = this.basis.size;
@@ -72,6 +84,7 @@ export class PieceModel {
     this.X = new Float64Array(n);
     this.VD = new Float64Array(n);
     this.DRIVE = new Float64Array(n);
+    this.HIGH = new Float64Array(n);
     this.force = new Float64Array(n);
   }
 
@@ -81,6 +94,11 @@ export class PieceModel {
     let u = U[SLOT_ONE];
     for (let j = 0; j < this.basis.sineCount; j++) u += U[SLOT_SINES + 1 + 2 * j];
     return u;
+  }
+
+  /** The high level for a state (the constant Voh unless variableHigh). */
+  highAt(u: number, x: number): number {
+    return this.variableHigh ? this.h0 + this.hU * u + this.hX * x : this.k.high;
   }
 
   vdOf(u: number, vo: number, x: number): number {
@@ -116,6 +134,36 @@ export class PieceModel {
         basis.setE1(k);
         if (k > 0) cap = MAX_GROWTH / k;
       }
+    } else if (regime === RAIL_HIGH && this.variableHigh) {
+      // Open drain, transistor off: vo = h0 + hU·u + hX·x. With a state,
+      // x' = (kappaU + kappaO·hU)·u + (kappaX + kappaO·hX)·x + kappaO·h0 + kappa0.
+      if (this.hasState) {
+        const rate = this.kappaX + this.kappaO * this.hX;
+        const f = this.force;
+        const kU = this.kappaU + this.kappaO * this.hU;
+        for (let i = 0; i < n; i++) f[i] = kU * U[i];
+        f[SLOT_ONE] += this.kappaO * this.h0 + this.kappa0;
+        solveScalar(rate, f, x, basis.omega, X);
+        basis.setE1(rate);
+        if (rate > 0) cap = MAX_GROWTH / rate;
+      }
+      for (let i = 0; i < n; i++) VO[i] = this.hU * U[i] + this.hX * X[i];
+      VO[SLOT_ONE] += this.h0;
+      this.combine();
+      // Held while the op-amp pushes the output up faster than the level moves: the drive is
+      // compared with dH/dτ (0 for a push-pull rail), so entering from linear (d(vo − H)/dτ > 0)
+      // and staying are the same inequality.
+      const D = this.DRIVE;
+      const H = this.HIGH;
+      const b = this.basis;
+      D[SLOT_ONE] -= H[SLOT_TAU];
+      if (b.useE1) D[SLOT_E1] -= b.lambda1 * H[SLOT_E1];
+      for (let j = 0; j < b.sineCount; j++) {
+        const w = b.omega[j];
+        D[SLOT_SINES + 2 * j] += w * H[SLOT_SINES + 1 + 2 * j];
+        D[SLOT_SINES + 1 + 2 * j] -= w * H[SLOT_SINES + 2 * j];
+      }
+      return cap;
     } else {
       // The output is given: vo + S·τ while slewing, the limit at a rail.
       if (regime === SLEW_UP || regime === SLEW_DOWN) {
@@ -146,6 +194,11 @@ export class PieceModel {
     }
     VD[SLOT_ONE] += this.delta;
     for (let i = 0; i < this.size; i++) DRIVE[i] = this.omegaP * (A0 * VD[i] - VO[i]);
+    if (this.variableHigh) {
+      const H = this.HIGH;
+      for (let i = 0; i < this.size; i++) H[i] = this.hU * U[i] + this.hX * X[i];
+      H[SLOT_ONE] += this.h0;
+    }
   }
 
   /**

@@ -15,7 +15,7 @@ import { SimCancelled, SimFailed } from "../errors";
 import { SLOT_ONE, SLOT_SINES, SLOT_TAU, type Basis } from "./basis";
 import { ulp } from "./bracket";
 import { PieceModel } from "./pieces";
-import { DRIVE, EXITS, LINEAR, RAIL_HIGH, RAIL_LOW, SLEW_DOWN, SLEW_UP, enterRegime, isRail, levelValues, type Regime } from "./regimes";
+import { DRIVE, EXITS, LEVEL_HIGH, LINEAR, OUTPUT, RAIL_HIGH, RAIL_LOW, SLEW_DOWN, SLEW_UP, enterRegime, isRail, levelValues, type Regime } from "./regimes";
 import { Scanner } from "./scan";
 import { holdAtRail } from "./rail-hold";
 
@@ -61,6 +61,8 @@ export class ExactSolver {
   readonly stepCos: Float64Array;
   steps = 0;
   sample = 0;
+  /** The high level the first time the output sits at it (an open drain's loaded level). */
+  firstHigh = NaN;
   private readonly levels: Float64Array;
   private readonly maxSteps: number;
   private readonly pieceCapSine: number;
@@ -171,7 +173,11 @@ export class ExactSolver {
     const q = e.quantity === DRIVE ? this.model.DRIVE : this.model.VO;
     const G = this.G;
     for (let i = 0; i < G.length; i++) G[i] = e.sign * q[i];
-    G[SLOT_ONE] -= e.sign * this.levels[e.level];
+    if (e.quantity === OUTPUT && e.level === LEVEL_HIGH && this.model.variableHigh) {
+      // An open drain's high level moves with the input: compare with its closed form.
+      const H = this.model.HIGH;
+      for (let i = 0; i < G.length; i++) G[i] -= e.sign * H[i];
+    } else G[SLOT_ONE] -= e.sign * this.levels[e.level];
     this.tol = AT_BOUNDARY * this.basis.magnitudeAtStart(G);
     G[SLOT_ONE] -= this.tol;
     return G;
@@ -214,6 +220,10 @@ export class ExactSolver {
     const hasState = model.hasState;
     const Voh = p.rails.high;
     const Vol = p.rails.low;
+    const variableHigh = model.variableHigh;
+    // Sample clamp at the high side: the variable high level is met exactly by the rail pieces.
+    const clampHigh = variableHigh ? Infinity : Voh;
+    let atHigh = variableHigh && p.vo0 >= Voh;
     let t = 0;
     let vo = p.vo0;
     let x = hasState ? p.x0 : 0;
@@ -229,9 +239,14 @@ export class ExactSolver {
     let previousSettledLinear = false;
     while (t < T) {
       let tb = this.pieceEnd(t, T);
+      if (variableHigh) {
+        // The open drain's high level at this instant; an output held there stays on it.
+        this.levels[LEVEL_HIGH] = model.highAt(model.inputAtStart(), x);
+        if (atHigh) vo = this.levels[LEVEL_HIGH];
+      }
       let regime = enterRegime(vo, model.driveOf(model.inputAtStart(), vo, x), this.levels);
       if (isRail(regime)) this.noteRail(regime, t);
-      if (!hasState && isRail(regime)) {
+      if (!hasState && isRail(regime) && !(variableHigh && regime === RAIL_HIGH)) {
         if (rec.startupEnd === Infinity) rec.startupEnd = t;
         t = holdAtRail(this, t, regime === RAIL_HIGH);
         previousSettledLinear = false;
@@ -278,7 +293,7 @@ export class ExactSolver {
       while (this.sample < ts.length && ts[this.sample] <= tEnd) {
         const tau = ts[this.sample] - t;
         const v = this.basis.valueAt(VO, tau);
-        out[this.sample] = v > Voh ? Voh : v < Vol ? Vol : v;
+        out[this.sample] = v > clampHigh ? clampHigh : v < Vol ? Vol : v;
         if (cap !== null) cap[this.sample] = this.basis.valueAt(X, tau);
         this.sample++;
       }
@@ -294,7 +309,10 @@ export class ExactSolver {
       // Advance
       let voNext = this.basis.valueAt(VO, tx);
       const xNext = hasState ? this.basis.valueAt(X, tx) : 0;
-      if (next === RAIL_HIGH || voNext > Voh || regime === RAIL_HIGH) voNext = Voh;
+      if (variableHigh) {
+        atHigh = next === RAIL_HIGH || (regime === RAIL_HIGH && next < 0);
+        if (atHigh) voNext = this.basis.valueAt(model.HIGH, tx);
+      } else if (next === RAIL_HIGH || voNext > Voh || regime === RAIL_HIGH) voNext = Voh;
       if (next === RAIL_LOW || voNext < Vol || regime === RAIL_LOW) voNext = Vol;
       if (!Number.isFinite(voNext) || !Number.isFinite(xNext))
         throw new SimFailed(`the exact solver reached a non-finite state at t = ${t.toPrecision(6)} s (a degenerate stage: check the resistor and capacitor values)`);
@@ -324,6 +342,8 @@ export class ExactSolver {
   /** First time the output reaches each limit: the input there (amplifier readings). */
   private noteRail(regime: Regime, t: number): void {
     const rec = this.p.recorder;
+    if (regime === RAIL_HIGH && this.firstHigh !== this.firstHigh)
+      this.firstHigh = this.model.variableHigh ? this.levels[LEVEL_HIGH] : this.p.rails.high;
     if (regime === RAIL_HIGH ? rec.clipInputHigh === rec.clipInputHigh : rec.clipInputLow === rec.clipInputLow) return;
     const u = this.p.signal.valueAt(Math.max(0, t - this.delay));
     if (regime === RAIL_HIGH) rec.clipInputHigh = u;
