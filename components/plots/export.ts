@@ -89,11 +89,27 @@ export function exportPlotPng(u: uPlot, heading: string | PngHeading, fileName: 
 }
 
 /** Time, input and output columns as CSV, SI units in the header. */
-export function downloadSamplesCsv(t: ArrayLike<number>, input: ArrayLike<number>, output: ArrayLike<number>, fileName: string): void {
+export function downloadSamplesCsv(
+  t: ArrayLike<number>,
+  input: ArrayLike<number>,
+  output: ArrayLike<number>,
+  fileName: string,
+  /** Further columns of the same length (source units, filter node, capacitor); others are skipped. */
+  extra: { name: string; values: ArrayLike<number> }[] = [],
+): void {
+  download(new Blob([samplesCsv(t, input, output, extra)], { type: "text/csv" }), fileName);
+}
+
+/** The samples CSV text: time_s, input_V (the stage-input pin), output_V, then the extra columns. */
+export function samplesCsv(t: ArrayLike<number>, input: ArrayLike<number>, output: ArrayLike<number>, extra: { name: string; values: ArrayLike<number> }[] = []): string {
   // Times to the precision the sample grid needs, not binary noise (0.00020002, not 0.00020002000200020003).
   const decimals = timeDecimals(smallestStep(t));
+  const cols = extra.filter((c) => c.values.length === t.length);
   const rows: (number | string)[][] = new Array(t.length);
-  for (let i = 0; i < t.length; i++) rows[i] = [formatTime(t[i], decimals), input[i], output[i]];
-  const csv = Papa.unparse({ fields: ["time_s", "input_V", "output_V"], data: rows });
-  download(new Blob([csv], { type: "text/csv" }), fileName);
+  for (let i = 0; i < t.length; i++) {
+    const row: (number | string)[] = [formatTime(t[i], decimals), input[i], output[i]];
+    for (const c of cols) row.push(c.values[i]);
+    rows[i] = row;
+  }
+  return Papa.unparse({ fields: ["time_s", "input_V", "output_V", ...cols.map((c) => c.name)], data: rows });
 }

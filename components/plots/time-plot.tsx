@@ -29,23 +29,24 @@ export interface TimePlotProps {
   showEdges?: boolean;
   /** Title, scenario and run lines printed on an exported PNG. */
   exportTitle?: string[];
+  /** The input in source units (samples.source), drawn on its own right-hand scale. */
+  source?: { values: Float64Array; unit: string; label: string } | null;
+  /** The filter node's voltage (samples.filtered), drawn in volts beside the stage input. */
+  filtered?: Float64Array | null;
 }
 
 export function TimePlot(props: TimePlotProps) {
-  const { t, input, output, rails, thresholds, cursorIdx, onCursor, onFirstDraw, height = 300, fileName = "trace.png", capacitor = null, showEdges = true, exportTitle } = props;
+  const { t, input, output, rails, thresholds, cursorIdx, onCursor, onFirstDraw, height = 300, fileName = "trace.png", capacitor = null, showEdges = true, exportTitle, source = null, filtered = null } = props;
   const events = useMemo(() => (showEdges ? (props.events ?? []) : []), [showEdges, props.events]);
   const thresholdLabel = props.thresholdLabel ?? "designed switching points";
   const box = useRef<HTMLDivElement>(null);
   const emitted = useRef<number | null>(null);
   const view = useDisplayColumns(t, input, output);
-  // The capacitor follows the same display thinning as input and output.
-  const capView = useMemo(() => {
-    if (!capacitor || !view || capacitor.length !== t.length) return null;
-    if (!view.index) return capacitor;
-    const out = new Float64Array(view.index.length);
-    for (let j = 0; j < out.length; j++) out[j] = capacitor[view.index[j]];
-    return out;
-  }, [capacitor, view, t.length]);
+  // Extra columns follow the same display thinning as input and output.
+  const capView = useMemo(() => thinned(capacitor, view, t.length), [capacitor, view, t.length]);
+  const filteredView = useMemo(() => thinned(filtered, view, t.length), [filtered, view, t.length]);
+  const sourceView = useMemo(() => thinned(source?.values ?? null, view, t.length), [source, view, t.length]);
+  const sourceUnit = source?.unit ?? "";
   const cb = useRef({ onCursor, onFirstDraw });
   cb.current = { onCursor, onFirstDraw };
 
@@ -66,8 +67,16 @@ export function TimePlot(props: TimePlotProps) {
           { label: "input", stroke: PLOT_COLORS.input, width: 1.4 },
           { label: "output", stroke: PLOT_COLORS.output, width: 1.8 },
           ...(capView ? [{ label: "capacitor", stroke: PLOT_COLORS.capacitor, width: 1.4 }] : []),
+          ...(filteredView ? [{ label: "filtered", stroke: PLOT_COLORS.filtered, width: 1.4, dash: [5, 3] }] : []),
+          ...(sourceView ? [{ label: "source", stroke: PLOT_COLORS.source, width: 1.2, scale: "src" }] : []),
         ],
-        axes: [axis({ values: siTicks("s"), size: 34 }), axis({ values: siTicks("V"), size: 64, label: "volts", labelSize: 16 })],
+        axes: [
+          axis({ values: siTicks("s"), size: 34 }),
+          axis({ values: siTicks("V"), size: 64, label: "volts", labelSize: 16 }),
+          ...(sourceView
+            ? [axis({ scale: "src", side: 1, grid: { show: false }, size: 64, label: `${source?.label ?? "source"} (${sourceUnit})`, labelSize: 16, stroke: PLOT_COLORS.source, values: (_u: uPlot, splits: number[]) => splits.map((v) => plainTick(v, splits)) })]
+            : []),
+        ],
         plugins: [wheelPan()],
         hooks: {
           drawAxes: [
@@ -109,10 +118,10 @@ export function TimePlot(props: TimePlotProps) {
           ],
         },
       };
-      const cols = capView ? [view.t, view.input, view.output, capView] : [view.t, view.input, view.output];
+      const cols = [view.t, view.input, view.output, ...(capView ? [capView] : []), ...(filteredView ? [filteredView] : []), ...(sourceView ? [sourceView] : [])];
       return { opts, data: cols as unknown as uPlot.AlignedData };
     },
-    [view, capView, rails.high, rails.low, thresholds?.upper, thresholds?.lower, events, height],
+    [view, capView, filteredView, sourceView, sourceUnit, source?.label, rails.high, rails.low, thresholds?.upper, thresholds?.lower, events, height],
   );
 
   // A cursor set by the other plot moves ours (without echoing it back).
@@ -147,9 +156,11 @@ export function TimePlot(props: TimePlotProps) {
 
   const i = cursorIdx != null && cursorIdx < t.length ? cursorIdx : null;
   const legend: LegendItem[] = [
-    { color: PLOT_COLORS.input, label: "input" },
+    { color: PLOT_COLORS.input, label: sourceView ? "stage input (V)" : "input" },
     { color: PLOT_COLORS.output, label: "output" },
     ...(capView ? [{ color: PLOT_COLORS.capacitor, label: "capacitor (v−)" }] : []),
+    ...(filteredView ? [{ color: PLOT_COLORS.filtered, label: "filter node (V)", dashed: true }] : []),
+    ...(sourceView ? [{ color: PLOT_COLORS.source, label: `${source?.label ?? "source"} (${sourceUnit}, right scale)` }] : []),
     ...(thresholds && (thresholds.upper != null || thresholds.lower != null) ? [{ color: PLOT_COLORS.threshold, label: thresholdLabel, dashed: true }] : []),
     { color: PLOT_COLORS.rail, label: "output limits", dashed: true },
     ...(showEdges ? [{ color: PLOT_COLORS.event, label: "measured edges", tick: true }] : []),
@@ -167,11 +178,33 @@ export function TimePlot(props: TimePlotProps) {
       />
       <div ref={box} className="min-w-0" />
       <Readout
-        items={cursorItems(t, input, output, i)}
+        items={withSourceItem(cursorItems(t, input, output, i), source, i)}
         hint="drag to zoom · wheel to zoom · Shift+drag to pan"
       />
     </div>
   );
+}
+
+/** A column picked at the display indices (the full column when nothing is thinned). */
+function thinned(col: Float64Array | null, view: Columns | null, n: number): Float64Array | null {
+  if (!col || !view || col.length !== n) return null;
+  if (!view.index) return col;
+  const out = new Float64Array(view.index.length);
+  for (let j = 0; j < out.length; j++) out[j] = col[view.index[j]];
+  return out;
+}
+
+/** Source-axis tick: plain decimals, as many as the tick spacing needs (no SI prefix on °C). */
+function plainTick(v: number, splits: number[]): string {
+  const step = splits.length > 1 ? Math.abs(splits[1] - splits[0]) : Math.abs(v) || 1;
+  const decimals = Math.max(0, Math.min(6, -Math.floor(Math.log10(step) + 1e-9)));
+  return v.toFixed(decimals);
+}
+
+/** The cursor readout gains the source value when the run has one. */
+function withSourceItem(items: [string, number, string][] | null, source: TimePlotProps["source"], i: number | null): [string, number, string][] | null {
+  if (!items || !source || i == null || i >= source.values.length) return items;
+  return [...items.slice(0, 2), [source.label, source.values[i], source.unit], ...items.slice(2)];
 }
 
 /** Above this many samples the Trace gets a min/max view (see displayColumns). */

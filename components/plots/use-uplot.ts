@@ -81,6 +81,10 @@ export const PLOT_COLORS = {
   axis: "#3b4556",
   event: "#8a3d1a",
   capacitor: "#2f7d7a",
+  /** The input in source units (own scale, right axis). */
+  source: "#7b4a8f",
+  /** The filter node (stage input behind the RC low-pass). */
+  filtered: "#a17a12",
 };
 
 /**

@@ -17,7 +17,9 @@ import { StageDiagram } from "@/components/workbench/stage-diagram";
 import { ReadingsTable } from "@/components/workbench/readings-table";
 import { buildChecks, buildWarnings, designedMarks, measuredGain, minMax } from "@/components/workbench/readings-logic";
 import { KIND_INFO } from "@/components/workbench/stage-kinds";
-import { slug } from "@/components/workbench/result-panels";
+import { slug, traceSource } from "@/components/workbench/result-panels";
+import { extraSampleColumns } from "@/lib/workbench/source-readings";
+import { capacitorOf, designedFigures, isAmplifierKind } from "@/lib/workbench/readings-logic";
 import { personName, type RunRecord } from "@/lib/client/hooks";
 
 export interface RunViewProps {
@@ -43,7 +45,8 @@ export function RunView({ run, shared = false, review, studies, actions }: RunVi
   const base = slug(`${scenario.name ?? "run"}-${run.id.slice(0, 8)}`);
 
   const exportCsv = () => {
-    downloadSamplesCsv(result.samples.t, result.samples.input, result.samples.output, `${base}-samples.csv`);
+    const extra = extraSampleColumns(scenario, result.samples);
+    downloadSamplesCsv(result.samples.t, result.samples.input, result.samples.output, `${base}-samples.csv`, extra);
   };
 
   return (
@@ -107,9 +110,19 @@ export function RunResultPanels({ run }: { run: RunRecord }) {
       t: Float64Array.from(result.samples.t),
       input: Float64Array.from(result.samples.input),
       output: Float64Array.from(result.samples.output),
+      filtered: result.samples.filtered ? Float64Array.from(result.samples.filtered) : null,
     }),
     [result],
   );
+  const kind = scenario.stage.kind;
+  const source = useMemo(() => traceSource(scenario, result.samples.source), [scenario, result]);
+  // The oscillator's capacitor is drawn with its two designed switching levels (no input to compare).
+  const capacitor = useMemo(() => (kind === "relaxation-oscillator" ? capacitorOf(result) : null), [kind, result]);
+  const capLevels = useMemo(() => {
+    if (!capacitor) return null;
+    const d = designedFigures(scenario);
+    return { upper: d.upperThreshold, lower: d.lowerThreshold };
+  }, [capacitor, scenario]);
   const [cursorIdx, setCursorIdx] = useState<number | null>(null);
   const analysis = useMemo(() => {
     const [inputMin, inputMax] = minMax(wf.input);
@@ -131,10 +144,15 @@ export function RunResultPanels({ run }: { run: RunRecord }) {
             input={wf.input}
             output={wf.output}
             rails={result.rails}
-            thresholds={analysis.thresholds}
+            thresholds={capLevels ?? analysis.thresholds}
             events={result.events}
             cursorIdx={cursorIdx}
             onCursor={setCursorIdx}
+            showEdges={!isAmplifierKind(kind)}
+            capacitor={capacitor}
+            thresholdLabel={capacitor ? "switching levels of the capacitor (designed)" : undefined}
+            source={source}
+            filtered={wf.filtered}
             height={280}
             fileName={`${base}-trace.png`}
           />
@@ -164,3 +182,4 @@ export function RunResultPanels({ run }: { run: RunRecord }) {
     </div>
   );
 }
+

@@ -7,6 +7,7 @@ import { KeyValueTable, Table, TBody, TD, TH, THead, TR, type KeyValueRow } from
 import { Badge } from "@/components/ui/badge";
 import { formatQuantity, formatRkm } from "@/lib/design/notation";
 import { conditionsOf, stageFigures } from "@/lib/design/analysis";
+import { defaultInitialOutput } from "@/lib/sim/network";
 import { scenarioSchema, type InputComponent, type Scenario, type ScenarioInput } from "@/lib/schemas/scenario";
 import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL, STAGE_ROLE_ORDER, inputWhere, roleWhere, type StageRole } from "./stage-labels";
 
@@ -141,7 +142,8 @@ export function RunTable({ scenario }: ScenarioTablesProps) {
     { label: "Duration", value: seconds(r.duration) },
     { label: "Output points", value: r.points.toLocaleString("en-US") },
     { label: "Sample interval", value: seconds(r.duration / Math.max(1, r.points - 1)) },
-    { label: "Output at start", value: r.initialOutput ?? "low" },
+    // Absent → the simulator's rule: "settled" for amplifiers, "low" for the other kinds.
+    { label: "Output at start", value: r.initialOutput ?? `${defaultInitialOutput(scenario.stage.kind)} (default)` },
   ];
   if (r.holdOff !== undefined) rows.push({ label: "Chatter hold-off", value: seconds(r.holdOff) });
   if (r.solver !== undefined) rows.push({ label: "Solver", value: r.solver });

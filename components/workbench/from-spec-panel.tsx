@@ -15,7 +15,9 @@ import { MiniButton, Section, SelectRow } from "./controls";
 import { useWb, useWbApi } from "./store";
 import { refuseIfInvalid } from "./field-problems";
 import { designWarningText } from "@/lib/workbench/design-words";
-import { frontEndOf, sensorToInput, type SensorSetup, SensorFields, defaultSensor } from "./spec-sensors";
+import { frontEndOf, sensorToInput, type SensorSetup, SensorFields } from "./spec-sensors";
+import { sensorOfSetup, specSeed, type SpecForm } from "@/lib/workbench/spec-seed";
+import type { DesignSpecInput } from "@/lib/schemas/design";
 
 type TargetMode = "thresholds" | "threshold" | "gain" | "frequency";
 
@@ -26,20 +28,7 @@ function targetMode(kind: StageKind): TargetMode {
   return "gain";
 }
 
-interface Form {
-  kind: StageKind;
-  upper: number;
-  lower: number;
-  threshold: number;
-  gain: number;
-  frequency: number;
-  duty: number | undefined;
-  series: SeriesName;
-  tolerancePct: number;
-  referenceAuto: boolean;
-  reference: number;
-  inputAt: "noninverting" | "inverting";
-}
+type Form = SpecForm;
 
 const fmtV = (v: number | null | undefined, unit = "V") => (v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, 4));
 
@@ -47,25 +36,11 @@ export function FromSpecPanel() {
   const draft = useWb((s) => s.draft);
   const edit = useWb((s) => s.edit);
   const api = useWbApi();
-  const [form, setForm] = useState<Form>(() => {
-    const span = draft.supply.positive - draft.supply.negative;
-    const mid = draft.supply.negative + span / 2;
-    return {
-      kind: draft.stage.kind,
-      upper: mid + span * 0.1,
-      lower: mid - span * 0.1,
-      threshold: mid,
-      gain: 10,
-      frequency: 1,
-      duty: undefined,
-      series: "E24",
-      tolerancePct: 100 * SERIES_TOLERANCE.E24,
-      referenceAuto: false,
-      reference: draft.stage.reference,
-      inputAt: "noninverting",
-    };
-  });
-  const [sensor, setSensor] = useState<SensorSetup>(() => defaultSensor(draft.supply.positive));
+  // Reopening a scenario designed from a spec shows that spec, not the defaults.
+  const [seed] = useState(() => specSeed(draft));
+  const [form, setForm] = useState<Form>(seed.form);
+  const [sensor, setSensor] = useState<SensorSetup>(seed.sensor);
+  const [storedSpec, setStoredSpec] = useState<DesignSpecInput | null>(null);
   const [result, setResult] = useState<DesignResult | null>(null);
   const [problem, setProblem] = useState<string[] | null>(null);
   const set = <K extends keyof Form>(k: K) => (v: Form[K]) => {
@@ -120,8 +95,15 @@ export function FromSpecPanel() {
       ...(form.kind === "comparator" ? { inputAt: form.inputAt } : {}),
       monteCarlo: false,
     };
+    // Stored with the scenario on Apply: thresholds in the sensor's units with the sensor itself.
+    const chain = usesSensor ? sensorOfSetup(sensor) : null;
+    const keep = {
+      ...spec,
+      ...(chain ? { sensor: chain, target: mode === "thresholds" ? { upperThreshold: form.upper, lowerThreshold: form.lower } : { threshold: form.threshold } } : {}),
+    } as DesignSpecInput;
     try {
       setResult(design(spec));
+      setStoredSpec(keep);
     } catch (e) {
       const issues = (e as { issues?: string[] }).issues;
       setProblem(Array.isArray(issues) && issues.length ? issues : [e instanceof Error ? e.message : String(e)]);
@@ -133,6 +115,7 @@ export function FromSpecPanel() {
     if (refuseIfInvalid(api, ["spec"], "Apply to stage")) return;
     edit((d) => {
       d.stage = result.stage;
+      if (storedSpec) d.spec = storedSpec as typeof d.spec;
     });
     api.getState().setNotice({ tone: "ok", text: `Design applied to the stage (${result.parts.map((p) => `${p.ref} ${p.code}`).join(", ")}). Run to check it; Save to keep it.` });
     api.getState().setTab("stage");
@@ -141,6 +124,11 @@ export function FromSpecPanel() {
   return (
     <div data-testid="from-spec-panel">
       <Section title="What the stage must do">
+        {seed.from ? (
+          <p className="mb-1.5 text-[11.5px] text-ink-mute" data-testid="spec-seeded">
+            From the spec saved with this scenario: {seed.from}.
+          </p>
+        ) : null}
         <SelectRow label="Kind" value={form.kind} onChange={(e) => set("kind")(e.target.value as StageKind)} name="spec.kind">
           {STAGE_KINDS.map((k) => (
             <option key={k} value={k}>
@@ -306,7 +294,7 @@ function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult
           {result.parts.map((p) => (
             <tr key={p.ref} className="border-b border-paper-line/60 last:border-0" title={p.note}>
               <td className="py-0.5 font-mono">{p.ref}</td>
-              <td className="py-0.5 text-ink-soft">{p.role in STAGE_ROLE_LABEL ? STAGE_ROLE_LABEL[p.role as keyof typeof STAGE_ROLE_LABEL].name : p.role === "rTop" ? "Divider top" : "Divider bottom"}</td>
+              <td className="py-0.5 text-ink-soft">{partRoleName(p.role)}</td>
               <td className="py-0.5 text-right font-mono">
                 {p.code} <span className="text-ink-faint">{p.series} ±{(100 * p.tolerance).toFixed(p.tolerance < 0.01 ? 1 : 0)} %</span>
               </td>
@@ -316,7 +304,7 @@ function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult
       </table>
       {result.reference.divider ? (
         <p className="mb-2 text-[11.5px] text-ink-mute">
-          Reference {fmtV(result.reference.voltage)} from the divider; the stage uses its Thevenin form ({formatQuantity(result.reference.divider.theveninResistance, "Ω")} folded into the network).
+          Reference {fmtV(result.reference.voltage)} from the divider; Apply puts the divider itself on the stage (its {formatQuantity(result.reference.divider.theveninResistance, "Ω", 4)} source resistance is part of the network).
         </p>
       ) : null}
       <dl className="divide-y divide-paper-line/70 text-[12.5px]" data-testid="design-figures">
@@ -360,4 +348,21 @@ function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult
       ) : null}
     </Section>
   );
+}
+
+/** Plain names of every part role lib/design proposes (stage, reference divider, sensor chain, output, filter). */
+const PART_ROLE_NAME: Record<string, string> = {
+  rTop: "Reference divider top",
+  rBottom: "Reference divider bottom",
+  sourceTop: "Sensor divider top",
+  sourceBottom: "Sensor divider bottom",
+  sourceFixed: "Fixed resistor beside the NTC",
+  pullUp: "Output pull-up",
+  filterR: "Filter resistor",
+  filterC: "Filter capacitor",
+};
+
+export function partRoleName(role: string): string {
+  if (role in STAGE_ROLE_LABEL) return STAGE_ROLE_LABEL[role as keyof typeof STAGE_ROLE_LABEL].name;
+  return PART_ROLE_NAME[role] ?? role;
 }

@@ -4,6 +4,7 @@ import type { Scenario } from "@/lib/schemas/scenario";
 import type { SimMetrics, SolverStats } from "@/lib/sim/types";
 import { formatQuantity } from "@/lib/design/notation";
 import { cx } from "@/components/ui/cx";
+import { formatPin, formatSource, sourceRows, sourceSentence, sourceTerms } from "@/lib/workbench/source-readings";
 import { isAmplifierKind, railsOf, type AmplifierReadings, type Check, type MetricsIn, type Rails, type Warning } from "@/lib/workbench/readings-logic";
 
 const fmt = (v: number | null | undefined, unit: string, digits = 4) => (v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, digits));
@@ -24,9 +25,15 @@ export function amplifierRows(m: MetricsIn | SimMetrics, amp: AmplifierReadings,
   ];
 }
 
-export function metricRows(m: MetricsIn | SimMetrics, gain: number | null, inputReferred = true): [string, string, string?][] {
+type Row = [string, string, string?, string?];
+
+export function metricRows(m: MetricsIn | SimMetrics, gain: number | null, inputReferred = true, scenario?: Scenario): Row[] {
+  // With a source the switching points read in its unit first, pin volts second.
+  const terms = inputReferred && scenario && m.source ? sourceTerms(scenario) : null;
   // An oscillator has no input to refer switching points to; its capacitor node is internal.
-  const thresholds: [string, string, string?][] = inputReferred
+  const thresholds: Row[] = terms && m.source
+    ? sourceRows(m.source, m, terms).map((r): Row => [r.label, r.value, r.label === "Deadband" ? "upper − lower" : `mean ${terms.quantity ?? "source"} at the edges`, r.pin])
+    : inputReferred
     ? [
         ["Upper switching point", fmt(m.upperThreshold, "V"), "mean input at edges the rising input causes"],
         ["Lower switching point", fmt(m.lowerThreshold, "V"), "mean input at edges the falling input causes"],
@@ -71,11 +78,18 @@ export function ReadingsTable({
   amplifier?: AmplifierReadings;
 }) {
   const amp = scenario && isAmplifierKind(scenario.stage.kind);
-  const rows = amp
+  const rows: Row[] = amp
     ? amplifierRows(metrics, amplifier ?? (metrics as MetricsIn).amplifier ?? { gain, clipInputHigh: null, clipInputLow: null }, rails ?? railsOf(scenario))
-    : metricRows(metrics, gain, scenario?.stage.kind !== "relaxation-oscillator");
+    : metricRows(metrics, gain, scenario?.stage.kind !== "relaxation-oscillator", scenario);
+  const terms = !amp && scenario && metrics.source && scenario.stage.kind !== "relaxation-oscillator" ? sourceTerms(scenario) : null;
+  const sentence = terms && metrics.source ? sourceSentence(metrics.source, metrics, terms) : null;
   return (
     <div className="text-[13px]" data-testid="readings">
+      {sentence ? (
+        <p className="mb-2 rounded border-l-[3px] border-indigo bg-paper-sunk/60 px-2 py-1 text-[12.5px] leading-snug text-ink" data-testid="source-sentence">
+          {sentence}
+        </p>
+      ) : null}
       {checks.length ? (
         <table className="mb-3 w-full border-collapse" data-testid="checks">
           <caption className="mb-1 text-left text-[11.5px] font-semibold uppercase tracking-wider text-ink-mute">Checks against the design</caption>
@@ -91,8 +105,12 @@ export function ReadingsTable({
             {checks.map((c) => (
               <tr key={c.label} className="border-b border-paper-line/70 last:border-0" data-check={c.label}>
                 <td className="py-1 pr-2 leading-tight text-ink-soft">{c.label.replace(" switching point", " point")}</td>
-                <td className="whitespace-nowrap py-1 pl-2 text-right font-mono">{c.unit === "edges" ? `≤ ${c.designed}` : fmt(c.designed, c.unit)}</td>
-                <td className="whitespace-nowrap py-1 pl-3 text-right font-mono">{c.unit === "edges" ? (c.measured == null ? "—" : String(c.measured)) : fmt(c.measured, c.unit)}</td>
+                <td className="whitespace-nowrap py-1 pl-2 text-right font-mono">
+                  {c.unit === "edges" ? `≤ ${c.designed}` : c.source ? <SourceCell value={c.source.designed} pin={c.designed} src={c.source} /> : fmt(c.designed, c.unit)}
+                </td>
+                <td className="whitespace-nowrap py-1 pl-3 text-right font-mono">
+                  {c.unit === "edges" ? (c.measured == null ? "—" : String(c.measured)) : c.source ? <SourceCell value={c.source.measured} pin={c.measured} src={c.source} /> : fmt(c.measured, c.unit)}
+                </td>
                 <td className="py-1 pl-2 text-right">
                   <span
                     title={c.unit === "edges" ? `at most ${c.designed} extra edges` : `allowed ± ${fmt(c.tolerance, c.unit, 2)}`}
@@ -137,12 +155,15 @@ export function ReadingsTable({
       <table className="w-full border-collapse" data-testid="metrics">
         <caption className="mb-1 text-left text-[11.5px] font-semibold uppercase tracking-wider text-ink-mute">Measured</caption>
         <tbody>
-          {rows.map(([k, v, hint]) => (
+          {rows.map(([k, v, hint, pin]) => (
             <tr key={k} className="border-b border-paper-line/60 last:border-0" data-metric={k}>
               <td className="py-[3px] pr-2 text-ink-soft" title={hint}>
                 {k}
               </td>
-              <td className="py-[3px] text-right font-mono text-ink">{v}</td>
+              <td className="py-[3px] text-right font-mono text-ink">
+                {v}
+                {pin ? <span className="block text-[11px] text-ink-mute" data-pin>{pin}</span> : null}
+              </td>
             </tr>
           ))}
         </tbody>
@@ -154,5 +175,17 @@ export function ReadingsTable({
         </p>
       ) : null}
     </div>
+  );
+}
+
+/** A check's figure in the source unit, the pin volts beneath it. */
+function SourceCell({ value, pin, src }: { value: number | null; pin: number | null; src: NonNullable<Check["source"]> }) {
+  return (
+    <>
+      <span data-source>{formatSource(value, src, src.difference)}</span>
+      <span className="block text-[11px] text-ink-mute" data-pin>
+        {formatPin(pin)}
+      </span>
+    </>
   );
 }

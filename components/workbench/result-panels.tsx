@@ -8,6 +8,8 @@ import { LoopPlot } from "@/components/plots/loop-plot";
 import { amplifierReadings, buildChecks, buildWarnings, capacitorOf, designedFigures, designedMarks, isAmplifierKind, measuredGain } from "@/lib/workbench/readings-logic";
 import { ReadingsTable } from "./readings-table";
 import { KIND_INFO } from "./stage-kinds";
+import { sourceTerms } from "@/lib/workbench/source-readings";
+import type { Scenario } from "@/lib/schemas/scenario";
 import { markFirstPlot } from "./use-runner";
 import { useCurrentWaveforms, useWb } from "./store";
 
@@ -69,6 +71,7 @@ export function TraceCard() {
   }, [result, capacitor]);
   const name = result?.scenario.name ?? "scenario";
   const exportTitle = useExportLines(name);
+  const source = useMemo(() => traceSource(result?.scenario ?? null, wf?.source ?? null), [result, wf]);
   return (
     <Card title="Trace" description={result ? undefined : "Input and output against time"} actions={<StaleBadge />} padded className="min-w-0">
       {wf && result ? (
@@ -84,6 +87,8 @@ export function TraceCard() {
           onCursor={setCursor}
           onFirstDraw={() => markFirstPlot(name, wf.t.length)}
           capacitor={capacitor}
+          source={source}
+          filtered={wf.filtered ?? null}
           thresholdLabel={capacitor ? "switching levels of the capacitor (designed)" : undefined}
           showEdges={!(kind && isAmplifierKind(kind))}
           exportTitle={exportTitle}
@@ -180,4 +185,12 @@ function useExportLines(name: string): string[] {
 
 export function slug(s: string): string {
   return s.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "scenario";
+}
+
+/** The Trace's source line: the input in the source's unit, labelled with its quantity. */
+export function traceSource(scenario: Scenario | null, values: ArrayLike<number> | null | undefined): { values: Float64Array; unit: string; label: string } | null {
+  if (!scenario || !values || !values.length) return null;
+  const terms = sourceTerms(scenario);
+  if (!terms) return null;
+  return { values: values instanceof Float64Array ? values : Float64Array.from(values), unit: terms.unit, label: terms.quantity ?? "source" };
 }

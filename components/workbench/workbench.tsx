@@ -5,6 +5,7 @@ import Link from "next/link";
 import { useEffect, useMemo, useState } from "react";
 import { useSWRConfig } from "swr";
 import { downloadSamplesCsv } from "@/components/plots/export";
+import { extraSampleColumns } from "@/lib/workbench/source-readings";
 import { LoadGate } from "@/components/ui/load-state";
 import { Badge } from "@/components/ui/badge";
 import { Button, buttonClasses } from "@/components/ui/button";
@@ -245,19 +246,20 @@ function useDirty(): boolean {
 function useSave() {
   const api = useWbApi();
   const { mutate } = useSWRConfig();
-  return async (): Promise<boolean> => {
+  return async (note?: string): Promise<boolean> => {
     const st = api.getState();
     if (refuseIfInvalid(api, ["scenario"], "Save")) return false;
+    const changeNote = note?.trim() || undefined;
     const parsed = scenarioSchema.safeParse(st.draft);
     if (!parsed.success) {
       st.setNotice({ tone: "error", text: `Not saved — ${describeIssues(parsed.error).join("; ")}` });
       return false;
     }
     try {
-      const rec = await saveScenario(st.scenarioId, { scenario: parsed.data, baseVersion: st.version });
+      const rec = await saveScenario(st.scenarioId, { scenario: parsed.data, baseVersion: st.version, ...(changeNote ? { note: changeNote } : {}) });
       api.getState().markSaved(parseScenario(rec.scenario), rec.version);
       await Promise.all([mutate(scenarioKey(st.scenarioId)), mutate(versionsKey(st.scenarioId))]);
-      api.getState().setNotice({ tone: "ok", text: `Saved as version ${rec.version}.` });
+      api.getState().setNotice({ tone: "ok", text: changeNote ? `Saved as version ${rec.version} with the note “${changeNote}”.` : `Saved as version ${rec.version}.` });
       return true;
     } catch (e) {
       const conflict = e instanceof HttpError && e.status === 409;
@@ -281,6 +283,7 @@ function RunBar() {
   const invalid = useWb((s) => Object.values(s.fieldProblems).some((p) => p.scope === "scenario"));
   const save = useSave();
   const [saving, setSaving] = useState(false);
+  const [note, setNote] = useState("");
   const bank = useBank();
   const resultKey = useWb((s) => s.resultKey);
   const solverReady = useWb((s) => s.solverReady);
@@ -302,7 +305,7 @@ function RunBar() {
   const exportCsv = () => {
     const wf = bank.get(resultKey);
     if (!wf || !result) return;
-    downloadSamplesCsv(wf.t, wf.input, wf.output, `${slug(result.scenario.name ?? "scenario")}-samples.csv`);
+    downloadSamplesCsv(wf.t, wf.input, wf.output, `${slug(result.scenario.name ?? "scenario")}-samples.csv`, extraSampleColumns(result.scenario, wf));
   };
 
   const running = status === "running";
@@ -345,6 +348,25 @@ function RunBar() {
       </div>
       <span className="mx-1 h-5 w-px bg-paper-line" aria-hidden />
       {dirty ? <Badge tone="caution">unsaved edits</Badge> : <Badge tone="moss">saved</Badge>}
+      {dirty ? (
+        <input
+          aria-label="Change note (optional)"
+          placeholder="change note (optional)"
+          title="Saved with the new version; reviewers read it beside the list of changed fields"
+          value={note}
+          maxLength={500}
+          onChange={(e) => setNote(e.target.value)}
+          onKeyDown={async (e) => {
+            if (e.key !== "Enter" || saving) return;
+            e.preventDefault();
+            setSaving(true);
+            if (await save(note)) setNote("");
+            setSaving(false);
+          }}
+          data-testid="change-note"
+          className="h-7 w-48 min-w-0 rounded border border-paper-line bg-white px-2 text-[13px] outline-none focus:border-indigo"
+        />
+      ) : null}
       <Button
         size="sm"
         variant="secondary"
@@ -353,7 +375,7 @@ function RunBar() {
         data-testid="save-button"
         onClick={async () => {
           setSaving(true);
-          await save();
+          if (await save(note)) setNote("");
           setSaving(false);
         }}
       >

@@ -5,6 +5,7 @@ import type { Scenario } from "@/lib/schemas/scenario";
 import type { SimEvent, SimMetrics } from "@/lib/sim/types";
 import { conditionsOf, oscillatorSwitchingPoints, outputSwing, stageFigures } from "@/lib/design/analysis";
 import { KIND_INFO } from "./stage-kinds";
+import { sourceTerms } from "./source-readings";
 
 export interface Rails {
   high: number;
@@ -127,6 +128,8 @@ export interface Check {
   unit: string;
   tolerance: number;
   pass: boolean | null;
+  /** The same figure in the source unit, when the scenario has a `source` (shown first). */
+  source?: { designed: number | null; measured: number | null; unit: string; quantity: string | null; difference: boolean };
 }
 
 /**
@@ -149,10 +152,31 @@ export function buildChecks(s: Scenario, metrics: MetricsIn | SimMetrics, gain: 
     d.upperThreshold = null;
     d.lowerThreshold = null;
   }
-  add("Upper switching point", d.upperThreshold, metrics.upperThreshold, "V", 3 * noise);
-  add("Lower switching point", d.lowerThreshold, metrics.lowerThreshold, "V", 3 * noise);
+  // With a source the points are named in source terms: an inverted sensor's upper point is
+  // the pin's lower threshold (lib/sim/circuit sourceReadings). Pass/fail stays on pin volts.
+  const terms = d.oscillator ? null : sourceTerms(s);
+  const swap = terms?.inverted ?? false;
+  const pinUpper = swap ? d.lowerThreshold : d.upperThreshold;
+  const pinLower = swap ? d.upperThreshold : d.lowerThreshold;
+  const conv = (v: number | null) => (terms && v !== null ? terms.toSource(v) : null);
+  const withSource = (designed: number | null, measured: number | null, difference = false) => {
+    const c = out[out.length - 1];
+    if (!terms || !c) return;
+    c.source = { designed, measured, unit: terms.unit, quantity: terms.quantity, difference };
+  };
+  const n0 = out.length;
+  add("Upper switching point", pinUpper, swap ? metrics.lowerThreshold : metrics.upperThreshold, "V", 3 * noise);
+  if (out.length > n0) withSource(conv(pinUpper), conv(swap ? metrics.lowerThreshold : metrics.upperThreshold));
+  const n1 = out.length;
+  add("Lower switching point", pinLower, swap ? metrics.upperThreshold : metrics.lowerThreshold, "V", 3 * noise);
+  if (out.length > n1) withSource(conv(pinLower), conv(swap ? metrics.upperThreshold : metrics.lowerThreshold));
   if (d.upperThreshold !== null && d.lowerThreshold !== null && d.upperThreshold !== d.lowerThreshold) {
     add("Deadband", d.upperThreshold - d.lowerThreshold, metrics.hysteresis, "V", 6 * noise);
+    const su = conv(pinUpper);
+    const sl = conv(pinLower);
+    const mu = conv(swap ? metrics.lowerThreshold : metrics.upperThreshold);
+    const ml = conv(swap ? metrics.upperThreshold : metrics.lowerThreshold);
+    withSource(su !== null && sl !== null ? su - sl : null, mu !== null && ml !== null ? mu - ml : null, true);
   }
   // A switching stage must not add edges: chatter (edges within the hold-off of the previous
   // one) at most the limit the user sets, 0 by default (common practice, no source).
