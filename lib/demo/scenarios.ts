@@ -193,23 +193,23 @@ const waterTemperatureAlarm: ScenarioInput = {
 };
 
 // ---------------------------------------------------------------------------------------------
-// 4. Bilge float bounce filter. A float switch on a 5 V pull-up through a 10 ms RC filter,
-// recorded at 1 kHz: contact bounce when the float lifts, slosh that reopens it for a while,
-// and 80 mV rms pickup. Non-inverting Schmitt trigger, rInput 10 kΩ, rFeedback 47 kΩ, 2.5 V
-// reference, rail-to-rail CMOS: upper = Vref(1 + rIn/rFb) − Vol·rIn/rFb = 3.028 V, lower =
-// Vref(1 + rIn/rFb) − Voh·rIn/rFb = 1.972 V, deadband 1.055 V > 6.6 × 80 mV = 0.53 V. Switch the
-// kind to "comparator" to see the same capture chatter.
+// 4. Bilge float bounce filter. A float switch on a 5 V pull-up, recorded at 1 kHz at the
+// switch (before the filter): contact bounce when the float lifts, slosh that reopens it for a
+// while, and 80 mV rms pickup. An RC filter (`filter`: 4.7 kΩ, 2.2 µF) sits before a
+// non-inverting Schmitt trigger, rInput 10 kΩ, rFeedback 47 kΩ, 2.5 V reference, rail-to-rail
+// CMOS. The filter capacitor sees 4.7 k ∥ 57 k = 4.34 kΩ: τ = 9.6 ms. At DC the filter resistor
+// adds to rInput (14.7 kΩ): upper = Vref(1 + rIn/rFb) − Vol·rIn/rFb = 3.276 V, lower =
+// Vref(1 + rIn/rFb) − Voh·rIn/rFb = 1.724 V at the switch. Remove the filter (or switch the kind
+// to "comparator") to see the bounce and pickup chatter.
 export function bilgeCaptureSamples(): [number, number][] {
   const next = mulberry32(20260412);
   const rate = 1000; // samples per second
   const duration = 2; // s
-  const tau = 10e-3; // RC filter
   // Contact states over time (closed = 4.6 V through the pull-up, open = 0.3 V).
   const toggles = [0.5, 0.503, 0.507, 0.512, 0.52, 0.74, 0.79, 0.93, 0.955, 1.6, 1.606, 1.611];
   const high = 4.6;
   const low = 0.3;
   const samples: [number, number][] = [];
-  let filtered = low;
   let state = false;
   let k = 0;
   for (let i = 0; i <= duration * rate; i++) {
@@ -218,9 +218,8 @@ export function bilgeCaptureSamples(): [number, number][] {
       state = !state;
       k++;
     }
-    const target = state ? high : low;
-    filtered += (target - filtered) * (1 - Math.exp(-1 / (rate * tau)));
-    samples.push([round(t, 6), round(filtered + 0.08 * gaussian(next), 4)]);
+    const level = state ? high : low;
+    samples.push([round(t, 6), round(level + 0.08 * gaussian(next), 4)]);
   }
   return samples;
 }
@@ -237,6 +236,7 @@ const bilgeFloat: ScenarioInput = {
   supply: { positive: 5, negative: 0 },
   opamp: RAIL_TO_RAIL_CMOS_1MHZ,
   stage: { kind: "schmitt-noninverting", rInput: 10e3, rFeedback: 47e3, reference: 2.5 },
+  filter: { r: 4.7e3, c: 2.2e-6 },
   input: { components: [{ kind: "capture", samples: bilgeCaptureSamples() }] },
   run: { duration: 2, points: 8000, initialOutput: "low" },
 };
@@ -264,6 +264,35 @@ const statusLamp: ScenarioInput = {
 };
 
 // ---------------------------------------------------------------------------------------------
+// 6. Enclosure humidity flag. The electronics box's humidity sensor gives 0.8 V at 0 %RH and
+// 3.2 V at 100 %RH (24 mV per %RH); a comparator-style part on 5 V flags the logger at 75 %RH
+// (2.6 V reference on v−). Its open-drain output pulls the logger's 3.3 V input low; the pin has
+// a 10 kΩ pull-up to 3.3 V and the logger's 100 kΩ pull-down (a defined level while the logger
+// is off). Output transistor off: 3.3 V · 100 k/(10 k + 100 k) = 3.0 V [Ohm's law]; on: Vol
+// = 0.1 V. Humidity climbs from 58 %RH to 88 %RH over 20 s and dries back to 62 %RH.
+const humidityFlag: ScenarioInput = {
+  schema: SCENARIO_SCHEMA_ID,
+  name: "Enclosure humidity flag",
+  supply: { positive: 5, negative: 0 },
+  opamp: FAST_COMPARATOR_STYLE,
+  stage: { kind: "comparator", reference: 2.6, inputAt: "noninverting" },
+  output: { kind: "open-drain", pullUp: 10e3, pullUpTo: 3.3, load: { r: 100e3, to: 0 } },
+  input: {
+    components: [
+      {
+        kind: "pwl",
+        points: [
+          [0, round(0.8 + 0.024 * 58)],
+          [20, round(0.8 + 0.024 * 88)],
+          [40, round(0.8 + 0.024 * 62)],
+        ],
+      },
+    ],
+  },
+  run: { duration: 40, points: 2000 },
+};
+
+// ---------------------------------------------------------------------------------------------
 // Harrow Marine's own board: a dusk switch (comparator) for the isolation tests and demos.
 const duskSwitch: ScenarioInput = {
   schema: SCENARIO_SCHEMA_ID,
@@ -287,6 +316,7 @@ export const DEMO_SCENARIOS: DemoScenario[] = [
   { key: "water-temperature-alarm", name: "Water-temperature alarm", scenario: waterTemperatureAlarm },
   { key: "bilge-float", name: "Bilge float bounce filter", scenario: bilgeFloat },
   { key: "status-lamp", name: "Status-lamp blinker", scenario: statusLamp },
+  { key: "humidity-flag", name: "Enclosure humidity flag", scenario: humidityFlag },
 ];
 
 export const HARROW_SCENARIOS: DemoScenario[] = [

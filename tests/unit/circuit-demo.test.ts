@@ -57,3 +57,42 @@ describe("water-temperature alarm", () => {
     expect(wc.sourceUpperThreshold![1]).toBeGreaterThan(19);
   });
 });
+
+describe("bilge float bounce filter", () => {
+  const s = demo("bilge-float");
+
+  it("filters the raw float capture with its RC filter: one edge per float movement, no chatter", () => {
+    expect(s.filter).toEqual({ r: 4.7e3, c: 2.2e-6 });
+    const r = simulate(s);
+    expect(r.filtered!.length).toBe(r.t.length);
+    // The capture holds the float's toggles; bounces 3–8 ms apart are shorter than the filter's
+    // τ = 2.2 µF·(4.7 k ∥ 57 k) = 9.6 ms [derived, Thevenin + RC time constant], so each lift,
+    // slosh and drop gives one clean edge.
+    expect(r.metrics.chatter).toBe(0);
+    expect(r.events.length).toBe(6);
+    // The raw 80 mV rms pickup is smoothed on the filter node: its sample-to-sample steps are far
+    // smaller than the capture's (first-order low-pass, common practice).
+    let rawStep = 0;
+    let filteredStep = 0;
+    for (let i = 1; i < 1000; i++) {
+      rawStep = Math.max(rawStep, Math.abs(r.input[i] - r.input[i - 1]));
+      filteredStep = Math.max(filteredStep, Math.abs(r.filtered![i] - r.filtered![i - 1]));
+    }
+    expect(filteredStep).toBeLessThan(rawStep / 5);
+  });
+});
+
+describe("enclosure humidity flag (open-drain comparator)", () => {
+  it("flags at 2.6 V (75 %RH), high level set by the 10 k pull-up to 3.3 V and the 100 k load", () => {
+    const s = demo("humidity-flag");
+    expect(s.output).toEqual({ kind: "open-drain", pullUp: 10e3, pullUpTo: 3.3, load: { r: 100e3, to: 0 } });
+    const r = simulate(s);
+    // 3.3 V · 100 k/(10 k + 100 k) = 3.0 V [derived, Ohm's law / voltage divider rule]
+    expect(r.rails.high).toBeCloseTo(3.0, 9);
+    expect(r.rails.low).toBeCloseTo(0.1, 12);
+    expect(r.events.map((e) => e.edge)).toEqual(["rising", "falling"]);
+    // Comparator switches at the reference less the part's 2 mV offset (common practice, no source)
+    expect(Math.abs(r.metrics.upperThreshold! - 2.598)).toBeLessThan(1e-3);
+    expect(Math.max(...r.output)).toBeCloseTo(3.0, 9);
+  });
+});
