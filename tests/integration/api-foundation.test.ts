@@ -74,7 +74,7 @@ describe("boards", () => {
     for (const who of ["owner", "designer", "reviewer", "viewer"] as const) {
       const body = (await expectStatus(await as[who].fetch("/api/boards"), 200)) as { items: { id: string; scenarioCount: number }[] };
       expect(body.items.map((b) => b.id)).toContain(boardId);
-      expect(body.items.find((b) => b.id === boardId)!.scenarioCount).toBe(5);
+      expect(body.items.find((b) => b.id === boardId)!.scenarioCount).toBe(DEMO_SCENARIOS.length);
       expect(body.items.map((b) => b.id)).not.toContain(otherBoardId);
     }
     await expectStatus(await anon("/api/boards"), 401);

@@ -13,13 +13,14 @@ function issuesOf(value: unknown): string[] {
 }
 
 describe("demo scenarios", () => {
-  it("holds the five board scenarios of DESIGN.md", () => {
+  it("holds the five board scenarios of DESIGN.md and the open-drain flag of issue #11", () => {
     expect(DEMO_SCENARIOS.map((s) => s.key)).toEqual([
       "battery-cutoff",
       "hydrophone-preamp",
       "water-temperature-alarm",
       "bilge-float",
       "status-lamp",
+      "humidity-flag",
     ]);
   });
 
