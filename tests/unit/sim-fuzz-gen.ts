@@ -123,6 +123,14 @@ export function fuzzScenario(seed: number): { raw: Record<string, unknown>; scen
   if (chance(0.3)) input.noise = { rms: log(1e-3, 0.05) * span, bandwidth: log(50, 20000) / (2 * duration), seed: Math.floor(r() * 1e6) };
   const run: Record<string, unknown> = { duration, points: 101 + Math.floor(r() * 1900) };
   if (chance(0.4)) run.initialOutput = pick(["low", "high", "settled"]);
-  const raw = { schema: "railwise.scenario/1", supply, opamp, stage, input, run };
+  const raw: Record<string, unknown> = { schema: "railwise.scenario/1", supply, opamp, stage, input, run };
+  // Open-drain output on a quarter of the threshold stages, from its own stream so the rest of
+  // every seed's scenario is what it was before the output was added.
+  const od = rng(seed * 2654435761 + 1);
+  if (switching && od() < 0.25) {
+    const pullUp = Math.exp(Math.log(1e3) + (Math.log(1e5) - Math.log(1e3)) * od());
+    const pullUpTo = od() < 0.5 ? "positive" : supply.positive * (0.5 + 0.5 * od());
+    raw.output = { kind: "open-drain", pullUp, pullUpTo, ...(od() < 0.5 ? { load: { r: pullUp * (10 + 90 * od()) } } : {}) };
+  }
   return { raw, scenario: parseScenario(raw) };
 }
