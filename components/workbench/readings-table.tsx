@@ -4,7 +4,7 @@ import type { Scenario } from "@/lib/schemas/scenario";
 import type { SimMetrics, SolverStats } from "@/lib/sim/types";
 import { formatQuantity } from "@/lib/design/notation";
 import { cx } from "@/components/ui/cx";
-import { formatPin, formatSource, sourceRows, sourceSentence, sourceTerms } from "@/lib/workbench/source-readings";
+import { formatSource, sourceNumber, sourceRows, sourceSentence, sourceTerms } from "@/lib/workbench/source-readings";
 import { isAmplifierKind, railsOf, type AmplifierReadings, type Check, type MetricsIn, type Rails, type Warning } from "@/lib/workbench/readings-logic";
 
 const fmt = (v: number | null | undefined, unit: string, digits = 4) => (v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, digits));
@@ -83,6 +83,7 @@ export function ReadingsTable({
     : metricRows(metrics, gain, scenario?.stage.kind !== "relaxation-oscillator", scenario);
   const terms = !amp && scenario && metrics.source && scenario.stage.kind !== "relaxation-oscillator" ? sourceTerms(scenario) : null;
   const sentence = terms && metrics.source ? sourceSentence(metrics.source, metrics, terms) : null;
+  const checkSource = checks.find((c) => c.source)?.source ?? null;
   return (
     <div className="text-[13px]" data-testid="readings">
       {sentence ? (
@@ -92,7 +93,10 @@ export function ReadingsTable({
       ) : null}
       {checks.length ? (
         <table className="mb-3 w-full border-collapse" data-testid="checks">
-          <caption className="mb-1 text-left text-[11.5px] font-semibold uppercase tracking-wider text-ink-mute">Checks against the design</caption>
+          <caption className="mb-1 text-left text-[11.5px] font-semibold uppercase tracking-wider text-ink-mute">
+            Checks against the design
+            {checkSource ? <span className="block text-[11px] font-normal normal-case tracking-normal" data-testid="checks-source-note">{`in ${checkSource.quantity ?? "source"} ${checkSource.unit}, volts at the pin beneath`}</span> : null}
+          </caption>
           <thead>
             <tr className="border-b border-paper-line text-left text-[11.5px] text-ink-mute">
               <th className="py-1 font-medium">figure</th>
@@ -182,9 +186,9 @@ export function ReadingsTable({
 function SourceCell({ value, pin, src }: { value: number | null; pin: number | null; src: NonNullable<Check["source"]> }) {
   return (
     <>
-      <span data-source>{formatSource(value, src, src.difference)}</span>
+      <span data-source>{formatSource(value, src, true)}</span>
       <span className="block text-[11px] text-ink-mute" data-pin>
-        {formatPin(pin)}
+        {pin == null || !Number.isFinite(pin) ? "—" : `${sourceNumber(pin)} V pin`}
       </span>
     </>
   );
