@@ -157,7 +157,10 @@ export function ReadingsTable({
       )}
 
       <table className="w-full border-collapse" data-testid="metrics">
-        <caption className="mb-1 text-left text-[11.5px] font-semibold uppercase tracking-wider text-ink-mute">Measured</caption>
+        <caption className="mb-1 text-left text-[11.5px] font-semibold uppercase tracking-wider text-ink-mute">
+          Measured
+          {terms && metrics.source ? <span className="block text-[11px] font-normal normal-case tracking-normal" data-testid="metrics-source-note">{`switching points in ${terms.quantity ?? "source"} ${metrics.source.unit}, volts at the pin beneath`}</span> : null}
+        </caption>
         <tbody>
           {rows.map(([k, v, hint, pin]) => (
             <tr key={k} className="border-b border-paper-line/60 last:border-0" data-metric={k}>

@@ -63,7 +63,7 @@ export interface SourceReadingRow {
 
 /**
  * Source-first rows of a switching run: upper and lower switching points and the deadband in
- * the source unit, each with the pin voltage it corresponds to. An inverted sensor's source
+ * the source unit (the quantity is named once, in the caption), each with the pin voltage it corresponds to. An inverted sensor's source
  * upper point is the pin's lower threshold (lib/sim/circuit sourceReadings).
  */
 export function sourceRows(
@@ -75,8 +75,8 @@ export function sourceRows(
   const pinUpper = terms.inverted ? pin.lowerThreshold : pin.upperThreshold;
   const pinLower = terms.inverted ? pin.upperThreshold : pin.lowerThreshold;
   return [
-    { label: "Upper switching point", value: formatSource(src.upperThreshold, t), pin: formatPin(pinUpper) },
-    { label: "Lower switching point", value: formatSource(src.lowerThreshold, t), pin: formatPin(pinLower) },
+    { label: "Upper switching point", value: formatSource(src.upperThreshold, t, true), pin: formatPin(pinUpper) },
+    { label: "Lower switching point", value: formatSource(src.lowerThreshold, t, true), pin: formatPin(pinLower) },
     { label: "Deadband", value: formatSource(src.hysteresis, t, true), pin: formatPin(pin.hysteresis) },
   ];
 }

@@ -69,7 +69,8 @@ describe("readings in the sensor's units", () => {
       const card = await page.getByTestId("readings").boundingBox();
       const badge = await upper.locator("td").last().boundingBox();
       expect(badge!.x + badge!.width).toBeLessThanOrEqual(card!.x + card!.width + 1);
-      expect(await page.locator('[data-metric="Lower switching point"]').textContent()).toMatch(/11\.\d\d V battery.*2\.3\d+ V at the pin/);
+      expect(await page.locator('[data-metric="Lower switching point"]').textContent()).toMatch(/11\.\d\d V\s*2\.3\d+ V at the pin/);
+      expect(await page.getByTestId("metrics-source-note").textContent()).toBe("switching points in battery V, volts at the pin beneath");
       expect(await page.getByTestId("trace-plot").first().getAttribute("data-series")).toContain("battery (V, right scale)");
       await screenshot(page, "source-workbench-battery");
     } finally {

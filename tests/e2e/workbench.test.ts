@@ -114,8 +114,12 @@ describe("workbench (designer)", () => {
       const lowerRow = page.locator('[data-check="Lower switching point"]');
       await expect.poll(() => upperRow.textContent()).toMatch(/pass/);
       await expect.poll(() => lowerRow.textContent()).toMatch(/pass/);
-      const measuredUpper = parseFloat((await upperRow.locator("td").nth(2).textContent())!.replace(/[^\d.-]/g, ""));
-      const measuredLower = parseFloat((await lowerRow.locator("td").nth(2).textContent())!.replace(/[^\d.-]/g, ""));
+      // The battery reads in battery volts first; the pin volts sit beneath ([data-pin]).
+      const measuredUpper = parseFloat((await upperRow.locator("td").nth(2).locator("[data-pin]").textContent())!.replace(/[^\d.-]/g, ""));
+      const measuredLower = parseFloat((await lowerRow.locator("td").nth(2).locator("[data-pin]").textContent())!.replace(/[^\d.-]/g, ""));
+      const batteryUpper = parseFloat((await upperRow.locator("td").nth(2).locator("[data-source]").textContent())!.replace(/[^\d.-]/g, ""));
+      // Unloaded divider 68 k / 18 k: battery = pin · (68 + 18) / 18 (voltage-divider formula); 4 significant figures shown.
+      expect(Math.abs(batteryUpper - (measuredUpper * 86) / 18)).toBeLessThan(0.01);
       console.log(`[workbench] thresholds measured ${measuredUpper} / ${measuredLower} V, closed form ${upper.toFixed(4)} / ${lower.toFixed(4)} V`);
       // Noise (4 mV rms) moves single crossings; the mean over a few edges stays within ~1 %.
       expect(Math.abs(measuredUpper - upper)).toBeLessThan(0.02 * upper);

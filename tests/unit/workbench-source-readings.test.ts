@@ -33,8 +33,8 @@ describe("readings in the sensor's units", () => {
     expect(formatSource(1.09, { unit: "V", quantity: "battery" }, true)).toBe("1.090 V");
     const rows = sourceRows({ unit: "V", upperThreshold: 12.49, lowerThreshold: 11.4, hysteresis: 1.09 }, { upperThreshold: 2.615, lowerThreshold: 2.385, hysteresis: 0.23 }, { quantity: "battery", inverted: false });
     expect(rows.map((r) => [r.label, r.value, r.pin])).toEqual([
-      ["Upper switching point", "12.49 V battery", "2.615 V at the pin"],
-      ["Lower switching point", "11.40 V battery", "2.385 V at the pin"],
+      ["Upper switching point", "12.49 V", "2.615 V at the pin"],
+      ["Lower switching point", "11.40 V", "2.385 V at the pin"],
       ["Deadband", "1.090 V", "0.2300 V at the pin"],
     ]);
     // An inverted sensor: the source's upper point is the pin's lower threshold.
