@@ -247,7 +247,8 @@ function sensorUnit(s: SensorSetup): string {
   return s.kind === "ntc" ? "°C" : "V";
 }
 function sensorUnitLabel(s: SensorSetup): string {
-  return s.kind === "ntc" ? "°C" : s.kind === "divider" ? "V at the source" : "V";
+  // Short enough for the 120 px label column ("V at the source" is cut off there).
+  return s.kind === "ntc" ? "°C" : s.kind === "divider" ? "source V" : "V";
 }
 
 const FIGURES: { key: keyof DesignResult["achieved"]; label: string; unit: string; scale?: number }[] = [
