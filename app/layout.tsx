@@ -21,7 +21,12 @@ const jetbrains = localFont({
 export const metadata: Metadata = {
   title: { default: "Railwise", template: "%s · Railwise" },
   description: "Design and verify op-amp stages that leave the linear region.",
-  icons: { icon: [{ url: "/icon.svg", type: "image/svg+xml" }, { url: "/favicon.ico", sizes: "16x16 32x32 48x48" }] },
+  icons: {
+    icon: [
+      { url: "/icon.svg", type: "image/svg+xml" },
+      { url: "/favicon.ico", sizes: "16x16 32x32 48x48" },
+    ],
+  },
 };
 
 export const viewport: Viewport = {

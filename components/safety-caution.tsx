@@ -1,4 +1,4 @@
-// The caution DESIGN.md requires on stages that switch heaters, motors, pumps or mains.
+// The caution DEVELOPERS.md (§ Safety caution) asks for on stages that switch heaters, motors, pumps or mains.
 import { cx } from "@/components/ui/cx";
 
 export const SAFETY_CAUTION_TEXT =
@@ -30,14 +30,18 @@ export function SafetyCaution({ show, texts = [], className }: SafetyCautionProp
       role="note"
       aria-label="Safety caution"
       data-testid="safety-caution"
-      className={cx("flex gap-3 rounded-md border border-caution/40 bg-caution-soft px-3.5 py-2.5 text-[13px] text-ink", className)}
+      className={cx(
+        "flex gap-3 rounded-md border border-caution/40 bg-caution-soft px-3.5 py-2.5 text-[13px] text-ink",
+        className,
+      )}
     >
       <svg aria-hidden width="18" height="18" viewBox="0 0 20 20" className="mt-0.5 shrink-0 text-caution">
         <path d="M10 2 L19 18 H1 Z" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinejoin="round" />
         <path d="M10 8 V12.5 M10 14.8 V15" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" />
       </svg>
       <p>
-        <span className="font-semibold text-caution">Switching a heater, motor, pump or mains?</span> {SAFETY_CAUTION_TEXT}
+        <span className="font-semibold text-caution">Switching a heater, motor, pump or mains?</span>{" "}
+        {SAFETY_CAUTION_TEXT}
       </p>
     </aside>
   );

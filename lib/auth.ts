@@ -63,10 +63,13 @@ export async function bumpSessionGeneration(userId: string, transaction?: Transa
 }
 
 async function currentGeneration(userId: string): Promise<number> {
-  const rows = await getSequelize().query<{ generation: number }>(`SELECT "sessionGeneration" AS "generation" FROM "users" WHERE "id" = :userId`, {
-    replacements: { userId },
-    type: QueryTypes.SELECT,
-  });
+  const rows = await getSequelize().query<{ generation: number }>(
+    `SELECT "sessionGeneration" AS "generation" FROM "users" WHERE "id" = :userId`,
+    {
+      replacements: { userId },
+      type: QueryTypes.SELECT,
+    },
+  );
   return Number(rows[0]?.generation ?? 0);
 }
 

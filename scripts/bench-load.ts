@@ -25,15 +25,23 @@ const arg = (name: string, fallback: string) => {
   return i > 0 && process.argv[i + 1] ? process.argv[i + 1] : fallback;
 };
 
-const quantile = (sorted: number[], q: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] : NaN);
+const quantile = (sorted: number[], q: number) =>
+  sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] : NaN;
 
-export async function runLoadBench({ seconds = 5, rates = [50, 100, 200] }: { seconds?: number; rates?: number[] } = {}): Promise<Row[]> {
+export async function runLoadBench({
+  seconds = 5,
+  rates = [50, 100, 200],
+}: {
+  seconds?: number;
+  rates?: number[];
+} = {}): Promise<Row[]> {
   const bounded = Math.min(Math.max(seconds, 1), 30);
   const server = await startServer();
   const rows: Row[] = [];
   try {
     const loopback = new URL(server.url).hostname;
-    if (!["127.0.0.1", "localhost", "::1", "[::1]"].includes(loopback)) throw new Error(`refusing a non-loopback target ${server.url}`);
+    if (!["127.0.0.1", "localhost", "::1", "[::1]"].includes(loopback))
+      throw new Error(`refusing a non-loopback target ${server.url}`);
     const s = await signIn(server.url, "designer@fjordline.example", DEMO_PASSWORD);
     const boards = (await (await s.fetch("/api/boards")).json()) as { items: { id: string }[] };
     const boardId = boards.items[0].id;
@@ -58,7 +66,9 @@ export async function runLoadBench({ seconds = 5, rates = [50, 100, 200] }: { se
           (async () => {
             const t0 = performance.now();
             try {
-              const res = route.auth ? await s.fetch(route.path, { signal: AbortSignal.timeout(15_000) }) : await fetch(`${server.url}${route.path}`, { signal: AbortSignal.timeout(15_000) });
+              const res = route.auth
+                ? await s.fetch(route.path, { signal: AbortSignal.timeout(15_000) })
+                : await fetch(`${server.url}${route.path}`, { signal: AbortSignal.timeout(15_000) });
               await res.arrayBuffer();
               if (res.status !== 200) errors.set(route.name, errors.get(route.name)! + 1);
             } catch {
@@ -71,7 +81,15 @@ export async function runLoadBench({ seconds = 5, rates = [50, 100, 200] }: { se
       await Promise.all(inFlight);
       for (const r of routes) {
         const sorted = [...times.get(r.name)!].sort((a, b) => a - b);
-        rows.push({ rate, route: r.name, n: sorted.length, errors: errors.get(r.name)!, p50: quantile(sorted, 0.5), p95: quantile(sorted, 0.95), p99: quantile(sorted, 0.99) });
+        rows.push({
+          rate,
+          route: r.name,
+          n: sorted.length,
+          errors: errors.get(r.name)!,
+          p50: quantile(sorted, 0.5),
+          p95: quantile(sorted, 0.95),
+          p99: quantile(sorted, 0.99),
+        });
       }
     }
   } finally {
@@ -83,7 +101,8 @@ export async function runLoadBench({ seconds = 5, rates = [50, 100, 200] }: { se
 export function formatLoadRows(rows: Row[]): string {
   const head = `${"rate".padStart(6)}  ${"route".padEnd(30)} ${"n".padStart(5)} ${"err".padStart(4)} ${"p50 ms".padStart(8)} ${"p95 ms".padStart(8)} ${"p99 ms".padStart(8)}`;
   const lines = rows.map(
-    (r) => `${`${r.rate}/s`.padStart(6)}  ${r.route.padEnd(30)} ${String(r.n).padStart(5)} ${String(r.errors).padStart(4)} ${r.p50.toFixed(1).padStart(8)} ${r.p95.toFixed(1).padStart(8)} ${r.p99.toFixed(1).padStart(8)}`,
+    (r) =>
+      `${`${r.rate}/s`.padStart(6)}  ${r.route.padEnd(30)} ${String(r.n).padStart(5)} ${String(r.errors).padStart(4)} ${r.p50.toFixed(1).padStart(8)} ${r.p95.toFixed(1).padStart(8)} ${r.p99.toFixed(1).padStart(8)}`,
   );
   return [head, ...lines].join("\n");
 }

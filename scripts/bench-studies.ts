@@ -32,7 +32,10 @@ interface Job {
 }
 
 /** simulate on the scenario's own output grid, whatever the task asked for. */
-const onGrid = (points: number): SimulateFn => (s, o) => simulate({ ...s, run: { ...s.run, points } }, o);
+const onGrid =
+  (points: number): SimulateFn =>
+  (s, o) =>
+    simulate({ ...s, run: { ...s.run, points } }, o);
 
 if (!isMainThread && parentPort) {
   const port = parentPort;
@@ -48,7 +51,11 @@ const cpuMsSince = (c: NodeJS.CpuUsage) => {
   return (d.user + d.system) / 1000;
 };
 
-async function runInThreads(request: StudyRequest, workers: number, fullGrid = false): Promise<{ tasks: TaskOutput[]; ms: number; startMs: number; cpuMs: number }> {
+async function runInThreads(
+  request: StudyRequest,
+  workers: number,
+  fullGrid = false,
+): Promise<{ tasks: TaskOutput[]; ms: number; startMs: number; cpuMs: number }> {
   const t0 = performance.now();
   const total = studyTaskCount(request.config);
   const ranges = splitTasks(total, Math.max(1, Math.min(64, Math.ceil(total / (workers * 12)))));
@@ -134,39 +141,100 @@ export async function benchStudies(): Promise<StudyBenchRow[]> {
   const spread: StudyRequest = {
     scenario: { ...bilge, run: { ...bilge.run, points: 20_000 } },
     config: toleranceSpreadConfigSchema.parse({
-      kind: "tolerance-spread", seed: 1, draws: 1000, resistorTolerance: 0.01, offsetTolerance: 0.002, headroomSpread: 0.2,
-      distribution: "normal", probe: { kind: "scenario" }, measures: ["upperThreshold", "lowerThreshold"],
+      kind: "tolerance-spread",
+      seed: 1,
+      draws: 1000,
+      resistorTolerance: 0.01,
+      offsetTolerance: 0.002,
+      headroomSpread: 0.2,
+      distribution: "normal",
+      probe: { kind: "scenario" },
+      measures: ["upperThreshold", "lowerThreshold"],
       window: { upperThreshold: [2.95, 3.1], lowerThreshold: [1.9, 2.05] },
     }),
   };
   const a = await runInThreads(spread, 2);
   const s = summarizeToleranceSpread(spread.config as never, a.tasks as DrawOutput[]);
-  rows.push({ case: "Tolerance spread: 1,000 draws, bilge filter, 20,000-sample run", mode: "2 worker threads", ms: a.ms, cpuMs: a.cpuMs, startMs: a.startMs, target: "< 3000 ms", note: `inside window ${(100 * (s.insideShare ?? 0)).toFixed(1)} %; study grid ${STUDY_OUTPUT_POINTS} pts; solver failures ${s.failed}` });
+  rows.push({
+    case: "Tolerance spread: 1,000 draws, bilge filter, 20,000-sample run",
+    mode: "2 worker threads",
+    ms: a.ms,
+    cpuMs: a.cpuMs,
+    startMs: a.startMs,
+    target: "< 3000 ms",
+    note: `inside window ${(100 * (s.insideShare ?? 0)).toFixed(1)} %; study grid ${STUDY_OUTPUT_POINTS} pts; solver failures ${s.failed}`,
+  });
   const a1 = inProcess(spread);
-  rows.push({ case: "  same", mode: "1 thread, in-process", ms: a1.ms, cpuMs: a1.cpuMs, target: "", note: JSON.stringify(a1.tasks) === JSON.stringify(a.tasks) ? "identical to 2 threads" : "DIFFERS from 2 threads" });
+  rows.push({
+    case: "  same",
+    mode: "1 thread, in-process",
+    ms: a1.ms,
+    cpuMs: a1.cpuMs,
+    target: "",
+    note: JSON.stringify(a1.tasks) === JSON.stringify(a.tasks) ? "identical to 2 threads" : "DIFFERS from 2 threads",
+  });
   const af = await runInThreads(spread, 2, true);
-  rows.push({ case: "  same, full 20,000-point output per draw", mode: "2 worker threads", ms: af.ms, cpuMs: af.cpuMs, startMs: af.startMs, target: "", note: JSON.stringify(af.tasks) === JSON.stringify(a.tasks) ? "identical figures" : "figures differ" });
+  rows.push({
+    case: "  same, full 20,000-point output per draw",
+    mode: "2 worker threads",
+    ms: af.ms,
+    cpuMs: af.cpuMs,
+    startMs: af.startMs,
+    target: "",
+    note: JSON.stringify(af.tasks) === JSON.stringify(a.tasks) ? "identical figures" : "figures differ",
+  });
 
   const temp = demo("water-temperature-alarm");
   const noise: StudyRequest = {
     scenario: temp,
-    config: noiseMarginConfigSchema.parse({ kind: "noise-margin", seed: 1, rmsFrom: 0.002, rmsTo: 0.04, levels: 20, seedsPerLevel: 50, bandwidth: 5, limit: 0.01 }),
+    config: noiseMarginConfigSchema.parse({
+      kind: "noise-margin",
+      seed: 1,
+      rmsFrom: 0.002,
+      rmsTo: 0.04,
+      levels: 20,
+      seedsPerLevel: 50,
+      bandwidth: 5,
+      limit: 0.01,
+    }),
   };
   const b = await runInThreads(noise, 2);
   const ns = summarizeNoiseMargin(noise.config as never, b.tasks as NoiseTaskOutput[]);
-  rows.push({ case: "Noise margin study: 20 levels × 50 seeds, water-temperature alarm (6,000 pts, 600 s)", mode: "2 worker threads", ms: b.ms, cpuMs: b.cpuMs, startMs: b.startMs, target: "< 5000 ms", note: `chatter ≤ 1 % up to ${ns.safeRms !== null ? (ns.safeRms * 1e3).toFixed(1) + " mV" : "—"} rms; rule of thumb ${(ns.ruleOfThumbRms * 1e3).toFixed(1)} mV; solver failures ${ns.levels.reduce((a, l) => a + l.failed, 0)}` });
+  rows.push({
+    case: "Noise margin study: 20 levels × 50 seeds, water-temperature alarm (6,000 pts, 600 s)",
+    mode: "2 worker threads",
+    ms: b.ms,
+    cpuMs: b.cpuMs,
+    startMs: b.startMs,
+    target: "< 5000 ms",
+    note: `chatter ≤ 1 % up to ${ns.safeRms !== null ? (ns.safeRms * 1e3).toFixed(1) + " mV" : "—"} rms; rule of thumb ${(ns.ruleOfThumbRms * 1e3).toFixed(1)} mV; solver failures ${ns.levels.reduce((a, l) => a + l.failed, 0)}`,
+  });
   const b1 = inProcess(noise);
-  rows.push({ case: "  same", mode: "1 thread, in-process", ms: b1.ms, cpuMs: b1.cpuMs, target: "", note: JSON.stringify(b1.tasks) === JSON.stringify(b.tasks) ? "identical to 2 threads" : "DIFFERS from 2 threads" });
+  rows.push({
+    case: "  same",
+    mode: "1 thread, in-process",
+    ms: b1.ms,
+    cpuMs: b1.cpuMs,
+    target: "",
+    note: JSON.stringify(b1.tasks) === JSON.stringify(b.tasks) ? "identical to 2 threads" : "DIFFERS from 2 threads",
+  });
   return rows;
 }
 
 export function printStudyRows(rows: StudyBenchRow[]): void {
   const w = Math.max(...rows.map((r) => r.case.length));
   const os = require("node:os") as typeof import("node:os");
-  console.log(`\nStudies (load average ${os.loadavg().map((l) => l.toFixed(1)).join(" ")} on ${os.cpus().length} cores)`);
+  console.log(
+    `\nStudies (load average ${os
+      .loadavg()
+      .map((l) => l.toFixed(1))
+      .join(" ")} on ${os.cpus().length} cores)`,
+  );
   for (const r of rows) {
     const start = r.startMs !== undefined ? `(+${r.startMs.toFixed(0)} ms start+warm-up)` : "";
-    console.log(`${r.case.padEnd(w)}  ${r.mode.padEnd(22)} ${r.ms.toFixed(0).padStart(6)} ms wall ${r.cpuMs.toFixed(0).padStart(6)} ms CPU ${start.padEnd(26)} ${r.target.padEnd(10)} ${r.note}`);
+    console.log(
+      `${r.case.padEnd(w)}  ${r.mode.padEnd(22)} ${r.ms.toFixed(0).padStart(6)} ms wall ${r.cpuMs.toFixed(0).padStart(6)} ms CPU ${start.padEnd(26)} ${r.target.padEnd(10)} ${r.note}`,
+    );
   }
 }
 

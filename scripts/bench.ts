@@ -389,7 +389,7 @@ function buildCLoop(): { exe: string } | { problem: string } {
   return { exe };
 }
 
-/** The same model as the scenario, as the C loop's arguments (DESIGN.md stage table). */
+/** The same model as the scenario, as the C loop's arguments (lib/schemas/README.md § Stage topologies). */
 function runCLoop(exe: string, s: Scenario, repeats = 7): CLoop | { problem: string } {
   const stage = s.stage;
   if (stage.kind !== "schmitt-noninverting" || typeof stage.reference !== "number" || !s.input.noise) {

@@ -5,7 +5,13 @@ import path from "node:path";
 export const ROOT = path.resolve(__dirname, "..");
 
 const SOURCE_DIRS = ["app", "components", "lib", "models", "workers", "public", "types"];
-const SOURCE_FILES = ["next.config.ts", "tailwind.config.ts", "postcss.config.mjs", "package.json", "package-lock.json"];
+const SOURCE_FILES = [
+  "next.config.ts",
+  "tailwind.config.ts",
+  "postcss.config.mjs",
+  "package.json",
+  "package-lock.json",
+];
 
 function newestMtime(p: string): number {
   let st: fs.Stats;

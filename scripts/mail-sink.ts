@@ -37,12 +37,9 @@ export function defaultMailDir(): string {
   return path.resolve(process.env.MAIL_SINK_DIR || "data/mail");
 }
 
-export async function startMailSink(options: {
-  port?: number;
-  host?: string;
-  dir?: string;
-  onMessage?: (mail: StoredMail) => void;
-} = {}): Promise<MailSink> {
+export async function startMailSink(
+  options: { port?: number; host?: string; dir?: string; onMessage?: (mail: StoredMail) => void } = {},
+): Promise<MailSink> {
   const dir = options.dir ?? defaultMailDir();
   const host = options.host ?? "127.0.0.1";
   mkdirSync(dir, { recursive: true });

@@ -34,7 +34,11 @@ function safeCallback(value: string | string[] | undefined): string {
   }
 }
 
-export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function SignInPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const params = await searchParams;
   const callbackUrl = safeCallback(params.callbackUrl);
   if (await getPageUser()) redirect(callbackUrl);
@@ -55,9 +59,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
           </p>
           <LoopFigure className="mt-6 hidden w-full max-w-md sm:block" />
         </div>
-        <p className="text-[12px] text-ink-mute">
-          Behavioural simulation supports the bench; it does not replace it.
-        </p>
+        <p className="text-[12px] text-ink-mute">Behavioural simulation supports the bench; it does not replace it.</p>
       </aside>
 
       <main className="flex items-start justify-center px-4 py-8 sm:px-8 lg:items-center">
@@ -67,7 +69,11 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
           <SignInForm
             callbackUrl={callbackUrl}
             initialError={error}
-            demoAccounts={showDemo ? DEMO_ACCOUNTS.map((a) => ({ email: a.email, name: a.name, role: a.role, team: a.team })) : undefined}
+            demoAccounts={
+              showDemo
+                ? DEMO_ACCOUNTS.map((a) => ({ email: a.email, name: a.name, role: a.role, team: a.team }))
+                : undefined
+            }
             demoPassword={showDemo ? DEMO_PASSWORD : undefined}
           />
         </div>

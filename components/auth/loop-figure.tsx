@@ -10,7 +10,12 @@ export function LoopFigure({ className }: { className?: string }) {
   const upper = x(12.5);
   const lower = x(11.4);
   return (
-    <svg viewBox="0 0 320 190" className={className} role="img" aria-label="Hysteresis loop: the output switches high as the input rises past 12.5 V and low again as it falls below 11.4 V">
+    <svg
+      viewBox="0 0 320 190"
+      className={className}
+      role="img"
+      aria-label="Hysteresis loop: the output switches high as the input rises past 12.5 V and low again as it falls below 11.4 V"
+    >
       <g stroke="#d9ddd3" strokeWidth="1">
         {[11, 11.5, 12, 12.5, 13].map((v) => (
           <line key={v} x1={x(v)} y1="28" x2={x(v)} y2="160" />
@@ -42,14 +47,26 @@ export function LoopFigure({ className }: { className?: string }) {
         <path d={`M${x(12) + 6} ${hi - 5} l-10 5 l10 5 z`} />
       </g>
       <g fontFamily="var(--font-jb), monospace" fontSize="10" fill="#3b4556">
-        <text x={lower} y="176" textAnchor="middle">11.4 V</text>
-        <text x={upper} y="176" textAnchor="middle">12.5 V</text>
-        <text x="36" y={hi + 3} textAnchor="end">high</text>
-        <text x="36" y={lo + 3} textAnchor="end">low</text>
+        <text x={lower} y="176" textAnchor="middle">
+          11.4 V
+        </text>
+        <text x={upper} y="176" textAnchor="middle">
+          12.5 V
+        </text>
+        <text x="36" y={hi + 3} textAnchor="end">
+          high
+        </text>
+        <text x="36" y={lo + 3} textAnchor="end">
+          low
+        </text>
       </g>
       <g fontFamily="var(--font-plex), sans-serif" fontSize="10" fill="#6b7587">
-        <text x={(lower + upper) / 2} y="22" textAnchor="middle">deadband</text>
-        <text x="300" y="188" textAnchor="end">input →</text>
+        <text x={(lower + upper) / 2} y="22" textAnchor="middle">
+          deadband
+        </text>
+        <text x="300" y="188" textAnchor="end">
+          input →
+        </text>
       </g>
     </svg>
   );

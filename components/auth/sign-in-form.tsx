@@ -32,7 +32,9 @@ export function SignInForm({ callbackUrl, demoAccounts, demoPassword, initialErr
   const [email, setEmail] = useState("");
   const [password, setPassword] = useState("");
   const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(initialError ? (ERRORS[initialError] ?? "Sign-in failed; try again.") : null);
+  const [error, setError] = useState<string | null>(
+    initialError ? (ERRORS[initialError] ?? "Sign-in failed; try again.") : null,
+  );
 
   async function onSubmit(e: FormEvent) {
     e.preventDefault();

@@ -54,7 +54,14 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
   if (board.error instanceof HttpError && board.error.status === 404) {
     return (
       <Card>
-        <EmptyState title="Board not found" action={<Link className="text-copper hover:underline" href="/boards">Back to boards</Link>}>
+        <EmptyState
+          title="Board not found"
+          action={
+            <Link className="text-copper hover:underline" href="/boards">
+              Back to boards
+            </Link>
+          }
+        >
           It may have been deleted, or it belongs to another team.
         </EmptyState>
       </Card>
@@ -88,11 +95,7 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
         </div>
       )}
 
-      <Card
-        title="Scenarios"
-        description={list.data ? `${scenarios.length} on this board` : undefined}
-        padded={false}
-      >
+      <Card title="Scenarios" description={list.data ? `${scenarios.length} on this board` : undefined} padded={false}>
         {list.error ? (
           <div className="p-4">
             <LoadError message={errorMessage(list.error)} onRetry={() => void list.mutate()} />
@@ -102,7 +105,13 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
         ) : scenarios.length === 0 ? (
           <EmptyState
             title="No scenarios on this board"
-            action={canEdit && <Button variant="primary" onClick={() => setCreating(true)}>New scenario</Button>}
+            action={
+              canEdit && (
+                <Button variant="primary" onClick={() => setCreating(true)}>
+                  New scenario
+                </Button>
+              )
+            }
           >
             A scenario is one stage with its supplies, part profile, input signal and run settings.
           </EmptyState>
@@ -113,7 +122,10 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
               {scenarios.map((s) => (
                 <li key={s.id} className="flex flex-col gap-1.5 px-4 py-3">
                   <div className="flex items-start justify-between gap-3">
-                    <Link href={`/scenarios/${s.id}`} className="font-medium text-ink hover:text-copper-deep hover:underline">
+                    <Link
+                      href={`/scenarios/${s.id}`}
+                      className="font-medium text-ink hover:text-copper-deep hover:underline"
+                    >
                       {s.name}
                     </Link>
                     <span className="shrink-0 font-mono text-[12px] text-ink-mute">v{s.version}</span>
@@ -155,7 +167,10 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
                 {scenarios.map((s) => (
                   <TR key={s.id} className="hover:bg-paper/70">
                     <TD className="min-w-48">
-                      <Link href={`/scenarios/${s.id}`} className="font-medium text-ink hover:text-copper-deep hover:underline">
+                      <Link
+                        href={`/scenarios/${s.id}`}
+                        className="font-medium text-ink hover:text-copper-deep hover:underline"
+                      >
                         {s.name}
                       </Link>
                     </TD>
@@ -218,7 +233,9 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
             onDone={(gone) => {
               setDeleting(null);
               toast.notify(`Deleted “${gone.name}”`);
-              void list.mutate((cur) => (cur ? { items: cur.items.filter((x) => x.id !== gone.id) } : cur), { revalidate: true });
+              void list.mutate((cur) => (cur ? { items: cur.items.filter((x) => x.id !== gone.id) } : cur), {
+                revalidate: true,
+              });
             }}
           />
         </>
@@ -251,7 +268,12 @@ function RowActions({
       <Button size="sm" variant="ghost" onClick={() => onRename(scenario)} aria-label={`Rename ${scenario.name}`}>
         Rename
       </Button>
-      <Button size="sm" variant="quiet-danger" onClick={() => onDelete(scenario)} aria-label={`Delete ${scenario.name}`}>
+      <Button
+        size="sm"
+        variant="quiet-danger"
+        onClick={() => onDelete(scenario)}
+        aria-label={`Delete ${scenario.name}`}
+      >
         Delete
       </Button>
     </>

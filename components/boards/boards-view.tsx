@@ -15,7 +15,7 @@ import { useBoards, type Board } from "@/lib/client/hooks";
 
 export interface BoardsViewProps {
   teamName: string;
-  /** Only the owner creates boards (DESIGN.md roles). */
+  /** Only the owner creates boards (DEVELOPERS.md § Roles). */
   canCreate: boolean;
 }
 
@@ -48,7 +48,13 @@ export function BoardsView({ teamName, canCreate }: BoardsViewProps) {
         <div className="rounded-lg border border-paper-line bg-paper-card">
           <EmptyState
             title="No boards yet"
-            action={canCreate && <Button variant="primary" onClick={() => setCreating(true)}>New board</Button>}
+            action={
+              canCreate && (
+                <Button variant="primary" onClick={() => setCreating(true)}>
+                  New board
+                </Button>
+              )
+            }
           >
             {canCreate ? "Create a board for the product you are designing." : "Your team owner creates boards."}
           </EmptyState>
@@ -91,7 +97,8 @@ function BoardTile({ board }: { board: Board }) {
       <span className="mt-auto flex gap-4 pt-3 text-[12px] text-ink-mute">
         {board.scenarioCount !== undefined && (
           <span>
-            <span className="font-mono text-ink-soft">{board.scenarioCount}</span> scenario{board.scenarioCount === 1 ? "" : "s"}
+            <span className="font-mono text-ink-soft">{board.scenarioCount}</span> scenario
+            {board.scenarioCount === 1 ? "" : "s"}
           </span>
         )}
         {board.updatedAt && <span>updated {formatRelative(board.updatedAt)}</span>}
@@ -129,7 +136,13 @@ function NewBoardDialog({ open, onClose, onCreated }: { open: boolean; onClose: 
         <TextInput id="board-name" value={name} onChange={(e) => setName(e.target.value)} maxLength={120} autoFocus />
       </Field>
       <Field label="Description" htmlFor="board-description" hint="Optional: what the board does and where it goes.">
-        <TextArea id="board-description" value={description} onChange={(e) => setDescription(e.target.value)} maxLength={2000} rows={3} />
+        <TextArea
+          id="board-description"
+          value={description}
+          onChange={(e) => setDescription(e.target.value)}
+          maxLength={2000}
+          rows={3}
+        />
       </Field>
     </FormDialog>
   );

@@ -66,7 +66,11 @@ export function NewScenarioDialog({ open, boardId, existing, onClose, onCreated 
           autoFocus
         />
       </Field>
-      <Field label="Start from" htmlFor="scenario-source" hint="A blank stage starts with custom values for the op-amp (1 MHz, 1 V/µs, output 50 mV from each rail), not a library part; choose one in the Stage panel.">
+      <Field
+        label="Start from"
+        htmlFor="scenario-source"
+        hint="A blank stage starts with custom values for the op-amp (1 MHz, 1 V/µs, output 50 mV from each rail), not a library part; choose one in the Stage panel."
+      >
         <Select id="scenario-source" value={source} onChange={(e) => setSource(e.target.value)}>
           <optgroup label="Blank stage">
             {STAGE_KINDS.map((k) => (
@@ -117,7 +121,15 @@ export function RenameScenarioDialog({ target, onClose, onDone }: ScenarioTarget
   }
 
   return (
-    <FormDialog open={target !== null} onClose={onClose} size="sm" title="Rename scenario" submitLabel="Rename" busyLabel="Saving…" onSubmit={rename}>
+    <FormDialog
+      open={target !== null}
+      onClose={onClose}
+      size="sm"
+      title="Rename scenario"
+      submitLabel="Rename"
+      busyLabel="Saving…"
+      onSubmit={rename}
+    >
       <Field label="Name" htmlFor="rename-name">
         <TextInput id="rename-name" value={name} onChange={(e) => setName(e.target.value)} maxLength={120} autoFocus />
       </Field>
@@ -145,8 +157,8 @@ export function DeleteScenarioDialog({ target, onClose, onDone }: ScenarioTarget
       onSubmit={remove}
     >
       <p className="text-[14px]">
-        <span className="font-medium">{target?.name}</span> will be removed with its version history and saved runs. This cannot be
-        undone.
+        <span className="font-medium">{target?.name}</span> will be removed with its version history and saved runs.
+        This cannot be undone.
       </p>
     </FormDialog>
   );

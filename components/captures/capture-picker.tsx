@@ -16,7 +16,13 @@ export interface CaptureComponent {
  * Choose one of the team's captures as a `capture` input component (railwise.scenario/1).
  * The Signal builder mounts this and adds the component it hands back.
  */
-export function CapturePicker({ onPick, disabled }: { onPick: (component: CaptureComponent, capture: CaptureRecord) => void; disabled?: boolean }) {
+export function CapturePicker({
+  onPick,
+  disabled,
+}: {
+  onPick: (component: CaptureComponent, capture: CaptureRecord) => void;
+  disabled?: boolean;
+}) {
   const { data, error } = useCaptures();
   const [id, setId] = useState("");
   const [busy, setBusy] = useState(false);
@@ -52,7 +58,13 @@ export function CapturePicker({ onPick, disabled }: { onPick: (component: Captur
   return (
     <div className="flex flex-col gap-1.5">
       <div className="flex items-center gap-2">
-        <Select aria-label="Capture" className="h-8! min-w-0 flex-1 py-0 text-[13px]" value={id} onChange={(e) => setId(e.target.value)} disabled={disabled}>
+        <Select
+          aria-label="Capture"
+          className="h-8! min-w-0 flex-1 py-0 text-[13px]"
+          value={id}
+          onChange={(e) => setId(e.target.value)}
+          disabled={disabled}
+        >
           <option value="">Choose a capture…</option>
           {items.map((c) => (
             <option key={c.id} value={c.id}>

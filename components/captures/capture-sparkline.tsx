@@ -4,7 +4,17 @@ import { formatQuantity } from "@/lib/design/notation";
  * A quick look at a measured waveform: min/max per pixel column (so spikes survive the
  * thinning), drawn as one SVG path in the input colour. Not the Trace plot; just a preview.
  */
-export function CaptureSparkline({ samples, width = 560, height = 120, label }: { samples: [number, number][]; width?: number; height?: number; label?: string }) {
+export function CaptureSparkline({
+  samples,
+  width = 560,
+  height = 120,
+  label,
+}: {
+  samples: [number, number][];
+  width?: number;
+  height?: number;
+  label?: string;
+}) {
   if (samples.length < 2) return null;
   const t0 = samples[0][0];
   const t1 = samples[samples.length - 1][0];
@@ -42,7 +52,15 @@ export function CaptureSparkline({ samples, width = 560, height = 120, label }: 
         role="img"
         aria-label={label ?? "Capture preview"}
       >
-        <line x1={pad} x2={width - pad} y1={y(0)} y2={y(0)} stroke="#d9ddd3" strokeDasharray="3 3" strokeWidth={vMin <= 0 && vMax >= 0 ? 1 : 0} />
+        <line
+          x1={pad}
+          x2={width - pad}
+          y1={y(0)}
+          y2={y(0)}
+          stroke="#d9ddd3"
+          strokeDasharray="3 3"
+          strokeWidth={vMin <= 0 && vMax >= 0 ? 1 : 0}
+        />
         <path d={d} fill="none" stroke="#3b4fa8" strokeWidth={1.2} vectorEffect="non-scaling-stroke" />
         <line x1={x(t0)} x2={x(t1)} y1={height - 1} y2={height - 1} stroke="#d9ddd3" />
       </svg>

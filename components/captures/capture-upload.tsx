@@ -5,7 +5,15 @@ import { Button } from "@/components/ui/button";
 import { Field, Select, TextInput } from "@/components/ui/field";
 import { Table, TBody, TD, TH, THead, TR } from "@/components/ui/table";
 import { HttpError, errorMessage } from "@/lib/client/fetcher";
-import { CAPTURE_MAX_BYTES, CaptureError, delimiterName, inspectCsv, parseCapture, TIME_UNIT_SCALE, type TimeUnit } from "@/lib/captures/parse";
+import {
+  CAPTURE_MAX_BYTES,
+  CaptureError,
+  delimiterName,
+  inspectCsv,
+  parseCapture,
+  TIME_UNIT_SCALE,
+  type TimeUnit,
+} from "@/lib/captures/parse";
 import { CaptureSparkline } from "./capture-sparkline";
 
 interface Loaded {
@@ -19,7 +27,12 @@ interface Loaded {
   decimalComma: boolean;
 }
 
-const UNIT_LABEL: Record<TimeUnit, string> = { s: "seconds", ms: "milliseconds", us: "microseconds", ns: "nanoseconds" };
+const UNIT_LABEL: Record<TimeUnit, string> = {
+  s: "seconds",
+  ms: "milliseconds",
+  us: "microseconds",
+  ns: "nanoseconds",
+};
 
 /** Guess the time unit from a header such as "t_ms" or "time (us)"; seconds otherwise. */
 function unitFromHeader(name: string): TimeUnit {
@@ -50,7 +63,9 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
     setDone(null);
     if (!file) return;
     if (file.size > CAPTURE_MAX_BYTES) {
-      setFileProblem(`The file is ${(file.size / (1024 * 1024)).toFixed(1)} MB; at most ${CAPTURE_MAX_BYTES / (1024 * 1024)} MB are accepted.`);
+      setFileProblem(
+        `The file is ${(file.size / (1024 * 1024)).toFixed(1)} MB; at most ${CAPTURE_MAX_BYTES / (1024 * 1024)} MB are accepted.`,
+      );
       return;
     }
     const text = await file.text();
@@ -69,7 +84,10 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
   const parsed = useMemo(() => {
     if (!loaded) return null;
     try {
-      return { ok: true as const, capture: parseCapture(loaded.text, { timeColumn, voltsColumn, timeUnit, hasHeader: loaded.hasHeader }) };
+      return {
+        ok: true as const,
+        capture: parseCapture(loaded.text, { timeColumn, voltsColumn, timeUnit, hasHeader: loaded.hasHeader }),
+      };
     } catch (err) {
       return { ok: false as const, message: err instanceof Error ? err.message : String(err) };
     }
@@ -104,7 +122,12 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
 
   return (
     <form onSubmit={submit} className="flex flex-col gap-3" aria-label="Upload a capture">
-      <Field label="CSV file" htmlFor="capture-file" hint="Columns of numbers, one row per sample; time strictly increasing. Up to 5 MB and 200,000 rows." error={fileProblem}>
+      <Field
+        label="CSV file"
+        htmlFor="capture-file"
+        hint="Columns of numbers, one row per sample; time strictly increasing. Up to 5 MB and 200,000 rows."
+        error={fileProblem}
+      >
         <input
           id="capture-file"
           type="file"
@@ -154,7 +177,11 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
               <THead>
                 <TR>
                   {loaded.columns.map((c, i) => (
-                    <TH key={i} numeric className={i === timeColumn ? "text-indigo" : i === voltsColumn ? "text-copper" : undefined}>
+                    <TH
+                      key={i}
+                      numeric
+                      className={i === timeColumn ? "text-indigo" : i === voltsColumn ? "text-copper" : undefined}
+                    >
                       {c}
                     </TH>
                   ))}
@@ -164,7 +191,11 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
                 {loaded.preview.map((row, r) => (
                   <TR key={r}>
                     {loaded.columns.map((_, i) => (
-                      <TD key={i} numeric className={i === timeColumn || i === voltsColumn ? "text-ink" : "text-ink-faint"}>
+                      <TD
+                        key={i}
+                        numeric
+                        className={i === timeColumn || i === voltsColumn ? "text-ink" : "text-ink-faint"}
+                      >
                         {row[i] ?? ""}
                       </TD>
                     ))}
@@ -173,9 +204,11 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
               </TBody>
             </Table>
             <p className="border-t border-paper-line px-3 py-1.5 text-[12px] text-ink-mute">
-              First {loaded.preview.length} of {loaded.rows.toLocaleString("en")} data rows{loaded.hasHeader ? " (header row detected)" : " (no header row)"}.{" "}
+              First {loaded.preview.length} of {loaded.rows.toLocaleString("en")} data rows
+              {loaded.hasHeader ? " (header row detected)" : " (no header row)"}.{" "}
               <span data-testid="capture-detected">
-                Detected: {delimiterName(loaded.delimiter)}-separated{loaded.decimalComma ? ", decimal commas (1,5 = 1.5)" : ""}.
+                Detected: {delimiterName(loaded.delimiter)}-separated
+                {loaded.decimalComma ? ", decimal commas (1,5 = 1.5)" : ""}.
               </span>
             </p>
           </div>
@@ -183,7 +216,10 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
           {parsed?.ok ? (
             <CaptureSparkline samples={parsed.capture.samples} label={`Preview of ${name}`} />
           ) : (
-            <p role="alert" className="rounded-md border border-alert/30 bg-alert-soft px-3 py-2 text-[13px] text-alert">
+            <p
+              role="alert"
+              className="rounded-md border border-alert/30 bg-alert-soft px-3 py-2 text-[13px] text-alert"
+            >
               {parsed?.message}
             </p>
           )}

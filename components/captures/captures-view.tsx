@@ -58,7 +58,9 @@ export function CapturesView({ canEdit }: { canEdit: boolean }) {
         ) : isLoading ? (
           <LoadingRows />
         ) : items.length === 0 ? (
-          <EmptyState title="No captures yet">{canEdit ? "Upload a CSV above." : "Designers upload them from the bench."}</EmptyState>
+          <EmptyState title="No captures yet">
+            {canEdit ? "Upload a CSV above." : "Designers upload them from the bench."}
+          </EmptyState>
         ) : (
           <Table aria-label="Captures">
             <THead>
@@ -77,7 +79,9 @@ export function CapturesView({ canEdit }: { canEdit: boolean }) {
                 <TR key={c.id}>
                   <TD className="font-medium">
                     {c.name}
-                    {c.sourceFilename && <div className="text-[12px] font-normal text-ink-faint">{c.sourceFilename}</div>}
+                    {c.sourceFilename && (
+                      <div className="text-[12px] font-normal text-ink-faint">{c.sourceFilename}</div>
+                    )}
                   </TD>
                   <TD className="font-mono text-[12px] text-ink-soft">
                     {c.columns.time}, {c.columns.value}
@@ -110,7 +114,11 @@ export function CapturesView({ canEdit }: { canEdit: boolean }) {
                 <p className="mb-2 text-[13px] font-medium text-ink">{open.data.name}</p>
                 <CaptureSparkline samples={open.data.samples} label={`Capture ${open.data.name}`} />
               </>
-            ) : open.error ? <LoadError message={errorMessage(open.error)} /> : <LoadingRows rows={2} />}
+            ) : open.error ? (
+              <LoadError message={errorMessage(open.error)} />
+            ) : (
+              <LoadingRows rows={2} />
+            )}
           </div>
         )}
       </Card>

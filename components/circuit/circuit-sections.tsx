@@ -18,10 +18,27 @@ export function syncReferenceDivider(d: Scenario): void {
   if (!div) return;
   const th = referenceDividerThevenin(div, d.supply);
   d.stage.reference = th.voltage;
-  if (d.stage.kind === "schmitt-inverting" || d.stage.kind === "relaxation-oscillator") d.stage.rReference = th.resistance;
+  if (d.stage.kind === "schmitt-inverting" || d.stage.kind === "relaxation-oscillator")
+    d.stage.rReference = th.resistance;
 }
 
-function TextRow({ label, name, value, disabled, onCommit, placeholder, maxLength }: { label: string; name: string; value: string; disabled?: boolean; onCommit: (v: string) => void; placeholder?: string; maxLength: number }) {
+function TextRow({
+  label,
+  name,
+  value,
+  disabled,
+  onCommit,
+  placeholder,
+  maxLength,
+}: {
+  label: string;
+  name: string;
+  value: string;
+  disabled?: boolean;
+  onCommit: (v: string) => void;
+  placeholder?: string;
+  maxLength: number;
+}) {
   return (
     <label className="grid grid-cols-[7.5rem_minmax(0,1fr)] items-center gap-x-2 py-0.5">
       <span className="truncate text-[13px] text-ink-soft">{label}</span>
@@ -68,13 +85,46 @@ export function ReferenceSection({ readOnly = false }: { readOnly?: boolean }) {
       </SelectRow>
       {div ? (
         <>
-          <QuantityField name="stage.referenceDivider.rTop" label="Divider top" hint="positive supply to the reference node" unit="Ω" value={div.rTop} validate={ohmsRule} disabled={readOnly}
-            onCommit={(v) => edit((d) => { if (d.stage.referenceDivider) { d.stage.referenceDivider.rTop = v; syncReferenceDivider(d); } })} />
-          <QuantityField name="stage.referenceDivider.rBottom" label="Divider bottom" hint="reference node to 0 V" unit="Ω" value={div.rBottom} validate={ohmsRule} disabled={readOnly}
-            onCommit={(v) => edit((d) => { if (d.stage.referenceDivider) { d.stage.referenceDivider.rBottom = v; syncReferenceDivider(d); } })} />
+          <QuantityField
+            name="stage.referenceDivider.rTop"
+            label="Divider top"
+            hint="positive supply to the reference node"
+            unit="Ω"
+            value={div.rTop}
+            validate={ohmsRule}
+            disabled={readOnly}
+            onCommit={(v) =>
+              edit((d) => {
+                if (d.stage.referenceDivider) {
+                  d.stage.referenceDivider.rTop = v;
+                  syncReferenceDivider(d);
+                }
+              })
+            }
+          />
+          <QuantityField
+            name="stage.referenceDivider.rBottom"
+            label="Divider bottom"
+            hint="reference node to 0 V"
+            unit="Ω"
+            value={div.rBottom}
+            validate={ohmsRule}
+            disabled={readOnly}
+            onCommit={(v) =>
+              edit((d) => {
+                if (d.stage.referenceDivider) {
+                  d.stage.referenceDivider.rBottom = v;
+                  syncReferenceDivider(d);
+                }
+              })
+            }
+          />
           <Note>
-            The reference node sits at {referenceDividerThevenin(div, supply).voltage.toFixed(4)} V and follows the supply.
-            {stage.kind === "schmitt-inverting" || stage.kind === "relaxation-oscillator" ? " Both resistors meet v+ with the feedback resistor (no separate reference resistor)." : ""}
+            The reference node sits at {referenceDividerThevenin(div, supply).voltage.toFixed(4)} V and follows the
+            supply.
+            {stage.kind === "schmitt-inverting" || stage.kind === "relaxation-oscillator"
+              ? " Both resistors meet v+ with the feedback resistor (no separate reference resistor)."
+              : ""}
           </Note>
         </>
       ) : null}
@@ -101,9 +151,24 @@ export function CircuitSections({ readOnly = false }: { readOnly?: boolean }) {
             edit((d) => {
               const k = e.target.value;
               if (k === "none") delete d.source;
-              else if (k === "divider") d.source = { ...(d.source ?? {}), unit: undefined, sensor: { kind: "divider", rTop: 68e3, rBottom: 18e3 } };
-              else if (k === "ntc") d.source = { ...(d.source ?? {}), unit: undefined, sensor: { kind: "ntc", model: { beta: 3977, r25: 10e3 }, rFixed: 10e3, position: "bottom" } };
-              else d.source = { ...(d.source ?? {}), unit: undefined, sensor: { kind: "linear", voltsPerUnit: 0.01, offset: 0, unit: "unit" } };
+              else if (k === "divider")
+                d.source = {
+                  ...(d.source ?? {}),
+                  unit: undefined,
+                  sensor: { kind: "divider", rTop: 68e3, rBottom: 18e3 },
+                };
+              else if (k === "ntc")
+                d.source = {
+                  ...(d.source ?? {}),
+                  unit: undefined,
+                  sensor: { kind: "ntc", model: { beta: 3977, r25: 10e3 }, rFixed: 10e3, position: "bottom" },
+                };
+              else
+                d.source = {
+                  ...(d.source ?? {}),
+                  unit: undefined,
+                  sensor: { kind: "linear", voltsPerUnit: 0.01, offset: 0, unit: "unit" },
+                };
             })
           }
         >
@@ -114,32 +179,113 @@ export function CircuitSections({ readOnly = false }: { readOnly?: boolean }) {
         </SelectRow>
         {source && sensor ? (
           <>
-            <TextRow label="Quantity" name="source.quantity" value={source.quantity ?? ""} placeholder="e.g. battery" maxLength={60} disabled={readOnly}
-              onCommit={(v) => edit((d) => { if (d.source) d.source.quantity = v || undefined; })} />
+            <TextRow
+              label="Quantity"
+              name="source.quantity"
+              value={source.quantity ?? ""}
+              placeholder="e.g. battery"
+              maxLength={60}
+              disabled={readOnly}
+              onCommit={(v) =>
+                edit((d) => {
+                  if (d.source) d.source.quantity = v || undefined;
+                })
+              }
+            />
             {sensor.kind === "divider" ? (
               <>
-                <QuantityField name="source.sensor.rTop" label="Divider top" hint="source to the stage input" unit="Ω" value={sensor.rTop} validate={ohmsRule} disabled={readOnly}
-                  onCommit={(v) => edit((d) => { if (d.source?.sensor.kind === "divider") d.source.sensor.rTop = v; })} />
-                <QuantityField name="source.sensor.rBottom" label="Divider bottom" hint="stage input to 0 V" unit="Ω" value={sensor.rBottom} validate={ohmsRule} disabled={readOnly}
-                  onCommit={(v) => edit((d) => { if (d.source?.sensor.kind === "divider") d.source.sensor.rBottom = v; })} />
+                <QuantityField
+                  name="source.sensor.rTop"
+                  label="Divider top"
+                  hint="source to the stage input"
+                  unit="Ω"
+                  value={sensor.rTop}
+                  validate={ohmsRule}
+                  disabled={readOnly}
+                  onCommit={(v) =>
+                    edit((d) => {
+                      if (d.source?.sensor.kind === "divider") d.source.sensor.rTop = v;
+                    })
+                  }
+                />
+                <QuantityField
+                  name="source.sensor.rBottom"
+                  label="Divider bottom"
+                  hint="stage input to 0 V"
+                  unit="Ω"
+                  value={sensor.rBottom}
+                  validate={ohmsRule}
+                  disabled={readOnly}
+                  onCommit={(v) =>
+                    edit((d) => {
+                      if (d.source?.sensor.kind === "divider") d.source.sensor.rBottom = v;
+                    })
+                  }
+                />
               </>
             ) : null}
             {sensor.kind === "ntc" ? (
               <>
                 {"beta" in sensor.model ? (
                   <>
-                    <QuantityField name="source.sensor.model.r25" label="NTC at 25 °C" unit="Ω" value={sensor.model.r25} validate={positiveRule} disabled={readOnly}
-                      onCommit={(v) => edit((d) => { if (d.source?.sensor.kind === "ntc" && "beta" in d.source.sensor.model) d.source.sensor.model.r25 = v; })} />
-                    <QuantityField name="source.sensor.model.beta" label="NTC Beta" unit="K" plain value={sensor.model.beta} validate={positiveRule} disabled={readOnly}
-                      onCommit={(v) => edit((d) => { if (d.source?.sensor.kind === "ntc" && "beta" in d.source.sensor.model) d.source.sensor.model.beta = v; })} />
+                    <QuantityField
+                      name="source.sensor.model.r25"
+                      label="NTC at 25 °C"
+                      unit="Ω"
+                      value={sensor.model.r25}
+                      validate={positiveRule}
+                      disabled={readOnly}
+                      onCommit={(v) =>
+                        edit((d) => {
+                          if (d.source?.sensor.kind === "ntc" && "beta" in d.source.sensor.model)
+                            d.source.sensor.model.r25 = v;
+                        })
+                      }
+                    />
+                    <QuantityField
+                      name="source.sensor.model.beta"
+                      label="NTC Beta"
+                      unit="K"
+                      plain
+                      value={sensor.model.beta}
+                      validate={positiveRule}
+                      disabled={readOnly}
+                      onCommit={(v) =>
+                        edit((d) => {
+                          if (d.source?.sensor.kind === "ntc" && "beta" in d.source.sensor.model)
+                            d.source.sensor.model.beta = v;
+                        })
+                      }
+                    />
                   </>
                 ) : (
                   <Note>NTC curve given by coefficients or points (edit it in the scenario JSON).</Note>
                 )}
-                <QuantityField name="source.sensor.rFixed" label="Fixed resistor" unit="Ω" value={sensor.rFixed} validate={ohmsRule} disabled={readOnly}
-                  onCommit={(v) => edit((d) => { if (d.source?.sensor.kind === "ntc") d.source.sensor.rFixed = v; })} />
-                <SelectRow label="NTC sits" name="source.sensor.position" value={sensor.position} disabled={readOnly}
-                  onChange={(e) => edit((d) => { if (d.source?.sensor.kind === "ntc") d.source.sensor.position = e.target.value as "top" | "bottom"; })}>
+                <QuantityField
+                  name="source.sensor.rFixed"
+                  label="Fixed resistor"
+                  unit="Ω"
+                  value={sensor.rFixed}
+                  validate={ohmsRule}
+                  disabled={readOnly}
+                  onCommit={(v) =>
+                    edit((d) => {
+                      if (d.source?.sensor.kind === "ntc") d.source.sensor.rFixed = v;
+                    })
+                  }
+                />
+                <SelectRow
+                  label="NTC sits"
+                  name="source.sensor.position"
+                  value={sensor.position}
+                  disabled={readOnly}
+                  onChange={(e) =>
+                    edit((d) => {
+                      if (d.source?.sensor.kind === "ntc")
+                        d.source.sensor.position = e.target.value as "top" | "bottom";
+                    })
+                  }
+                >
                   <option value="bottom">at the bottom (input falls as it warms)</option>
                   <option value="top">at the top (input rises as it warms)</option>
                 </SelectRow>
@@ -147,46 +293,148 @@ export function CircuitSections({ readOnly = false }: { readOnly?: boolean }) {
             ) : null}
             {sensor.kind === "linear" ? (
               <>
-                <QuantityField name="source.sensor.voltsPerUnit" label="Volts per unit" unit="V" value={sensor.voltsPerUnit} validate={(v) => (v !== 0 ? null : "must not be 0")} disabled={readOnly}
-                  onCommit={(v) => edit((d) => { if (d.source?.sensor.kind === "linear") d.source.sensor.voltsPerUnit = v; })} />
-                <QuantityField name="source.sensor.offset" label="Offset" unit="V" value={sensor.offset} disabled={readOnly}
-                  onCommit={(v) => edit((d) => { if (d.source?.sensor.kind === "linear") d.source.sensor.offset = v; })} />
+                <QuantityField
+                  name="source.sensor.voltsPerUnit"
+                  label="Volts per unit"
+                  unit="V"
+                  value={sensor.voltsPerUnit}
+                  validate={(v) => (v !== 0 ? null : "must not be 0")}
+                  disabled={readOnly}
+                  onCommit={(v) =>
+                    edit((d) => {
+                      if (d.source?.sensor.kind === "linear") d.source.sensor.voltsPerUnit = v;
+                    })
+                  }
+                />
+                <QuantityField
+                  name="source.sensor.offset"
+                  label="Offset"
+                  unit="V"
+                  value={sensor.offset}
+                  disabled={readOnly}
+                  onCommit={(v) =>
+                    edit((d) => {
+                      if (d.source?.sensor.kind === "linear") d.source.sensor.offset = v;
+                    })
+                  }
+                />
               </>
             ) : null}
-            <TextRow label="Unit" name="source.unit" value={source.unit ?? ""} placeholder={sensor.kind === "divider" ? "V" : sensor.kind === "ntc" ? "°C" : (sensor.unit ?? "unit")} maxLength={20} disabled={readOnly}
-              onCommit={(v) => edit((d) => { if (d.source) d.source.unit = v || undefined; })} />
+            <TextRow
+              label="Unit"
+              name="source.unit"
+              value={source.unit ?? ""}
+              placeholder={sensor.kind === "divider" ? "V" : sensor.kind === "ntc" ? "°C" : (sensor.unit ?? "unit")}
+              maxLength={20}
+              disabled={readOnly}
+              onCommit={(v) =>
+                edit((d) => {
+                  if (d.source) d.source.unit = v || undefined;
+                })
+              }
+            />
             <Note>The input waveforms are in this unit; noise stays in volts at the stage input.</Note>
           </>
         ) : null}
       </Section>
       <Section title="Filter and output">
         {kind !== "relaxation-oscillator" ? (
-          <SelectRow label="RC filter" name="filter" value={filter ? "on" : "off"} disabled={readOnly}
-            onChange={(e) => edit((d) => { if (e.target.value === "on") d.filter = { r: 10e3, c: 1e-6 }; else delete d.filter; })}>
+          <SelectRow
+            label="RC filter"
+            name="filter"
+            value={filter ? "on" : "off"}
+            disabled={readOnly}
+            onChange={(e) =>
+              edit((d) => {
+                if (e.target.value === "on") d.filter = { r: 10e3, c: 1e-6 };
+                else delete d.filter;
+              })
+            }
+          >
             <option value="off">none</option>
             <option value="on">low-pass before the stage input</option>
           </SelectRow>
         ) : null}
         {filter ? (
           <>
-            <QuantityField name="filter.r" label="Filter resistor" unit="Ω" value={filter.r} validate={ohmsRule} disabled={readOnly} onCommit={(v) => edit((d) => { if (d.filter) d.filter.r = v; })} />
-            <QuantityField name="filter.c" label="Filter capacitor" hint="stage input to 0 V" unit="F" value={filter.c} validate={(v) => (v > 0 && v <= 1 ? null : "between 0 and 1 F")} disabled={readOnly}
-              onCommit={(v) => edit((d) => { if (d.filter) d.filter.c = v; })} />
+            <QuantityField
+              name="filter.r"
+              label="Filter resistor"
+              unit="Ω"
+              value={filter.r}
+              validate={ohmsRule}
+              disabled={readOnly}
+              onCommit={(v) =>
+                edit((d) => {
+                  if (d.filter) d.filter.r = v;
+                })
+              }
+            />
+            <QuantityField
+              name="filter.c"
+              label="Filter capacitor"
+              hint="stage input to 0 V"
+              unit="F"
+              value={filter.c}
+              validate={(v) => (v > 0 && v <= 1 ? null : "between 0 and 1 F")}
+              disabled={readOnly}
+              onCommit={(v) =>
+                edit((d) => {
+                  if (d.filter) d.filter.c = v;
+                })
+              }
+            />
             <Note>Time constant {(filter.r * filter.c).toPrecision(3)} s (plus the source resistance).</Note>
           </>
         ) : null}
-        <SelectRow label="Output" name="output.kind" value={output?.kind ?? "push-pull"} disabled={readOnly}
-          onChange={(e) => edit((d) => { if (e.target.value === "open-drain") d.output = { kind: "open-drain", pullUp: 10e3 }; else delete d.output; })}>
+        <SelectRow
+          label="Output"
+          name="output.kind"
+          value={output?.kind ?? "push-pull"}
+          disabled={readOnly}
+          onChange={(e) =>
+            edit((d) => {
+              if (e.target.value === "open-drain") d.output = { kind: "open-drain", pullUp: 10e3 };
+              else delete d.output;
+            })
+          }
+        >
           <option value="push-pull">push-pull (drives both ways)</option>
           <option value="open-drain">open drain with a pull-up</option>
         </SelectRow>
         {output?.kind === "open-drain" ? (
           <>
-            <QuantityField name="output.pullUp" label="Pull-up" unit="Ω" value={output.pullUp} validate={ohmsRule} disabled={readOnly}
-              onCommit={(v) => edit((d) => { if (d.output?.kind === "open-drain") d.output.pullUp = v; })} />
-            <QuantityField name="output.pullUpTo" label="Pull-up to" unit="V" placeholder="positive supply" value={typeof output.pullUpTo === "number" ? output.pullUpTo : undefined} disabled={readOnly}
-              onClear={() => edit((d) => { if (d.output?.kind === "open-drain") delete d.output.pullUpTo; })}
-              onCommit={(v) => edit((d) => { if (d.output?.kind === "open-drain") d.output.pullUpTo = v; })} />
+            <QuantityField
+              name="output.pullUp"
+              label="Pull-up"
+              unit="Ω"
+              value={output.pullUp}
+              validate={ohmsRule}
+              disabled={readOnly}
+              onCommit={(v) =>
+                edit((d) => {
+                  if (d.output?.kind === "open-drain") d.output.pullUp = v;
+                })
+              }
+            />
+            <QuantityField
+              name="output.pullUpTo"
+              label="Pull-up to"
+              unit="V"
+              placeholder="positive supply"
+              value={typeof output.pullUpTo === "number" ? output.pullUpTo : undefined}
+              disabled={readOnly}
+              onClear={() =>
+                edit((d) => {
+                  if (d.output?.kind === "open-drain") delete d.output.pullUpTo;
+                })
+              }
+              onCommit={(v) =>
+                edit((d) => {
+                  if (d.output?.kind === "open-drain") d.output.pullUpTo = v;
+                })
+              }
+            />
           </>
         ) : null}
       </Section>

@@ -8,9 +8,23 @@ import { billOfMaterials, bomToCsv } from "@/lib/design/bom";
 import { formatQuantity } from "@/lib/design/notation";
 import type { Scenario } from "@/lib/schemas/scenario";
 
-const GROUP_LABEL = { source: "source", filter: "filter", stage: "stage", reference: "reference", output: "output" } as const;
+const GROUP_LABEL = {
+  source: "source",
+  filter: "filter",
+  stage: "stage",
+  reference: "reference",
+  output: "output",
+} as const;
 
-export function PartsList({ scenario, fileName = "parts.csv", showDownload = true }: { scenario: Scenario; fileName?: string; showDownload?: boolean }) {
+export function PartsList({
+  scenario,
+  fileName = "parts.csv",
+  showDownload = true,
+}: {
+  scenario: Scenario;
+  fileName?: string;
+  showDownload?: boolean;
+}) {
   const bom = useMemo(() => billOfMaterials(scenario), [scenario]);
   const href = useMemo(() => `data:text/csv;charset=utf-8,${encodeURIComponent(bomToCsv(bom))}`, [bom]);
   return (
@@ -18,7 +32,12 @@ export function PartsList({ scenario, fileName = "parts.csv", showDownload = tru
       <div className="mb-1 flex items-baseline justify-between gap-2">
         <h2 className="text-[13px] font-semibold uppercase tracking-wide text-ink-soft">Parts list</h2>
         {showDownload ? (
-          <a className="rw-no-print text-[12px] text-copper-deep hover:underline" href={href} download={fileName} data-testid="parts-csv">
+          <a
+            className="rw-no-print text-[12px] text-copper-deep hover:underline"
+            href={href}
+            download={fileName}
+            data-testid="parts-csv"
+          >
             Download CSV
           </a>
         ) : null}

@@ -40,7 +40,10 @@ export function AppHeader({ user }: { user: HeaderUser }) {
             {user.name ?? user.email}
           </span>
           <RoleBadge role={user.role} />
-          <Link href="/signout" className="rounded-md px-2 py-1 text-[13px] whitespace-nowrap text-ink-mute hover:bg-paper-sunk hover:text-ink">
+          <Link
+            href="/signout"
+            className="rounded-md px-2 py-1 text-[13px] whitespace-nowrap text-ink-mute hover:bg-paper-sunk hover:text-ink"
+          >
             Sign out
           </Link>
         </div>

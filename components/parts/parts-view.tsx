@@ -137,7 +137,9 @@ export function PartsView({ canEdit }: { canEdit: boolean }) {
         ) : isLoading ? (
           <LoadingRows />
         ) : items.length === 0 ? (
-          <EmptyState title="No part profiles yet">{canEdit ? "Add one or import a CSV." : "Designers add them."}</EmptyState>
+          <EmptyState title="No part profiles yet">
+            {canEdit ? "Add one or import a CSV." : "Designers add them."}
+          </EmptyState>
         ) : (
           <Table aria-label="Part profiles">
             <THead>
@@ -160,10 +162,13 @@ export function PartsView({ canEdit }: { canEdit: boolean }) {
                   <TD numeric>{show("gainBandwidth", p.opamp.gainBandwidth)}</TD>
                   <TD numeric>
                     {show("slewRate", p.opamp.slewRate)}
-                    {p.opamp.slewRateFall !== undefined && <span className="text-ink-mute"> / {show("slewRateFall", p.opamp.slewRateFall)}</span>}
+                    {p.opamp.slewRateFall !== undefined && (
+                      <span className="text-ink-mute"> / {show("slewRateFall", p.opamp.slewRateFall)}</span>
+                    )}
                   </TD>
                   <TD numeric>
-                    {show("outputHeadroomHigh", p.opamp.outputHeadroomHigh)} / {show("outputHeadroomLow", p.opamp.outputHeadroomLow)}
+                    {show("outputHeadroomHigh", p.opamp.outputHeadroomHigh)} /{" "}
+                    {show("outputHeadroomLow", p.opamp.outputHeadroomLow)}
                   </TD>
                   <TD numeric>{show("inputOffset", p.opamp.inputOffset)}</TD>
                   <TD numeric>{show("propagationDelay", p.opamp.propagationDelay)}</TD>
@@ -206,7 +211,15 @@ export function PartsView({ canEdit }: { canEdit: boolean }) {
   );
 }
 
-function PartDialog({ part, onClose, onSaved }: { part?: PartProfileRecord; onClose: () => void; onSaved: () => Promise<void> }) {
+function PartDialog({
+  part,
+  onClose,
+  onSaved,
+}: {
+  part?: PartProfileRecord;
+  onClose: () => void;
+  onSaved: () => Promise<void>;
+}) {
   const [draft, setDraft] = useState<Draft>(() => draftOf(part));
   const [errors, setErrors] = useState<Partial<Record<keyof Draft, string>>>({});
   const [problem, setProblem] = useState<string | null>(null);
@@ -246,10 +259,21 @@ function PartDialog({ part, onClose, onSaved }: { part?: PartProfileRecord; onCl
     >
       <form id={formId} onSubmit={submit} className="grid gap-3 sm:grid-cols-2">
         <Field label="Name" htmlFor="part-name" error={errors.name} className="sm:col-span-2">
-          <TextInput id="part-name" value={draft.name} maxLength={80} onChange={(e) => setDraft({ ...draft, name: e.target.value })} aria-invalid={!!errors.name} />
+          <TextInput
+            id="part-name"
+            value={draft.name}
+            maxLength={80}
+            onChange={(e) => setDraft({ ...draft, name: e.target.value })}
+            aria-invalid={!!errors.name}
+          />
         </Field>
         {OPAMP_PARAMS.map((k) => (
-          <Field key={k} label={`${OPAMP_PARAM_INFO[k].label} (${uiUnit(k)})${OPAMP_PARAM_INFO[k].optional ? ", optional" : ""}`} htmlFor={`part-${k}`} error={errors[k]}>
+          <Field
+            key={k}
+            label={`${OPAMP_PARAM_INFO[k].label} (${uiUnit(k)})${OPAMP_PARAM_INFO[k].optional ? ", optional" : ""}`}
+            htmlFor={`part-${k}`}
+            error={errors[k]}
+          >
             <TextInput
               id={`part-${k}`}
               className="font-mono"
@@ -286,9 +310,14 @@ function ImportDialog({ onClose, onImported }: { onClose: () => void; onImported
       if (!res.ok) throw new HttpError(res.status, body);
       await onImported();
     } catch (err) {
-      const issues = err instanceof HttpError && err.body && typeof err.body === "object" && Array.isArray(err.body.issues) ? err.body.issues : [];
+      const issues =
+        err instanceof HttpError && err.body && typeof err.body === "object" && Array.isArray(err.body.issues)
+          ? err.body.issues
+          : [];
       setProblems([
-        err instanceof HttpError && typeof err.body === "object" && err.body?.message ? err.body.message : errorMessage(err),
+        err instanceof HttpError && typeof err.body === "object" && err.body?.message
+          ? err.body.message
+          : errorMessage(err),
         ...issues.map((i: { message?: string }) => i.message ?? String(i)),
       ]);
       setBusy(false);
@@ -310,7 +339,13 @@ function ImportDialog({ onClose, onImported }: { onClose: () => void; onImported
         </>
       }
     >
-      <input aria-label="Parts CSV" type="file" accept=".csv,text/csv" onChange={(e) => setFile(e.target.files?.[0] ?? null)} className="text-[13px]" />
+      <input
+        aria-label="Parts CSV"
+        type="file"
+        accept=".csv,text/csv"
+        onChange={(e) => setFile(e.target.files?.[0] ?? null)}
+        className="text-[13px]"
+      />
       {problems.length > 0 && (
         <ul role="alert" className="mt-3 list-disc pl-5 text-[13px] text-alert">
           {problems.map((p, i) => (

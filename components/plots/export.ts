@@ -36,7 +36,10 @@ export function exportPlotPng(u: uPlot, heading: string | PngHeading, fileName: 
   const px = (v: number) => Math.round(v * ratio);
   const stamp = `Exported ${new Date().toISOString().slice(0, 16).replace("T", " ")} UTC`;
   const lines = [...(h.lines ?? []).filter(Boolean), stamp];
-  const units = h.xUnit || h.yUnit ? `Axes: ${[h.xUnit ? `horizontal in ${h.xUnit}` : "", h.yUnit ? `vertical in ${h.yUnit}` : ""].filter(Boolean).join(", ")}` : "";
+  const units =
+    h.xUnit || h.yUnit
+      ? `Axes: ${[h.xUnit ? `horizontal in ${h.xUnit}` : "", h.yUnit ? `vertical in ${h.yUnit}` : ""].filter(Boolean).join(", ")}`
+      : "";
   const legendRows = h.legend?.length ? 1 : 0;
   const head = px(12 + 20 + lines.length * 17 + (units ? 17 : 0) + legendRows * 20 + 8);
   const out = document.createElement("canvas");
@@ -101,7 +104,12 @@ export function downloadSamplesCsv(
 }
 
 /** The samples CSV text: time_s, input_V (the stage-input pin), output_V, then the extra columns. */
-export function samplesCsv(t: ArrayLike<number>, input: ArrayLike<number>, output: ArrayLike<number>, extra: { name: string; values: ArrayLike<number> }[] = []): string {
+export function samplesCsv(
+  t: ArrayLike<number>,
+  input: ArrayLike<number>,
+  output: ArrayLike<number>,
+  extra: { name: string; values: ArrayLike<number> }[] = [],
+): string {
   // Times to the precision the sample grid needs, not binary noise (0.00020002, not 0.00020002000200020003).
   const decimals = timeDecimals(smallestStep(t));
   const cols = extra.filter((c) => c.values.length === t.length);

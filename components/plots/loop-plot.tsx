@@ -27,7 +27,19 @@ export interface LoopPlotProps {
 }
 
 export function LoopPlot(props: LoopPlotProps) {
-  const { input, output, t, rails, thresholds, cursorIdx, onCursor, height = 300, fileName = "loop.png", exportTitle, thresholdLabel = "designed switching points" } = props;
+  const {
+    input,
+    output,
+    t,
+    rails,
+    thresholds,
+    cursorIdx,
+    onCursor,
+    height = 300,
+    fileName = "loop.png",
+    exportTitle,
+    thresholdLabel = "designed switching points",
+  } = props;
   const box = useRef<HTMLDivElement>(null);
   const marker = useRef<HTMLDivElement | null>(null);
   const emitted = useRef<number | null>(null);
@@ -152,7 +164,9 @@ export function LoopPlot(props: LoopPlotProps) {
   const i = cursorIdx != null && cursorIdx < input.length ? cursorIdx : null;
   const legend = [
     { color: PLOT_COLORS.output, label: "output vs input" },
-    ...(thresholds && (thresholds.upper != null || thresholds.lower != null) ? [{ color: PLOT_COLORS.threshold, label: thresholdLabel, dashed: true }] : []),
+    ...(thresholds && (thresholds.upper != null || thresholds.lower != null)
+      ? [{ color: PLOT_COLORS.threshold, label: thresholdLabel, dashed: true }]
+      : []),
     { color: PLOT_COLORS.rail, label: "output limits", dashed: true },
   ];
 
@@ -161,7 +175,20 @@ export function LoopPlot(props: LoopPlotProps) {
       <PlotToolbar
         legend={legend}
         onReset={reset}
-        onPng={() => plot.current && exportPlotPng(plot.current, { title: "Loop — output against input", lines: exportTitle, legend, xUnit: "V (input)", yUnit: "V (output)" }, fileName)}
+        onPng={() =>
+          plot.current &&
+          exportPlotPng(
+            plot.current,
+            {
+              title: "Loop — output against input",
+              lines: exportTitle,
+              legend,
+              xUnit: "V (input)",
+              yUnit: "V (output)",
+            },
+            fileName,
+          )
+        }
       />
       <div ref={box} className="min-w-0" />
       <Readout

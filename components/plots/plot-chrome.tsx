@@ -17,7 +17,15 @@ function Swatch({ item }: { item: LegendItem }) {
         {item.tick ? (
           <path d="M5 1 L13 1 L9 7 Z" fill={item.color} />
         ) : (
-          <line x1="0" y1="4" x2="18" y2="4" stroke={item.color} strokeWidth="2" strokeDasharray={item.dashed ? "4 3" : undefined} />
+          <line
+            x1="0"
+            y1="4"
+            x2="18"
+            y2="4"
+            stroke={item.color}
+            strokeWidth="2"
+            strokeDasharray={item.dashed ? "4 3" : undefined}
+          />
         )}
       </svg>
       {item.label}
@@ -88,13 +96,15 @@ export function Readout({ items, hint }: { items: [string, number, string][] | n
   return (
     <div className="mt-1 flex min-h-5 flex-wrap items-center justify-between gap-x-4 text-[11.5px]">
       <div className="flex flex-wrap gap-x-4 font-mono text-ink" data-testid="cursor-readout">
-        {items
-          ? items.map(([k, v, u]) => (
-              <span key={k}>
-                <span className="text-ink-mute">{k}</span> {formatQuantity(v, u, 5)}
-              </span>
-            ))
-          : <span className="text-ink-faint">move over the plot to read values</span>}
+        {items ? (
+          items.map(([k, v, u]) => (
+            <span key={k}>
+              <span className="text-ink-mute">{k}</span> {formatQuantity(v, u, 5)}
+            </span>
+          ))
+        ) : (
+          <span className="text-ink-faint">move over the plot to read values</span>
+        )}
       </div>
       <span className="text-ink-faint">{hint}</span>
     </div>
@@ -102,7 +112,12 @@ export function Readout({ items, hint }: { items: [string, number, string][] | n
 }
 
 /** Readout items of sample i (null when no sample is under the cursor). */
-export function cursorItems(t: ArrayLike<number>, input: ArrayLike<number>, output: ArrayLike<number>, i: number | null): [string, number, string][] | null {
+export function cursorItems(
+  t: ArrayLike<number>,
+  input: ArrayLike<number>,
+  output: ArrayLike<number>,
+  i: number | null,
+): [string, number, string][] | null {
   if (i == null || i >= t.length) return null;
   return [
     ["t", t[i], "s"],

@@ -36,7 +36,23 @@ export interface TimePlotProps {
 }
 
 export function TimePlot(props: TimePlotProps) {
-  const { t, input, output, rails, thresholds, cursorIdx, onCursor, onFirstDraw, height = 300, fileName = "trace.png", capacitor = null, showEdges = true, exportTitle, source = null, filtered = null } = props;
+  const {
+    t,
+    input,
+    output,
+    rails,
+    thresholds,
+    cursorIdx,
+    onCursor,
+    onFirstDraw,
+    height = 300,
+    fileName = "trace.png",
+    capacitor = null,
+    showEdges = true,
+    exportTitle,
+    source = null,
+    filtered = null,
+  } = props;
   const events = useMemo(() => (showEdges ? (props.events ?? []) : []), [showEdges, props.events]);
   const thresholdLabel = props.thresholdLabel ?? "designed switching points";
   const box = useRef<HTMLDivElement>(null);
@@ -74,7 +90,18 @@ export function TimePlot(props: TimePlotProps) {
           axis({ values: siTicks("s"), size: 34 }),
           axis({ values: siTicks("V"), size: 64, label: "volts", labelSize: 16 }),
           ...(sourceView
-            ? [axis({ scale: "src", side: 1, grid: { show: false }, size: 64, label: `${source?.label ?? "source"} (${sourceUnit})`, labelSize: 16, stroke: PLOT_COLORS.source, values: (_u: uPlot, splits: number[]) => splits.map((v) => plainTick(v, splits)) })]
+            ? [
+                axis({
+                  scale: "src",
+                  side: 1,
+                  grid: { show: false },
+                  size: 64,
+                  label: `${source?.label ?? "source"} (${sourceUnit})`,
+                  labelSize: 16,
+                  stroke: PLOT_COLORS.source,
+                  values: (_u: uPlot, splits: number[]) => splits.map((v) => plainTick(v, splits)),
+                }),
+              ]
             : []),
         ],
         plugins: [wheelPan()],
@@ -91,7 +118,14 @@ export function TimePlot(props: TimePlotProps) {
               }
               if (thresholds?.lower != null && thresholds.lower !== thresholds.upper) {
                 hLine(u, thresholds.lower, PLOT_COLORS.threshold, [7, 4]);
-                tagRight(u, thresholds.lower, capView ? "lower level" : "lower, designed", PLOT_COLORS.threshold, "y", "below");
+                tagRight(
+                  u,
+                  thresholds.lower,
+                  capView ? "lower level" : "lower, designed",
+                  PLOT_COLORS.threshold,
+                  "y",
+                  "below",
+                );
               }
             },
           ],
@@ -118,10 +152,30 @@ export function TimePlot(props: TimePlotProps) {
           ],
         },
       };
-      const cols = [view.t, view.input, view.output, ...(capView ? [capView] : []), ...(filteredView ? [filteredView] : []), ...(sourceView ? [sourceView] : [])];
+      const cols = [
+        view.t,
+        view.input,
+        view.output,
+        ...(capView ? [capView] : []),
+        ...(filteredView ? [filteredView] : []),
+        ...(sourceView ? [sourceView] : []),
+      ];
       return { opts, data: cols as unknown as uPlot.AlignedData };
     },
-    [view, capView, filteredView, sourceView, sourceUnit, source?.label, rails.high, rails.low, thresholds?.upper, thresholds?.lower, events, height],
+    [
+      view,
+      capView,
+      filteredView,
+      sourceView,
+      sourceUnit,
+      source?.label,
+      rails.high,
+      rails.low,
+      thresholds?.upper,
+      thresholds?.lower,
+      events,
+      height,
+    ],
   );
 
   // A cursor set by the other plot moves ours (without echoing it back).
@@ -143,7 +197,7 @@ export function TimePlot(props: TimePlotProps) {
     const min = u.scales.x.min!;
     const max = u.scales.x.max!;
     const mid = (min + max) / 2;
-    u.setScale("x", { min: mid - ((mid - min) * f), max: mid + ((max - mid) * f) });
+    u.setScale("x", { min: mid - (mid - min) * f, max: mid + (max - mid) * f });
   };
   const pan = (f: number) => {
     const u = plot.current;
@@ -160,8 +214,12 @@ export function TimePlot(props: TimePlotProps) {
     { color: PLOT_COLORS.output, label: "output" },
     ...(capView ? [{ color: PLOT_COLORS.capacitor, label: "capacitor (v−)" }] : []),
     ...(filteredView ? [{ color: PLOT_COLORS.filtered, label: "filter node (V)", dashed: true }] : []),
-    ...(sourceView ? [{ color: PLOT_COLORS.source, label: `${source?.label ?? "source"} (${sourceUnit}, right scale)` }] : []),
-    ...(thresholds && (thresholds.upper != null || thresholds.lower != null) ? [{ color: PLOT_COLORS.threshold, label: thresholdLabel, dashed: true }] : []),
+    ...(sourceView
+      ? [{ color: PLOT_COLORS.source, label: `${source?.label ?? "source"} (${sourceUnit}, right scale)` }]
+      : []),
+    ...(thresholds && (thresholds.upper != null || thresholds.lower != null)
+      ? [{ color: PLOT_COLORS.threshold, label: thresholdLabel, dashed: true }]
+      : []),
     { color: PLOT_COLORS.rail, label: "output limits", dashed: true },
     ...(showEdges ? [{ color: PLOT_COLORS.event, label: "measured edges", tick: true }] : []),
   ];
@@ -174,7 +232,14 @@ export function TimePlot(props: TimePlotProps) {
         onPanLeft={() => pan(-0.25)}
         onPanRight={() => pan(0.25)}
         onReset={reset}
-        onPng={() => plot.current && exportPlotPng(plot.current, { title: "Trace — input and output against time", lines: exportTitle, legend, xUnit: "s", yUnit: "V" }, fileName)}
+        onPng={() =>
+          plot.current &&
+          exportPlotPng(
+            plot.current,
+            { title: "Trace — input and output against time", lines: exportTitle, legend, xUnit: "s", yUnit: "V" },
+            fileName,
+          )
+        }
       />
       <div ref={box} className="min-w-0" />
       <Readout
@@ -202,7 +267,11 @@ function plainTick(v: number, splits: number[]): string {
 }
 
 /** The cursor readout gains the source value when the run has one. */
-function withSourceItem(items: [string, number, string][] | null, source: TimePlotProps["source"], i: number | null): [string, number, string][] | null {
+function withSourceItem(
+  items: [string, number, string][] | null,
+  source: TimePlotProps["source"],
+  i: number | null,
+): [string, number, string][] | null {
   if (!items || !source || i == null || i >= source.values.length) return items;
   return [...items.slice(0, 2), [source.label, source.values[i], source.unit], ...items.slice(2)];
 }
@@ -225,7 +294,10 @@ function useDisplayColumns(t: Float64Array, input: Float64Array, output: Float64
   const small = t.length <= DISPLAY_LIMIT;
   const [state, setState] = useState<{ src: Float64Array; cols: Columns } | null>(null);
   // Stable identity: the plot is rebuilt only when the columns really change.
-  const direct = useMemo<Columns | null>(() => (small ? { t, input, output, index: null } : null), [t, input, output, small]);
+  const direct = useMemo<Columns | null>(
+    () => (small ? { t, input, output, index: null } : null),
+    [t, input, output, small],
+  );
   useEffect(() => {
     if (small) return;
     let cancelled = false;
@@ -243,7 +315,10 @@ function useDisplayColumns(t: Float64Array, input: Float64Array, output: Float64
         const from = 1 + Math.floor((b * (n - 2)) / BUCKETS);
         const to = 1 + Math.floor(((b + 1) * (n - 2)) / BUCKETS);
         if (to <= from) continue;
-        let iMin = from, iMax = from, oMin = from, oMax = from;
+        let iMin = from,
+          iMax = from,
+          oMin = from,
+          oMax = from;
         for (let i = from + 1; i < to; i++) {
           const x = input[i];
           const y = output[i];
@@ -253,12 +328,36 @@ function useDisplayColumns(t: Float64Array, input: Float64Array, output: Float64
           else if (y > output[oMax]) oMax = i;
         }
         // Four indices in time order, duplicates dropped (a tiny insertion sort, no allocation).
-        let a0 = iMin, a1 = iMax, a2 = oMin, a3 = oMax, tmp = 0;
-        if (a0 > a1) { tmp = a0; a0 = a1; a1 = tmp; }
-        if (a2 > a3) { tmp = a2; a2 = a3; a3 = tmp; }
-        if (a0 > a2) { tmp = a0; a0 = a2; a2 = tmp; }
-        if (a1 > a3) { tmp = a1; a1 = a3; a3 = tmp; }
-        if (a1 > a2) { tmp = a1; a1 = a2; a2 = tmp; }
+        let a0 = iMin,
+          a1 = iMax,
+          a2 = oMin,
+          a3 = oMax,
+          tmp = 0;
+        if (a0 > a1) {
+          tmp = a0;
+          a0 = a1;
+          a1 = tmp;
+        }
+        if (a2 > a3) {
+          tmp = a2;
+          a2 = a3;
+          a3 = tmp;
+        }
+        if (a0 > a2) {
+          tmp = a0;
+          a0 = a2;
+          a2 = tmp;
+        }
+        if (a1 > a3) {
+          tmp = a1;
+          a1 = a3;
+          a3 = tmp;
+        }
+        if (a1 > a2) {
+          tmp = a1;
+          a1 = a2;
+          a2 = tmp;
+        }
         keep[k++] = a0;
         if (a1 !== a0) keep[k++] = a1;
         if (a2 !== a1) keep[k++] = a2;

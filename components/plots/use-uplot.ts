@@ -69,7 +69,6 @@ export function siTicks(unit: string) {
   };
 }
 
-
 export { extent } from "@/lib/workbench/extent";
 
 export const PLOT_COLORS = {
@@ -143,7 +142,14 @@ export function vLine(u: uPlot, v: number, color: string, dash: number[], scale 
 }
 
 /** Small label at the right end of a horizontal mark. */
-export function tagRight(u: uPlot, v: number, text: string, color: string, scale = "y", side: "above" | "below" = "above"): void {
+export function tagRight(
+  u: uPlot,
+  v: number,
+  text: string,
+  color: string,
+  scale = "y",
+  side: "above" | "below" = "above",
+): void {
   const ctx = u.ctx;
   const y = u.valToPos(v, scale, true);
   if (y < u.bbox.top || y > u.bbox.top + u.bbox.height) return;
@@ -152,7 +158,11 @@ export function tagRight(u: uPlot, v: number, text: string, color: string, scale
   ctx.fillStyle = color;
   ctx.textAlign = "right";
   ctx.textBaseline = side === "above" ? "bottom" : "top";
-  ctx.fillText(text, u.bbox.left + u.bbox.width - 4 * devicePixelRatio, side === "above" ? y - 2 * devicePixelRatio : y + 2 * devicePixelRatio);
+  ctx.fillText(
+    text,
+    u.bbox.left + u.bbox.width - 4 * devicePixelRatio,
+    side === "above" ? y - 2 * devicePixelRatio : y + 2 * devicePixelRatio,
+  );
   ctx.restore();
 }
 
@@ -180,28 +190,31 @@ export function wheelPan(onChange?: () => void): uPlot.Plugin {
           },
           { passive: false },
         );
-        over.addEventListener("mousedown", (e) => {
-          if (!(e.shiftKey || e.button === 1)) return;
-          e.preventDefault();
-          e.stopPropagation();
-          const x0 = e.clientX;
-          const min0 = u.scales.x.min!;
-          const max0 = u.scales.x.max!;
-          const perPx = (max0 - min0) / u.bbox.width * devicePixelRatio;
-          const move = (m: MouseEvent) => {
-            const dx = (m.clientX - x0) * perPx;
-            u.setScale("x", { min: min0 - dx, max: max0 - dx });
-          };
-          const up = () => {
-            window.removeEventListener("mousemove", move);
-            window.removeEventListener("mouseup", up);
-            onChange?.();
-          };
-          window.addEventListener("mousemove", move);
-          window.addEventListener("mouseup", up);
-        }, true);
+        over.addEventListener(
+          "mousedown",
+          (e) => {
+            if (!(e.shiftKey || e.button === 1)) return;
+            e.preventDefault();
+            e.stopPropagation();
+            const x0 = e.clientX;
+            const min0 = u.scales.x.min!;
+            const max0 = u.scales.x.max!;
+            const perPx = ((max0 - min0) / u.bbox.width) * devicePixelRatio;
+            const move = (m: MouseEvent) => {
+              const dx = (m.clientX - x0) * perPx;
+              u.setScale("x", { min: min0 - dx, max: max0 - dx });
+            };
+            const up = () => {
+              window.removeEventListener("mousemove", move);
+              window.removeEventListener("mouseup", up);
+              onChange?.();
+            };
+            window.addEventListener("mousemove", move);
+            window.addEventListener("mouseup", up);
+          },
+          true,
+        );
       },
     },
   };
 }
-

@@ -30,10 +30,36 @@ export function traceOverlay(a: RunRecord, b: RunRecord): PlotSpec {
     xUnit: "s",
     yUnit: "V",
     series: [
-      { x: b.result.samples.t, y: b.result.samples.input, color: OTHER.input, width: 1.3, dash: [5, 3], label: "input, compared run" },
-      { x: b.result.samples.t, y: b.result.samples.output, color: OTHER.output, width: 1.6, dash: [5, 3], label: "output, compared run" },
-      { x: a.result.samples.t, y: a.result.samples.input, color: PLOT_COLORS.input, width: 1.3, label: "input, this run" },
-      { x: a.result.samples.t, y: a.result.samples.output, color: PLOT_COLORS.output, width: 1.8, label: "output, this run" },
+      {
+        x: b.result.samples.t,
+        y: b.result.samples.input,
+        color: OTHER.input,
+        width: 1.3,
+        dash: [5, 3],
+        label: "input, compared run",
+      },
+      {
+        x: b.result.samples.t,
+        y: b.result.samples.output,
+        color: OTHER.output,
+        width: 1.6,
+        dash: [5, 3],
+        label: "output, compared run",
+      },
+      {
+        x: a.result.samples.t,
+        y: a.result.samples.input,
+        color: PLOT_COLORS.input,
+        width: 1.3,
+        label: "input, this run",
+      },
+      {
+        x: a.result.samples.t,
+        y: a.result.samples.output,
+        color: PLOT_COLORS.output,
+        width: 1.8,
+        label: "output, this run",
+      },
     ],
   };
 }
@@ -43,8 +69,21 @@ export function loopOverlay(a: RunRecord, b: RunRecord): PlotSpec {
     xUnit: "V",
     yUnit: "V",
     series: [
-      { x: b.result.samples.input, y: b.result.samples.output, color: OTHER.output, width: 1.4, dash: [5, 3], label: "compared run" },
-      { x: a.result.samples.input, y: a.result.samples.output, color: PLOT_COLORS.output, width: 1.8, label: "this run" },
+      {
+        x: b.result.samples.input,
+        y: b.result.samples.output,
+        color: OTHER.output,
+        width: 1.4,
+        dash: [5, 3],
+        label: "compared run",
+      },
+      {
+        x: a.result.samples.input,
+        y: a.result.samples.output,
+        color: PLOT_COLORS.output,
+        width: 1.8,
+        label: "this run",
+      },
     ],
   };
 }
@@ -61,12 +100,19 @@ function ComparePicker({ run, withId }: { run: Versioned; withId: string | null 
       <label htmlFor="compare-scenario" className="text-ink-soft">
         Compare with a run of
       </label>
-      <Select id="compare-scenario" className="h-8! w-64! py-0 text-[13px]" value={scenarioId} onChange={(e) => setScenarioId(e.target.value)}>
-        {(scenarios.length ? scenarios : [{ id: run.scenarioId, name: run.scenario.name ?? "this scenario" }]).map((s) => (
-          <option key={s.id} value={s.id}>
-            {s.id === run.scenarioId ? `${s.name} (this scenario)` : s.name}
-          </option>
-        ))}
+      <Select
+        id="compare-scenario"
+        className="h-8! w-64! py-0 text-[13px]"
+        value={scenarioId}
+        onChange={(e) => setScenarioId(e.target.value)}
+      >
+        {(scenarios.length ? scenarios : [{ id: run.scenarioId, name: run.scenario.name ?? "this scenario" }]).map(
+          (s) => (
+            <option key={s.id} value={s.id}>
+              {s.id === run.scenarioId ? `${s.name} (this scenario)` : s.name}
+            </option>
+          ),
+        )}
       </Select>
       <Select
         aria-label="Run to compare with"
@@ -120,7 +166,9 @@ export function CompareView({ runId, withId }: { runId: string; withId: string |
       <ComparePicker run={a} withId={otherId} />
       {!otherId ? (
         <Card>
-          <p className="text-[13px] text-ink-mute">There is no other run of this scenario yet; choose a run of another scenario on the board.</p>
+          <p className="text-[13px] text-ink-mute">
+            There is no other run of this scenario yet; choose a run of another scenario on the board.
+          </p>
         </Card>
       ) : !b ? (
         <LoadingRows rows={6} />
@@ -133,7 +181,10 @@ export function CompareView({ runId, withId }: { runId: string; withId: string |
             </Link>{" "}
             of {b.scenario.name ?? "its scenario"} (dashed), {formatDate(b.createdAt)}.
           </p>
-          <Card title="What changed in the scenario" description="Fields that differ between the two runs' snapshots, old → new.">
+          <Card
+            title="What changed in the scenario"
+            description="Fields that differ between the two runs' snapshots, old → new."
+          >
             <VersionDiffTable
               before={b.scenario}
               after={a.scenario}
@@ -145,13 +196,31 @@ export function CompareView({ runId, withId }: { runId: string; withId: string |
           <div className="grid gap-3 xl:grid-cols-[minmax(0,1fr)_minmax(0,26rem)]">
             <div className="grid min-w-0 content-start gap-3">
               <Card title="Trace, overlaid" className="min-w-0">
-                {trace && <PlotImage spec={trace} alt="Trace: input and output of both runs against time" testId="compare-trace" />}
+                {trace && (
+                  <PlotImage
+                    spec={trace}
+                    alt="Trace: input and output of both runs against time"
+                    testId="compare-trace"
+                  />
+                )}
               </Card>
               <Card title="Loop, overlaid" description="Output against input" className="min-w-0">
-                {loop && <PlotImage spec={loop} alt="Loop: output against input of both runs" height={300} testId="compare-loop" />}
+                {loop && (
+                  <PlotImage
+                    spec={loop}
+                    alt="Loop: output against input of both runs"
+                    height={300}
+                    testId="compare-loop"
+                  />
+                )}
               </Card>
             </div>
-            <Card title="Readings side by side" description="Rows that differ are highlighted." className="min-w-0 self-start" padded={false}>
+            <Card
+              title="Readings side by side"
+              description="Rows that differ are highlighted."
+              className="min-w-0 self-start"
+              padded={false}
+            >
               <ReadingsCompare a={a.result} b={b.result} aTitle="This run" bTitle="Compared" />
             </Card>
           </div>

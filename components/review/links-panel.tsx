@@ -83,7 +83,12 @@ export function LinksPanel({ runId }: { runId: string }) {
         <label htmlFor={`expiry-${runId}`} className="text-[12px] text-ink-soft">
           Expires
         </label>
-        <Select id={`expiry-${runId}`} className="h-7! w-28 py-0 text-[13px]" value={days} onChange={(e) => setDays(e.target.value)}>
+        <Select
+          id={`expiry-${runId}`}
+          className="h-7! w-28 py-0 text-[13px]"
+          value={days}
+          onChange={(e) => setDays(e.target.value)}
+        >
           {EXPIRY_CHOICES.map((c) => (
             <option key={c.value} value={c.value}>
               {c.label}
@@ -96,9 +101,17 @@ export function LinksPanel({ runId }: { runId: string }) {
       </div>
       {fresh?.url && (
         <div className="rounded-md border border-indigo/25 bg-indigo-soft/50 p-2.5" role="status">
-          <p className="text-[12px] text-ink-soft">Copy it now: the link is stored only as a hash and is not shown again.</p>
+          <p className="text-[12px] text-ink-soft">
+            Copy it now: the link is stored only as a hash and is not shown again.
+          </p>
           <div className="mt-1.5 flex items-center gap-2">
-            <input readOnly value={fresh.url} aria-label="New run link" className="h-7 min-w-0 flex-1 rounded border border-paper-line bg-paper-card px-2 font-mono text-[12px]" onFocus={(e) => e.target.select()} />
+            <input
+              readOnly
+              value={fresh.url}
+              aria-label="New run link"
+              className="h-7 min-w-0 flex-1 rounded border border-paper-line bg-paper-card px-2 font-mono text-[12px]"
+              onFocus={(e) => e.target.select()}
+            />
             <Button
               size="sm"
               onClick={() => {

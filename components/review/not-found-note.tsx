@@ -8,7 +8,14 @@ export function NotFoundNote({ error }: { error: unknown }) {
   const missing = error instanceof HttpError && error.status === 404;
   return (
     <Card>
-      <EmptyState title={missing ? "Run not found" : "Could not load the run"} action={<Link className="text-copper hover:underline" href="/boards">Back to boards</Link>}>
+      <EmptyState
+        title={missing ? "Run not found" : "Could not load the run"}
+        action={
+          <Link className="text-copper hover:underline" href="/boards">
+            Back to boards
+          </Link>
+        }
+      >
         {missing ? "It may have been deleted, or it belongs to another team." : errorMessage(error)}
       </EmptyState>
     </Card>

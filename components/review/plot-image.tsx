@@ -38,7 +38,8 @@ function niceStep(span: number, count: number): number {
 function ticks(lo: number, hi: number, count: number): number[] {
   const step = niceStep(hi - lo || 1, count);
   const out: number[] = [];
-  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
+  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step)
+    out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
   return out;
 }
 
@@ -54,7 +55,8 @@ function range(spec: PlotSpec, axis: "x" | "y"): [number, number] {
       if (v > hi) hi = v;
     }
   }
-  if (axis === "y") for (const m of spec.marks ?? []) if (Number.isFinite(m.y)) ((lo = Math.min(lo, m.y)), (hi = Math.max(hi, m.y)));
+  if (axis === "y")
+    for (const m of spec.marks ?? []) if (Number.isFinite(m.y)) (lo = Math.min(lo, m.y)), (hi = Math.max(hi, m.y));
   if (!Number.isFinite(lo)) return [0, 1];
   if (hi === lo) return [lo - 1, hi + 1];
   if (axis === "y") {
@@ -162,7 +164,19 @@ export function renderPlotPng(spec: PlotSpec, width: number, height: number, sca
 }
 
 /** The plot as an image with its legend beneath; `testId` marks the <img> for tests. */
-export function PlotImage({ spec, alt, width = 760, height = 280, testId }: { spec: PlotSpec; alt: string; width?: number; height?: number; testId?: string }) {
+export function PlotImage({
+  spec,
+  alt,
+  width = 760,
+  height = 280,
+  testId,
+}: {
+  spec: PlotSpec;
+  alt: string;
+  width?: number;
+  height?: number;
+  testId?: string;
+}) {
   const [src, setSrc] = useState<string | null>(null);
   useEffect(() => {
     setSrc(renderPlotPng(spec, width, height));
@@ -171,7 +185,14 @@ export function PlotImage({ spec, alt, width = 760, height = 280, testId }: { sp
     <figure className="flex flex-col gap-1.5">
       {src ? (
         // eslint-disable-next-line @next/next/no-img-element -- a generated data URL, nothing to optimise
-        <img src={src} alt={alt} width={width} height={height} className="h-auto w-full max-w-full" data-testid={testId} />
+        <img
+          src={src}
+          alt={alt}
+          width={width}
+          height={height}
+          className="h-auto w-full max-w-full"
+          data-testid={testId}
+        />
       ) : (
         <div style={{ aspectRatio: `${width} / ${height}` }} className="w-full animate-pulse rounded bg-paper-sunk" />
       )}

@@ -22,9 +22,19 @@ export const READINGS: ReadingDef[] = [
   { key: "chatter", label: "Chatter (extra transitions)", get: (r) => r.metrics.chatter, format: count },
   { key: "period", label: "Period", get: (r) => r.metrics.period, format: q("s") },
   { key: "dutyCycle", label: "Duty cycle", get: (r) => r.metrics.dutyCycle, format: pct },
-  { key: "gain", label: "Gain (linear region)", get: (r) => r.metrics.amplifier?.gain ?? null, format: (v) => `${Number(v.toPrecision(4))} V/V` },
+  {
+    key: "gain",
+    label: "Gain (linear region)",
+    get: (r) => r.metrics.amplifier?.gain ?? null,
+    format: (v) => `${Number(v.toPrecision(4))} V/V`,
+  },
   { key: "clippedFraction", label: "Time clipped at a limit", get: (r) => r.metrics.clippedFraction, format: pct },
-  { key: "maxSlewRate", label: "Fastest output edge", get: (r) => r.metrics.maxSlewRate, format: (v) => `${Number((v / 1e6).toPrecision(4))} V/µs` },
+  {
+    key: "maxSlewRate",
+    label: "Fastest output edge",
+    get: (r) => r.metrics.maxSlewRate,
+    format: (v) => `${Number((v / 1e6).toPrecision(4))} V/µs`,
+  },
   { key: "railHigh", label: "Output high level", get: (r) => r.rails.high, format: q("V") },
   { key: "railLow", label: "Output low level", get: (r) => r.rails.low, format: q("V") },
 ];
@@ -37,7 +47,17 @@ export function readingsDiffer(a: number | null | undefined, b: number | null | 
   return Math.abs(a - b) > 1e-4 * Math.max(Math.abs(a), Math.abs(b), 1e-12);
 }
 
-export function ReadingsCompare({ a, b, aTitle, bTitle }: { a: ResultJson; b: ResultJson; aTitle: string; bTitle: string }) {
+export function ReadingsCompare({
+  a,
+  b,
+  aTitle,
+  bTitle,
+}: {
+  a: ResultJson;
+  b: ResultJson;
+  aTitle: string;
+  bTitle: string;
+}) {
   const rows = READINGS.filter((d) => d.get(a) != null || d.get(b) != null);
   return (
     <Table aria-label="Readings side by side" data-testid="readings-compare">
@@ -56,11 +76,24 @@ export function ReadingsCompare({ a, b, aTitle, bTitle }: { a: ResultJson; b: Re
           const differs = readingsDiffer(va, vb);
           const delta = va != null && vb != null && differs ? d.format(va - vb) : differs ? "one run only" : "same";
           return (
-            <TR key={d.key} data-differs={differs ? "yes" : "no"} className={differs ? "bg-caution-soft/70" : undefined}>
+            <TR
+              key={d.key}
+              data-differs={differs ? "yes" : "no"}
+              className={differs ? "bg-caution-soft/70" : undefined}
+            >
               <TD className={differs ? "font-medium text-ink" : "text-ink-soft"}>{d.label}</TD>
-              <TD numeric className="font-mono text-[12px]">{va != null ? d.format(va) : "—"}</TD>
-              <TD numeric className="font-mono text-[12px]">{vb != null ? d.format(vb) : "—"}</TD>
-              <TD numeric className={`font-mono text-[12px] ${differs ? "font-semibold text-caution" : "text-ink-faint"}`}>{delta}</TD>
+              <TD numeric className="font-mono text-[12px]">
+                {va != null ? d.format(va) : "—"}
+              </TD>
+              <TD numeric className="font-mono text-[12px]">
+                {vb != null ? d.format(vb) : "—"}
+              </TD>
+              <TD
+                numeric
+                className={`font-mono text-[12px] ${differs ? "font-semibold text-caution" : "text-ink-faint"}`}
+              >
+                {delta}
+              </TD>
             </TR>
           );
         })}

@@ -12,7 +12,14 @@ import { PLOT_COLORS } from "@/components/plots/use-uplot";
 import { SafetyCaution, suggestsLoadSwitching } from "@/components/safety-caution";
 import { STAGE_KIND_LABEL } from "@/components/scenario/stage-labels";
 import { StageDiagram } from "@/components/workbench/stage-diagram";
-import { buildChecks, buildWarnings, designedFigures, designedMarks, measuredGain, minMax } from "@/components/workbench/readings-logic";
+import {
+  buildChecks,
+  buildWarnings,
+  designedFigures,
+  designedMarks,
+  measuredGain,
+  minMax,
+} from "@/components/workbench/readings-logic";
 import { KIND_INFO } from "@/components/workbench/stage-kinds";
 import { billOfMaterials } from "@/lib/design/bom";
 import { worstCase, type WorstCase } from "@/lib/design/analysis";
@@ -39,7 +46,8 @@ const PRINT_CSS = `
   a { color: inherit !important; text-decoration: none !important; }
 }`;
 
-const v = (x: number | null | undefined, unit: string) => (x == null || !Number.isFinite(x) ? "—" : formatQuantity(x, unit, 4));
+const v = (x: number | null | undefined, unit: string) =>
+  x == null || !Number.isFinite(x) ? "—" : formatQuantity(x, unit, 4);
 const pct = (x: number | null | undefined) => (x == null ? "—" : `${Number((x * 100).toPrecision(3))} %`);
 
 function Section({ title, children, className = "" }: { title: string; children: ReactNode; className?: string }) {
@@ -57,7 +65,10 @@ function SmallTable({ head, rows, label }: { head: string[]; rows: ReactNode[][]
       <thead>
         <tr>
           {head.map((h, i) => (
-            <th key={i} className={`border-b border-paper-line px-1.5 py-1 font-medium text-ink-soft ${i === 0 ? "text-left" : "text-right"}`}>
+            <th
+              key={i}
+              className={`border-b border-paper-line px-1.5 py-1 font-medium text-ink-soft ${i === 0 ? "text-left" : "text-right"}`}
+            >
               {h}
             </th>
           ))}
@@ -67,7 +78,10 @@ function SmallTable({ head, rows, label }: { head: string[]; rows: ReactNode[][]
         {rows.map((r, i) => (
           <tr key={i} className="align-top">
             {r.map((c, j) => (
-              <td key={j} className={`border-b border-paper-line/60 px-1.5 py-1 ${j === 0 ? "text-left" : "text-right font-mono whitespace-nowrap"}`}>
+              <td
+                key={j}
+                className={`border-b border-paper-line/60 px-1.5 py-1 ${j === 0 ? "text-left" : "text-right font-mono whitespace-nowrap"}`}
+              >
                 {c}
               </td>
             ))}
@@ -92,14 +106,18 @@ function studyVerdicts(study: SavedStudy | null | undefined): string[] {
       `Noise margin study: deadband ${v(nm.deadband, "V")}; chatter stays within ${pct(nm.limit)} up to ${nm.safeRms == null ? "no swept level" : v(nm.safeRms, "V") + " rms"}` +
         (nm.safeRmsConfident != null ? ` (${v(nm.safeRmsConfident, "V")} rms on the 95 % upper bound)` : "") +
         `; rule of thumb deadband/6.6 = ${v(nm.ruleOfThumbRms, "V")} rms.` +
-        (nm.measuredVerdict ? ` Measured noise: ${nm.measuredVerdict === "inside" ? "inside the safe range" : nm.measuredVerdict === "outside" ? "OUTSIDE the safe range" : "beyond the swept levels"}.` : ""),
+        (nm.measuredVerdict
+          ? ` Measured noise: ${nm.measuredVerdict === "inside" ? "inside the safe range" : nm.measuredVerdict === "outside" ? "OUTSIDE the safe range" : "beyond the swept levels"}.`
+          : ""),
     );
   }
   const ts = study.toleranceSpread?.summary;
   if (ts) {
     out.push(
       `Tolerance spread: ${ts.draws.toLocaleString("en")} draws${ts.failed ? ` (${ts.failed} failed)` : ""}` +
-        (ts.insideShare != null ? `; ${pct(ts.insideShare)} inside every window${ts.insideLow != null && ts.insideHigh != null ? ` (95 %: ${pct(ts.insideLow)} … ${pct(ts.insideHigh)})` : ""}.` : "; no windows set."),
+        (ts.insideShare != null
+          ? `; ${pct(ts.insideShare)} inside every window${ts.insideLow != null && ts.insideHigh != null ? ` (95 %: ${pct(ts.insideLow)} … ${pct(ts.insideHigh)})` : ""}.`
+          : "; no windows set."),
     );
   }
   return out;
@@ -146,10 +164,24 @@ export function ReportView({ runId }: { runId: string }) {
         { y: result.rails.high, color: PLOT_COLORS.rail, label: "Voh" },
         { y: result.rails.low, color: PLOT_COLORS.rail, label: "Vol" },
         ...(marks?.upper != null ? [{ y: marks.upper, color: PLOT_COLORS.threshold, label: "upper, designed" }] : []),
-        ...(marks?.lower != null && marks.lower !== marks.upper ? [{ y: marks.lower, color: PLOT_COLORS.threshold, label: "lower, designed" }] : []),
+        ...(marks?.lower != null && marks.lower !== marks.upper
+          ? [{ y: marks.lower, color: PLOT_COLORS.threshold, label: "lower, designed" }]
+          : []),
       ],
     };
-    const loop: PlotSpec = { xUnit: "V", yUnit: "V", series: [{ x: result.samples.input, y: result.samples.output, color: PLOT_COLORS.output, width: 1.6, label: "output against input" }] };
+    const loop: PlotSpec = {
+      xUnit: "V",
+      yUnit: "V",
+      series: [
+        {
+          x: result.samples.input,
+          y: result.samples.output,
+          color: PLOT_COLORS.output,
+          width: 1.6,
+          label: "output against input",
+        },
+      ],
+    };
     return {
       designed: designedFigures(scenario),
       checks: buildChecks(scenario, result.metrics, gain),
@@ -168,9 +200,12 @@ export function ReportView({ runId }: { runId: string }) {
   const m = result.metrics;
   const name = scenarioRow?.name ?? scenario.name ?? "Scenario";
   const title = run.label || `Run of ${name}`;
-  const outOfDate = run.scenarioVersion != null && scenarioRow?.version != null && scenarioRow.version > run.scenarioVersion;
+  const outOfDate =
+    run.scenarioVersion != null && scenarioRow?.version != null && scenarioRow.version > run.scenarioVersion;
   const origin = typeof window === "undefined" ? "" : window.location.origin;
-  const spec = scenario.spec as { target?: { upperThreshold?: number; lowerThreshold?: number; gain?: number }; sensor?: unknown } | undefined;
+  const spec = scenario.spec as
+    | { target?: { upperThreshold?: number; lowerThreshold?: number; gain?: number }; sensor?: unknown }
+    | undefined;
   const specUnit = spec?.sensor ? (scenario.source?.unit ?? "V") : "V";
   const switching = KIND_INFO[scenario.stage.kind].switching;
   const caution = suggestsLoadSwitching(name, run.label, scenario.source?.quantity);
@@ -188,21 +223,57 @@ export function ReportView({ runId }: { runId: string }) {
   const t = spec?.target;
   const specRows: ReactNode[][] = switching
     ? [
-        ["Upper switching point", specCell(t?.upperThreshold, specUnit), ...srcCol(src?.upperThreshold), v(derived.designed.upperThreshold, "V"), range(derived.wc, "upperThreshold", "V"), v(m.upperThreshold, "V")],
-        ["Lower switching point", specCell(t?.lowerThreshold, specUnit), ...srcCol(src?.lowerThreshold), v(derived.designed.lowerThreshold, "V"), range(derived.wc, "lowerThreshold", "V"), v(m.lowerThreshold, "V")],
+        [
+          "Upper switching point",
+          specCell(t?.upperThreshold, specUnit),
+          ...srcCol(src?.upperThreshold),
+          v(derived.designed.upperThreshold, "V"),
+          range(derived.wc, "upperThreshold", "V"),
+          v(m.upperThreshold, "V"),
+        ],
+        [
+          "Lower switching point",
+          specCell(t?.lowerThreshold, specUnit),
+          ...srcCol(src?.lowerThreshold),
+          v(derived.designed.lowerThreshold, "V"),
+          range(derived.wc, "lowerThreshold", "V"),
+          v(m.lowerThreshold, "V"),
+        ],
         [
           "Deadband",
-          t?.upperThreshold != null && t?.lowerThreshold != null ? v(t.upperThreshold - t.lowerThreshold, specUnit) : "—",
+          t?.upperThreshold != null && t?.lowerThreshold != null
+            ? v(t.upperThreshold - t.lowerThreshold, specUnit)
+            : "—",
           ...srcCol(src?.hysteresis),
-          derived.designed.upperThreshold != null && derived.designed.lowerThreshold != null ? v(derived.designed.upperThreshold - derived.designed.lowerThreshold, "V") : "—",
+          derived.designed.upperThreshold != null && derived.designed.lowerThreshold != null
+            ? v(derived.designed.upperThreshold - derived.designed.lowerThreshold, "V")
+            : "—",
           range(derived.wc, "hysteresis", "V"),
           v(m.hysteresis, "V"),
         ],
         ...(derived.designed.period != null || m.period != null
-          ? [["Period", "—", ...(src ? ["—"] : []), v(derived.designed.period, "s"), "—", v(m.period, "s")] as ReactNode[]]
+          ? [
+              [
+                "Period",
+                "—",
+                ...(src ? ["—"] : []),
+                v(derived.designed.period, "s"),
+                "—",
+                v(m.period, "s"),
+              ] as ReactNode[],
+            ]
           : []),
       ]
-    : [["Gain", t?.gain != null ? `${t.gain} V/V` : "—", ...(src ? ["—"] : []), derived.designed.gain != null ? `${Number(derived.designed.gain.toPrecision(4))} V/V` : "—", range(derived.wc, "gain", "V/V"), derived.gain != null ? `${Number(derived.gain.toPrecision(4))} V/V` : "—"]];
+    : [
+        [
+          "Gain",
+          t?.gain != null ? `${t.gain} V/V` : "—",
+          ...(src ? ["—"] : []),
+          derived.designed.gain != null ? `${Number(derived.designed.gain.toPrecision(4))} V/V` : "—",
+          range(derived.wc, "gain", "V/V"),
+          derived.gain != null ? `${Number(derived.gain.toPrecision(4))} V/V` : "—",
+        ],
+      ];
   const specHead = src
     ? [
         "Figure",
@@ -215,7 +286,10 @@ export function ReportView({ runId }: { runId: string }) {
     : ["Figure", "Spec", "Designed", "Worst case", "Measured"];
 
   return (
-    <div className="report-page mx-auto max-w-[820px] space-y-4 rounded-lg border border-paper-line bg-white p-6 text-ink shadow-sm" data-testid="review-report">
+    <div
+      className="report-page mx-auto max-w-[820px] space-y-4 rounded-lg border border-paper-line bg-white p-6 text-ink shadow-sm"
+      data-testid="review-report"
+    >
       <style>{PRINT_CSS}</style>
       <div className="flex flex-wrap items-center justify-between gap-2" data-print-hide>
         <Link href={`/runs/${run.id}`} className="text-[13px] text-ink-mute hover:text-ink hover:underline">
@@ -227,7 +301,9 @@ export function ReportView({ runId }: { runId: string }) {
       </div>
 
       <header className="report-section">
-        <p className="text-[11px] font-semibold uppercase tracking-wider text-copper">Railwise · design review report</p>
+        <p className="text-[11px] font-semibold uppercase tracking-wider text-copper">
+          Railwise · design review report
+        </p>
         <h1 className="mt-0.5 text-xl font-semibold break-words" data-testid="report-title">
           {name}
         </h1>
@@ -236,7 +312,8 @@ export function ReportView({ runId }: { runId: string }) {
           {outOfDate ? ` (the scenario is now at version ${scenarioRow?.version})` : ""}
         </p>
         <p className="text-[12px] text-ink-mute">
-          Saved {formatDate(run.createdAt)} by {personName(run.createdBy)} · re-run on the server ({result.solver.name}) · report printed {formatDate(new Date().toISOString())}
+          Saved {formatDate(run.createdAt)} by {personName(run.createdBy)} · re-run on the server ({result.solver.name})
+          · report printed {formatDate(new Date().toISOString())}
         </p>
         <p className="mt-1 text-[12px] text-ink-mute break-all">
           Run: <span className="font-mono text-ink-soft">{`${origin}/runs/${run.id}`}</span>
@@ -255,10 +332,13 @@ export function ReportView({ runId }: { runId: string }) {
               <ul className="text-[12px]" aria-label="Report sign-offs">
                 {standing.map((s) => (
                   <li key={s.id} className="py-0.5">
-                    <span className="font-semibold">{DECISION_LABEL[s.decision]}</span> by {s.reviewer.name}, {formatDate(s.createdAt)}
+                    <span className="font-semibold">{DECISION_LABEL[s.decision]}</span> by {s.reviewer.name},{" "}
+                    {formatDate(s.createdAt)}
                     {s.scenarioVersion ? `, for version ${s.scenarioVersion}` : ""}
                     {outOfDate && s.scenarioVersion != null && s.scenarioVersion < (scenarioRow?.version ?? 0) ? (
-                      <span className="block font-semibold text-alert">Out of date: the scenario is now at version {scenarioRow?.version}</span>
+                      <span className="block font-semibold text-alert">
+                        Out of date: the scenario is now at version {scenarioRow?.version}
+                      </span>
                     ) : null}
                     {s.note && <span className="block whitespace-pre-wrap break-words text-ink-soft">{s.note}</span>}
                   </li>
@@ -269,7 +349,8 @@ export function ReportView({ runId }: { runId: string }) {
               <ul className="mt-1 text-[11px] text-ink-mute">
                 {withdrawn.map((s) => (
                   <li key={s.id}>
-                    {DECISION_LABEL[s.decision]} by {s.reviewer.name}, {formatDate(s.createdAt)} — withdrawn {formatDate(s.withdrawnAt)}
+                    {DECISION_LABEL[s.decision]} by {s.reviewer.name}, {formatDate(s.createdAt)} — withdrawn{" "}
+                    {formatDate(s.withdrawnAt)}
                   </li>
                 ))}
               </ul>
@@ -283,7 +364,8 @@ export function ReportView({ runId }: { runId: string }) {
               <ul className="text-[12px]">
                 {requests!.items.map((r) => (
                   <li key={r.id} className="py-0.5">
-                    {r.reviewer.name} — asked by {r.requestedBy.name}, {formatDate(r.createdAt)}; {r.decision ? DECISION_LABEL[r.decision].toLowerCase() : "no decision yet"}
+                    {r.reviewer.name} — asked by {r.requestedBy.name}, {formatDate(r.createdAt)};{" "}
+                    {r.decision ? DECISION_LABEL[r.decision].toLowerCase() : "no decision yet"}
                   </li>
                 ))}
               </ul>
@@ -296,7 +378,8 @@ export function ReportView({ runId }: { runId: string }) {
                     const x = l as typeof l & { label?: string | null; lastUsedAt?: string | null };
                     return (
                       <li key={l.id}>
-                        {x.label || "(no label)"} · {l.state} · made {formatDate(l.createdAt)} · {x.lastUsedAt ? `last opened ${formatDate(x.lastUsedAt)}` : "never opened"}
+                        {x.label || "(no label)"} · {l.state} · made {formatDate(l.createdAt)} ·{" "}
+                        {x.lastUsedAt ? `last opened ${formatDate(x.lastUsedAt)}` : "never opened"}
                       </li>
                     );
                   })}
@@ -349,15 +432,24 @@ export function ReportView({ runId }: { runId: string }) {
       <Section title="Spec, designed, worst case and measured">
         <SmallTable label="Spec against result" head={specHead} rows={specRows} />
         <p className="mt-1 text-[11px] text-ink-mute">
-          {src ? `“${at}”: in the source's units (${src.unit}); “input”: volts at the stage input. ` : ""}Designed: closed forms with the chosen values. Worst case: every corner of resistor tolerance ({pct(scenario.tolerances?.resistor ?? 0.01)}), input offset and output headroom
+          {src ? `“${at}”: in the source's units (${src.unit}); “input”: volts at the stage input. ` : ""}Designed:
+          closed forms with the chosen values. Worst case: every corner of resistor tolerance (
+          {pct(scenario.tolerances?.resistor ?? 0.01)}), input offset and output headroom
           {derived.wc ? ` (${derived.wc.corners} corners)` : ""}. Measured: this run, re-simulated on the server.
         </p>
         {derived.checks.length > 0 && (
           <ul className="mt-2 text-[12px]" aria-label="Checks">
             {derived.checks.map((c) => (
               <li key={c.label}>
-                <span className={c.pass === false ? "font-semibold text-alert" : c.pass ? "font-semibold text-moss" : "text-ink-mute"}>{c.pass === false ? "FAIL" : c.pass ? "pass" : "n/a"}</span> {c.label}: designed{" "}
-                {v(c.designed, c.unit)}, measured {v(c.measured, c.unit)} (± {v(c.tolerance, c.unit)})
+                <span
+                  className={
+                    c.pass === false ? "font-semibold text-alert" : c.pass ? "font-semibold text-moss" : "text-ink-mute"
+                  }
+                >
+                  {c.pass === false ? "FAIL" : c.pass ? "pass" : "n/a"}
+                </span>{" "}
+                {c.label}: designed {v(c.designed, c.unit)}, measured {v(c.measured, c.unit)} (±{" "}
+                {v(c.tolerance, c.unit)})
               </li>
             ))}
           </ul>
@@ -366,7 +458,9 @@ export function ReportView({ runId }: { runId: string }) {
 
       <Section title="Studies">
         {verdicts.length === 0 ? (
-          <p className="text-[12px] text-ink-mute">No noise margin study or tolerance spread was saved with this run.</p>
+          <p className="text-[12px] text-ink-mute">
+            No noise margin study or tolerance spread was saved with this run.
+          </p>
         ) : (
           <ul className="list-disc pl-4 text-[12px]">
             {verdicts.map((t) => (
@@ -377,14 +471,29 @@ export function ReportView({ runId }: { runId: string }) {
       </Section>
 
       <Section title="Trace">
-        <PlotImage spec={derived.trace} alt="Trace: input and output against time" width={760} height={260} testId="report-trace" />
+        <PlotImage
+          spec={derived.trace}
+          alt="Trace: input and output against time"
+          width={760}
+          height={260}
+          testId="report-trace"
+        />
       </Section>
       <Section title="Loop">
         <div className="mx-auto max-w-[520px]">
-          <PlotImage spec={derived.loop} alt="Loop: output against input" width={520} height={300} testId="report-loop" />
+          <PlotImage
+            spec={derived.loop}
+            alt="Loop: output against input"
+            width={520}
+            height={300}
+            testId="report-loop"
+          />
         </div>
         <p className="mt-1 text-[12px] text-ink-soft">
-          Measured: {switching ? `upper ${v(m.upperThreshold, "V")}, lower ${v(m.lowerThreshold, "V")}, deadband ${v(m.hysteresis, "V")}, ${m.transitions ?? 0} transitions, chatter ${m.chatter ?? 0}` : `gain ${derived.gain != null ? Number(derived.gain.toPrecision(4)) + " V/V" : "—"}`}
+          Measured:{" "}
+          {switching
+            ? `upper ${v(m.upperThreshold, "V")}, lower ${v(m.lowerThreshold, "V")}, deadband ${v(m.hysteresis, "V")}, ${m.transitions ?? 0} transitions, chatter ${m.chatter ?? 0}`
+            : `gain ${derived.gain != null ? Number(derived.gain.toPrecision(4)) + " V/V" : "—"}`}
           ; clipped {pct(m.clippedFraction)} of the run.
         </p>
       </Section>
@@ -395,7 +504,12 @@ export function ReportView({ runId }: { runId: string }) {
         ) : (
           <ul className="text-[12px]" aria-label="Warnings">
             {derived.warnings.map((w) => (
-              <li key={w.text} className={w.level === "alert" ? "text-alert" : w.level === "caution" ? "text-caution" : "text-ink-soft"}>
+              <li
+                key={w.text}
+                className={
+                  w.level === "alert" ? "text-alert" : w.level === "caution" ? "text-caution" : "text-ink-soft"
+                }
+              >
                 <span className="font-semibold uppercase">{w.level}</span> {w.text}
               </li>
             ))}
@@ -410,14 +524,17 @@ export function ReportView({ runId }: { runId: string }) {
           <ul className="flex flex-col gap-1.5 text-[12px]" aria-label="Report comments">
             {comments!.items.map((c) => (
               <li key={c.id}>
-                <span className="font-medium">{c.author.name}</span> <span className="text-ink-mute">{formatDate(c.createdAt)}</span>
+                <span className="font-medium">{c.author.name}</span>{" "}
+                <span className="text-ink-mute">{formatDate(c.createdAt)}</span>
                 <span className="block whitespace-pre-wrap break-words text-ink-soft">{c.body}</span>
               </li>
             ))}
           </ul>
         )}
       </Section>
-      <p className="text-[11px] text-ink-faint">Behavioural simulation of op-amp stages; confirm on the bench before a board is built.</p>
+      <p className="text-[11px] text-ink-faint">
+        Behavioural simulation of op-amp stages; confirm on the bench before a board is built.
+      </p>
     </div>
   );
 }

@@ -15,7 +15,15 @@ import { ReviewStateBadge } from "./review-state-badge";
  * Who was asked to review this run and what each decided; owners and designers ask members
  * who may sign off (owners, reviewers), who then get a mail and find the run in their queue.
  */
-export function RequestReviewPanel({ runId, canRequest, userId }: { runId: string; canRequest: boolean; userId?: string | null }) {
+export function RequestReviewPanel({
+  runId,
+  canRequest,
+  userId,
+}: {
+  runId: string;
+  canRequest: boolean;
+  userId?: string | null;
+}) {
   const requests = useReviewRequests(runId);
   const members = useMembers();
   const [chosen, setChosen] = useState<string[]>([]);
@@ -25,7 +33,9 @@ export function RequestReviewPanel({ runId, canRequest, userId }: { runId: strin
   const [busy, setBusy] = useState(false);
 
   const asked = new Set((requests.data?.items ?? []).map((r) => r.reviewer.id));
-  const signers = (members.data?.items ?? []).filter((m) => (m.role === "owner" || m.role === "reviewer") && m.id !== userId);
+  const signers = (members.data?.items ?? []).filter(
+    (m) => (m.role === "owner" || m.role === "reviewer") && m.id !== userId,
+  );
 
   async function submit(e: FormEvent) {
     e.preventDefault();
@@ -70,7 +80,11 @@ export function RequestReviewPanel({ runId, canRequest, userId }: { runId: strin
         </ul>
       )}
       {canRequest && (
-        <form onSubmit={submit} className="flex flex-col gap-2 border-t border-paper-line pt-3" aria-label="Request review">
+        <form
+          onSubmit={submit}
+          className="flex flex-col gap-2 border-t border-paper-line pt-3"
+          aria-label="Request review"
+        >
           <fieldset>
             <legend className="mb-1 text-[12px] font-medium text-ink-soft">Reviewers</legend>
             {signers.length === 0 && <p className="text-[13px] text-ink-mute">No other member can sign off.</p>}
@@ -84,13 +98,24 @@ export function RequestReviewPanel({ runId, canRequest, userId }: { runId: strin
                     disabled={asked.has(m.id)}
                     onChange={(e) => setChosen((c) => (e.target.checked ? [...c, m.id] : c.filter((x) => x !== m.id)))}
                   />
-                  {m.name} <span className="text-[12px] text-ink-mute">({m.role}{asked.has(m.id) ? ", already asked" : ""})</span>
+                  {m.name}{" "}
+                  <span className="text-[12px] text-ink-mute">
+                    ({m.role}
+                    {asked.has(m.id) ? ", already asked" : ""})
+                  </span>
                 </label>
               ))}
             </div>
           </fieldset>
           <Field label="Message to the reviewers" htmlFor={`request-note-${runId}`} hint="Optional: what to look at.">
-            <TextArea id={`request-note-${runId}`} rows={2} className="min-h-12" maxLength={REVIEW_NOTE_MAX} value={note} onChange={(e) => setNote(e.target.value)} />
+            <TextArea
+              id={`request-note-${runId}`}
+              rows={2}
+              className="min-h-12"
+              maxLength={REVIEW_NOTE_MAX}
+              value={note}
+              onChange={(e) => setNote(e.target.value)}
+            />
           </Field>
           <div className="flex justify-end">
             <Button type="submit" size="sm" variant="primary" disabled={busy}>

@@ -18,7 +18,9 @@ export function ReviewPanel({ runId, role, userId }: { runId: string; role: Role
   const canComment = role === "owner" || role === "designer" || role === "reviewer";
   const canSignOff = role === "owner" || role === "reviewer";
   const canShare = role === "owner" || role === "designer";
-  const run = useRun(runId).data as (ReturnType<typeof useRun>["data"] & { scenarioVersion?: number | null }) | undefined;
+  const run = useRun(runId).data as
+    | (ReturnType<typeof useRun>["data"] & { scenarioVersion?: number | null })
+    | undefined;
   const scenario = useScenario(run?.scenarioId || null).data;
   const subject: RunSubject | null = run
     ? {

@@ -12,7 +12,17 @@ import type { QueueItem } from "@/lib/schemas/review";
 import type { RoleName } from "@/lib/schemas/team";
 import { ReviewStateBadge } from "./review-state-badge";
 
-function QueueTable({ items, caption, empty, show }: { items: QueueItem[]; caption: string; empty: string; show: "requests" | "decision" }) {
+function QueueTable({
+  items,
+  caption,
+  empty,
+  show,
+}: {
+  items: QueueItem[];
+  caption: string;
+  empty: string;
+  show: "requests" | "decision";
+}) {
   if (items.length === 0) return <p className="px-4 py-3 text-[13px] text-ink-mute">{empty}</p>;
   return (
     <Table aria-label={caption}>
@@ -29,7 +39,10 @@ function QueueTable({ items, caption, empty, show }: { items: QueueItem[]; capti
         {items.map((item) => (
           <TR key={item.run.id}>
             <TD className="min-w-44">
-              <Link href={`/runs/${item.run.id}`} className="font-medium text-ink hover:text-copper-deep hover:underline">
+              <Link
+                href={`/runs/${item.run.id}`}
+                className="font-medium text-ink hover:text-copper-deep hover:underline"
+              >
                 {item.run.label || "Run"}
               </Link>
               <div className="text-[12px] text-ink-faint">{formatDate(item.run.createdAt)}</div>
@@ -52,7 +65,10 @@ function QueueTable({ items, caption, empty, show }: { items: QueueItem[]; capti
                   {item.requests.map((r) => (
                     <li key={r.id}>
                       {r.reviewer.name}
-                      <span className="text-ink-faint"> · by {r.requestedBy.name}, {formatDate(r.createdAt)}</span>
+                      <span className="text-ink-faint">
+                        {" "}
+                        · by {r.requestedBy.name}, {formatDate(r.createdAt)}
+                      </span>
                       {r.decision === null ? <span className="text-ink-mute"> · waiting</span> : null}
                     </li>
                   ))}
@@ -104,14 +120,26 @@ export function ReviewQueueView({ role }: { role: RoleName }) {
               items={data.waitingOnMe}
               caption="Waiting on me"
               show="requests"
-              empty={signs ? "Nothing is waiting on your decision." : "Your role does not sign off, so nothing waits on you."}
+              empty={
+                signs ? "Nothing is waiting on your decision." : "Your role does not sign off, so nothing waits on you."
+              }
             />
           </Card>
           <Card title={`Requested by me (${data.requestedByMe.length})`} padded={false}>
-            <QueueTable items={data.requestedByMe} caption="Requested by me" show="requests" empty="You have not asked anyone to review a run." />
+            <QueueTable
+              items={data.requestedByMe}
+              caption="Requested by me"
+              show="requests"
+              empty="You have not asked anyone to review a run."
+            />
           </Card>
           <Card title={`Decided (${data.decided.length})`} padded={false}>
-            <QueueTable items={data.decided} caption="Decided" show="decision" empty="No run has a standing decision yet." />
+            <QueueTable
+              items={data.decided}
+              caption="Decided"
+              show="decision"
+              empty="No run has a standing decision yet."
+            />
           </Card>
         </>
       )}

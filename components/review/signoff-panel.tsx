@@ -112,7 +112,10 @@ export function SignoffPanel({
           </span>
         )}
         {outOfDate(latest) && (
-          <span className="rounded bg-caution-soft px-1.5 py-0.5 text-[12px] font-medium text-caution" data-testid="signoff-out-of-date">
+          <span
+            className="rounded bg-caution-soft px-1.5 py-0.5 text-[12px] font-medium text-caution"
+            data-testid="signoff-out-of-date"
+          >
             Out of date: the scenario is now at version {subject?.currentVersion}
           </span>
         )}
@@ -125,7 +128,8 @@ export function SignoffPanel({
             <li key={s.id} className="flex flex-wrap items-baseline gap-x-2 text-ink-soft">
               <span className="font-medium text-ink">{DECISION_LABEL[s.decision]}</span>
               <span>
-                {s.reviewer.name} · <span className="font-mono text-[11px] text-ink-faint">{formatDate(s.createdAt)}</span>
+                {s.reviewer.name} ·{" "}
+                <span className="font-mono text-[11px] text-ink-faint">{formatDate(s.createdAt)}</span>
                 {s.scenarioVersion ? ` · v${s.scenarioVersion}` : ""}
               </span>
               {canSignOff && userId && s.reviewer.id === userId && (
@@ -139,12 +143,15 @@ export function SignoffPanel({
       )}
       {withdrawn.length > 0 && (
         <details className="text-[13px]">
-          <summary className="cursor-pointer text-[12px] text-ink-mute">Withdrawn or replaced ({withdrawn.length})</summary>
+          <summary className="cursor-pointer text-[12px] text-ink-mute">
+            Withdrawn or replaced ({withdrawn.length})
+          </summary>
           <ol className="mt-1.5 flex flex-col gap-1.5" aria-label="Withdrawn sign-offs">
             {withdrawn.map((s) => (
               <li key={s.id} className="text-ink-soft">
                 <span className="line-through">{DECISION_LABEL[s.decision]}</span> · {s.reviewer.name} ·{" "}
-                <span className="font-mono text-[11px] text-ink-faint">{formatDate(s.createdAt)}</span> · withdrawn {formatDate(s.withdrawnAt)}
+                <span className="font-mono text-[11px] text-ink-faint">{formatDate(s.createdAt)}</span> · withdrawn{" "}
+                {formatDate(s.withdrawnAt)}
                 {s.note && <p className="mt-0.5 whitespace-pre-wrap break-words">{s.note}</p>}
               </li>
             ))}
@@ -152,7 +159,12 @@ export function SignoffPanel({
         </details>
       )}
       {canSignOff && (
-        <form onSubmit={submit} className="flex flex-col gap-2 border-t border-paper-line pt-3" aria-label="Sign off" noValidate>
+        <form
+          onSubmit={submit}
+          className="flex flex-col gap-2 border-t border-paper-line pt-3"
+          aria-label="Sign off"
+          noValidate
+        >
           <fieldset className="flex flex-wrap gap-4">
             <legend className="mb-1 text-[12px] font-medium text-ink-soft">Your decision</legend>
             {(["approved", "changes_requested"] as const).map((d) => (
@@ -193,7 +205,13 @@ export function SignoffPanel({
           </Field>
           <div className="flex justify-end">
             <Button type="submit" variant="primary" size="sm" disabled={busy || !decision}>
-              {busy ? "Saving…" : decision === "approved" ? "Approve…" : decision === "changes_requested" ? "Request changes" : "Sign off"}
+              {busy
+                ? "Saving…"
+                : decision === "approved"
+                  ? "Approve…"
+                  : decision === "changes_requested"
+                    ? "Request changes"
+                    : "Sign off"}
             </Button>
           </div>
           {problem && (
@@ -220,7 +238,10 @@ export function SignoffPanel({
           </>
         }
       >
-        <dl className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-3 gap-y-1 text-[13px]" data-testid="approve-confirmation">
+        <dl
+          className="grid grid-cols-[auto_minmax(0,1fr)] gap-x-3 gap-y-1 text-[13px]"
+          data-testid="approve-confirmation"
+        >
           <dt className="text-ink-mute">Scenario</dt>
           <dd className="break-words font-medium">{subject?.scenarioName ?? "—"}</dd>
           <dt className="text-ink-mute">Version</dt>
@@ -229,9 +250,12 @@ export function SignoffPanel({
           <dd className="break-words">{subject?.label ?? runId}</dd>
         </dl>
         <p className="mt-3 text-[12px] text-ink-mute">
-          The approval covers this run of {versionText(subject?.scenarioVersion)} only; a later edit of the scenario shows it as out of date.
+          The approval covers this run of {versionText(subject?.scenarioVersion)} only; a later edit of the scenario
+          shows it as out of date.
         </p>
-        {note.trim() && <p className="mt-2 whitespace-pre-wrap break-words text-[13px] text-ink-soft">Note: {note.trim()}</p>}
+        {note.trim() && (
+          <p className="mt-2 whitespace-pre-wrap break-words text-[13px] text-ink-soft">Note: {note.trim()}</p>
+        )}
       </Dialog>
     </div>
   );

@@ -16,7 +16,10 @@ interface VersionDoc {
 }
 
 const versionUrl = (id: string, v: number) => `/api/scenarios/${encodeURIComponent(id)}/versions/${v}`;
-const useVersion = (id: string, v: number | null) => useSWR<VersionDoc>(v && v >= 1 ? versionUrl(id, v) : null, (u: string) => fetchJson<VersionDoc>(u), { revalidateOnFocus: false });
+const useVersion = (id: string, v: number | null) =>
+  useSWR<VersionDoc>(v && v >= 1 ? versionUrl(id, v) : null, (u: string) => fetchJson<VersionDoc>(u), {
+    revalidateOnFocus: false,
+  });
 
 function NoteLine({ doc }: { doc: VersionDoc | undefined }) {
   if (!doc) return null;
@@ -40,8 +43,14 @@ export function VersionChanges({ scenarioId, version }: { scenarioId: string; ve
   const prev = useVersion(scenarioId, version > 1 ? version - 1 : null);
   const mine = useVersion(scenarioId, version);
   const latest = useVersion(scenarioId, current && current > version ? current : null);
-  if (version <= 1) return <p className="text-[13px] text-ink-mute">This run is of version 1, the scenario's first version: nothing to compare with.</p>;
-  if (mine.error || prev.error) return <p className="text-[13px] text-alert">Could not load the versions to compare.</p>;
+  if (version <= 1)
+    return (
+      <p className="text-[13px] text-ink-mute">
+        This run is of version 1, the scenario's first version: nothing to compare with.
+      </p>
+    );
+  if (mine.error || prev.error)
+    return <p className="text-[13px] text-alert">Could not load the versions to compare.</p>;
   if (!mine.data || !prev.data) return <p className="text-[13px] text-ink-mute">Loading versions…</p>;
   return (
     <div className="flex flex-col gap-3">
@@ -55,7 +64,9 @@ export function VersionChanges({ scenarioId, version }: { scenarioId: string; ve
       />
       {latest.data && (
         <div className="flex flex-col gap-2 border-t border-paper-line pt-3" data-testid="changes-since-run">
-          <p className="text-[13px] font-medium text-caution">The scenario was saved again after this run: now version {latest.data.version}.</p>
+          <p className="text-[13px] font-medium text-caution">
+            The scenario was saved again after this run: now version {latest.data.version}.
+          </p>
           <NoteLine doc={latest.data} />
           <VersionDiffTable
             before={mine.data.scenario}

@@ -75,7 +75,10 @@ export function RunView({ run, shared = false, review, studies, actions }: RunVi
               {/* A link holder sees the run, not who in the team made it. */}
               {shared ? null : ` by ${personName(run.createdBy)}`}
             </span>
-            <span>· re-run on the server ({result.solver.name}, {result.samples.t.length.toLocaleString("en")} stored samples)</span>
+            <span>
+              · re-run on the server ({result.solver.name}, {result.samples.t.length.toLocaleString("en")} stored
+              samples)
+            </span>
           </p>
         </div>
         <div className="flex flex-wrap gap-2">
@@ -95,7 +98,9 @@ export function RunView({ run, shared = false, review, studies, actions }: RunVi
         <h2 id="snapshot-heading" className="text-[13px] font-semibold uppercase tracking-wide text-ink-soft">
           Scenario snapshot
         </h2>
-        <p className="mb-2 text-[13px] text-ink-mute">Exactly what was run; later edits to the scenario do not change this run.</p>
+        <p className="mb-2 text-[13px] text-ink-mute">
+          Exactly what was run; later edits to the scenario do not change this run.
+        </p>
         <ScenarioTables scenario={scenario} />
       </section>
     </div>
@@ -177,9 +182,15 @@ export function RunResultPanels({ run }: { run: RunRecord }) {
         </div>
       </div>
       <Card title="Readings" className="min-w-0 self-start">
-        <ReadingsTable metrics={result.metrics} checks={analysis.checks} warnings={analysis.warnings} gain={analysis.gain} solver={result.solver} scenario={scenario} />
+        <ReadingsTable
+          metrics={result.metrics}
+          checks={analysis.checks}
+          warnings={analysis.warnings}
+          gain={analysis.gain}
+          solver={result.solver}
+          scenario={scenario}
+        />
       </Card>
     </div>
   );
 }
-

@@ -22,13 +22,27 @@ export interface ScenarioReadViewProps {
 export function ScenarioReadView({ scenarioId, showCaution, actions }: ScenarioReadViewProps) {
   const { data, error, isLoading, mutate } = useScenario(scenarioId);
   return (
-    <LoadGate data={data} error={error} isLoading={isLoading} onRetry={() => void mutate()} notFoundTitle="Scenario not found">
+    <LoadGate
+      data={data}
+      error={error}
+      isLoading={isLoading}
+      onRetry={() => void mutate()}
+      notFoundTitle="Scenario not found"
+    >
       {(record) => <ScenarioReadBody record={record} showCaution={showCaution} actions={actions} />}
     </LoadGate>
   );
 }
 
-function ScenarioReadBody({ record, showCaution, actions }: { record: ScenarioRecord; showCaution?: boolean; actions?: ReactNode }) {
+function ScenarioReadBody({
+  record,
+  showCaution,
+  actions,
+}: {
+  record: ScenarioRecord;
+  showCaution?: boolean;
+  actions?: ReactNode;
+}) {
   const board = useBoard(record.boardId);
   return (
     <>
@@ -67,7 +81,8 @@ export function ScenarioHeading({ record, boardName, actions }: ScenarioHeadingP
         <span className="flex flex-wrap items-center gap-x-2 gap-y-1">
           <Badge>v{record.version}</Badge>
           <span>
-            updated <span title={formatDate(record.updatedAt)}>{formatRelative(record.updatedAt)}</span> by {personName(record.updatedBy)}
+            updated <span title={formatDate(record.updatedAt)}>{formatRelative(record.updatedAt)}</span> by{" "}
+            {personName(record.updatedBy)}
           </span>
         </span>
       }

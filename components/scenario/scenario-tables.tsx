@@ -9,7 +9,14 @@ import { formatQuantity, formatRkm } from "@/lib/design/notation";
 import { conditionsOf, stageFigures } from "@/lib/design/analysis";
 import { defaultInitialOutput } from "@/lib/sim/network";
 import { scenarioSchema, type InputComponent, type Scenario, type ScenarioInput } from "@/lib/schemas/scenario";
-import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL, STAGE_ROLE_ORDER, inputWhere, roleWhere, type StageRole } from "./stage-labels";
+import {
+  STAGE_KIND_LABEL,
+  STAGE_ROLE_LABEL,
+  STAGE_ROLE_ORDER,
+  inputWhere,
+  roleWhere,
+  type StageRole,
+} from "./stage-labels";
 
 const q = (v: number, unit: string, digits = 4) => formatQuantity(v, unit, digits);
 const volts = (v: number) => q(v, "V");
@@ -37,7 +44,16 @@ export function ScenarioTables({ scenario }: ScenarioTablesProps) {
 
 export function StageTable({ scenario }: ScenarioTablesProps) {
   const stage = scenario.stage as Record<string, unknown> & { kind: Scenario["stage"]["kind"] };
-  const rows: KeyValueRow[] = [{ label: "Input enters", value: <span className="font-sans">{inputWhere(stage.kind, stage.inputAt === "inverting" ? "inverting" : "noninverting")}</span> }];
+  const rows: KeyValueRow[] = [
+    {
+      label: "Input enters",
+      value: (
+        <span className="font-sans">
+          {inputWhere(stage.kind, stage.inputAt === "inverting" ? "inverting" : "noninverting")}
+        </span>
+      ),
+    },
+  ];
   for (const role of STAGE_ROLE_ORDER) {
     const v = stage[role];
     if (typeof v !== "number") continue;
@@ -118,11 +134,20 @@ export function PartProfileTable({ scenario }: ScenarioTablesProps) {
   const o = scenario.opamp;
   const rows: KeyValueRow[] = [
     // Not "100 kV/V": a prefix on a ratio reads like kilovolts.
-    { label: "Open-loop gain", value: `${Math.round(o.openLoopGain).toLocaleString("en-US")} V/V`, note: `${(20 * Math.log10(o.openLoopGain)).toFixed(0)} dB` },
+    {
+      label: "Open-loop gain",
+      value: `${Math.round(o.openLoopGain).toLocaleString("en-US")} V/V`,
+      note: `${(20 * Math.log10(o.openLoopGain)).toFixed(0)} dB`,
+    },
     { label: "Gain-bandwidth", value: q(o.gainBandwidth, "Hz") },
-    { label: "Slew rate", value: `${num(o.slewRate / 1e6)} V/µs`, note: o.slewRateFall === undefined ? "both edges" : "rising" },
+    {
+      label: "Slew rate",
+      value: `${num(o.slewRate / 1e6)} V/µs`,
+      note: o.slewRateFall === undefined ? "both edges" : "rising",
+    },
   ];
-  if (o.slewRateFall !== undefined) rows.push({ label: "Slew rate, falling", value: `${num(o.slewRateFall / 1e6)} V/µs` });
+  if (o.slewRateFall !== undefined)
+    rows.push({ label: "Slew rate, falling", value: `${num(o.slewRateFall / 1e6)} V/µs` });
   rows.push(
     { label: "Headroom to V+", value: volts(o.outputHeadroomHigh) },
     { label: "Headroom to V−", value: volts(o.outputHeadroomLow) },

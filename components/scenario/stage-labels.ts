@@ -22,7 +22,7 @@ export const STAGE_KIND_SHORT: Record<StageKind, string> = {
 
 export type StageRole = "rInput" | "rFeedback" | "rGround" | "rReference" | "rTiming" | "cTiming";
 
-/** Where each part sits in the network (DESIGN.md, stage topologies). */
+/** Where each part sits in the network (lib/schemas/README.md § Stage topologies). */
 export const STAGE_ROLE_LABEL: Record<StageRole, { name: string; between: string }> = {
   rInput: { name: "R input", between: "input → summing pin" },
   rFeedback: { name: "R feedback", between: "output → summing pin" },
@@ -34,7 +34,7 @@ export const STAGE_ROLE_LABEL: Record<StageRole, { name: string; between: string
 
 export const STAGE_ROLE_ORDER: StageRole[] = ["rInput", "rGround", "rReference", "rFeedback", "rTiming", "cTiming"];
 
-/** Exact position of a part in a given stage kind (DESIGN.md topologies), e.g. rFeedback of a Schmitt trigger: "output → v+". */
+/** Exact position of a part in a given stage kind (lib/schemas/README.md § Stage topologies), e.g. rFeedback of a Schmitt trigger: "output → v+". */
 export function roleWhere(kind: StageKind, role: StageRole): string {
   const toPlus = kind === "schmitt-noninverting" || kind === "schmitt-inverting" || kind === "relaxation-oscillator";
   switch (role) {

@@ -2,9 +2,26 @@
 import { Table, TBody, TD, TH, THead, TR } from "@/components/ui/table";
 import { diffScenarios } from "./version-diff";
 
-export function VersionDiffTable({ before, after, beforeTitle, afterTitle, caption }: { before: unknown; after: unknown; beforeTitle: string; afterTitle: string; caption: string }) {
+export function VersionDiffTable({
+  before,
+  after,
+  beforeTitle,
+  afterTitle,
+  caption,
+}: {
+  before: unknown;
+  after: unknown;
+  beforeTitle: string;
+  afterTitle: string;
+  caption: string;
+}) {
   const changes = diffScenarios(before, after);
-  if (changes.length === 0) return <p className="text-[13px] text-ink-mute" data-testid="version-diff-empty">No field changed between {beforeTitle} and {afterTitle}.</p>;
+  if (changes.length === 0)
+    return (
+      <p className="text-[13px] text-ink-mute" data-testid="version-diff-empty">
+        No field changed between {beforeTitle} and {afterTitle}.
+      </p>
+    );
   return (
     <Table aria-label={caption} data-testid="version-diff">
       <THead>

@@ -107,7 +107,14 @@ function walk(a: unknown, b: unknown, path: string[], out: FieldChange[]): void 
     const rb = (objB ? b : {}) as Record<string, unknown>;
     const keys = [...new Set([...Object.keys(ra), ...Object.keys(rb)])];
     for (const k of keys) walk(ra[k], rb[k], [...path, k], out);
-    if (!objA && a !== undefined) out.push({ path: path.join("."), label: labelOf(path), before: formatField(key, a), after: "(section)", kind: "changed" });
+    if (!objA && a !== undefined)
+      out.push({
+        path: path.join("."),
+        label: labelOf(path),
+        before: formatField(key, a),
+        after: "(section)",
+        kind: "changed",
+      });
     return;
   }
   if (JSON.stringify(a) === JSON.stringify(b)) return;

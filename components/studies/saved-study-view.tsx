@@ -21,7 +21,9 @@ export function SavedStudyView({ study, hideWhenEmpty = false }: { study: unknow
     return (
       <div data-testid="saved-studies">
         <Card title="Studies">
-          <p className="text-[13px] text-ink-mute">No noise margin study or tolerance spread was saved with this run.</p>
+          <p className="text-[13px] text-ink-mute">
+            No noise margin study or tolerance spread was saved with this run.
+          </p>
         </Card>
       </div>
     );

@@ -81,7 +81,14 @@ function StudyProgress({ store, onCancel }: { store: ProgressStore; onCancel: ()
   const pct = progress.total ? Math.round((100 * progress.done) / progress.total) : 0;
   return (
     <div className="mb-3 flex items-center gap-2" data-testid="study-progress">
-      <div className="h-1.5 flex-1 overflow-hidden rounded-full bg-paper-sunk" role="progressbar" aria-label="Study progress" aria-valuemin={0} aria-valuemax={100} aria-valuenow={pct}>
+      <div
+        className="h-1.5 flex-1 overflow-hidden rounded-full bg-paper-sunk"
+        role="progressbar"
+        aria-label="Study progress"
+        aria-valuemin={0}
+        aria-valuemax={100}
+        aria-valuenow={pct}
+      >
         <div className="h-full rounded-full bg-copper" style={{ width: `${pct}%` }} />
       </div>
       <span className="font-mono text-[12px] text-ink-mute">
@@ -123,7 +130,9 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
   }, [scenario]);
 
   // Stable callbacks for the memoised forms; they call the latest `run`.
-  const runRef = useRef<(which: StudyTab, config: NoiseMarginConfig | ToleranceSpreadConfig) => Promise<void>>(async () => {});
+  const runRef = useRef<(which: StudyTab, config: NoiseMarginConfig | ToleranceSpreadConfig) => Promise<void>>(
+    async () => {},
+  );
   const runNoise = useCallback((c: NoiseMarginConfig) => void runRef.current("noise", c), []);
   const runTolerance = useCallback((c: ToleranceSpreadConfig) => void runRef.current("tolerance", c), []);
 
@@ -150,13 +159,31 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
       const out = await runStudyInPool({ scenario, config }, { signal: ac.signal, onProgress });
       if (config.kind === "noise-margin") {
         const tasks = out.tasks as NoiseTaskOutput[];
-        setNoise({ on, config, tasks, summary: summarizeNoiseMargin(config, tasks), wallMs: out.wallMs, workers: out.workers });
+        setNoise({
+          on,
+          config,
+          tasks,
+          summary: summarizeNoiseMargin(config, tasks),
+          wallMs: out.wallMs,
+          workers: out.workers,
+        });
       } else {
         const tasks = out.tasks as DrawOutput[];
-        setTolerance({ on, config, tasks, summary: summarizeToleranceSpread(config, tasks, studyCorners(scenario, config)), wallMs: out.wallMs, workers: out.workers });
+        setTolerance({
+          on,
+          config,
+          tasks,
+          summary: summarizeToleranceSpread(config, tasks, studyCorners(scenario, config)),
+          wallMs: out.wallMs,
+          workers: out.workers,
+        });
       }
     } catch (e) {
-      setError(e instanceof StudyCancelled ? "Study cancelled; every worker was stopped." : `Study failed — ${errorMessage(e)}`);
+      setError(
+        e instanceof StudyCancelled
+          ? "Study cancelled; every worker was stopped."
+          : `Study failed — ${errorMessage(e)}`,
+      );
     } finally {
       setRunning(null);
       abort.current = null;
@@ -167,8 +194,15 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
 
   const save = async () => {
     const upload: StudyUpload = { schema: "railwise.study/1" };
-    if (noise) upload.noiseMargin = { config: noise.config, tasks: noise.tasks, wallMs: noise.wallMs, workers: noise.workers };
-    if (tolerance) upload.toleranceSpread = { config: tolerance.config, tasks: tolerance.tasks, wallMs: tolerance.wallMs, workers: tolerance.workers };
+    if (noise)
+      upload.noiseMargin = { config: noise.config, tasks: noise.tasks, wallMs: noise.wallMs, workers: noise.workers };
+    if (tolerance)
+      upload.toleranceSpread = {
+        config: tolerance.config,
+        tasks: tolerance.tasks,
+        wallMs: tolerance.wallMs,
+        workers: tolerance.workers,
+      };
     setSaving(true);
     setError(null);
     try {
@@ -192,11 +226,21 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
       actions={
         <span className="flex items-center gap-2">
           {blocked && (noise || tolerance) ? (
-            <span className="text-[12px] text-caution" data-testid="study-save-blocked">{blocked}</span>
+            <span className="text-[12px] text-caution" data-testid="study-save-blocked">
+              {blocked}
+            </span>
           ) : !(noise || tolerance) ? (
-            <span className="text-[12px] text-ink-mute" data-testid="study-save-blocked">Run a study first; then save it with a new run.</span>
+            <span className="text-[12px] text-ink-mute" data-testid="study-save-blocked">
+              Run a study first; then save it with a new run.
+            </span>
           ) : null}
-          <Button size="sm" variant="primary" disabled={!(noise || tolerance) || !!blocked || saving || !!running} onClick={() => void save()} data-testid="save-study-button">
+          <Button
+            size="sm"
+            variant="primary"
+            disabled={!(noise || tolerance) || !!blocked || saving || !!running}
+            onClick={() => void save()}
+            data-testid="save-study-button"
+          >
             {saving ? "Saving…" : "Save with a new run"}
           </Button>
         </span>
@@ -213,14 +257,27 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
           ]}
         />
         {!scenario ? (
-          <p className="px-4 py-3 text-[13px] text-alert">Fix the scenario's fields first: a study needs a valid scenario.</p>
+          <p className="px-4 py-3 text-[13px] text-alert">
+            Fix the scenario's fields first: a study needs a valid scenario.
+          </p>
         ) : (
           <div className="grid min-w-0 gap-0 lg:grid-cols-[340px_minmax(0,1fr)]">
             <div className="border-b border-paper-line lg:border-b-0 lg:border-r">
               {tab === "noise" ? (
-                <NoiseFormMemo key={`n-${scenario.stage.kind}`} scenario={scenario} capture={capture} busy={!!running} onRun={runNoise} />
+                <NoiseFormMemo
+                  key={`n-${scenario.stage.kind}`}
+                  scenario={scenario}
+                  capture={capture}
+                  busy={!!running}
+                  onRun={runNoise}
+                />
               ) : (
-                <ToleranceFormMemo key={`t-${scenario.stage.kind}`} scenario={scenario} busy={!!running} onRun={runTolerance} />
+                <ToleranceFormMemo
+                  key={`t-${scenario.stage.kind}`}
+                  scenario={scenario}
+                  busy={!!running}
+                  onRun={runTolerance}
+                />
               )}
             </div>
             <div className="min-w-0 p-3">
@@ -231,21 +288,35 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
                 </p>
               ) : null}
               {saved ? (
-                <p className="mb-2 rounded border-l-[3px] border-moss bg-moss-soft/70 px-2 py-1 text-[13px]" role="status" data-testid="study-saved">
+                <p
+                  className="mb-2 rounded border-l-[3px] border-moss bg-moss-soft/70 px-2 py-1 text-[13px]"
+                  role="status"
+                  data-testid="study-saved"
+                >
                   Study saved with a new run.{" "}
-                  <Link href={`/runs/${saved.runId}`} className="font-medium text-copper-deep underline" data-testid="study-run-link">
+                  <Link
+                    href={`/runs/${saved.runId}`}
+                    className="font-medium text-copper-deep underline"
+                    data-testid="study-run-link"
+                  >
                     Open the run
                   </Link>
                 </p>
               ) : null}
               {tab === "noise" ? (
                 noise ? (
-                  <NoiseResultMemo summary={noise.summary} meta={`${noise.tasks.length.toLocaleString("en")} runs in ${(noise.wallMs / 1000).toFixed(2)} s on ${noise.workers} workers.`} />
+                  <NoiseResultMemo
+                    summary={noise.summary}
+                    meta={`${noise.tasks.length.toLocaleString("en")} runs in ${(noise.wallMs / 1000).toFixed(2)} s on ${noise.workers} workers.`}
+                  />
                 ) : (
                   <Idle text="Sweeps the noise rms on this scenario's input, many seeds per level, and counts how often the output switches more often than it does without noise." />
                 )
               ) : tolerance ? (
-                <ToleranceResultMemo summary={tolerance.summary} meta={`${tolerance.tasks.length.toLocaleString("en")} runs in ${(tolerance.wallMs / 1000).toFixed(2)} s on ${tolerance.workers} workers.`} />
+                <ToleranceResultMemo
+                  summary={tolerance.summary}
+                  meta={`${tolerance.tasks.length.toLocaleString("en")} runs in ${(tolerance.wallMs / 1000).toFixed(2)} s on ${tolerance.workers} workers.`}
+                />
               ) : (
                 <Idle text="Draws resistor values, input offset and output headroom within tolerance, simulates each draw, and measures where it switches." />
               )}
@@ -261,7 +332,17 @@ function Idle({ text }: { text: string }) {
   return <p className="py-6 text-center text-[13px] text-ink-mute">{text}</p>;
 }
 
-function NoiseForm({ scenario, capture, busy, onRun }: { scenario: Scenario; capture: CaptureNoiseEstimate | null; busy: boolean; onRun: (c: NoiseMarginConfig) => void }) {
+function NoiseForm({
+  scenario,
+  capture,
+  busy,
+  onRun,
+}: {
+  scenario: Scenario;
+  capture: CaptureNoiseEstimate | null;
+  busy: boolean;
+  onRun: (c: NoiseMarginConfig) => void;
+}) {
   const [f, setF] = useState(() => suggestNoise(scenario, capture));
   const [useCapture, setUseCapture] = useState(!!capture);
   const set = (patch: Partial<typeof f>) => setF((o) => ({ ...o, ...patch }));
@@ -274,7 +355,10 @@ function NoiseForm({ scenario, capture, busy, onRun }: { scenario: Scenario; cap
     seedsPerLevel: f.seedsPerLevel,
     bandwidth: f.bandwidth,
     limit: f.limit,
-    measured: useCapture && capture ? { rms: capture.modelRms, bandwidth: capture.bandwidth, label: "capture noise" } : undefined,
+    measured:
+      useCapture && capture
+        ? { rms: capture.modelRms, bandwidth: capture.bandwidth, label: "capture noise" }
+        : undefined,
   });
   return (
     <form
@@ -285,33 +369,105 @@ function NoiseForm({ scenario, capture, busy, onRun }: { scenario: Scenario; cap
       data-testid="noise-form"
     >
       <Section title="Sweep">
-        <QuantityField name="noise-rms-from" label="rms from" unit="V" value={f.rmsFrom} onCommit={(v) => set({ rmsFrom: v })} />
-        <QuantityField name="noise-rms-to" label="rms to" unit="V" value={f.rmsTo} onCommit={(v) => set({ rmsTo: v })} />
-        <QuantityField name="noise-levels" label="levels" unit="" plain value={f.levels} onCommit={(v) => set({ levels: Math.round(v) })} />
-        <QuantityField name="noise-seeds" label="seeds per level" unit="" plain value={f.seedsPerLevel} onCommit={(v) => set({ seedsPerLevel: Math.round(v) })} />
-        <QuantityField name="noise-bandwidth" label="bandwidth" unit="Hz" value={f.bandwidth} onCommit={(v) => set({ bandwidth: v })} />
-        <QuantityField name="noise-limit" label="chatter limit" unit="%" plain value={f.limit * 100} onCommit={(v) => set({ limit: v / 100 })} />
-        <QuantityField name="noise-seed" label="study seed" unit="" plain value={f.seed} onCommit={(v) => set({ seed: Math.round(v) })} />
+        <QuantityField
+          name="noise-rms-from"
+          label="rms from"
+          unit="V"
+          value={f.rmsFrom}
+          onCommit={(v) => set({ rmsFrom: v })}
+        />
+        <QuantityField
+          name="noise-rms-to"
+          label="rms to"
+          unit="V"
+          value={f.rmsTo}
+          onCommit={(v) => set({ rmsTo: v })}
+        />
+        <QuantityField
+          name="noise-levels"
+          label="levels"
+          unit=""
+          plain
+          value={f.levels}
+          onCommit={(v) => set({ levels: Math.round(v) })}
+        />
+        <QuantityField
+          name="noise-seeds"
+          label="seeds per level"
+          unit=""
+          plain
+          value={f.seedsPerLevel}
+          onCommit={(v) => set({ seedsPerLevel: Math.round(v) })}
+        />
+        <QuantityField
+          name="noise-bandwidth"
+          label="bandwidth"
+          unit="Hz"
+          value={f.bandwidth}
+          onCommit={(v) => set({ bandwidth: v })}
+        />
+        <QuantityField
+          name="noise-limit"
+          label="chatter limit"
+          unit="%"
+          plain
+          value={f.limit * 100}
+          onCommit={(v) => set({ limit: v / 100 })}
+        />
+        <QuantityField
+          name="noise-seed"
+          label="study seed"
+          unit=""
+          plain
+          value={f.seed}
+          onCommit={(v) => set({ seed: Math.round(v) })}
+        />
       </Section>
       <Section title="Measured noise">
         {capture ? (
           <label className="flex items-start gap-2 text-[12.5px] text-ink-soft">
-            <input type="checkbox" className="mt-0.5" checked={useCapture} onChange={(e) => setUseCapture(e.target.checked)} data-testid="use-capture-noise" />
+            <input
+              type="checkbox"
+              className="mt-0.5"
+              checked={useCapture}
+              onChange={(e) => setUseCapture(e.target.checked)}
+              data-testid="use-capture-noise"
+            />
             <span>
-              Mark the capture's noise: <span className="font-mono text-ink">{fmtV(capture.modelRms)}</span> rms, <span className="font-mono text-ink">{Math.round(capture.bandwidth)} Hz</span>
+              Mark the capture's noise: <span className="font-mono text-ink">{fmtV(capture.modelRms)}</span> rms,{" "}
+              <span className="font-mono text-ink">{Math.round(capture.bandwidth)} Hz</span>
               {capture.limitedBySampling ? " (at the capture's own sampling limit: the real noise may be wider)" : ""}.{" "}
-              <button type="button" className="text-copper-deep underline" onClick={() => set({ bandwidth: capture.bandwidth })}>
+              <button
+                type="button"
+                className="text-copper-deep underline"
+                onClick={() => set({ bandwidth: capture.bandwidth })}
+              >
                 Use its bandwidth
               </button>
             </span>
           </label>
         ) : (
-          <p className="text-[12px] text-ink-mute">Add a capture to the Signal to estimate its noise (detrended residual rms; bandwidth from its zero-crossing rate).</p>
+          <p className="text-[12px] text-ink-mute">
+            Add a capture to the Signal to estimate its noise (detrended residual rms; bandwidth from its zero-crossing
+            rate).
+          </p>
         )}
       </Section>
       <div className="flex items-center justify-between gap-2 px-3 pb-3">
-        <span className="text-[12px] text-ink-mute">{parsed.success ? `${(1 + f.levels * f.seedsPerLevel).toLocaleString("en")} runs` : <span className="text-alert">{studyIssueText(parsed.error.issues)}</span>}</span>
-        <Button type="submit" size="sm" variant="primary" disabled={busy || !parsed.success} data-testid="run-noise-study">
+        <span className="text-[12px] text-ink-mute">
+          {parsed.success ? (
+            `${(1 + f.levels * f.seedsPerLevel).toLocaleString("en")} runs`
+          ) : (
+            <span className="text-alert">{studyIssueText(parsed.error.issues)}</span>
+          )}
+        </span>
+        <Button
+          type="submit"
+          size="sm"
+          variant="primary"
+          disabled={busy || !parsed.success}
+          data-testid="run-noise-study"
+        >
           Run study
         </Button>
       </div>
@@ -322,7 +478,15 @@ function NoiseForm({ scenario, capture, busy, onRun }: { scenario: Scenario; cap
 const NoiseFormMemo = memo(NoiseForm);
 const ToleranceFormMemo = memo(ToleranceForm);
 
-function ToleranceForm({ scenario, busy, onRun }: { scenario: Scenario; busy: boolean; onRun: (c: ToleranceSpreadConfig) => void }) {
+function ToleranceForm({
+  scenario,
+  busy,
+  onRun,
+}: {
+  scenario: Scenario;
+  busy: boolean;
+  onRun: (c: ToleranceSpreadConfig) => void;
+}) {
   const [f, setF] = useState(() => suggestTolerance(scenario));
   const set = (patch: Partial<typeof f>) => setF((o) => ({ ...o, ...patch }));
   const [probeLo, probeHi] = useMemo(() => inputRange(scenario), [scenario]);
@@ -353,31 +517,99 @@ function ToleranceForm({ scenario, busy, onRun }: { scenario: Scenario; busy: bo
       data-testid="tolerance-form"
     >
       <Section title="Draws">
-        <QuantityField name="tol-draws" label="draws" unit="" plain value={f.draws} onCommit={(v) => set({ draws: Math.round(v) })} />
-        <QuantityField name="tol-resistors" label="resistors ±" unit="%" plain value={f.resistorTolerance * 100} onCommit={(v) => set({ resistorTolerance: v / 100 })} />
-        <QuantityField name="tol-offset" label="offset ±" unit="V" value={f.offsetTolerance} onCommit={(v) => set({ offsetTolerance: v })} />
-        <QuantityField name="tol-headroom" label="headroom ±" unit="%" plain value={f.headroomSpread * 100} onCommit={(v) => set({ headroomSpread: v / 100 })} />
-        <SelectRow label="distribution" value={f.distribution} onChange={(e) => set({ distribution: e.target.value as "uniform" | "normal" })}>
+        <QuantityField
+          name="tol-draws"
+          label="draws"
+          unit=""
+          plain
+          value={f.draws}
+          onCommit={(v) => set({ draws: Math.round(v) })}
+        />
+        <QuantityField
+          name="tol-resistors"
+          label="resistors ±"
+          unit="%"
+          plain
+          value={f.resistorTolerance * 100}
+          onCommit={(v) => set({ resistorTolerance: v / 100 })}
+        />
+        <QuantityField
+          name="tol-offset"
+          label="offset ±"
+          unit="V"
+          value={f.offsetTolerance}
+          onCommit={(v) => set({ offsetTolerance: v })}
+        />
+        <QuantityField
+          name="tol-headroom"
+          label="headroom ±"
+          unit="%"
+          plain
+          value={f.headroomSpread * 100}
+          onCommit={(v) => set({ headroomSpread: v / 100 })}
+        />
+        <SelectRow
+          label="distribution"
+          value={f.distribution}
+          onChange={(e) => set({ distribution: e.target.value as "uniform" | "normal" })}
+        >
           <option value="uniform">uniform within tolerance</option>
           <option value="normal">normal, tolerance = 3σ</option>
         </SelectRow>
-        <SelectRow label="input" value={f.probe} onChange={(e) => set({ probe: e.target.value as "scenario" | "triangle" })}>
+        <SelectRow
+          label="input"
+          value={f.probe}
+          onChange={(e) => set({ probe: e.target.value as "scenario" | "triangle" })}
+        >
           <option value="scenario">the scenario's own (no noise)</option>
-          <option value="triangle">slow triangle {fmtV(probeLo)} … {fmtV(probeHi)}</option>
+          <option value="triangle">
+            slow triangle {fmtV(probeLo)} … {fmtV(probeHi)}
+          </option>
         </SelectRow>
-        <QuantityField name="tol-seed" label="study seed" unit="" plain value={f.seed} onCommit={(v) => set({ seed: Math.round(v) })} />
+        <QuantityField
+          name="tol-seed"
+          label="study seed"
+          unit=""
+          plain
+          value={f.seed}
+          onCommit={(v) => set({ seed: Math.round(v) })}
+        />
       </Section>
       <Section title="Spec window">
         {f.measures.map((m) => (
           <div key={m}>
-            <QuantityField name={`win-${m}-min`} label={`${MEASURE_LABEL[m]} min`} unit={MEASURE_UNIT[m]} value={f.window[m]?.[0]} onCommit={(v) => setWindow(m, 0, v)} />
-            <QuantityField name={`win-${m}-max`} label={`${MEASURE_LABEL[m]} max`} unit={MEASURE_UNIT[m]} value={f.window[m]?.[1]} onCommit={(v) => setWindow(m, 1, v)} />
+            <QuantityField
+              name={`win-${m}-min`}
+              label={`${MEASURE_LABEL[m]} min`}
+              unit={MEASURE_UNIT[m]}
+              value={f.window[m]?.[0]}
+              onCommit={(v) => setWindow(m, 0, v)}
+            />
+            <QuantityField
+              name={`win-${m}-max`}
+              label={`${MEASURE_LABEL[m]} max`}
+              unit={MEASURE_UNIT[m]}
+              value={f.window[m]?.[1]}
+              onCommit={(v) => setWindow(m, 1, v)}
+            />
           </div>
         ))}
       </Section>
       <div className="flex items-center justify-between gap-2 px-3 pb-3">
-        <span className="text-[12px] text-ink-mute">{parsed.success ? `${(1 + f.draws).toLocaleString("en")} runs` : <span className="text-alert">{studyIssueText(parsed.error.issues)}</span>}</span>
-        <Button type="submit" size="sm" variant="primary" disabled={busy || !parsed.success} data-testid="run-tolerance-study">
+        <span className="text-[12px] text-ink-mute">
+          {parsed.success ? (
+            `${(1 + f.draws).toLocaleString("en")} runs`
+          ) : (
+            <span className="text-alert">{studyIssueText(parsed.error.issues)}</span>
+          )}
+        </span>
+        <Button
+          type="submit"
+          size="sm"
+          variant="primary"
+          disabled={busy || !parsed.success}
+          data-testid="run-tolerance-study"
+        >
           Run spread
         </Button>
       </div>

@@ -42,7 +42,15 @@ function tag(u: uPlot, x: number, text: string, color: string, row: number, side
   ctx.restore();
 }
 
-export function ChatterPlot({ summary, height = 240, fileName = "noise-margin.png" }: { summary: NoiseMarginSummary; height?: number; fileName?: string }) {
+export function ChatterPlot({
+  summary,
+  height = 240,
+  fileName = "noise-margin.png",
+}: {
+  summary: NoiseMarginSummary;
+  height?: number;
+  fileName?: string;
+}) {
   const ref = useRef<HTMLDivElement>(null);
   const plot = useUPlot(
     ref,
@@ -60,11 +68,21 @@ export function ChatterPlot({ summary, height = 240, fileName = "noise-margin.pn
         scales: { x: { time: false, range: [0, xMax] }, y: { range: [0, 1] } },
         axes: [
           axis({ values: siTicks("V"), label: "noise rms", labelSize: 18, size: 34 }),
-          axis({ values: (_u, s) => s.map((v) => `${Math.round(v * 100)} %`), size: 48, label: "chatter probability", labelSize: 18 }),
+          axis({
+            values: (_u, s) => s.map((v) => `${Math.round(v * 100)} %`),
+            size: 48,
+            label: "chatter probability",
+            labelSize: 18,
+          }),
         ],
         series: [
           {},
-          { label: "estimate", stroke: STUDY_COLORS.estimate, width: 2, points: { show: true, size: 5, fill: STUDY_COLORS.estimate } },
+          {
+            label: "estimate",
+            stroke: STUDY_COLORS.estimate,
+            width: 2,
+            points: { show: true, size: 5, fill: STUDY_COLORS.estimate },
+          },
           { label: "95 % low", stroke: "rgba(181,86,42,0.35)", width: 1 },
           { label: "95 % high", stroke: "rgba(181,86,42,0.35)", width: 1 },
         ],
@@ -80,7 +98,13 @@ export function ChatterPlot({ summary, height = 240, fileName = "noise-margin.pn
               }
               if (summary.safeRms !== null) {
                 vLine(u, summary.safeRms, STUDY_COLORS.safe, []);
-                tag(u, summary.safeRms, `≤ ${(summary.limit * 100).toFixed(summary.limit < 0.01 ? 1 : 0)} % chatter`, STUDY_COLORS.safe, row++);
+                tag(
+                  u,
+                  summary.safeRms,
+                  `≤ ${(summary.limit * 100).toFixed(summary.limit < 0.01 ? 1 : 0)} % chatter`,
+                  STUDY_COLORS.safe,
+                  row++,
+                );
               }
               if (summary.measured) {
                 vLine(u, summary.measured.rms, STUDY_COLORS.measured, [2, 3]);
@@ -97,7 +121,9 @@ export function ChatterPlot({ summary, height = 240, fileName = "noise-margin.pn
   return (
     <div className="min-w-0">
       <div ref={ref} className="min-w-0" data-testid="chatter-plot" />
-      <PlotFoot onPng={() => plot.current && exportPlotPng(plot.current, "Noise margin study — chatter probability", fileName)} />
+      <PlotFoot
+        onPng={() => plot.current && exportPlotPng(plot.current, "Noise margin study — chatter probability", fileName)}
+      />
     </div>
   );
 }
@@ -108,9 +134,22 @@ export const MEASURE_LABEL: Record<MeasureSpread["measure"], string> = {
   gain: "Gain",
   period: "Period",
 };
-export const MEASURE_UNIT: Record<MeasureSpread["measure"], string> = { upperThreshold: "V", lowerThreshold: "V", gain: "", period: "s" };
+export const MEASURE_UNIT: Record<MeasureSpread["measure"], string> = {
+  upperThreshold: "V",
+  lowerThreshold: "V",
+  gain: "",
+  period: "s",
+};
 
-export function SpreadHistogram({ spread, height = 190, fileName }: { spread: MeasureSpread; height?: number; fileName?: string }) {
+export function SpreadHistogram({
+  spread,
+  height = 190,
+  fileName,
+}: {
+  spread: MeasureSpread;
+  height?: number;
+  fileName?: string;
+}) {
   const ref = useRef<HTMLDivElement>(null);
   const plot = useUPlot(
     ref,
@@ -180,7 +219,16 @@ export function SpreadHistogram({ spread, height = 190, fileName }: { spread: Me
   return (
     <div className="min-w-0">
       <div ref={ref} className="min-w-0" data-testid={`histogram-${spread.measure}`} />
-      <PlotFoot onPng={() => plot.current && exportPlotPng(plot.current, `Tolerance spread — ${MEASURE_LABEL[spread.measure]}`, fileName ?? `spread-${spread.measure}.png`)} />
+      <PlotFoot
+        onPng={() =>
+          plot.current &&
+          exportPlotPng(
+            plot.current,
+            `Tolerance spread — ${MEASURE_LABEL[spread.measure]}`,
+            fileName ?? `spread-${spread.measure}.png`,
+          )
+        }
+      />
     </div>
   );
 }
@@ -188,7 +236,12 @@ export function SpreadHistogram({ spread, height = 190, fileName }: { spread: Me
 function PlotFoot({ onPng }: { onPng: () => void }) {
   return (
     <div className="flex justify-end">
-      <button type="button" onClick={onPng} className="h-5 rounded border border-paper-line bg-white px-1.5 text-[11px] text-ink-mute hover:text-ink" title="Save this chart as a PNG image">
+      <button
+        type="button"
+        onClick={onPng}
+        className="h-5 rounded border border-paper-line bg-white px-1.5 text-[11px] text-ink-mute hover:text-ink"
+        title="Save this chart as a PNG image"
+      >
         PNG
       </button>
     </div>

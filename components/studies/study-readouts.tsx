@@ -6,8 +6,10 @@ import type { NoiseMarginSummary } from "@/lib/studies/noise-margin";
 import type { ToleranceSpreadSummary, MeasureSpread } from "@/lib/studies/tolerance-spread";
 import { ChatterPlot, SpreadHistogram, MEASURE_LABEL, MEASURE_UNIT, STUDY_COLORS } from "./study-plots";
 
-export const fmtV = (v: number | null | undefined, digits = 3) => (v === null || v === undefined ? "—" : formatQuantity(v, "V", digits));
-export const fmtPct = (p: number | null | undefined, digits = 1) => (p === null || p === undefined ? "—" : `${(p * 100).toFixed(digits)} %`);
+export const fmtV = (v: number | null | undefined, digits = 3) =>
+  v === null || v === undefined ? "—" : formatQuantity(v, "V", digits);
+export const fmtPct = (p: number | null | undefined, digits = 1) =>
+  p === null || p === undefined ? "—" : `${(p * 100).toFixed(digits)} %`;
 const fmtFigure = (m: MeasureSpread["measure"], v: number | null | undefined) =>
   v === null || v === undefined ? "—" : MEASURE_UNIT[m] ? formatQuantity(v, MEASURE_UNIT[m], 4) : v.toPrecision(5);
 
@@ -15,7 +17,15 @@ function Key({ color, label, dashed }: { color: string; label: string; dashed?: 
   return (
     <span className="inline-flex items-center gap-1.5 whitespace-nowrap text-[11.5px] text-ink-soft">
       <svg width="16" height="8" aria-hidden>
-        <line x1="0" y1="4" x2="16" y2="4" stroke={color} strokeWidth="2" strokeDasharray={dashed ? "4 3" : undefined} />
+        <line
+          x1="0"
+          y1="4"
+          x2="16"
+          y2="4"
+          stroke={color}
+          strokeWidth="2"
+          strokeDasharray={dashed ? "4 3" : undefined}
+        />
       </svg>
       {label}
     </span>
@@ -40,7 +50,9 @@ export function NoiseMarginResult({ summary, meta }: { summary: NoiseMarginSumma
             Deadband {fmtV(summary.deadband)}; the 6.6 × rms rule of thumb allows {fmtV(summary.ruleOfThumbRms)} rms.
           </span>
         ) : (
-          <span className="text-ink-soft">This stage has no deadband: any noise that reaches the threshold can chatter.</span>
+          <span className="text-ink-soft">
+            This stage has no deadband: any noise that reaches the threshold can chatter.
+          </span>
         )}
       </p>
       {summary.measured ? (
@@ -48,7 +60,8 @@ export function NoiseMarginResult({ summary, meta }: { summary: NoiseMarginSumma
           className={`rounded border-l-[3px] px-2 py-1 text-[13px] ${summary.measuredVerdict === "inside" ? "border-moss bg-moss-soft/60" : "border-caution bg-caution-soft/60"}`}
           data-testid="measured-verdict"
         >
-          {summary.measured.label ?? "Measured noise"}: {fmtV(summary.measured.rms)} rms at {formatQuantity(summary.measured.bandwidth, "Hz", 3)} —{" "}
+          {summary.measured.label ?? "Measured noise"}: {fmtV(summary.measured.rms)} rms at{" "}
+          {formatQuantity(summary.measured.bandwidth, "Hz", 3)} —{" "}
           {summary.measuredVerdict === "inside"
             ? `inside the margin (chatter ≤ ${limitText} at the next level swept).`
             : summary.measuredVerdict === "outside"
@@ -65,9 +78,12 @@ export function NoiseMarginResult({ summary, meta }: { summary: NoiseMarginSumma
       </div>
       <ChatterPlot summary={summary} />
       <p className="text-[11.5px] text-ink-mute">
-        A seed chatters when its run makes more output transitions than the noise-free run ({summary.referenceTransitions}). Per level: share of
-        seeds that chattered, with its 95 % Wilson interval{summary.safeRmsConfident !== null ? `; the interval's upper end stays under the limit up to ${fmtV(summary.safeRmsConfident)} rms` : ""}.
-        {failed ? ` ${failed} run(s) the solver gave up on are left out of their level.` : ""}
+        A seed chatters when its run makes more output transitions than the noise-free run (
+        {summary.referenceTransitions}). Per level: share of seeds that chattered, with its 95 % Wilson interval
+        {summary.safeRmsConfident !== null
+          ? `; the interval's upper end stays under the limit up to ${fmtV(summary.safeRmsConfident)} rms`
+          : ""}
+        .{failed ? ` ${failed} run(s) the solver gave up on are left out of their level.` : ""}
         {meta ? ` ${meta}` : ""}
       </p>
     </div>
@@ -94,7 +110,11 @@ export function ToleranceSpreadResult({ summary, meta }: { summary: ToleranceSpr
         <Key color={STUDY_COLORS.corner} label="worst-case corners (closed form)" dashed />
         <Key color={STUDY_COLORS.nominal} label="nominal" dashed />
         <span className="inline-flex items-center gap-1.5 text-[11.5px] text-ink-soft">
-          <span className="inline-block h-2.5 w-4 rounded-sm" style={{ background: STUDY_COLORS.window, outline: "1px solid rgba(77,122,58,0.4)" }} /> spec window
+          <span
+            className="inline-block h-2.5 w-4 rounded-sm"
+            style={{ background: STUDY_COLORS.window, outline: "1px solid rgba(77,122,58,0.4)" }}
+          />{" "}
+          spec window
         </span>
       </div>
       <div className="grid min-w-0 gap-3 xl:grid-cols-2">
@@ -104,7 +124,9 @@ export function ToleranceSpreadResult({ summary, meta }: { summary: ToleranceSpr
               <span className="font-semibold text-ink-soft">{MEASURE_LABEL[m.measure]}</span>
               <span className="font-mono text-[11.5px] text-ink-mute">
                 mean {fmtFigure(m.measure, m.summary.mean)} · σ {fmtFigure(m.measure, m.summary.std)}
-                {m.window ? ` · inside ${fmtPct(m.inside !== null ? m.inside / Math.max(1, summary.draws) : null)}` : ""}
+                {m.window
+                  ? ` · inside ${fmtPct(m.inside !== null ? m.inside / Math.max(1, summary.draws) : null)}`
+                  : ""}
               </span>
             </figcaption>
             <SpreadHistogram spread={m} />
@@ -118,7 +140,11 @@ export function ToleranceSpreadResult({ summary, meta }: { summary: ToleranceSpr
                 </tr>
                 <tr className="text-ink-mute">
                   <td>worst case</td>
-                  <td className="text-right text-ink">{m.worstCase ? `${fmtFigure(m.measure, m.worstCase[0])} … ${fmtFigure(m.measure, m.worstCase[1])}` : "—"}</td>
+                  <td className="text-right text-ink">
+                    {m.worstCase
+                      ? `${fmtFigure(m.measure, m.worstCase[0])} … ${fmtFigure(m.measure, m.worstCase[1])}`
+                      : "—"}
+                  </td>
                 </tr>
                 {m.window ? (
                   <tr className="text-ink-mute">
@@ -140,7 +166,8 @@ export function ToleranceSpreadResult({ summary, meta }: { summary: ToleranceSpr
         ))}
       </div>
       <p className="text-[11.5px] text-ink-mute">
-        Each draw is a full simulation of the perturbed stage; the corners come from the closed-form figures over every tolerance extreme.
+        Each draw is a full simulation of the perturbed stage; the corners come from the closed-form figures over every
+        tolerance extreme.
         {summary.failed ? ` ${summary.failed} draw(s) the solver gave up on count as not measured.` : ""}
         {meta ? ` ${meta}` : ""}
       </p>

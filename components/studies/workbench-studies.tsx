@@ -28,5 +28,12 @@ export function WorkbenchStudies() {
     await mutate(runsKey(scenarioId));
     return run.id;
   };
-  return <StudiesCard scenario={scenario} beforeRun={() => !refuseIfInvalid(api, ["scenario", "study"], "Study run")} saveBlocked={dirty ? "Save the scenario first: the run is made from the saved version." : null} onSave={onSave} />;
+  return (
+    <StudiesCard
+      scenario={scenario}
+      beforeRun={() => !refuseIfInvalid(api, ["scenario", "study"], "Study run")}
+      saveBlocked={dirty ? "Save the scenario first: the run is made from the saved version." : null}
+      onSave={onSave}
+    />
+  );
 }

@@ -30,7 +30,10 @@ export function AcceptInvitationForm({ token, email, existingAccount }: AcceptIn
     setBusy(true);
     setError(null);
     try {
-      await sendJson(`/api/invitations/${encodeURIComponent(token)}/accept`, "POST", { name: existingAccount ? email : name, password });
+      await sendJson(`/api/invitations/${encodeURIComponent(token)}/accept`, "POST", {
+        name: existingAccount ? email : name,
+        password,
+      });
     } catch (err) {
       setError(errorMessage(err));
       setBusy(false);
@@ -52,13 +55,24 @@ export function AcceptInvitationForm({ token, email, existingAccount }: AcceptIn
       </Field>
       {!existingAccount && (
         <Field label="Your name" htmlFor="invite-name" hint="As your colleagues will see it on comments and sign-offs.">
-          <TextInput id="invite-name" required maxLength={100} autoComplete="name" value={name} onChange={(e) => setName(e.target.value)} />
+          <TextInput
+            id="invite-name"
+            required
+            maxLength={100}
+            autoComplete="name"
+            value={name}
+            onChange={(e) => setName(e.target.value)}
+          />
         </Field>
       )}
       <Field
         label={existingAccount ? "Your current password" : "Choose a password"}
         htmlFor="invite-password"
-        hint={existingAccount ? "You already have a Railwise account with this address." : `At least ${PASSWORD_MIN} characters.`}
+        hint={
+          existingAccount
+            ? "You already have a Railwise account with this address."
+            : `At least ${PASSWORD_MIN} characters.`
+        }
       >
         <TextInput
           id="invite-password"
@@ -72,7 +86,14 @@ export function AcceptInvitationForm({ token, email, existingAccount }: AcceptIn
       </Field>
       {!existingAccount && (
         <Field label="Repeat the password" htmlFor="invite-repeat">
-          <TextInput id="invite-repeat" type="password" required autoComplete="new-password" value={repeat} onChange={(e) => setRepeat(e.target.value)} />
+          <TextInput
+            id="invite-repeat"
+            type="password"
+            required
+            autoComplete="new-password"
+            value={repeat}
+            onChange={(e) => setRepeat(e.target.value)}
+          />
         </Field>
       )}
       {error && (

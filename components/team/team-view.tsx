@@ -39,7 +39,11 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
     setError(null);
     try {
       await fn();
-      await Promise.all([members.mutate(), isOwner ? audit.mutate() : undefined, isOwner ? invitations.mutate() : undefined]);
+      await Promise.all([
+        members.mutate(),
+        isOwner ? audit.mutate() : undefined,
+        isOwner ? invitations.mutate() : undefined,
+      ]);
     } catch (err) {
       setError(errorMessage(err));
     } finally {
@@ -55,7 +59,11 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
         description={`${me.teamName} · ${rows.length} member${rows.length === 1 ? "" : "s"}`}
         actions={
           mailboxHref ? (
-            <ButtonLink href={mailboxHref} size="sm" title="Mail caught by the local SMTP sink (invitations, comments, sign-offs)">
+            <ButtonLink
+              href={mailboxHref}
+              size="sm"
+              title="Mail caught by the local SMTP sink (invitations, comments, sign-offs)"
+            >
               Mailbox
             </ButtonLink>
           ) : undefined
@@ -99,7 +107,9 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
                           value={m.role}
                           disabled={busy !== null}
                           onChange={(e) =>
-                            act(`role-${m.id}`, () => sendJson(`/api/team/members/${m.id}`, "PATCH", { role: e.target.value }))
+                            act(`role-${m.id}`, () =>
+                              sendJson(`/api/team/members/${m.id}`, "PATCH", { role: e.target.value }),
+                            )
                           }
                         >
                           {ROLE_NAMES.map((r) => (
@@ -168,7 +178,9 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
                         size="sm"
                         variant="ghost"
                         disabled={busy !== null}
-                        onClick={() => act(`withdraw-${inv.id}`, () => sendJson(`/api/team/invitations/${inv.id}`, "DELETE"))}
+                        onClick={() =>
+                          act(`withdraw-${inv.id}`, () => sendJson(`/api/team/invitations/${inv.id}`, "DELETE"))
+                        }
                       >
                         Withdraw
                       </Button>
@@ -182,7 +194,11 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
       )}
 
       {isOwner && (
-        <Card title="Audit log" description="Membership, link, sign-off and delete actions; newest first." padded={false}>
+        <Card
+          title="Audit log"
+          description="Membership, link, sign-off and delete actions; newest first."
+          padded={false}
+        >
           {(audit.data?.items ?? []).length === 0 ? (
             <p className="px-4 py-3 text-[13px] text-ink-mute">Nothing recorded yet.</p>
           ) : (
@@ -226,10 +242,16 @@ function InviteCard({ onInvited }: { onInvited: () => Promise<unknown> }) {
     setSending(true);
     setStatus(null);
     try {
-      const res = await sendJson<{ email: string; mailSent?: boolean }>("/api/team/invitations", "POST", { email, role });
+      const res = await sendJson<{ email: string; mailSent?: boolean }>("/api/team/invitations", "POST", {
+        email,
+        role,
+      });
       setStatus(
         res.mailSent === false
-          ? { tone: "error", text: `Invitation saved, but the mail to ${res.email} could not be sent; check the mail server and send it again.` }
+          ? {
+              tone: "error",
+              text: `Invitation saved, but the mail to ${res.email} could not be sent; check the mail server and send it again.`,
+            }
           : { tone: "ok", text: `Invitation sent to ${res.email}.` },
       );
       setEmail("");
@@ -245,7 +267,14 @@ function InviteCard({ onInvited }: { onInvited: () => Promise<unknown> }) {
     <Card title="Invite by e-mail" description="A single-use link, valid for 72 hours.">
       <form onSubmit={submit} className="flex flex-col gap-3">
         <Field label="E-mail" htmlFor="invite-email">
-          <TextInput id="invite-email" type="email" required value={email} onChange={(e) => setEmail(e.target.value)} placeholder="name@company.example" />
+          <TextInput
+            id="invite-email"
+            type="email"
+            required
+            value={email}
+            onChange={(e) => setEmail(e.target.value)}
+            placeholder="name@company.example"
+          />
         </Field>
         <Field label="Role" htmlFor="invite-role" hint={ROLE_HELP[role]}>
           <Select id="invite-role" value={role} onChange={(e) => setRole(e.target.value as RoleName)}>
@@ -260,7 +289,10 @@ function InviteCard({ onInvited }: { onInvited: () => Promise<unknown> }) {
           {sending ? "Sending…" : "Send invitation"}
         </Button>
         {status && (
-          <p role={status.tone === "error" ? "alert" : "status"} className={status.tone === "error" ? "text-[13px] text-alert" : "text-[13px] text-moss"}>
+          <p
+            role={status.tone === "error" ? "alert" : "status"}
+            className={status.tone === "error" ? "text-[13px] text-alert" : "text-[13px] text-moss"}
+          >
             {status.text}
           </p>
         )}

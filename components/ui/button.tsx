@@ -24,7 +24,11 @@ const sizes: Record<ButtonSize, string> = {
 };
 
 /** Class string of a button, for elements that must look like one (links, labels). */
-export function buttonClasses(variant: ButtonVariant = "secondary", size: ButtonSize = "md", className?: string): string {
+export function buttonClasses(
+  variant: ButtonVariant = "secondary",
+  size: ButtonSize = "md",
+  className?: string,
+): string {
   return cx(base, variants[variant], sizes[size], className);
 }
 

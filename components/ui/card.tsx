@@ -23,7 +23,9 @@ export function Card({ title, description, actions, padded = true, className, id
       {hasHead && (
         <header className="flex flex-wrap items-start justify-between gap-x-4 gap-y-2 border-b border-paper-line px-4 py-2.5">
           <div className="min-w-0">
-            {title !== undefined && <h2 className="text-[13px] font-semibold uppercase tracking-wide text-ink-soft">{title}</h2>}
+            {title !== undefined && (
+              <h2 className="text-[13px] font-semibold uppercase tracking-wide text-ink-soft">{title}</h2>
+            )}
             {description !== undefined && <p className="mt-0.5 text-[13px] text-ink-mute">{description}</p>}
           </div>
           {actions !== undefined && <div className="flex shrink-0 flex-wrap items-center gap-2">{actions}</div>}

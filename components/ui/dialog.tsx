@@ -57,7 +57,9 @@ export function Dialog({ open, onClose, title, description, footer, children, si
             {description && <p className="mt-0.5 text-[13px] text-ink-mute">{description}</p>}
           </div>
           {children && <div className="px-5 py-4">{children}</div>}
-          {footer && <div className="flex justify-end gap-2 border-t border-paper-line bg-paper/60 px-5 py-3">{footer}</div>}
+          {footer && (
+            <div className="flex justify-end gap-2 border-t border-paper-line bg-paper/60 px-5 py-3">{footer}</div>
+          )}
         </div>
       )}
     </dialog>
@@ -121,7 +123,13 @@ export function FormDialog({
         </>
       }
     >
-      <form id={formId} onSubmit={submit} onChange={() => error && setError(null)} noValidate className="flex flex-col gap-3">
+      <form
+        id={formId}
+        onSubmit={submit}
+        onChange={() => error && setError(null)}
+        noValidate
+        className="flex flex-col gap-3"
+      >
         {children}
         {error && (
           <p role="alert" className="rounded-md border border-alert/30 bg-alert-soft px-3 py-2 text-[13px] text-alert">

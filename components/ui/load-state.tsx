@@ -18,7 +18,10 @@ export function LoadingRows({ rows = 3, className }: { rows?: number; className?
 /** A failed load, with the server's message and a retry. */
 export function LoadError({ message, onRetry }: { message: string; onRetry?: () => void }) {
   return (
-    <div role="alert" className="flex flex-wrap items-center justify-between gap-3 rounded-md border border-alert/30 bg-alert-soft px-4 py-3 text-[13px] text-alert">
+    <div
+      role="alert"
+      className="flex flex-wrap items-center justify-between gap-3 rounded-md border border-alert/30 bg-alert-soft px-4 py-3 text-[13px] text-alert"
+    >
       <span>{message}</span>
       {onRetry && (
         <button type="button" onClick={onRetry} className="font-medium underline underline-offset-2">
@@ -50,7 +53,14 @@ export function LoadGate<T>({ data, error, onRetry, notFoundTitle, rows = 6, chi
   if (error instanceof HttpError && error.status === 404) {
     return (
       <div className="rounded-lg border border-paper-line bg-paper-card">
-        <EmptyState title={notFoundTitle} action={<Link className="text-copper hover:underline" href="/boards">Back to boards</Link>}>
+        <EmptyState
+          title={notFoundTitle}
+          action={
+            <Link className="text-copper hover:underline" href="/boards">
+              Back to boards
+            </Link>
+          }
+        >
           It may have been deleted, or it belongs to another team.
         </EmptyState>
       </div>

@@ -44,15 +44,26 @@ export function ToastProvider({ children }: { children: ReactNode }) {
   return (
     <ToastContext.Provider value={api}>
       {children}
-      <div aria-live="polite" className="pointer-events-none fixed inset-x-0 bottom-3 z-50 flex flex-col items-center gap-2 px-3 sm:items-end sm:pr-5">
+      <div
+        aria-live="polite"
+        className="pointer-events-none fixed inset-x-0 bottom-3 z-50 flex flex-col items-center gap-2 px-3 sm:items-end sm:pr-5"
+      >
         {items.map((t) => (
           <div
             key={t.id}
             role={t.tone === "error" ? "alert" : "status"}
-            className={cx("pointer-events-auto flex max-w-sm items-start gap-3 rounded-md border px-3 py-2 text-[13px] shadow-lg", toneClass[t.tone])}
+            className={cx(
+              "pointer-events-auto flex max-w-sm items-start gap-3 rounded-md border px-3 py-2 text-[13px] shadow-lg",
+              toneClass[t.tone],
+            )}
           >
             <span className="min-w-0 flex-1">{t.message}</span>
-            <button type="button" onClick={() => dismiss(t.id)} className="opacity-70 hover:opacity-100" aria-label="Dismiss">
+            <button
+              type="button"
+              onClick={() => dismiss(t.id)}
+              className="opacity-70 hover:opacity-100"
+              aria-label="Dismiss"
+            >
               ×
             </button>
           </div>

@@ -18,7 +18,10 @@ export const versionsKey = (id: string) => `${scenarioKey(id)}/versions`;
 export const versionKey = (id: string, v: number) => `${versionsKey(id)}/${v}`;
 
 /** PUT the edited scenario; the server stores it as a new version (409 if someone saved first). */
-export function saveScenario(id: string, body: { scenario: Scenario; name?: string; baseVersion: number; note?: string }) {
+export function saveScenario(
+  id: string,
+  body: { scenario: Scenario; name?: string; baseVersion: number; note?: string },
+) {
   return sendJson<ScenarioRecord>(scenarioKey(id), "PUT", body);
 }
 

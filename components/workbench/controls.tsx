@@ -5,7 +5,17 @@ import type { ComponentProps, ReactNode } from "react";
 import { useId } from "react";
 import { cx } from "@/components/ui/cx";
 
-export function Section({ title, aside, children, className }: { title: string; aside?: ReactNode; children: ReactNode; className?: string }) {
+export function Section({
+  title,
+  aside,
+  children,
+  className,
+}: {
+  title: string;
+  aside?: ReactNode;
+  children: ReactNode;
+  className?: string;
+}) {
   return (
     <div className={cx("border-t border-paper-line px-3 py-2.5 first:border-t-0", className)}>
       <div className="mb-1.5 flex items-center justify-between gap-2">
@@ -17,7 +27,11 @@ export function Section({ title, aside, children, className }: { title: string; 
   );
 }
 
-export function SelectRow({ label, children, ...rest }: { label: string; children: ReactNode } & ComponentProps<"select">) {
+export function SelectRow({
+  label,
+  children,
+  ...rest
+}: { label: string; children: ReactNode } & ComponentProps<"select">) {
   const id = useId();
   return (
     <label htmlFor={id} className="grid grid-cols-[7.5rem_minmax(0,1fr)] items-center gap-x-2 py-0.5">
@@ -46,7 +60,17 @@ export function MiniButton({ className, ...rest }: ComponentProps<"button">) {
   );
 }
 
-export function Tabs<T extends string>({ tabs, value, onChange, label }: { tabs: { id: T; label: string }[]; value: T; onChange: (t: T) => void; label: string }) {
+export function Tabs<T extends string>({
+  tabs,
+  value,
+  onChange,
+  label,
+}: {
+  tabs: { id: T; label: string }[];
+  value: T;
+  onChange: (t: T) => void;
+  label: string;
+}) {
   return (
     <div role="tablist" aria-label={label} className="flex border-b border-paper-line px-1.5">
       {tabs.map((t) => (

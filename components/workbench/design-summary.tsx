@@ -67,7 +67,10 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
     return { nominal, worst, names, problem, unit: map?.unit ?? null, quantity: map?.quantity ?? null };
   }, [scenario, tolerance]);
 
-  const latestId = useMemo(() => [...(runs.data?.items ?? [])].sort((a, b) => (a.createdAt < b.createdAt ? 1 : -1))[0]?.id ?? null, [runs.data]);
+  const latestId = useMemo(
+    () => [...(runs.data?.items ?? [])].sort((a, b) => (a.createdAt < b.createdAt ? 1 : -1))[0]?.id ?? null,
+    [runs.data],
+  );
   // The list carries summaries; the samples and snapshot come with the run itself.
   const latest = useRun(latestId).data ?? null;
   const measured = useMemo(() => {
@@ -79,7 +82,13 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
     return {
       gain,
       checks: buildChecks(s, latest.result.metrics, gain),
-      warnings: buildWarnings({ scenario: s, metrics: latest.result.metrics, rails: latest.result.rails, inputMin, inputMax }),
+      warnings: buildWarnings({
+        scenario: s,
+        metrics: latest.result.metrics,
+        rails: latest.result.rails,
+        inputMin,
+        inputMax,
+      }),
     };
   }, [latest]);
 
@@ -94,7 +103,10 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
   const switchesLoad = suggestsLoadSwitching(record.name, scenario.name);
 
   return (
-    <article className="rw-summary mx-auto max-w-[920px] space-y-4 bg-paper-card p-6 print:max-w-none print:p-0" data-testid="design-summary">
+    <article
+      className="rw-summary mx-auto max-w-[920px] space-y-4 bg-paper-card p-6 print:max-w-none print:p-0"
+      data-testid="design-summary"
+    >
       {/* Print: only the summary — the app header, footer and these controls stay on screen. */}
       <style>{`@media print { body > div > header, body footer, nav, .rw-no-print { display: none !important; } main { max-width: none !important; padding: 0 !important; } .rw-summary { border: 0 !important; } @page { margin: 14mm; } }`}</style>
       <div className="rw-no-print flex items-center justify-between gap-2">
@@ -106,11 +118,13 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
         </Button>
       </div>
       <header className="border-b border-paper-line pb-3">
-        <p className="text-[12px] uppercase tracking-wider text-ink-mute">Railwise design summary · {board.data?.name ?? "board"}</p>
+        <p className="text-[12px] uppercase tracking-wider text-ink-mute">
+          Railwise design summary · {board.data?.name ?? "board"}
+        </p>
         <h1 className="text-[22px] font-semibold text-ink">{record.name}</h1>
         <p className="text-[13px] text-ink-mute">
-          {STAGE_KIND_LABEL[scenario.stage.kind]} · version {record.version}, saved {record.updatedAt.slice(0, 10)} by {personName(record.updatedBy)} · printed{" "}
-          {new Date().toISOString().slice(0, 10)}
+          {STAGE_KIND_LABEL[scenario.stage.kind]} · version {record.version}, saved {record.updatedAt.slice(0, 10)} by{" "}
+          {personName(record.updatedBy)} · printed {new Date().toISOString().slice(0, 10)}
         </p>
       </header>
       {switchesLoad ? (
@@ -133,10 +147,16 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
       </section>
       <section>
         <div className="mb-1 flex flex-wrap items-baseline justify-between gap-2">
-          <h2 className="text-[13px] font-semibold uppercase tracking-wide text-ink-soft">Designed figures and worst case</h2>
+          <h2 className="text-[13px] font-semibold uppercase tracking-wide text-ink-soft">
+            Designed figures and worst case
+          </h2>
           <label className="text-[12px] text-ink-mute">
             resistor tolerance{" "}
-            <select className="rw-no-print rounded border border-paper-line bg-white px-1 text-[12px]" value={tolerance} onChange={(e) => setTolerance(Number(e.target.value))}>
+            <select
+              className="rw-no-print rounded border border-paper-line bg-white px-1 text-[12px]"
+              value={tolerance}
+              onChange={(e) => setTolerance(Number(e.target.value))}
+            >
               {[0.001, 0.005, 0.01, 0.02, 0.05, 0.1].map((t) => (
                 <option key={t} value={t}>
                   ±{t * 100} %
@@ -160,7 +180,8 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
               ? (["sourceUpperThreshold", "sourceLowerThreshold"] as const).map((n) => (
                   <tr key={n} className="border-b border-paper-line/60" data-figure={n}>
                     <td className="py-1 text-ink-soft">
-                      {n === "sourceUpperThreshold" ? "Upper switching point" : "Lower switching point"}, {figures.quantity ?? "source"} ({figures.unit})
+                      {n === "sourceUpperThreshold" ? "Upper switching point" : "Lower switching point"},{" "}
+                      {figures.quantity ?? "source"} ({figures.unit})
                     </td>
                     <td className="py-1 text-right font-mono">{show(figures.worst!.nominal[n], figures.unit!)}</td>
                     <td className="py-1 text-right font-mono">{show(figures.worst![n]?.[0], figures.unit!)}</td>
@@ -196,12 +217,22 @@ export function DesignSummary({ scenarioId }: { scenarioId: string }) {
         {latest && measured ? (
           <>
             <p className="mb-2 text-[12px] text-ink-mute">
-              From the latest saved run, “{latest.label || latest.id.slice(0, 8)}”, {latest.createdAt.slice(0, 16).replace("T", " ")} UTC (re-run on the server).
+              From the latest saved run, “{latest.label || latest.id.slice(0, 8)}”,{" "}
+              {latest.createdAt.slice(0, 16).replace("T", " ")} UTC (re-run on the server).
             </p>
-            <ReadingsTable metrics={latest.result.metrics} checks={measured.checks} warnings={measured.warnings} gain={measured.gain} solver={latest.result.solver} scenario={latest.scenario} />
+            <ReadingsTable
+              metrics={latest.result.metrics}
+              checks={measured.checks}
+              warnings={measured.warnings}
+              gain={measured.gain}
+              solver={latest.result.solver}
+              scenario={latest.scenario}
+            />
           </>
         ) : (
-          <p className="text-[13px] text-ink-mute">No saved run yet: save a run on the workbench to include measurements.</p>
+          <p className="text-[13px] text-ink-mute">
+            No saved run yet: save a run on the workbench to include measurements.
+          </p>
         )}
       </section>
       <section className="break-inside-avoid">

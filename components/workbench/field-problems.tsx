@@ -16,7 +16,17 @@ interface Reporter {
 const FieldScopeContext = createContext<Reporter | null>(null);
 
 /** Fields inside report their problems to `api` under `scope` (and the editor tab they sit on). */
-export function FieldScopeProvider({ api, scope, tab = null, children }: { api: StoreApi<WorkbenchState>; scope: FieldScope; tab?: SideTab | null; children: ReactNode }) {
+export function FieldScopeProvider({
+  api,
+  scope,
+  tab = null,
+  children,
+}: {
+  api: StoreApi<WorkbenchState>;
+  scope: FieldScope;
+  tab?: SideTab | null;
+  children: ReactNode;
+}) {
   const value: Reporter = { scope, tab, report: (key, p) => api.getState().setFieldProblem(key, p) };
   return <FieldScopeContext.Provider value={value}>{children}</FieldScopeContext.Provider>;
 }
@@ -42,8 +52,14 @@ export function refuseIfInvalid(api: StoreApi<WorkbenchState>, scopes: FieldScop
   const st = api.getState();
   const all = Object.values(st.fieldProblems).filter((p) => scopes.includes(p.scope));
   if (!all.length) return false;
-  const ordered = listFieldProblems(all, (id) => (typeof document === "undefined" ? null : document.getElementById(id)));
-  st.setNotice({ tone: "error", text: `${action} refused — fix ${ordered.length === 1 ? "this field" : "these fields"} first.`, fields: ordered });
+  const ordered = listFieldProblems(all, (id) =>
+    typeof document === "undefined" ? null : document.getElementById(id),
+  );
+  st.setNotice({
+    tone: "error",
+    text: `${action} refused — fix ${ordered.length === 1 ? "this field" : "these fields"} first.`,
+    fields: ordered,
+  });
   const first = ordered[0];
   if (first.tab && first.tab !== st.tab) st.setTab(first.tab);
   // The tab switch re-renders first; focus once the field is visible.

@@ -30,7 +30,8 @@ function targetMode(kind: StageKind): TargetMode {
 
 type Form = SpecForm;
 
-const fmtV = (v: number | null | undefined, unit = "V") => (v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, 4));
+const fmtV = (v: number | null | undefined, unit = "V") =>
+  v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, 4);
 
 export function FromSpecPanel() {
   const draft = useWb((s) => s.draft);
@@ -43,10 +44,12 @@ export function FromSpecPanel() {
   const [storedSpec, setStoredSpec] = useState<DesignSpecInput | null>(null);
   const [result, setResult] = useState<DesignResult | null>(null);
   const [problem, setProblem] = useState<string[] | null>(null);
-  const set = <K extends keyof Form>(k: K) => (v: Form[K]) => {
-    setForm((f) => ({ ...f, [k]: v }));
-    setResult(null);
-  };
+  const set =
+    <K extends keyof Form>(k: K) =>
+    (v: Form[K]) => {
+      setForm((f) => ({ ...f, [k]: v }));
+      setResult(null);
+    };
   const mode = targetMode(form.kind);
   const usesSensor = mode === "thresholds" || mode === "threshold";
 
@@ -66,7 +69,14 @@ export function FromSpecPanel() {
         error: null as string | null,
       };
     } catch (e) {
-      return { upper: NaN, lower: NaN, threshold: NaN, inverted: false, heat: null, error: e instanceof Error ? e.message : String(e) };
+      return {
+        upper: NaN,
+        lower: NaN,
+        threshold: NaN,
+        inverted: false,
+        heat: null,
+        error: e instanceof Error ? e.message : String(e),
+      };
     }
   }, [sensor, form.upper, form.lower, form.threshold, usesSensor]);
 
@@ -79,10 +89,14 @@ export function FromSpecPanel() {
     let target: Record<string, number> = {};
     if (mode === "thresholds" && mapped) {
       // A sensor that falls as the quantity rises (NTC at the bottom) swaps the two points.
-      target = { upperThreshold: Math.max(mapped.upper, mapped.lower), lowerThreshold: Math.min(mapped.upper, mapped.lower) };
+      target = {
+        upperThreshold: Math.max(mapped.upper, mapped.lower),
+        lowerThreshold: Math.min(mapped.upper, mapped.lower),
+      };
     } else if (mode === "threshold" && mapped) target = { threshold: mapped.threshold };
     else if (mode === "gain") target = { gain: form.gain };
-    else if (mode === "frequency") target = form.duty ? { frequency: form.frequency, duty: form.duty } : { frequency: form.frequency };
+    else if (mode === "frequency")
+      target = form.duty ? { frequency: form.frequency, duty: form.duty } : { frequency: form.frequency };
     const spec = {
       schema: "railwise.design-spec/1",
       kind: form.kind,
@@ -99,7 +113,15 @@ export function FromSpecPanel() {
     const chain = usesSensor ? sensorOfSetup(sensor) : null;
     const keep = {
       ...spec,
-      ...(chain ? { sensor: chain, target: mode === "thresholds" ? { upperThreshold: form.upper, lowerThreshold: form.lower } : { threshold: form.threshold } } : {}),
+      ...(chain
+        ? {
+            sensor: chain,
+            target:
+              mode === "thresholds"
+                ? { upperThreshold: form.upper, lowerThreshold: form.lower }
+                : { threshold: form.threshold },
+          }
+        : {}),
     } as DesignSpecInput;
     try {
       setResult(design(spec));
@@ -117,7 +139,10 @@ export function FromSpecPanel() {
       d.stage = result.stage;
       if (storedSpec) d.spec = storedSpec as typeof d.spec;
     });
-    api.getState().setNotice({ tone: "ok", text: `Design applied to the stage (${result.parts.map((p) => `${p.ref} ${p.code}`).join(", ")}). Run to check it; Save to keep it.` });
+    api.getState().setNotice({
+      tone: "ok",
+      text: `Design applied to the stage (${result.parts.map((p) => `${p.ref} ${p.code}`).join(", ")}). Run to check it; Save to keep it.`,
+    });
     api.getState().setTab("stage");
   };
 
@@ -129,7 +154,12 @@ export function FromSpecPanel() {
             From the spec saved with this scenario: {seed.from}.
           </p>
         ) : null}
-        <SelectRow label="Kind" value={form.kind} onChange={(e) => set("kind")(e.target.value as StageKind)} name="spec.kind">
+        <SelectRow
+          label="Kind"
+          value={form.kind}
+          onChange={(e) => set("kind")(e.target.value as StageKind)}
+          name="spec.kind"
+        >
           {STAGE_KINDS.map((k) => (
             <option key={k} value={k}>
               {STAGE_KIND_LABEL[k]}
@@ -145,7 +175,9 @@ export function FromSpecPanel() {
               unit={sensorUnit(sensor)}
               value={form.upper}
               onCommit={set("upper")}
-              validate={(v) => (v > form.lower ? null : `must be above Lower (${formatQuantity(form.lower, sensorUnit(sensor), 4)})`)}
+              validate={(v) =>
+                v > form.lower ? null : `must be above Lower (${formatQuantity(form.lower, sensorUnit(sensor), 4)})`
+              }
             />
             <QuantityField
               label={`Lower (${sensorUnitLabel(sensor)})`}
@@ -153,14 +185,26 @@ export function FromSpecPanel() {
               unit={sensorUnit(sensor)}
               value={form.lower}
               onCommit={set("lower")}
-              validate={(v) => (v < form.upper ? null : `must be below Upper (${formatQuantity(form.upper, sensorUnit(sensor), 4)})`)}
+              validate={(v) =>
+                v < form.upper ? null : `must be below Upper (${formatQuantity(form.upper, sensorUnit(sensor), 4)})`
+              }
             />
           </>
         ) : null}
         {mode === "threshold" ? (
           <>
-            <QuantityField label={`Switch at (${sensorUnitLabel(sensor)})`} name="spec.threshold" unit={sensorUnit(sensor)} value={form.threshold} onCommit={set("threshold")} />
-            <SelectRow label="Input on" value={form.inputAt} onChange={(e) => set("inputAt")(e.target.value as Form["inputAt"])}>
+            <QuantityField
+              label={`Switch at (${sensorUnitLabel(sensor)})`}
+              name="spec.threshold"
+              unit={sensorUnit(sensor)}
+              value={form.threshold}
+              onCommit={set("threshold")}
+            />
+            <SelectRow
+              label="Input on"
+              value={form.inputAt}
+              onChange={(e) => set("inputAt")(e.target.value as Form["inputAt"])}
+            >
               <option value="noninverting">v+</option>
               <option value="inverting">v−</option>
             </SelectRow>
@@ -172,9 +216,14 @@ export function FromSpecPanel() {
               <span className="text-alert">{mapped.error}</span>
             ) : mode === "thresholds" ? (
               <>
-                At the stage input: upper {fmtV(Math.max(mapped.upper, mapped.lower))}, lower {fmtV(Math.min(mapped.upper, mapped.lower))}.
-                {mapped.inverted ? " Warmer means a lower voltage here: an over-temperature alarm switches on the falling input (the lower point)." : ""}
-                {mapped.heat ? ` Self-heating ${(mapped.heat.power * 1e3).toFixed(2)} mW, ${mapped.heat.temperatureRise.toFixed(2)} K.` : ""}
+                At the stage input: upper {fmtV(Math.max(mapped.upper, mapped.lower))}, lower{" "}
+                {fmtV(Math.min(mapped.upper, mapped.lower))}.
+                {mapped.inverted
+                  ? " Warmer means a lower voltage here: an over-temperature alarm switches on the falling input (the lower point)."
+                  : ""}
+                {mapped.heat
+                  ? ` Self-heating ${(mapped.heat.power * 1e3).toFixed(2)} mW, ${mapped.heat.temperatureRise.toFixed(2)} K.`
+                  : ""}
                 {mapped.heat?.warning ? <span className="block text-caution">{mapped.heat.warning}</span> : null}
               </>
             ) : (
@@ -183,12 +232,34 @@ export function FromSpecPanel() {
           </p>
         ) : null}
         {mode === "gain" ? (
-          <QuantityField label="Gain" name="spec.gain" unit="V/V" value={form.gain} onCommit={set("gain")} hint={form.kind === "inverting-amplifier" ? "negative" : "≥ 1"} />
+          <QuantityField
+            label="Gain"
+            name="spec.gain"
+            unit="V/V"
+            value={form.gain}
+            onCommit={set("gain")}
+            hint={form.kind === "inverting-amplifier" ? "negative" : "≥ 1"}
+          />
         ) : null}
         {mode === "frequency" ? (
           <>
-            <QuantityField label="Frequency" name="spec.frequency" unit="Hz" value={form.frequency} onCommit={set("frequency")} validate={(v) => (v > 0 ? null : "must be above 0")} />
-            <QuantityField label="Duty (0…1)" name="spec.duty" unit="" value={form.duty} placeholder="free" onClear={() => set("duty")(undefined)} onCommit={set("duty")} />
+            <QuantityField
+              label="Frequency"
+              name="spec.frequency"
+              unit="Hz"
+              value={form.frequency}
+              onCommit={set("frequency")}
+              validate={(v) => (v > 0 ? null : "must be above 0")}
+            />
+            <QuantityField
+              label="Duty (0…1)"
+              name="spec.duty"
+              unit=""
+              value={form.duty}
+              placeholder="free"
+              onClear={() => set("duty")(undefined)}
+              onCommit={set("duty")}
+            />
           </>
         ) : null}
       </Section>
@@ -208,22 +279,42 @@ export function FromSpecPanel() {
             </option>
           ))}
         </SelectRow>
-        <QuantityField label="Tolerance (%)" name="spec.tolerance" unit="%" plain value={form.tolerancePct} onCommit={set("tolerancePct")} validate={(v) => (v >= 0 && v <= 20 ? null : "0 … 20 %")} />
+        <QuantityField
+          label="Tolerance (%)"
+          name="spec.tolerance"
+          unit="%"
+          plain
+          value={form.tolerancePct}
+          onCommit={set("tolerancePct")}
+          validate={(v) => (v >= 0 && v <= 20 ? null : "0 … 20 %")}
+        />
         {mode !== "gain" ? (
           <>
             <label className="grid grid-cols-[7.5rem_minmax(0,1fr)] items-center gap-x-2 py-0.5 text-[13px]">
               <span className="text-ink-soft">Reference</span>
               <span className="flex items-center gap-1.5 text-ink-soft">
-                <input type="checkbox" checked={form.referenceAuto} onChange={(e) => set("referenceAuto")(e.target.checked)} />
+                <input
+                  type="checkbox"
+                  checked={form.referenceAuto}
+                  onChange={(e) => set("referenceAuto")(e.target.checked)}
+                />
                 divider from the supply (choose it for me)
               </span>
             </label>
-            {!form.referenceAuto ? <QuantityField label="Reference" name="spec.reference" unit="V" value={form.reference} onCommit={set("reference")} /> : null}
+            {!form.referenceAuto ? (
+              <QuantityField
+                label="Reference"
+                name="spec.reference"
+                unit="V"
+                value={form.reference}
+                onCommit={set("reference")}
+              />
+            ) : null}
           </>
         ) : null}
         <p className="mb-1 mt-1 text-[11.5px] text-ink-mute">
-          Supplies and part profile come from the Stage tab: {formatQuantity(draft.supply.negative, "V")} … {formatQuantity(draft.supply.positive, "V")}, offset{" "}
-          {formatQuantity(draft.opamp.inputOffset, "V")}.
+          Supplies and part profile come from the Stage tab: {formatQuantity(draft.supply.negative, "V")} …{" "}
+          {formatQuantity(draft.supply.positive, "V")}, offset {formatQuantity(draft.opamp.inputOffset, "V")}.
         </p>
         <div className="flex gap-2">
           <Button size="sm" variant="secondary" onClick={run} data-testid="design-button">
@@ -231,7 +322,10 @@ export function FromSpecPanel() {
           </Button>
         </div>
         {problem ? (
-          <ul className="mt-2 space-y-0.5 rounded border-l-[3px] border-alert bg-alert-soft/60 px-2 py-1 text-[12.5px]" role="alert">
+          <ul
+            className="mt-2 space-y-0.5 rounded border-l-[3px] border-alert bg-alert-soft/60 px-2 py-1 text-[12.5px]"
+            role="alert"
+          >
             {problem.map((p) => (
               <li key={p}>{p}</li>
             ))}
@@ -260,9 +354,18 @@ const FIGURES: { key: keyof DesignResult["achieved"]; label: string; unit: strin
   { key: "dutyCycle", label: "Duty cycle", unit: "" },
 ];
 
-function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult; onApply: () => void; outOfDate: boolean }) {
+function DesignResultView({
+  result,
+  onApply,
+  outOfDate,
+}: {
+  result: DesignResult;
+  onApply: () => void;
+  outOfDate: boolean;
+}) {
   const rows = FIGURES.filter((f) => result.achieved[f.key] != null);
-  const show = (v: number | null | undefined, unit: string) => (unit ? fmtV(v, unit) : v == null ? "—" : `${(100 * v).toFixed(1)} %`);
+  const show = (v: number | null | undefined, unit: string) =>
+    unit ? fmtV(v, unit) : v == null ? "—" : `${(100 * v).toFixed(1)} %`;
   return (
     <Section
       title="Proposal"
@@ -270,7 +373,9 @@ function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult
         <MiniButton
           onClick={onApply}
           disabled={outOfDate}
-          title={outOfDate ? "Out of date: a spec field above is invalid. Fix it and press Find parts again." : undefined}
+          title={
+            outOfDate ? "Out of date: a spec field above is invalid. Fix it and press Find parts again." : undefined
+          }
           className="border-copper text-copper-deep"
           data-testid="apply-design"
         >
@@ -279,7 +384,10 @@ function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult
       }
     >
       {outOfDate ? (
-        <p className="mb-1.5 rounded border-l-[3px] border-caution bg-caution-soft/70 px-2 py-1 text-[12px]" data-testid="proposal-out-of-date">
+        <p
+          className="mb-1.5 rounded border-l-[3px] border-caution bg-caution-soft/70 px-2 py-1 text-[12px]"
+          data-testid="proposal-out-of-date"
+        >
           Out of date: a spec field above is invalid. Fix it and press Find parts again.
         </p>
       ) : null}
@@ -297,7 +405,10 @@ function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult
               <td className="py-0.5 font-mono">{p.ref}</td>
               <td className="py-0.5 text-ink-soft">{partRoleName(p.role)}</td>
               <td className="py-0.5 text-right font-mono">
-                {p.code} <span className="text-ink-faint">{p.series} ±{(100 * p.tolerance).toFixed(p.tolerance < 0.01 ? 1 : 0)} %</span>
+                {p.code}{" "}
+                <span className="text-ink-faint">
+                  {p.series} ±{(100 * p.tolerance).toFixed(p.tolerance < 0.01 ? 1 : 0)} %
+                </span>
               </td>
             </tr>
           ))}
@@ -305,7 +416,9 @@ function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult
       </table>
       {result.reference.divider ? (
         <p className="mb-2 text-[11.5px] text-ink-mute">
-          Reference {fmtV(result.reference.voltage)} from the divider; Apply puts the divider itself on the stage (its {formatQuantity(result.reference.divider.theveninResistance, "Ω", 4)} source resistance is part of the network).
+          Reference {fmtV(result.reference.voltage)} from the divider; Apply puts the divider itself on the stage (its{" "}
+          {formatQuantity(result.reference.divider.theveninResistance, "Ω", 4)} source resistance is part of the
+          network).
         </p>
       ) : null}
       <dl className="divide-y divide-paper-line/70 text-[12.5px]" data-testid="design-figures">
@@ -322,21 +435,26 @@ function DesignResultView({ result, onApply, outOfDate }: { result: DesignResult
                 <span className="whitespace-nowrap">
                   {err ? (
                     <>
-                      target <span className="font-mono">{show(err.target, f.unit)}</span> · {err.relative >= 0 ? "+" : ""}
+                      target <span className="font-mono">{show(err.target, f.unit)}</span> ·{" "}
+                      {err.relative >= 0 ? "+" : ""}
                       {(100 * err.relative).toFixed(2)} %
                     </>
                   ) : (
                     "no target"
                   )}
                 </span>
-                <span className="whitespace-nowrap font-mono">{w ? `worst ${show(w[0], f.unit)} … ${show(w[1], f.unit)}` : "—"}</span>
+                <span className="whitespace-nowrap font-mono">
+                  {w ? `worst ${show(w[0], f.unit)} … ${show(w[1], f.unit)}` : "—"}
+                </span>
               </div>
             </div>
           );
         })}
       </dl>
       <p className="mt-1 text-[11px] text-ink-faint">
-        Worst case over resistor tolerance ±{(100 * result.assumptions.tolerance).toFixed(1)} %, offset ±{formatQuantity(result.assumptions.inputOffset, "V")} and ±{(100 * result.assumptions.headroomSpread).toFixed(0)} % output headroom.
+        Worst case over resistor tolerance ±{(100 * result.assumptions.tolerance).toFixed(1)} %, offset ±
+        {formatQuantity(result.assumptions.inputOffset, "V")} and ±
+        {(100 * result.assumptions.headroomSpread).toFixed(0)} % output headroom.
       </p>
       {result.warnings.length ? (
         <ul className="mt-2 space-y-1">

@@ -25,7 +25,12 @@ export function HistoryCard({ canEdit }: { canEdit: boolean }) {
   const markSaved = useWb((s) => s.markSaved);
   const setNotice = useWb((s) => s.setNotice);
   const { mutate } = useSWRConfig();
-  const { data, error, isLoading, mutate: reload } = useSWR<ListResponse<VersionRecord>>(versionsKey(scenarioId), (u: string) => fetchJson(u), {
+  const {
+    data,
+    error,
+    isLoading,
+    mutate: reload,
+  } = useSWR<ListResponse<VersionRecord>>(versionsKey(scenarioId), (u: string) => fetchJson(u), {
     revalidateOnFocus: false,
   });
   const [viewing, setViewing] = useState<VersionRecord | null>(null);
@@ -80,7 +85,9 @@ export function HistoryCard({ canEdit }: { canEdit: boolean }) {
                   </span>
                 </span>
                 <span className="flex shrink-0 gap-1">
-                  <MiniButton onClick={() => void view(v)}>{viewing?.version === v.version ? "Hide" : "View"}</MiniButton>
+                  <MiniButton onClick={() => void view(v)}>
+                    {viewing?.version === v.version ? "Hide" : "View"}
+                  </MiniButton>
                   {canEdit && v.version !== current ? (
                     <MiniButton disabled={busy !== null} onClick={() => void restore(v.version)}>
                       {busy === v.version ? "Restoring…" : "Restore"}
@@ -107,7 +114,13 @@ export function RunsCard({ action }: { action?: React.ReactNode }) {
   const { data, error, isLoading } = useRuns(scenarioId);
   const items = [...(data?.items ?? [])].sort((a, b) => (a.createdAt < b.createdAt ? 1 : -1));
   return (
-    <Card title="Runs" description="Saved runs are re-run on the server and kept unchanged." actions={action} padded={false} className="min-w-0">
+    <Card
+      title="Runs"
+      description="Saved runs are re-run on the server and kept unchanged."
+      actions={action}
+      padded={false}
+      className="min-w-0"
+    >
       {error ? (
         <p className="px-4 py-3 text-[13px] text-alert">Could not load runs: {errorMessage(error)}</p>
       ) : isLoading ? (
@@ -135,9 +148,19 @@ export function RunsCard({ action }: { action?: React.ReactNode }) {
                   <td className="px-2 py-1.5 text-ink-mute">
                     {when(r.createdAt)} · {personName(r.createdBy)}
                   </td>
-                  <td className="whitespace-nowrap px-2 py-1.5 text-right font-mono">{r.result?.metrics.upperThreshold == null ? "—" : formatQuantity(r.result.metrics.upperThreshold, "V", 4)}</td>
-                  <td className="whitespace-nowrap px-2 py-1.5 text-right font-mono">{r.result?.metrics.lowerThreshold == null ? "—" : formatQuantity(r.result.metrics.lowerThreshold, "V", 4)}</td>
-                  <td className="whitespace-nowrap py-1.5 pl-2 pr-4 text-right font-mono">{r.result?.metrics.transitions ?? "—"}</td>
+                  <td className="whitespace-nowrap px-2 py-1.5 text-right font-mono">
+                    {r.result?.metrics.upperThreshold == null
+                      ? "—"
+                      : formatQuantity(r.result.metrics.upperThreshold, "V", 4)}
+                  </td>
+                  <td className="whitespace-nowrap px-2 py-1.5 text-right font-mono">
+                    {r.result?.metrics.lowerThreshold == null
+                      ? "—"
+                      : formatQuantity(r.result.metrics.lowerThreshold, "V", 4)}
+                  </td>
+                  <td className="whitespace-nowrap py-1.5 pl-2 pr-4 text-right font-mono">
+                    {r.result?.metrics.transitions ?? "—"}
+                  </td>
                 </tr>
               ))}
             </tbody>

@@ -32,7 +32,21 @@ function show(v: number | undefined, plain: boolean, digits: number): string {
   return formatQuantity(v, "", digits).replace(" ", "");
 }
 
-export function QuantityField({ label, value, unit, onCommit, hint, validate, disabled, name, plain = false, digits = 4, onClear, placeholder, display }: QuantityFieldProps) {
+export function QuantityField({
+  label,
+  value,
+  unit,
+  onCommit,
+  hint,
+  validate,
+  disabled,
+  name,
+  plain = false,
+  digits = 4,
+  onClear,
+  placeholder,
+  display,
+}: QuantityFieldProps) {
   const id = useId();
   const [text, setText] = useState(() => show(value, plain, digits));
   const committed = useRef<number | undefined>(value);
@@ -51,7 +65,18 @@ export function QuantityField({ label, value, unit, onCommit, hint, validate, di
   const parsed = plain ? (text.trim() === "" ? null : Number(text)) : parseQuantity(text);
   const valid = parsed !== null && Number.isFinite(parsed);
   const empty = text.trim() === "";
-  const problem = empty && onClear ? null : !valid ? (empty ? "required" : plain ? "not a value" : (quantityProblem(text) ?? "not a value")) : validate ? validate(parsed) : null;
+  const problem =
+    empty && onClear
+      ? null
+      : !valid
+        ? empty
+          ? "required"
+          : plain
+            ? "not a value"
+            : (quantityProblem(text) ?? "not a value")
+        : validate
+          ? validate(parsed)
+          : null;
   // Run, Save and Apply refuse while this is set (see field-problems.tsx).
   useReportFieldProblem(id, label, disabled ? null : problem, id);
   useEffect(() => {
@@ -108,7 +133,17 @@ export function QuantityField({ label, value, unit, onCommit, hint, validate, di
           data-parsed={name ?? label}
           aria-live="polite"
         >
-          {problem ? problem : empty ? (placeholder ? "not set" : "") : plain ? (unit ? `${parsed} ${unit}` : "") : `= ${display ? display(parsed as number) : formatQuantity(parsed as number, unit, 4)}`}
+          {problem
+            ? problem
+            : empty
+              ? placeholder
+                ? "not set"
+                : ""
+              : plain
+                ? unit
+                  ? `${parsed} ${unit}`
+                  : ""
+                : `= ${display ? display(parsed as number) : formatQuantity(parsed as number, unit, 4)}`}
         </span>
       </span>
     </label>

@@ -5,45 +5,87 @@ import type { SimMetrics, SolverStats } from "@/lib/sim/types";
 import { formatQuantity } from "@/lib/design/notation";
 import { cx } from "@/components/ui/cx";
 import { formatSource, sourceNumber, sourceRows, sourceSentence, sourceTerms } from "@/lib/workbench/source-readings";
-import { isAmplifierKind, railsOf, type AmplifierReadings, type Check, type MetricsIn, type Rails, type Warning } from "@/lib/workbench/readings-logic";
+import {
+  isAmplifierKind,
+  railsOf,
+  type AmplifierReadings,
+  type Check,
+  type MetricsIn,
+  type Rails,
+  type Warning,
+} from "@/lib/workbench/readings-logic";
 
-const fmt = (v: number | null | undefined, unit: string, digits = 4) => (v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, digits));
+const fmt = (v: number | null | undefined, unit: string, digits = 4) =>
+  v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, digits);
 
 /**
  * An amplifier's readings: gain, output limits, clipped share and the input levels where
- * clipping starts. No switching rows: an amplifier does not switch (DESIGN.md).
+ * clipping starts. No switching rows: an amplifier does not switch (lib/schemas/README.md).
  */
-export function amplifierRows(m: MetricsIn | SimMetrics, amp: AmplifierReadings, rails: Rails): [string, string, string?][] {
+export function amplifierRows(
+  m: MetricsIn | SimMetrics,
+  amp: AmplifierReadings,
+  rails: Rails,
+): [string, string, string?][] {
   return [
-    ["Gain (linear region)", amp.gain == null ? "—" : `${amp.gain.toPrecision(5)} V/V`, "slope of output vs input while the output is clear of its limits"],
+    [
+      "Gain (linear region)",
+      amp.gain == null ? "—" : `${amp.gain.toPrecision(5)} V/V`,
+      "slope of output vs input while the output is clear of its limits",
+    ],
     ["Output high limit (Voh)", fmt(rails.high, "V")],
     ["Output low limit (Vol)", fmt(rails.low, "V")],
     ["Held at a limit", `${(100 * m.clippedFraction).toFixed(2)} %`, "share of the run the output is clipped"],
-    ["Clips high from input", amp.clipInputHigh == null ? "never reached" : fmt(amp.clipInputHigh, "V"), "input level at which the output first reaches Voh"],
-    ["Clips low from input", amp.clipInputLow == null ? "never reached" : fmt(amp.clipInputLow, "V"), "input level at which the output first reaches Vol"],
+    [
+      "Clips high from input",
+      amp.clipInputHigh == null ? "never reached" : fmt(amp.clipInputHigh, "V"),
+      "input level at which the output first reaches Voh",
+    ],
+    [
+      "Clips low from input",
+      amp.clipInputLow == null ? "never reached" : fmt(amp.clipInputLow, "V"),
+      "input level at which the output first reaches Vol",
+    ],
     ["Fastest output slope", m.maxSlewRate > 0 ? `${(m.maxSlewRate / 1e6).toPrecision(3)} V/µs` : "0 V/µs"],
   ];
 }
 
 type Row = [string, string, string?, string?];
 
-export function metricRows(m: MetricsIn | SimMetrics, gain: number | null, inputReferred = true, scenario?: Scenario): Row[] {
+export function metricRows(
+  m: MetricsIn | SimMetrics,
+  gain: number | null,
+  inputReferred = true,
+  scenario?: Scenario,
+): Row[] {
   // With a source the switching points read in its unit first, pin volts second.
   const terms = inputReferred && scenario && m.source ? sourceTerms(scenario) : null;
   // An oscillator has no input to refer switching points to; its capacitor node is internal.
-  const thresholds: Row[] = terms && m.source
-    ? sourceRows(m.source, m, terms).map((r): Row => [r.label, r.value, r.label === "Deadband" ? "upper − lower" : `mean ${terms.quantity ?? "source"} at the edges`, r.pin])
-    : inputReferred
-    ? [
-        ["Upper switching point", fmt(m.upperThreshold, "V"), "mean input at edges the rising input causes"],
-        ["Lower switching point", fmt(m.lowerThreshold, "V"), "mean input at edges the falling input causes"],
-        ["Deadband", fmt(m.hysteresis, "V"), "upper − lower"],
-      ]
-    : [];
+  const thresholds: Row[] =
+    terms && m.source
+      ? sourceRows(m.source, m, terms).map(
+          (r): Row => [
+            r.label,
+            r.value,
+            r.label === "Deadband" ? "upper − lower" : `mean ${terms.quantity ?? "source"} at the edges`,
+            r.pin,
+          ],
+        )
+      : inputReferred
+        ? [
+            ["Upper switching point", fmt(m.upperThreshold, "V"), "mean input at edges the rising input causes"],
+            ["Lower switching point", fmt(m.lowerThreshold, "V"), "mean input at edges the falling input causes"],
+            ["Deadband", fmt(m.hysteresis, "V"), "upper − lower"],
+          ]
+        : [];
   return [
     ...thresholds,
     ["Output transitions", m.transitions == null ? "—" : String(m.transitions)],
-    ["Chatter", m.chatter == null ? "—" : String(m.chatter), m.holdOff != null ? `edges within ${fmt(m.holdOff, "s", 3)} of the previous` : "edges within the hold-off"],
+    [
+      "Chatter",
+      m.chatter == null ? "—" : String(m.chatter),
+      m.holdOff != null ? `edges within ${fmt(m.holdOff, "s", 3)} of the previous` : "edges within the hold-off",
+    ],
     ["Held at a limit", `${(100 * m.clippedFraction).toFixed(2)} %`, "share of the run"],
     ["Fastest output slope", m.maxSlewRate > 0 ? `${(m.maxSlewRate / 1e6).toPrecision(3)} V/µs` : "0 V/µs"],
     ["Period", fmt(m.period, "s")],
@@ -52,7 +94,11 @@ export function metricRows(m: MetricsIn | SimMetrics, gain: number | null, input
     ["Propagation delay", fmt(m.propagationDelay, "s")],
     ["Rise time 10–90 %", fmt(m.riseTime, "s")],
     ["Fall time 90–10 %", fmt(m.fallTime, "s")],
-    ["Gain (linear region)", gain == null ? "—" : `${gain.toPrecision(5)} V/V`, "slope of output vs input away from the limits"],
+    [
+      "Gain (linear region)",
+      gain == null ? "—" : `${gain.toPrecision(5)} V/V`,
+      "slope of output vs input away from the limits",
+    ],
   ];
 }
 
@@ -79,15 +125,25 @@ export function ReadingsTable({
 }) {
   const amp = scenario && isAmplifierKind(scenario.stage.kind);
   const rows: Row[] = amp
-    ? amplifierRows(metrics, amplifier ?? (metrics as MetricsIn).amplifier ?? { gain, clipInputHigh: null, clipInputLow: null }, rails ?? railsOf(scenario))
+    ? amplifierRows(
+        metrics,
+        amplifier ?? (metrics as MetricsIn).amplifier ?? { gain, clipInputHigh: null, clipInputLow: null },
+        rails ?? railsOf(scenario),
+      )
     : metricRows(metrics, gain, scenario?.stage.kind !== "relaxation-oscillator", scenario);
-  const terms = !amp && scenario && metrics.source && scenario.stage.kind !== "relaxation-oscillator" ? sourceTerms(scenario) : null;
+  const terms =
+    !amp && scenario && metrics.source && scenario.stage.kind !== "relaxation-oscillator"
+      ? sourceTerms(scenario)
+      : null;
   const sentence = terms && metrics.source ? sourceSentence(metrics.source, metrics, terms) : null;
   const checkSource = checks.find((c) => c.source)?.source ?? null;
   return (
     <div className="text-[13px]" data-testid="readings">
       {sentence ? (
-        <p className="mb-2 rounded border-l-[3px] border-indigo bg-paper-sunk/60 px-2 py-1 text-[12.5px] leading-snug text-ink" data-testid="source-sentence">
+        <p
+          className="mb-2 rounded border-l-[3px] border-indigo bg-paper-sunk/60 px-2 py-1 text-[12.5px] leading-snug text-ink"
+          data-testid="source-sentence"
+        >
           {sentence}
         </p>
       ) : null}
@@ -95,7 +151,12 @@ export function ReadingsTable({
         <table className="mb-3 w-full border-collapse" data-testid="checks">
           <caption className="mb-1 text-left text-[11.5px] font-semibold uppercase tracking-wider text-ink-mute">
             Checks against the design
-            {checkSource ? <span className="block text-[11px] font-normal normal-case tracking-normal" data-testid="checks-source-note">{`in ${checkSource.quantity ?? "source"} ${checkSource.unit}, volts at the pin beneath`}</span> : null}
+            {checkSource ? (
+              <span
+                className="block text-[11px] font-normal normal-case tracking-normal"
+                data-testid="checks-source-note"
+              >{`in ${checkSource.quantity ?? "source"} ${checkSource.unit}, volts at the pin beneath`}</span>
+            ) : null}
           </caption>
           <thead>
             <tr className="border-b border-paper-line text-left text-[11.5px] text-ink-mute">
@@ -108,16 +169,38 @@ export function ReadingsTable({
           <tbody>
             {checks.map((c) => (
               <tr key={c.label} className="border-b border-paper-line/70 last:border-0" data-check={c.label}>
-                <td className="py-1 pr-2 leading-tight text-ink-soft">{c.label.replace(" switching point", " point")}</td>
+                <td className="py-1 pr-2 leading-tight text-ink-soft">
+                  {c.label.replace(" switching point", " point")}
+                </td>
                 <td className="whitespace-nowrap py-1 pl-2 text-right font-mono">
-                  {c.unit === "edges" ? `≤ ${c.designed}` : c.source ? <SourceCell value={c.source.designed} pin={c.designed} src={c.source} /> : fmt(c.designed, c.unit)}
+                  {c.unit === "edges" ? (
+                    `≤ ${c.designed}`
+                  ) : c.source ? (
+                    <SourceCell value={c.source.designed} pin={c.designed} src={c.source} />
+                  ) : (
+                    fmt(c.designed, c.unit)
+                  )}
                 </td>
                 <td className="whitespace-nowrap py-1 pl-3 text-right font-mono">
-                  {c.unit === "edges" ? (c.measured == null ? "—" : String(c.measured)) : c.source ? <SourceCell value={c.source.measured} pin={c.measured} src={c.source} /> : fmt(c.measured, c.unit)}
+                  {c.unit === "edges" ? (
+                    c.measured == null ? (
+                      "—"
+                    ) : (
+                      String(c.measured)
+                    )
+                  ) : c.source ? (
+                    <SourceCell value={c.source.measured} pin={c.measured} src={c.source} />
+                  ) : (
+                    fmt(c.measured, c.unit)
+                  )}
                 </td>
                 <td className="py-1 pl-2 text-right">
                   <span
-                    title={c.unit === "edges" ? `at most ${c.designed} extra edges` : `allowed ± ${fmt(c.tolerance, c.unit, 2)}`}
+                    title={
+                      c.unit === "edges"
+                        ? `at most ${c.designed} extra edges`
+                        : `allowed ± ${fmt(c.tolerance, c.unit, 2)}`
+                    }
                     className={cx(
                       "inline-block min-w-12 rounded px-1.5 text-center text-[11px] font-semibold",
                       c.pass === true && "bg-moss-soft text-moss",
@@ -152,14 +235,21 @@ export function ReadingsTable({
         </ul>
       ) : (
         <p className="mb-3 rounded border-l-[3px] border-moss bg-moss-soft/60 px-2 py-1 text-[12.5px]">
-          {amp ? "No warnings: no clipping, slew limiting or out-of-span input seen." : "No warnings: no clipping, chatter, slew limiting or out-of-span input seen."}
+          {amp
+            ? "No warnings: no clipping, slew limiting or out-of-span input seen."
+            : "No warnings: no clipping, chatter, slew limiting or out-of-span input seen."}
         </p>
       )}
 
       <table className="w-full border-collapse" data-testid="metrics">
         <caption className="mb-1 text-left text-[11.5px] font-semibold uppercase tracking-wider text-ink-mute">
           Measured
-          {terms && metrics.source ? <span className="block text-[11px] font-normal normal-case tracking-normal" data-testid="metrics-source-note">{`switching points in ${terms.quantity ?? "source"} ${metrics.source.unit}, volts at the pin beneath`}</span> : null}
+          {terms && metrics.source ? (
+            <span
+              className="block text-[11px] font-normal normal-case tracking-normal"
+              data-testid="metrics-source-note"
+            >{`switching points in ${terms.quantity ?? "source"} ${metrics.source.unit}, volts at the pin beneath`}</span>
+          ) : null}
         </caption>
         <tbody>
           {rows.map(([k, v, hint, pin]) => (
@@ -169,7 +259,11 @@ export function ReadingsTable({
               </td>
               <td className="py-[3px] text-right font-mono text-ink">
                 {v}
-                {pin ? <span className="block text-[11px] text-ink-mute" data-pin>{pin}</span> : null}
+                {pin ? (
+                  <span className="block text-[11px] text-ink-mute" data-pin>
+                    {pin}
+                  </span>
+                ) : null}
               </td>
             </tr>
           ))}
@@ -186,7 +280,15 @@ export function ReadingsTable({
 }
 
 /** A check's figure in the source unit, the pin volts beneath it. */
-function SourceCell({ value, pin, src }: { value: number | null; pin: number | null; src: NonNullable<Check["source"]> }) {
+function SourceCell({
+  value,
+  pin,
+  src,
+}: {
+  value: number | null;
+  pin: number | null;
+  src: NonNullable<Check["source"]>;
+}) {
   return (
     <>
       <span data-source>{formatSource(value, src, true)}</span>

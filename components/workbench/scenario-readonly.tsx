@@ -28,13 +28,17 @@ export function ScenarioReadOnly({ scenarioId }: { scenarioId: string }) {
                   onClick={() => setPicked(r.id)}
                   className={cx(
                     "rounded border px-2 py-1 text-left text-[12.5px]",
-                    current?.id === r.id ? "border-copper bg-copper-soft/50 text-ink" : "border-paper-line bg-white text-ink-soft hover:border-ink-faint",
+                    current?.id === r.id
+                      ? "border-copper bg-copper-soft/50 text-ink"
+                      : "border-paper-line bg-white text-ink-soft hover:border-ink-faint",
                   )}
                 >
                   {r.label || `Run ${r.id.slice(0, 8)}`}
                   <span className="ml-2 text-[11px] text-ink-mute">
                     {r.createdAt.slice(0, 10)} · {personName(r.createdBy)}
-                    {r.result?.metrics.upperThreshold != null ? ` · upper ${formatQuantity(r.result.metrics.upperThreshold, "V", 4)}` : ""}
+                    {r.result?.metrics.upperThreshold != null
+                      ? ` · upper ${formatQuantity(r.result.metrics.upperThreshold, "V", 4)}`
+                      : ""}
                   </span>
                 </button>
               </li>
@@ -62,7 +66,10 @@ export function ScenarioReadOnly({ scenarioId }: { scenarioId: string }) {
 /** The list holds summaries only; the samples come with the run itself. */
 function PickedRun({ id }: { id: string }) {
   const { data, error } = useRun(id);
-  if (error) return <p className="text-[13px] text-alert">Could not load the run: {String((error as Error).message ?? error)}</p>;
+  if (error)
+    return (
+      <p className="text-[13px] text-alert">Could not load the run: {String((error as Error).message ?? error)}</p>
+    );
   if (!data) return <p className="text-[13px] text-ink-mute">Loading the run…</p>;
   return <RunResultPanels key={data.id} run={data} />;
 }

@@ -38,9 +38,21 @@ function freshComponent(kind: Kind, s: Scenario): InputComponent {
     case "pulse":
       return { kind, low: 0, high: span / 10, period: T / 4, duty: 0.5, rise: 0, fall: 0, delay: 0 };
     case "pwl":
-      return { kind, points: [[0, mid], [T, mid]] };
+      return {
+        kind,
+        points: [
+          [0, mid],
+          [T, mid],
+        ],
+      };
     case "capture":
-      return { kind, samples: [[0, 0], [T, 0]] };
+      return {
+        kind,
+        samples: [
+          [0, 0],
+          [T, 0],
+        ],
+      };
   }
 }
 
@@ -78,14 +90,12 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
               </select>
               <MiniButton
                 disabled={components.length >= 64}
-                onClick={() =>
-                  {
-                    ids.current = [...ids.current, nextId.current++];
-                    edit((d) => {
-                      d.input.components.push(freshComponent(adding, d as Scenario));
-                    });
-                  }
-                }
+                onClick={() => {
+                  ids.current = [...ids.current, nextId.current++];
+                  edit((d) => {
+                    d.input.components.push(freshComponent(adding, d as Scenario));
+                  });
+                }}
               >
                 Add
               </MiniButton>
@@ -176,8 +186,23 @@ function ComponentFields({ index, c, readOnly }: { index: number; c: InputCompon
     edit((d) => {
       (d.input.components[index] as unknown as Record<string, number>)[key] = v;
     });
-  const q = (key: string, label: string, unit: string, value: number | undefined, rule?: (v: number) => string | null) => (
-    <QuantityField key={key} name={`input.${index}.${key}`} label={label} unit={unit} value={value ?? 0} onCommit={set(key)} validate={rule} disabled={readOnly} />
+  const q = (
+    key: string,
+    label: string,
+    unit: string,
+    value: number | undefined,
+    rule?: (v: number) => string | null,
+  ) => (
+    <QuantityField
+      key={key}
+      name={`input.${index}.${key}`}
+      label={label}
+      unit={unit}
+      value={value ?? 0}
+      onCommit={set(key)}
+      validate={rule}
+      disabled={readOnly}
+    />
   );
   const pos = (v: number) => (v > 0 ? null : "must be above 0");
   const nonNeg = (v: number) => (v >= 0 ? null : "not negative");
@@ -217,7 +242,14 @@ function ComponentFields({ index, c, readOnly }: { index: number; c: InputCompon
       );
     case "pwl":
       // Re-keyed when the points change from outside (restore, new design) so the text follows.
-      return <PointList key={`${c.points.length}:${c.points[0]?.join()}:${c.points.at(-1)?.join()}`} index={index} points={c.points} readOnly={readOnly} />;
+      return (
+        <PointList
+          key={`${c.points.length}:${c.points[0]?.join()}:${c.points.at(-1)?.join()}`}
+          index={index}
+          points={c.points}
+          readOnly={readOnly}
+        />
+      );
     case "capture":
       return (
         <p className="text-[12px] text-ink-mute">
@@ -231,7 +263,10 @@ function ComponentFields({ index, c, readOnly }: { index: number; c: InputCompon
 /** Point list as text, one "time value" pair per line (engineering notation allowed). */
 function PointList({ index, points, readOnly }: { index: number; points: [number, number][]; readOnly: boolean }) {
   const edit = useWb((s) => s.edit);
-  const initial = useMemo(() => points.map(([t, v]) => `${formatQuantity(t, "").replace(" ", "")}  ${v}`).join("\n"), [points]);
+  const initial = useMemo(
+    () => points.map(([t, v]) => `${formatQuantity(t, "").replace(" ", "")}  ${v}`).join("\n"),
+    [points],
+  );
   const [text, setText] = useState(initial);
   const [problem, setProblem] = useState<string | null>(null);
   return (
@@ -246,7 +281,10 @@ function PointList({ index, points, readOnly }: { index: number; points: [number
         onBlur={async () => {
           const { parseQuantity } = await import("@/lib/design/notation");
           const pts: [number, number][] = [];
-          const lines = text.split(/\n/).map((l) => l.trim()).filter(Boolean);
+          const lines = text
+            .split(/\n/)
+            .map((l) => l.trim())
+            .filter(Boolean);
           for (const [n, line] of lines.entries()) {
             const [a, b] = line.split(/[\s,;]+/);
             const t = parseQuantity(a ?? "");
@@ -263,7 +301,9 @@ function PointList({ index, points, readOnly }: { index: number; points: [number
           });
         }}
       />
-      <p className={`text-[11.5px] ${problem ? "text-alert" : "text-ink-faint"}`}>{problem ?? `${points.length} points · applied when you leave the box`}</p>
+      <p className={`text-[11.5px] ${problem ? "text-alert" : "text-ink-faint"}`}>
+        {problem ?? `${points.length} points · applied when you leave the box`}
+      </p>
     </div>
   );
 }
@@ -282,7 +322,8 @@ function NoiseSection({ readOnly }: { readOnly: boolean }) {
             disabled={readOnly}
             onChange={(e) =>
               edit((d) => {
-                if (e.target.checked) d.input.noise = { rms: 0.005, bandwidth: Math.max(10, 200 / d.run.duration), seed: 1 };
+                if (e.target.checked)
+                  d.input.noise = { rms: 0.005, bandwidth: Math.max(10, 200 / d.run.duration), seed: 1 };
                 else delete d.input.noise;
               })
             }
@@ -293,8 +334,24 @@ function NoiseSection({ readOnly }: { readOnly: boolean }) {
     >
       {noise ? (
         <>
-          <QuantityField name="noise.rms" label="rms" unit="V" value={noise.rms} disabled={readOnly} validate={(v) => (v >= 0 ? null : "not negative")} onCommit={(v) => edit((d) => void (d.input.noise && (d.input.noise.rms = v)))} />
-          <QuantityField name="noise.bandwidth" label="Bandwidth" unit="Hz" value={noise.bandwidth} disabled={readOnly} validate={(v) => (v > 0 ? null : "must be above 0")} onCommit={(v) => edit((d) => void (d.input.noise && (d.input.noise.bandwidth = v)))} />
+          <QuantityField
+            name="noise.rms"
+            label="rms"
+            unit="V"
+            value={noise.rms}
+            disabled={readOnly}
+            validate={(v) => (v >= 0 ? null : "not negative")}
+            onCommit={(v) => edit((d) => void (d.input.noise && (d.input.noise.rms = v)))}
+          />
+          <QuantityField
+            name="noise.bandwidth"
+            label="Bandwidth"
+            unit="Hz"
+            value={noise.bandwidth}
+            disabled={readOnly}
+            validate={(v) => (v > 0 ? null : "must be above 0")}
+            onCommit={(v) => edit((d) => void (d.input.noise && (d.input.noise.bandwidth = v)))}
+          />
           <div className="flex items-center gap-2">
             <div className="min-w-0 flex-1">
               <QuantityField
@@ -321,7 +378,8 @@ function NoiseSection({ readOnly }: { readOnly: boolean }) {
             )}
           </div>
           <p className="ml-[8rem] text-[11.5px] text-ink-mute">
-            Deadband should exceed 6.6 × rms = {formatQuantity(6.6 * noise.rms, "V")} (peak-to-peak of 99.9 % of samples).
+            Deadband should exceed 6.6 × rms = {formatQuantity(6.6 * noise.rms, "V")} (peak-to-peak of 99.9 % of
+            samples).
           </p>
         </>
       ) : (
@@ -336,7 +394,15 @@ function RunSettingsSection({ readOnly }: { readOnly: boolean }) {
   const edit = useWb((s) => s.edit);
   return (
     <Section title="Run settings">
-      <QuantityField name="run.duration" label="Duration" unit="s" value={run.duration} disabled={readOnly} validate={(v) => (v > 0 && v <= 1e6 ? null : "0 … 1e6 s")} onCommit={(v) => edit((d) => void (d.run.duration = v))} />
+      <QuantityField
+        name="run.duration"
+        label="Duration"
+        unit="s"
+        value={run.duration}
+        disabled={readOnly}
+        validate={(v) => (v > 0 && v <= 1e6 ? null : "0 … 1e6 s")}
+        onCommit={(v) => edit((d) => void (d.run.duration = v))}
+      />
       <QuantityField
         name="run.points"
         label="Output points"
@@ -347,7 +413,13 @@ function RunSettingsSection({ readOnly }: { readOnly: boolean }) {
         validate={(v) => (Number.isInteger(v) && v >= 2 && v <= 2_000_000 ? null : "whole number 2 … 2,000,000")}
         onCommit={(v) => edit((d) => void (d.run.points = v))}
       />
-      <SelectRow label="Output starts" name="run.initialOutput" value={run.initialOutput} disabled={readOnly} onChange={(e) => edit((d) => void (d.run.initialOutput = e.target.value as "low" | "high"))}>
+      <SelectRow
+        label="Output starts"
+        name="run.initialOutput"
+        value={run.initialOutput}
+        disabled={readOnly}
+        onChange={(e) => edit((d) => void (d.run.initialOutput = e.target.value as "low" | "high"))}
+      >
         <option value="low">low</option>
         <option value="high">high</option>
       </SelectRow>
@@ -406,7 +478,12 @@ function InputPreview() {
     const banded = !!noise && 2 * noise.bandwidth * run.duration > PREVIEW_NOISE_LIMIT;
     const source = banded ? { ...draft, input: { components: input.components } } : draft;
     try {
-      return { t, v: evaluateInputSignal(new InputSignal(source, run.duration), t), band: banded ? 3 * noise!.rms : 0, error: null as string | null };
+      return {
+        t,
+        v: evaluateInputSignal(new InputSignal(source, run.duration), t),
+        band: banded ? 3 * noise!.rms : 0,
+        error: null as string | null,
+      };
     } catch (e) {
       return { t, v: null, band: 0, error: e instanceof Error ? e.message : String(e) };
     }
@@ -445,7 +522,17 @@ function InputPreview() {
         {[supply.positive, supply.negative].filter(inside).map((v) => (
           <line key={v} x1={0} x2={W} y1={y(v)} y2={y(v)} stroke="#9aa3b2" strokeDasharray="2 3" />
         ))}
-        {inside(stage.reference) ? <line x1={0} x2={W} y1={y(stage.reference)} y2={y(stage.reference)} stroke="#4d7a3a" strokeDasharray="5 3" strokeOpacity={0.7} /> : null}
+        {inside(stage.reference) ? (
+          <line
+            x1={0}
+            x2={W}
+            y1={y(stage.reference)}
+            y2={y(stage.reference)}
+            stroke="#4d7a3a"
+            strokeDasharray="5 3"
+            strokeOpacity={0.7}
+          />
+        ) : null}
         {band ? <polygon points={band} fill="#3b4fa8" fillOpacity={0.14} stroke="none" /> : null}
         <polyline points={pts} fill="none" stroke="#3b4fa8" strokeWidth={1.3} vectorEffect="non-scaling-stroke" />
       </>
@@ -455,17 +542,25 @@ function InputPreview() {
     <div className="border-b border-paper-line bg-white px-3 py-2" data-testid="input-preview">
       <div className="mb-1 flex items-baseline justify-between text-[11.5px]">
         <span className="font-semibold uppercase tracking-wider text-ink-mute">Input preview</span>
-        <span className="font-mono text-ink-mute">{preview.error ? "" : `${range} over ${formatQuantity(run.duration, "s")}`}</span>
+        <span className="font-mono text-ink-mute">
+          {preview.error ? "" : `${range} over ${formatQuantity(run.duration, "s")}`}
+        </span>
       </div>
       {preview.error ? (
         <p className="text-[12px] text-alert">Cannot draw the input: {preview.error}</p>
       ) : (
-        <svg viewBox={`0 0 ${W} ${H}`} preserveAspectRatio="none" className="block h-[84px] w-full rounded bg-paper/50" aria-label="Input preview">
+        <svg
+          viewBox={`0 0 ${W} ${H}`}
+          preserveAspectRatio="none"
+          className="block h-[84px] w-full rounded bg-paper/50"
+          aria-label="Input preview"
+        >
           {body}
         </svg>
       )}
       <p className="mt-0.5 text-[11px] text-ink-faint">
-        scaled to the signal · green dash: reference{inside0(stage.reference, preview) ? "" : " (off scale)"}{preview.band ? " · shaded: ±3σ of the noise (too dense to draw here; the run computes every segment)" : ""}
+        scaled to the signal · green dash: reference{inside0(stage.reference, preview) ? "" : " (off scale)"}
+        {preview.band ? " · shaded: ±3σ of the noise (too dense to draw here; the run computes every segment)" : ""}
       </p>
     </div>
   );

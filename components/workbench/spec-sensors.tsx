@@ -24,7 +24,13 @@ export function frontEndOf(s: SensorSetup): SensorFrontEnd | null {
       return sensorFrontEnd({ kind: "divider", rTop: s.rTop, rBottom: s.rBottom }, s.rTop);
     case "ntc":
       return sensorFrontEnd(
-        { kind: "ntc", model: { beta: s.beta, r25: s.r25 }, rFixed: s.rFixed, position: s.position, supplyVoltage: s.vSupply },
+        {
+          kind: "ntc",
+          model: { beta: s.beta, r25: s.r25 },
+          rFixed: s.rFixed,
+          position: s.position,
+          supplyVoltage: s.vSupply,
+        },
         s.vSupply,
       );
   }
@@ -47,7 +53,8 @@ export function SensorFields({ sensor, onChange }: { sensor: SensorSetup; onChan
           const k = e.target.value as SensorSetup["kind"];
           if (k === "volts") onChange({ kind: "volts" });
           if (k === "divider") onChange({ kind: "divider", rTop: 68e3, rBottom: 18e3 });
-          if (k === "ntc") onChange({ kind: "ntc", r25: 10e3, beta: 3977, rFixed: 15e3, position: "bottom", vSupply: 5 });
+          if (k === "ntc")
+            onChange({ kind: "ntc", r25: 10e3, beta: 3977, rFixed: 15e3, position: "bottom", vSupply: 5 });
         }}
       >
         <option value="volts">volts at the stage input</option>
@@ -56,17 +63,64 @@ export function SensorFields({ sensor, onChange }: { sensor: SensorSetup; onChan
       </SelectRow>
       {sensor.kind === "divider" ? (
         <div className="ml-3 border-l-2 border-paper-line pl-2">
-          <QuantityField label="Divider top" name="spec.rTop" unit="Ω" value={sensor.rTop} onCommit={(v) => onChange({ ...sensor, rTop: v })} validate={(v) => (v > 0 ? null : "must be above 0")} />
-          <QuantityField label="Divider bottom" name="spec.rBottom" unit="Ω" value={sensor.rBottom} onCommit={(v) => onChange({ ...sensor, rBottom: v })} validate={(v) => (v > 0 ? null : "must be above 0")} />
+          <QuantityField
+            label="Divider top"
+            name="spec.rTop"
+            unit="Ω"
+            value={sensor.rTop}
+            onCommit={(v) => onChange({ ...sensor, rTop: v })}
+            validate={(v) => (v > 0 ? null : "must be above 0")}
+          />
+          <QuantityField
+            label="Divider bottom"
+            name="spec.rBottom"
+            unit="Ω"
+            value={sensor.rBottom}
+            onCommit={(v) => onChange({ ...sensor, rBottom: v })}
+            validate={(v) => (v > 0 ? null : "must be above 0")}
+          />
         </div>
       ) : null}
       {sensor.kind === "ntc" ? (
         <div className="ml-3 border-l-2 border-paper-line pl-2">
-          <QuantityField label="NTC at 25 °C" name="spec.r25" unit="Ω" value={sensor.r25} onCommit={(v) => onChange({ ...sensor, r25: v })} validate={(v) => (v > 0 ? null : "must be above 0")} />
-          <QuantityField label="Beta (K)" name="spec.beta" unit="K" plain value={sensor.beta} onCommit={(v) => onChange({ ...sensor, beta: v })} validate={(v) => (v > 0 ? null : "must be above 0")} />
-          <QuantityField label="Fixed resistor" name="spec.rFixed" unit="Ω" value={sensor.rFixed} onCommit={(v) => onChange({ ...sensor, rFixed: v })} validate={(v) => (v > 0 ? null : "must be above 0")} />
-          <QuantityField label="Divider supply" name="spec.vSupply" unit="V" value={sensor.vSupply} onCommit={(v) => onChange({ ...sensor, vSupply: v })} validate={(v) => (v > 0 ? null : "must be above 0")} />
-          <SelectRow label="NTC sits" value={sensor.position} onChange={(e) => onChange({ ...sensor, position: e.target.value as "top" | "bottom" })}>
+          <QuantityField
+            label="NTC at 25 °C"
+            name="spec.r25"
+            unit="Ω"
+            value={sensor.r25}
+            onCommit={(v) => onChange({ ...sensor, r25: v })}
+            validate={(v) => (v > 0 ? null : "must be above 0")}
+          />
+          <QuantityField
+            label="Beta (K)"
+            name="spec.beta"
+            unit="K"
+            plain
+            value={sensor.beta}
+            onCommit={(v) => onChange({ ...sensor, beta: v })}
+            validate={(v) => (v > 0 ? null : "must be above 0")}
+          />
+          <QuantityField
+            label="Fixed resistor"
+            name="spec.rFixed"
+            unit="Ω"
+            value={sensor.rFixed}
+            onCommit={(v) => onChange({ ...sensor, rFixed: v })}
+            validate={(v) => (v > 0 ? null : "must be above 0")}
+          />
+          <QuantityField
+            label="Divider supply"
+            name="spec.vSupply"
+            unit="V"
+            value={sensor.vSupply}
+            onCommit={(v) => onChange({ ...sensor, vSupply: v })}
+            validate={(v) => (v > 0 ? null : "must be above 0")}
+          />
+          <SelectRow
+            label="NTC sits"
+            value={sensor.position}
+            onChange={(e) => onChange({ ...sensor, position: e.target.value as "top" | "bottom" })}
+          >
             <option value="bottom">at the bottom (volts fall as it warms)</option>
             <option value="top">at the top (volts rise as it warms)</option>
           </SelectRow>

@@ -14,7 +14,15 @@ const MOSS = "#4d7a3a";
 type Pt = [number, number];
 
 function Wire({ pts, color = INK }: { pts: Pt[]; color?: string }) {
-  return <polyline points={pts.map((p) => p.join(",")).join(" ")} fill="none" stroke={color} strokeWidth={1.6} strokeLinejoin="round" />;
+  return (
+    <polyline
+      points={pts.map((p) => p.join(",")).join(" ")}
+      fill="none"
+      stroke={color}
+      strokeWidth={1.6}
+      strokeLinejoin="round"
+    />
+  );
 }
 
 function Dot({ at }: { at: Pt }) {
@@ -41,7 +49,14 @@ function Resistor({ c, vertical = false, role, ohms }: { c: Pt; vertical?: boole
         </>
       ) : (
         <>
-          <text x={x} y={y - 12} fontSize={12.5} fill={MUTE} textAnchor="middle" fontFamily="var(--font-plex), sans-serif">
+          <text
+            x={x}
+            y={y - 12}
+            fontSize={12.5}
+            fill={MUTE}
+            textAnchor="middle"
+            fontFamily="var(--font-plex), sans-serif"
+          >
             {role}
           </text>
           <text x={x} y={y + 24} fontSize={13.5} fill={INK} textAnchor="middle" fontFamily="var(--font-jb), monospace">
@@ -84,7 +99,17 @@ function Common({ at }: { at: Pt }) {
 }
 
 /** A terminal: open ring with a tag. `side` says where the tag goes. */
-function Terminal({ at, label, color, side }: { at: Pt; label: string; color: string; side: "left" | "right" | "below" }) {
+function Terminal({
+  at,
+  label,
+  color,
+  side,
+}: {
+  at: Pt;
+  label: string;
+  color: string;
+  side: "left" | "right" | "below";
+}) {
   const [x, y] = at;
   const tx = side === "left" ? x - 8 : side === "right" ? x + 8 : x;
   const ty = side === "below" ? y + 18 : y + 4;
@@ -92,7 +117,15 @@ function Terminal({ at, label, color, side }: { at: Pt; label: string; color: st
   return (
     <g>
       <circle cx={x} cy={y} r={4.5} fill="#fff" stroke={color} strokeWidth={2} />
-      <text x={tx} y={ty} fontSize={13} fontWeight={600} fill={color} textAnchor={anchor} fontFamily="var(--font-plex), sans-serif">
+      <text
+        x={tx}
+        y={ty}
+        fontSize={13}
+        fontWeight={600}
+        fill={color}
+        textAnchor={anchor}
+        fontFamily="var(--font-plex), sans-serif"
+      >
         {label}
       </text>
     </g>
@@ -100,7 +133,17 @@ function Terminal({ at, label, color, side }: { at: Pt; label: string; color: st
 }
 
 /** The reference: a moss tab carrying its voltage (and its divider, when it has one). */
-function Reference({ at, volts, side = "left", divider }: { at: Pt; volts: number; side?: "left" | "below"; divider?: string }) {
+function Reference({
+  at,
+  volts,
+  side = "left",
+  divider,
+}: {
+  at: Pt;
+  volts: number;
+  side?: "left" | "below";
+  divider?: string;
+}) {
   const [x, y] = at;
   const text = divider ? `÷ ${divider} = ${formatQuantity(volts, "V", 4)}` : `ref ${formatQuantity(volts, "V", 4)}`;
   const w = 16 + text.length * 7.6;
@@ -109,7 +152,14 @@ function Reference({ at, volts, side = "left", divider }: { at: Pt; volts: numbe
   return (
     <g data-role="reference">
       <rect x={bx} y={by} width={w} height={22} rx={11} fill="#e2eddb" stroke={MOSS} strokeWidth={1.3} />
-      <text x={bx + w / 2} y={by + 15.5} fontSize={12.5} fill={MOSS} textAnchor="middle" fontFamily="var(--font-jb), monospace">
+      <text
+        x={bx + w / 2}
+        y={by + 15.5}
+        fontSize={12.5}
+        fill={MOSS}
+        textAnchor="middle"
+        fontFamily="var(--font-jb), monospace"
+      >
         {text}
       </text>
     </g>
@@ -121,7 +171,13 @@ function Amp({ x0, y0, supply }: { x0: number; y0: number; supply: Scenario["sup
   const apex: Pt = [x0 + 80, y0];
   return (
     <g>
-      <path d={`M${x0},${y0 - 50} L${apex[0]},${apex[1]} L${x0},${y0 + 50} Z`} fill="#fff" stroke={INK} strokeWidth={1.8} strokeLinejoin="round" />
+      <path
+        d={`M${x0},${y0 - 50} L${apex[0]},${apex[1]} L${x0},${y0 + 50} Z`}
+        fill="#fff"
+        stroke={INK}
+        strokeWidth={1.8}
+        strokeLinejoin="round"
+      />
       <text x={x0 + 8} y={y0 - 21} fontSize={14} fill={INK} fontFamily="var(--font-jb), monospace">
         −
       </text>
@@ -141,21 +197,34 @@ function Amp({ x0, y0, supply }: { x0: number; y0: number; supply: Scenario["sup
 }
 
 /** The circuit as built around the stage, one short line each (drawn under the network). */
-function asBuiltLines(scenario: Pick<Scenario, "stage" | "supply"> & Partial<Pick<Scenario, "source" | "filter" | "output">>): string[] {
+function asBuiltLines(
+  scenario: Pick<Scenario, "stage" | "supply"> & Partial<Pick<Scenario, "source" | "filter" | "output">>,
+): string[] {
   const lines: string[] = [];
   const ohm = (v: number) => formatQuantity(v, "Ω", 3);
   const s = scenario.source;
   if (s) {
     const what = s.quantity ? `${s.quantity} ` : "";
-    if (s.sensor.kind === "divider") lines.push(`in: ${what}through a divider ${ohm(s.sensor.rTop)} / ${ohm(s.sensor.rBottom)} to 0 V`);
+    if (s.sensor.kind === "divider")
+      lines.push(`in: ${what}through a divider ${ohm(s.sensor.rTop)} / ${ohm(s.sensor.rBottom)} to 0 V`);
     else if (s.sensor.kind === "ntc")
-      lines.push(`in: ${what}NTC ${"r25" in s.sensor.model ? ohm(s.sensor.model.r25) : ""} at the ${s.sensor.position} of a divider with ${ohm(s.sensor.rFixed)}`);
-    else lines.push(`in: ${what}linear sensor, ${formatQuantity(s.sensor.voltsPerUnit, "V", 3)} per ${s.unit ?? s.sensor.unit ?? "unit"}`);
+      lines.push(
+        `in: ${what}NTC ${"r25" in s.sensor.model ? ohm(s.sensor.model.r25) : ""} at the ${s.sensor.position} of a divider with ${ohm(s.sensor.rFixed)}`,
+      );
+    else
+      lines.push(
+        `in: ${what}linear sensor, ${formatQuantity(s.sensor.voltsPerUnit, "V", 3)} per ${s.unit ?? s.sensor.unit ?? "unit"}`,
+      );
   }
-  if (scenario.filter) lines.push(`RC filter before the input: ${ohm(scenario.filter.r)} in series, ${formatQuantity(scenario.filter.c, "F", 3)} to 0 V`);
+  if (scenario.filter)
+    lines.push(
+      `RC filter before the input: ${ohm(scenario.filter.r)} in series, ${formatQuantity(scenario.filter.c, "F", 3)} to 0 V`,
+    );
   const o = scenario.output;
   if (o?.kind === "open-drain")
-    lines.push(`out: open drain, ${ohm(o.pullUp)} pull-up to ${typeof o.pullUpTo === "number" ? formatQuantity(o.pullUpTo, "V", 3) : "the positive supply"}${o.load ? `, load ${ohm(o.load.r)}` : ""}`);
+    lines.push(
+      `out: open drain, ${ohm(o.pullUp)} pull-up to ${typeof o.pullUpTo === "number" ? formatQuantity(o.pullUpTo, "V", 3) : "the positive supply"}${o.load ? `, load ${ohm(o.load.r)}` : ""}`,
+    );
   return lines;
 }
 
@@ -192,13 +261,28 @@ export function StageDiagram({
       push(<Dot at={[240, NEG[1]]} />);
       push(<Dot at={ON} />);
       push(<Resistor c={[350, 40]} role="rFeedback" ohms={st.rFeedback} />);
-      push(<Wire pts={[[240, NEG[1]], [150, NEG[1]]]} />);
+      push(
+        <Wire
+          pts={[
+            [240, NEG[1]],
+            [150, NEG[1]],
+          ]}
+        />,
+      );
       push(<Resistor c={[190, NEG[1]]} role="rGround" ohms={st.rGround} />);
       push(<Reference at={[150, NEG[1]]} volts={st.reference} divider={dividerText} />);
       break;
     }
     case "inverting-amplifier": {
-      push(<Wire pts={[[40, NEG[1]], [240, NEG[1]]]} color={INDIGO} />);
+      push(
+        <Wire
+          pts={[
+            [40, NEG[1]],
+            [240, NEG[1]],
+          ]}
+          color={INDIGO}
+        />,
+      );
       push(<Terminal at={[36, NEG[1]]} label={inLabel} color={INDIGO} side="below" />);
       push(<Resistor c={[150, NEG[1]]} role="rInput" ohms={st.rInput} />);
       push(<Wire pts={[[240, NEG[1]], NEG]} />);
@@ -220,7 +304,15 @@ export function StageDiagram({
       break;
     }
     case "schmitt-noninverting": {
-      push(<Wire pts={[[40, POS[1]], [240, POS[1]]]} color={INDIGO} />);
+      push(
+        <Wire
+          pts={[
+            [40, POS[1]],
+            [240, POS[1]],
+          ]}
+          color={INDIGO}
+        />,
+      );
       push(<Terminal at={[36, POS[1]]} label={inLabel} color={INDIGO} side="below" />);
       push(<Resistor c={[150, POS[1]]} role="rInput" ohms={st.rInput} />);
       push(<Wire pts={[[240, POS[1]], POS]} />);
@@ -242,28 +334,88 @@ export function StageDiagram({
         push(<Wire pts={[NEG, [240, NEG[1]], [240, 40], [ON[0], 40], ON]} />);
         push(<Resistor c={[350, 40]} role="rTiming" ohms={st.rTiming} />);
         push(<Dot at={[240, NEG[1]]} />);
-        push(<Wire pts={[[240, NEG[1]], [80, NEG[1]], [80, 112]]} />);
+        push(
+          <Wire
+            pts={[
+              [240, NEG[1]],
+              [80, NEG[1]],
+              [80, 112],
+            ]}
+          />,
+        );
         push(<Capacitor c={[80, 116]} farads={st.cTiming} />);
-        push(<Wire pts={[[80, 120], [80, 140]]} />);
+        push(
+          <Wire
+            pts={[
+              [80, 120],
+              [80, 140],
+            ]}
+          />,
+        );
         push(<Common at={[80, 140]} />);
       }
       push(<Wire pts={[POS, [240, POS[1]], [240, 210], [ON[0], 210], ON]} />);
       push(<Dot at={[240, POS[1]]} />);
       push(<Dot at={ON} />);
       push(<Resistor c={[350, 210]} role="rFeedback" ohms={st.rFeedback} />);
-      push(<Wire pts={[[240, POS[1]], [150, POS[1]], [150, 175]]} />);
+      push(
+        <Wire
+          pts={[
+            [240, POS[1]],
+            [150, POS[1]],
+            [150, 175],
+          ]}
+        />,
+      );
       if (div) {
         // The divider's two resistors meet v+ with rFeedback (no separate reference resistor).
         push(<Resistor c={[150, 197]} vertical role="rBottom" ohms={div.rBottom} />);
-        push(<Wire pts={[[150, 219], [150, 228]]} />);
+        push(
+          <Wire
+            pts={[
+              [150, 219],
+              [150, 228],
+            ]}
+          />,
+        );
         push(<Common at={[150, 228]} />);
-        push(<Wire pts={[[150, POS[1]], [150, 160], [100, 160], [100, 175]]} />);
+        push(
+          <Wire
+            pts={[
+              [150, POS[1]],
+              [150, 160],
+              [100, 160],
+              [100, 175],
+            ]}
+          />,
+        );
         push(<Resistor c={[100, 197]} vertical role="rTop" ohms={div.rTop} />);
-        push(<Wire pts={[[100, 219], [100, 226]]} />);
-        push(<Terminal at={[100, 230]} label={`+${formatQuantity(scenario.supply.positive, "V", 3)}`} color={MOSS} side="left" />);
+        push(
+          <Wire
+            pts={[
+              [100, 219],
+              [100, 226],
+            ]}
+          />,
+        );
+        push(
+          <Terminal
+            at={[100, 230]}
+            label={`+${formatQuantity(scenario.supply.positive, "V", 3)}`}
+            color={MOSS}
+            side="left"
+          />,
+        );
       } else {
         push(<Resistor c={[150, 197]} vertical role="rReference" ohms={st.rReference} />);
-        push(<Wire pts={[[150, 219], [150, 226]]} />);
+        push(
+          <Wire
+            pts={[
+              [150, 219],
+              [150, 226],
+            ]}
+          />,
+        );
         push(<Reference at={[150, 226]} volts={st.reference} side="below" />);
       }
       break;
@@ -271,8 +423,10 @@ export function StageDiagram({
   }
 
   // Crop to what each kind draws: feedback above (amplifiers, oscillator) and/or below (triggers).
-  const above = st.kind === "noninverting-amplifier" || st.kind === "inverting-amplifier" || st.kind === "relaxation-oscillator";
-  const below = st.kind === "schmitt-noninverting" || st.kind === "schmitt-inverting" || st.kind === "relaxation-oscillator";
+  const above =
+    st.kind === "noninverting-amplifier" || st.kind === "inverting-amplifier" || st.kind === "relaxation-oscillator";
+  const below =
+    st.kind === "schmitt-noninverting" || st.kind === "schmitt-inverting" || st.kind === "relaxation-oscillator";
   const y0 = above ? 8 : 58;
   const yNet = below ? (st.kind === "schmitt-noninverting" ? 244 : 256) : 186;
   const y1 = yNet + extra.length * 17;
@@ -293,7 +447,15 @@ export function StageDiagram({
       <rect x={0} y={0} width={580} height={260 + extra.length * 17} fill="url(#rw-grid)" />
       {body}
       {extra.map((line, i) => (
-        <text key={line} x={20} y={yNet + 12 + i * 17} fontSize={12.5} fill={INDIGO} fontFamily="var(--font-plex), sans-serif" data-role="as-built">
+        <text
+          key={line}
+          x={20}
+          y={yNet + 12 + i * 17}
+          fontSize={12.5}
+          fill={INDIGO}
+          fontFamily="var(--font-plex), sans-serif"
+          data-role="as-built"
+        >
           {line}
         </text>
       ))}

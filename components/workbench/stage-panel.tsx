@@ -22,14 +22,23 @@ export interface PartOption {
   source: "team" | "demo";
 }
 
-const DEMO_OPTIONS: PartOption[] = DEMO_PART_PROFILES.map((p, i) => ({ id: `demo-${i}`, name: p.name, opamp: p.params, source: "demo" }));
+const DEMO_OPTIONS: PartOption[] = DEMO_PART_PROFILES.map((p, i) => ({
+  id: `demo-${i}`,
+  name: p.name,
+  opamp: p.params,
+  source: "demo",
+}));
 
 /** The team library, or the generic demo profiles when the library cannot be read. */
 export function usePartOptions(): { options: PartOption[]; fromTeam: boolean } {
-  const { data, error } = useSWR<{ items: { id: string; name: string; opamp?: OpAmp; params?: OpAmp }[] }>("/api/parts", (u: string) => fetchJson(u), {
-    revalidateOnFocus: false,
-    shouldRetryOnError: false,
-  });
+  const { data, error } = useSWR<{ items: { id: string; name: string; opamp?: OpAmp; params?: OpAmp }[] }>(
+    "/api/parts",
+    (u: string) => fetchJson(u),
+    {
+      revalidateOnFocus: false,
+      shouldRetryOnError: false,
+    },
+  );
   if (error || !data?.items?.length) return { options: DEMO_OPTIONS, fromTeam: false };
   const options = data.items
     .map((p) => ({ id: p.id, name: p.name, opamp: (p.opamp ?? p.params) as OpAmp, source: "team" as const }))
@@ -97,22 +106,22 @@ export function StagePanel({ readOnly = false }: { readOnly?: boolean }) {
           // With a reference divider, rReference is the divider itself (edited below).
           .filter((role: ResistorRole) => !(stage.referenceDivider && role === "rReference"))
           .map((role: ResistorRole) => (
-          <QuantityField
-            key={`${stage.kind}-${role}`}
-            name={`stage.${role}`}
-            label={STAGE_ROLE_LABEL[role].name}
-            hint={STAGE_ROLE_LABEL[role].between}
-            unit="Ω"
-            value={roleValue(stage, role) ?? 0}
-            validate={ohmsRule}
-            disabled={readOnly}
-            onCommit={(v) =>
-              edit((d) => {
-                (d.stage as unknown as Record<string, number>)[role] = v;
-              })
-            }
-          />
-        ))}
+            <QuantityField
+              key={`${stage.kind}-${role}`}
+              name={`stage.${role}`}
+              label={STAGE_ROLE_LABEL[role].name}
+              hint={STAGE_ROLE_LABEL[role].between}
+              unit="Ω"
+              value={roleValue(stage, role) ?? 0}
+              validate={ohmsRule}
+              disabled={readOnly}
+              onCommit={(v) =>
+                edit((d) => {
+                  (d.stage as unknown as Record<string, number>)[role] = v;
+                })
+              }
+            />
+          ))}
         {stage.kind === "relaxation-oscillator" ? (
           <QuantityField
             name="stage.cTiming"
@@ -184,7 +193,10 @@ export function StagePanel({ readOnly = false }: { readOnly?: boolean }) {
 
 const perMicro = (v: number) => `${Number((v / 1e6).toPrecision(4))} V/µs`;
 
-const PARAM_DISPLAY: Record<OpampParam, { label: string; unit: string; rule?: (v: number) => string | null; show?: (v: number) => string }> = {
+const PARAM_DISPLAY: Record<
+  OpampParam,
+  { label: string; unit: string; rule?: (v: number) => string | null; show?: (v: number) => string }
+> = {
   openLoopGain: { label: "A0", unit: "V/V", rule: (v) => (v >= 1 ? null : "at least 1") },
   gainBandwidth: { label: "GBW", unit: "Hz", rule: (v) => (v > 0 ? null : "must be above 0") },
   slewRate: { label: "Slew rate ↑", unit: "V/s", rule: (v) => (v > 0 ? null : "must be above 0"), show: perMicro },
@@ -234,7 +246,8 @@ function PartSection({ readOnly }: { readOnly: boolean }) {
       <p className="mb-1 ml-[8rem] text-[11.5px] text-ink-mute">
         {base && changed.length ? (
           <>
-            Overridden here: <span className="text-copper-deep">{changed.map((k) => PARAM_DISPLAY[k].label).join(", ")}</span>
+            Overridden here:{" "}
+            <span className="text-copper-deep">{changed.map((k) => PARAM_DISPLAY[k].label).join(", ")}</span>
             {!readOnly ? (
               <MiniButton
                 className="ml-2"

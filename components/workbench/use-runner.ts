@@ -128,21 +128,30 @@ export function useRunner() {
       }
       const [inputMin, inputMax] = minMax(result.input);
       const key = bank.put(result);
-      api.getState().runFinished(key, {
-        rails: result.rails,
-        events: result.events,
-        metrics: result.metrics,
-        solver: result.solver,
-        points: result.t.length,
-        inputMin,
-        inputMax,
-        scenario: parsed.data,
-        wallMs: performance.now() - started,
-      }, revision);
+      api.getState().runFinished(
+        key,
+        {
+          rails: result.rails,
+          events: result.events,
+          metrics: result.metrics,
+          solver: result.solver,
+          points: result.t.length,
+          inputMin,
+          inputMax,
+          scenario: parsed.data,
+          wallMs: performance.now() - started,
+        },
+        revision,
+      );
     } catch (err) {
       if (tm) tm.runStartedAt = null;
       const cancelled = ac.signal.aborted || (err instanceof Error && /cancel|abort/i.test(err.name + err.message));
-      api.getState().runFailed(cancelled ? "cancelled" : "error", cancelled ? null : err instanceof Error ? err.message : String(err));
+      api
+        .getState()
+        .runFailed(
+          cancelled ? "cancelled" : "error",
+          cancelled ? null : err instanceof Error ? err.message : String(err),
+        );
     } finally {
       if (abort.current === ac) abort.current = null;
     }

@@ -31,7 +31,14 @@ import { WorkbenchStudies } from "@/components/studies/workbench-studies";
 export function ScenarioWorkbench({ scenarioId }: { scenarioId: string }) {
   const { data, error, isLoading, mutate } = useScenario(scenarioId);
   return (
-    <LoadGate notFoundTitle="Scenario not found" rows={8} data={data} error={error} isLoading={isLoading} onRetry={() => void mutate()}>
+    <LoadGate
+      notFoundTitle="Scenario not found"
+      rows={8}
+      data={data}
+      error={error}
+      isLoading={isLoading}
+      onRetry={() => void mutate()}
+    >
       {(record) => <LoadedWorkbench record={record} />}
     </LoadGate>
   );
@@ -40,7 +47,11 @@ export function ScenarioWorkbench({ scenarioId }: { scenarioId: string }) {
 function LoadedWorkbench({ record }: { record: ScenarioRecord }) {
   const init = useMemo(() => {
     const parsed = scenarioSchema.safeParse(record.scenario);
-    return { scenarioId: record.id, version: record.version, scenario: parsed.success ? parsed.data : (record.scenario as Scenario) };
+    return {
+      scenarioId: record.id,
+      version: record.version,
+      scenario: parsed.success ? parsed.data : (record.scenario as Scenario),
+    };
     // The store is created once per mount; later SWR refreshes must not reset the editor.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [record.id]);
@@ -61,13 +72,20 @@ function WorkbenchBody({ record }: { record: ScenarioRecord }) {
   const name = useWb((s) => s.draft.name);
   return (
     <div className={bleed} data-testid="workbench">
-      <ScenarioHeading record={{ ...record, version: useWb((s) => s.version) }} boardName={board.data?.name} actions={<SummaryLink id={record.id} />} />
+      <ScenarioHeading
+        record={{ ...record, version: useWb((s) => s.version) }}
+        boardName={board.data?.name}
+        actions={<SummaryLink id={record.id} />}
+      />
       <SafetyCaution texts={[record.name, name]} className="mb-3" />
       <DraftKeeper record={record} />
       <RunBar />
       <Notice />
       <div className="mt-3 grid gap-3 lg:grid-cols-[minmax(360px,420px)_minmax(0,1fr)] 2xl:grid-cols-[440px_minmax(0,1fr)]">
-        <section className="min-w-0 self-start rounded-lg border border-paper-line bg-paper-card lg:sticky lg:top-3" aria-label="Editor">
+        <section
+          className="min-w-0 self-start rounded-lg border border-paper-line bg-paper-card lg:sticky lg:top-3"
+          aria-label="Editor"
+        >
           <Tabs<SideTab>
             label="Editor"
             value={tab}
@@ -171,8 +189,16 @@ function DraftKeeper({ record }: { record: ScenarioRecord }) {
       const a = (e.target as Element | null)?.closest?.("a[href]") as HTMLAnchorElement | null;
       if (!a || a.target === "_blank" || a.hasAttribute("download")) return;
       const url = new URL(a.href, window.location.href);
-      if (url.origin !== window.location.origin || (url.pathname === window.location.pathname && url.search === window.location.search)) return;
-      if (!window.confirm("This scenario has unsaved edits. Leave the page anyway? The draft stays in this browser and is offered back when you return.")) {
+      if (
+        url.origin !== window.location.origin ||
+        (url.pathname === window.location.pathname && url.search === window.location.search)
+      )
+        return;
+      if (
+        !window.confirm(
+          "This scenario has unsaved edits. Leave the page anyway? The draft stays in this browser and is offered back when you return.",
+        )
+      ) {
         e.preventDefault();
         e.stopPropagation();
       }
@@ -189,9 +215,14 @@ function DraftKeeper({ record }: { record: ScenarioRecord }) {
   const when = new Date(offer.savedAt);
   const newer = offer.baseVersion !== record.version;
   return (
-    <div className="mb-3 flex flex-wrap items-center gap-2 rounded border-l-[3px] border-caution bg-caution-soft/70 px-3 py-1.5 text-[13px]" role="status" data-testid="draft-offer">
+    <div
+      className="mb-3 flex flex-wrap items-center gap-2 rounded border-l-[3px] border-caution bg-caution-soft/70 px-3 py-1.5 text-[13px]"
+      role="status"
+      data-testid="draft-offer"
+    >
       <span className="min-w-0 flex-1">
-        Unsaved edits from {when.toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" })} are kept in this browser
+        Unsaved edits from {when.toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" })} are kept in this
+        browser
         {newer ? ` (made on version ${offer.baseVersion}; the saved scenario is now version ${record.version})` : ""}.
       </span>
       <Button
@@ -256,16 +287,27 @@ function useSave() {
       return false;
     }
     try {
-      const rec = await saveScenario(st.scenarioId, { scenario: parsed.data, baseVersion: st.version, ...(changeNote ? { note: changeNote } : {}) });
+      const rec = await saveScenario(st.scenarioId, {
+        scenario: parsed.data,
+        baseVersion: st.version,
+        ...(changeNote ? { note: changeNote } : {}),
+      });
       api.getState().markSaved(parseScenario(rec.scenario), rec.version);
       await Promise.all([mutate(scenarioKey(st.scenarioId)), mutate(versionsKey(st.scenarioId))]);
-      api.getState().setNotice({ tone: "ok", text: changeNote ? `Saved as version ${rec.version} with the note “${changeNote}”.` : `Saved as version ${rec.version}.` });
+      api.getState().setNotice({
+        tone: "ok",
+        text: changeNote
+          ? `Saved as version ${rec.version} with the note “${changeNote}”.`
+          : `Saved as version ${rec.version}.`,
+      });
       return true;
     } catch (e) {
       const conflict = e instanceof HttpError && e.status === 409;
       api.getState().setNotice({
         tone: "error",
-        text: conflict ? "Someone saved this scenario after you opened it. Reload to see their version (your edits stay here until you do)." : `Not saved — ${errorMessage(e)}`,
+        text: conflict
+          ? "Someone saved this scenario after you opened it. Reload to see their version (your edits stay here until you do)."
+          : `Not saved — ${errorMessage(e)}`,
       });
       return false;
     }
@@ -305,13 +347,29 @@ function RunBar() {
   const exportCsv = () => {
     const wf = bank.get(resultKey);
     if (!wf || !result) return;
-    downloadSamplesCsv(wf.t, wf.input, wf.output, `${slug(result.scenario.name ?? "scenario")}-samples.csv`, extraSampleColumns(result.scenario, wf));
+    downloadSamplesCsv(
+      wf.t,
+      wf.input,
+      wf.output,
+      `${slug(result.scenario.name ?? "scenario")}-samples.csv`,
+      extraSampleColumns(result.scenario, wf),
+    );
   };
 
   const running = status === "running";
   return (
-    <div className="flex flex-wrap items-center gap-2 rounded-lg border border-paper-line bg-paper-card px-3 py-2" data-testid="run-bar">
-      <Button variant="primary" size="sm" onClick={() => void run()} disabled={running} aria-keyshortcuts="Control+Enter" data-testid="run-button">
+    <div
+      className="flex flex-wrap items-center gap-2 rounded-lg border border-paper-line bg-paper-card px-3 py-2"
+      data-testid="run-bar"
+    >
+      <Button
+        variant="primary"
+        size="sm"
+        onClick={() => void run()}
+        disabled={running}
+        aria-keyshortcuts="Control+Enter"
+        data-testid="run-button"
+      >
         Run <kbd className="hidden rounded bg-copper-deep/40 px-1 font-mono text-[10.5px] sm:inline">Ctrl ↵</kbd>
       </Button>
       {running ? (
@@ -328,7 +386,10 @@ function RunBar() {
           aria-valuemax={100}
           aria-valuenow={Math.round(progress * 100)}
         >
-          <div className={`h-full rounded-full ${status === "error" ? "bg-alert" : "bg-copper"}`} style={{ width: `${(running || status === "done" ? progress : 0) * 100}%` }} />
+          <div
+            className={`h-full rounded-full ${status === "error" ? "bg-alert" : "bg-copper"}`}
+            style={{ width: `${(running || status === "done" ? progress : 0) * 100}%` }}
+          />
         </div>
         <span className="min-w-[11rem] text-[12px] text-ink-mute" data-testid="run-status">
           {running
@@ -340,10 +401,10 @@ function RunBar() {
                 : status === "refused"
                   ? "Not run: fix the fields listed below."
                   : status === "error"
-                  ? "Run failed."
-                  : solverReady
-                    ? "Solver ready."
-                    : "Starting the solver…"}
+                    ? "Run failed."
+                    : solverReady
+                      ? "Solver ready."
+                      : "Starting the solver…"}
         </span>
       </div>
       <span className="mx-1 h-5 w-px bg-paper-line" aria-hidden />
@@ -384,7 +445,11 @@ function RunBar() {
       <Button size="sm" variant="ghost" disabled={!result} onClick={exportCsv} title="Samples of the latest run as CSV">
         CSV
       </Button>
-      {runError ? <p className="basis-full text-[12.5px] text-alert" role="alert">{runError}</p> : null}
+      {runError ? (
+        <p className="basis-full text-[12.5px] text-alert" role="alert">
+          {runError}
+        </p>
+      ) : null}
     </div>
   );
 }
@@ -425,7 +490,18 @@ function SaveRunControl() {
         onChange={(e) => setLabel(e.target.value)}
         className="h-7 w-40 rounded border border-paper-line bg-white px-2 text-[13px] outline-none focus:border-indigo"
       />
-      <Button type="submit" size="sm" variant="primary" disabled={busy} data-testid="save-run-button" title={dirty ? "Saves your edits first, then the server re-runs and stores the scenario" : "The server re-runs the saved scenario and stores it"}>
+      <Button
+        type="submit"
+        size="sm"
+        variant="primary"
+        disabled={busy}
+        data-testid="save-run-button"
+        title={
+          dirty
+            ? "Saves your edits first, then the server re-runs and stores the scenario"
+            : "The server re-runs the saved scenario and stores it"
+        }
+      >
         {busy ? "Saving run…" : "Save run"}
       </Button>
     </form>
@@ -463,7 +539,11 @@ function Notice() {
             <ul className="mt-0.5 list-disc pl-5" data-testid="fields-at-fault">
               {notice.fields.map((f) => (
                 <li key={f.inputId}>
-                  <button type="button" className="text-left underline decoration-dotted" onClick={() => focusField(api, f)}>
+                  <button
+                    type="button"
+                    className="text-left underline decoration-dotted"
+                    onClick={() => focusField(api, f)}
+                  >
                     {f.label}
                   </button>
                   : {f.message}
@@ -474,7 +554,11 @@ function Notice() {
         ) : runLink ? (
           <>
             Run saved.{" "}
-            <Link href={`/runs/${runLink[1]}`} className="font-medium text-copper-deep underline" data-testid="saved-run-link">
+            <Link
+              href={`/runs/${runLink[1]}`}
+              className="font-medium text-copper-deep underline"
+              data-testid="saved-run-link"
+            >
               Open the run
             </Link>
           </>
@@ -482,7 +566,12 @@ function Notice() {
           notice.text
         )}
       </span>
-      <button type="button" className="text-ink-mute hover:text-ink" onClick={() => setNotice(null)} aria-label="Dismiss">
+      <button
+        type="button"
+        className="text-ink-mute hover:text-ink"
+        onClick={() => setNotice(null)}
+        aria-label="Dismiss"
+      >
         ×
       </button>
     </div>

@@ -39,7 +39,10 @@ export interface ParsedCapture {
 }
 
 export class CaptureError extends Error {
-  constructor(message: string, readonly field: string = "file") {
+  constructor(
+    message: string,
+    readonly field: string = "file",
+  ) {
     super(message);
     this.name = "CaptureError";
   }
@@ -52,13 +55,24 @@ const COMMA_NUMBER_RE = /^[+-]?(\d+,?\d*|,\d+)([eE][+-]?\d+)?$/;
 
 /** Readable name of a separator, for the "detected" line. */
 export function delimiterName(d: string): string {
-  return d === "," ? "comma" : d === ";" ? "semicolon" : d === "\t" ? "tab" : d === "|" ? "vertical bar" : d === " " ? "space" : `"${d}"`;
+  return d === ","
+    ? "comma"
+    : d === ";"
+      ? "semicolon"
+      : d === "\t"
+        ? "tab"
+        : d === "|"
+          ? "vertical bar"
+          : d === " "
+            ? "space"
+            : `"${d}"`;
 }
 
 function toNumber(cell: string | undefined, decimalComma = false): number | null {
   if (cell === undefined) return null;
   let text = cell.trim();
-  if (decimalComma && text.includes(",") && !text.includes(".") && COMMA_NUMBER_RE.test(text)) text = text.replace(",", ".");
+  if (decimalComma && text.includes(",") && !text.includes(".") && COMMA_NUMBER_RE.test(text))
+    text = text.replace(",", ".");
   if (!NUMBER_RE.test(text)) return null;
   const n = Number(text);
   return Number.isFinite(n) ? n : null;
@@ -67,9 +81,14 @@ function toNumber(cell: string | undefined, decimalComma = false): number | null
 function readRows(text: string): { rows: string[][]; delimiter: string } {
   if (text.length === 0 || text.trim().length === 0) throw new CaptureError("The file is empty.");
   // NUL bytes or undecodable bytes: a spreadsheet or scope binary, not a CSV export.
-  if (/[\u0000\uFFFD]/.test(text.slice(0, 65536))) throw new CaptureError("The file is not a text CSV (it contains binary data); export it as CSV.");
+  if (/[\u0000\uFFFD]/.test(text.slice(0, 65536)))
+    throw new CaptureError("The file is not a text CSV (it contains binary data); export it as CSV.");
   // Papaparse guesses the separator (comma, tab, vertical bar, semicolon) from the first rows.
-  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), { skipEmptyLines: "greedy", dynamicTyping: false, delimitersToGuess: [",", ";", "\t", "|"] });
+  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), {
+    skipEmptyLines: "greedy",
+    dynamicTyping: false,
+    delimitersToGuess: [",", ";", "\t", "|"],
+  });
   const fatal = parsed.errors.find((e) => e.type === "Quotes");
   if (fatal) throw new CaptureError(`Row ${(fatal.row ?? 0) + 1}: ${fatal.message}.`);
   const rows = parsed.data.filter((r) => Array.isArray(r) && r.some((c) => c.trim() !== ""));
@@ -106,7 +125,9 @@ function resolveColumn(ref: ColumnRef, names: string[], field: string, hasHeader
   if (index < 0) {
     const known = names.map((n) => `"${n}"`).join(", ");
     throw new CaptureError(
-      hasHeader ? `${field}: no column named "${name}" (columns: ${known}).` : `${field}: the file has no header row; choose a column by number.`,
+      hasHeader
+        ? `${field}: no column named "${name}" (columns: ${known}).`
+        : `${field}: the file has no header row; choose a column by number.`,
       field,
     );
   }
@@ -117,7 +138,14 @@ function resolveColumn(ref: ColumnRef, names: string[], field: string, hasHeader
 export function inspectCsv(
   text: string,
   previewRows = 8,
-): { columns: string[]; hasHeader: boolean; preview: string[][]; rows: number; delimiter: string; decimalComma: boolean } {
+): {
+  columns: string[];
+  hasHeader: boolean;
+  preview: string[][];
+  rows: number;
+  delimiter: string;
+  decimalComma: boolean;
+} {
   const { rows, delimiter } = readRows(text);
   const decimalComma = usesDecimalComma(rows, delimiter);
   const hasHeader = looksLikeHeader(rows[0], decimalComma);
@@ -135,11 +163,17 @@ export function parseCapture(text: string, options: CaptureParseOptions): Parsed
   const hasHeader = options.hasHeader ?? looksLikeHeader(rows[0], decimalComma);
   const names = columnNames(rows, hasHeader);
   if (names.length < 2) {
-    throw new CaptureError("The file has only one column: a capture needs a time column and a volts column, separated by a comma, semicolon, tab or vertical bar.");
+    throw new CaptureError(
+      "The file has only one column: a capture needs a time column and a volts column, separated by a comma, semicolon, tab or vertical bar.",
+    );
   }
   const ti = resolveColumn(options.timeColumn, names, "timeColumn", hasHeader);
   const vi = resolveColumn(options.voltsColumn, names, "voltsColumn", hasHeader);
-  if (ti === vi) throw new CaptureError(`Volts column: choose a different column from the time column (both are "${names[ti]}").`, "voltsColumn");
+  if (ti === vi)
+    throw new CaptureError(
+      `Volts column: choose a different column from the time column (both are "${names[ti]}").`,
+      "voltsColumn",
+    );
 
   const first = hasHeader ? 1 : 0;
   const count = rows.length - first;
@@ -147,7 +181,9 @@ export function parseCapture(text: string, options: CaptureParseOptions): Parsed
   if (count === 0) throw new CaptureError("The file has a header row but no data rows.");
   if (count < 2) throw new CaptureError("A capture needs at least 2 data rows.");
   if (count > maxRows) {
-    throw new CaptureError(`The file has ${count.toLocaleString("en")} data rows; at most ${maxRows.toLocaleString("en")} are accepted.`);
+    throw new CaptureError(
+      `The file has ${count.toLocaleString("en")} data rows; at most ${maxRows.toLocaleString("en")} are accepted.`,
+    );
   }
 
   const scale = TIME_UNIT_SCALE[options.timeUnit ?? "s"];
@@ -160,14 +196,23 @@ export function parseCapture(text: string, options: CaptureParseOptions): Parsed
     const line = r + 1; // 1-based line in the file, counting the header
     const t = toNumber(row[ti], decimalComma);
     if (t === null) {
-      throw new CaptureError(`Row ${line}, column "${names[ti]}": "${(row[ti] ?? "").trim()}" is not a number.`, "timeColumn");
+      throw new CaptureError(
+        `Row ${line}, column "${names[ti]}": "${(row[ti] ?? "").trim()}" is not a number.`,
+        "timeColumn",
+      );
     }
     const v = toNumber(row[vi], decimalComma);
     if (v === null) {
-      throw new CaptureError(`Row ${line}, column "${names[vi]}": "${(row[vi] ?? "").trim()}" is not a number.`, "voltsColumn");
+      throw new CaptureError(
+        `Row ${line}, column "${names[vi]}": "${(row[vi] ?? "").trim()}" is not a number.`,
+        "voltsColumn",
+      );
     }
     if (Math.abs(v) > MAX_ABS_VOLTS) {
-      throw new CaptureError(`Row ${line}, column "${names[vi]}": ${v} V is outside ±${MAX_ABS_VOLTS} V.`, "voltsColumn");
+      throw new CaptureError(
+        `Row ${line}, column "${names[vi]}": ${v} V is outside ±${MAX_ABS_VOLTS} V.`,
+        "voltsColumn",
+      );
     }
     const ts = t * scale;
     const i = r - first;

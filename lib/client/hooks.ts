@@ -51,7 +51,7 @@ export interface ListResponse<T> {
   items: T[];
 }
 
-const fetcher = <T,>(url: string) => fetchJson<T>(url);
+const fetcher = <T>(url: string) => fetchJson<T>(url);
 
 // Lists stay quiet on focus: engineers switch windows a lot and a reflowing table is noise.
 const listConfig: SWRConfiguration = { revalidateOnFocus: false };

@@ -81,7 +81,10 @@ export class SimWorkerClient {
     this.cancelCurrent = stop;
     signal?.addEventListener("abort", stop, { once: true });
     try {
-      return (await Promise.race([remote.run(scenario, { solver: options.solver, holdOff: options.holdOff }, progress), aborted])) as SimResult;
+      return (await Promise.race([
+        remote.run(scenario, { solver: options.solver, holdOff: options.holdOff }, progress),
+        aborted,
+      ])) as SimResult;
     } finally {
       signal?.removeEventListener("abort", stop);
       if (this.cancelCurrent === stop) this.cancelCurrent = null;

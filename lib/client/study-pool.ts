@@ -48,7 +48,10 @@ export function liveStudyWorkers(): number {
 }
 
 function spawn(): { worker: Worker; api: Comlink.Remote<StudyWorkerApi> } {
-  const worker = new Worker(new URL("../../workers/study.worker.ts", import.meta.url), { type: "module", name: "railwise-study" });
+  const worker = new Worker(new URL("../../workers/study.worker.ts", import.meta.url), {
+    type: "module",
+    name: "railwise-study",
+  });
   live.add(worker);
   return { worker, api: Comlink.wrap<StudyWorkerApi>(worker) };
 }

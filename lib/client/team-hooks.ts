@@ -44,7 +44,7 @@ export interface CaptureRecord extends CaptureSummary {
   samples: [number, number][];
 }
 
-const get = <T,>(url: string) => fetchJson<T>(url);
+const get = <T>(url: string) => fetchJson<T>(url);
 const quiet = { revalidateOnFocus: false };
 
 export const membersKey = "/api/team/members";
@@ -58,11 +58,15 @@ export const commentsKey = (runId: string) => `/api/runs/${encodeURIComponent(ru
 export const signoffsKey = (runId: string) => `/api/runs/${encodeURIComponent(runId)}/signoffs`;
 
 export const useMembers = () => useSWR<ListOf<MemberJson>>(membersKey, get, quiet);
-export const useInvitations = (enabled = true) => useSWR<ListOf<InvitationJson>>(enabled ? invitationsKey : null, get, quiet);
+export const useInvitations = (enabled = true) =>
+  useSWR<ListOf<InvitationJson>>(enabled ? invitationsKey : null, get, quiet);
 export const useAudit = (enabled = true) => useSWR<ListOf<AuditEntryJson>>(enabled ? auditKey : null, get, quiet);
 export const useParts = () => useSWR<ListOf<PartProfileRecord>>(partsKey, get, quiet);
 export const useCaptures = () => useSWR<ListOf<CaptureSummary>>(capturesKey, get, quiet);
 export const useCapture = (id: string | null) => useSWR<CaptureRecord>(id ? captureKey(id) : null, get, quiet);
-export const useRunLinks = (runId: string | null) => useSWR<ListOf<RunLinkJson>>(runId ? runLinksKey(runId) : null, get, quiet);
-export const useComments = (runId: string | null) => useSWR<ListOf<CommentJson>>(runId ? commentsKey(runId) : null, get);
-export const useSignoffs = (runId: string | null) => useSWR<ListOf<SignoffJson>>(runId ? signoffsKey(runId) : null, get);
+export const useRunLinks = (runId: string | null) =>
+  useSWR<ListOf<RunLinkJson>>(runId ? runLinksKey(runId) : null, get, quiet);
+export const useComments = (runId: string | null) =>
+  useSWR<ListOf<CommentJson>>(runId ? commentsKey(runId) : null, get);
+export const useSignoffs = (runId: string | null) =>
+  useSWR<ListOf<SignoffJson>>(runId ? signoffsKey(runId) : null, get);

@@ -1,13 +1,14 @@
-// The demo board "Buoy power and sensing" of Fjordline Aquaculture (DESIGN.md, invented).
+// The demo board "Buoy power and sensing" of Fjordline Aquaculture (DEVELOPERS.md § Demo data, invented).
 // Pure data + lib/schemas only: the seed, the tests and the UI import it.
-// Resistor values are E24 and come from the closed forms in REFERENCES.md (Schmitt trigger,
+// Resistor values are E24 and come from the closed forms in tests/REFERENCES.md (Schmitt trigger,
 // relaxation oscillator, NTC Beta model); each comment says what the chosen values give.
 import { SCENARIO_SCHEMA_ID, type ScenarioInput } from "@/lib/schemas/scenario";
 import { FAST_COMPARATOR_STYLE, GENERAL_PURPOSE_BIPOLAR, RAIL_TO_RAIL_CMOS_1MHZ } from "./parts";
 
 export const DEMO_BOARD = {
   name: "Buoy power and sensing",
-  description: "Fish-pen monitoring buoy: battery protection, hydrophone front end, water temperature, bilge and status lamp.",
+  description:
+    "Fish-pen monitoring buoy: battery protection, hydrophone front end, water temperature, bilge and status lamp.",
 };
 
 export const HARROW_BOARD = {
@@ -40,7 +41,7 @@ const round = (x: number, digits = 6) => Number(x.toFixed(digits));
 // 1. Battery low-voltage disconnect. 12 V lead-acid → divider 68 kΩ / 18 kΩ (k = 18/86 =
 // 0.20930) → v− of an inverting Schmitt trigger on a single 5 V supply, rail-to-rail CMOS
 // (Voh 4.98 V, Vol 0.02 V), 2.5 V shunt reference through rReference 33 kΩ, rFeedback 680 kΩ.
-// Inverting-trigger closed form (REFERENCES.md): upper = (Vref·rFb + Voh·rRef)/(rRef + rFb)
+// Inverting-trigger closed form (tests/REFERENCES.md): upper = (Vref·rFb + Voh·rRef)/(rRef + rFb)
 // = 2.6148 V at the divider (battery 12.493 V, target 12.5 V reconnect); lower = (Vref·rFb +
 // Vol·rRef)/(rRef + rFb) = 2.3852 V (battery 11.396 V, target 11.4 V cut). Output high = cut.
 export const BATTERY_DIVIDER = { top: 68e3, bottom: 18e3 } as const;
@@ -55,7 +56,11 @@ const batteryCutoff: ScenarioInput = {
   opamp: RAIL_TO_RAIL_CMOS_1MHZ,
   stage: { kind: "schmitt-inverting", rReference: 33e3, rFeedback: 680e3, reference: 2.5 },
   // The battery reaches v− through the 68 k / 18 k divider (a high-impedance input: unloaded).
-  source: { quantity: "battery", unit: "V", sensor: { kind: "divider", rTop: BATTERY_DIVIDER.top, rBottom: BATTERY_DIVIDER.bottom } },
+  source: {
+    quantity: "battery",
+    unit: "V",
+    sensor: { kind: "divider", rTop: BATTERY_DIVIDER.top, rBottom: BATTERY_DIVIDER.bottom },
+  },
   input: {
     // A discharge from 13.0 V to 11.0 V over 60 s and a recharge back, in battery volts.
     components: [
@@ -98,7 +103,10 @@ function burstPoints(): [number, number][] {
   const length = 6e-3;
   const amplitude = 0.25;
   const perCycle = 24;
-  const points: [number, number][] = [[0, 0], [start, 0]];
+  const points: [number, number][] = [
+    [0, 0],
+    [start, 0],
+  ];
   const n = Math.round(length * f * perCycle);
   for (let i = 1; i <= n; i++) {
     const t = (i / n) * length;
@@ -135,8 +143,7 @@ const hydrophonePreamp: ScenarioInput = {
 // (≈ 17.50 °C): a deadband of only 87 mV, so the noise must stay below 87 mV / 6.6 = 13 mV rms.
 export const NTC = { r25: 10e3, beta: 3977, seriesTop: 15e3, supply: 5 } as const;
 /** Beta model R(T) = R25·exp(B(1/T − 1/T25)) [published form]; T in °C here. */
-export const ntcResistance = (celsius: number) =>
-  NTC.r25 * Math.exp(NTC.beta * (1 / (celsius + 273.15) - 1 / 298.15));
+export const ntcResistance = (celsius: number) => NTC.r25 * Math.exp(NTC.beta * (1 / (celsius + 273.15) - 1 / 298.15));
 /** Divider node voltage for a water temperature in °C. */
 export const ntcNodeVolts = (celsius: number) => {
   const r = ntcResistance(celsius);

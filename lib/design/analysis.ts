@@ -1,6 +1,6 @@
 // Closed-form figures of a stage (thresholds, gain, oscillation) and the tolerance spread:
-// worst case over corners and a seeded Monte Carlo. Formulas: REFERENCES.md (Schmitt trigger,
-// relaxation oscillator, single-pole op-amp); the offset enters as in DESIGN.md's model,
+// worst case over corners and a seeded Monte Carlo. Formulas: tests/REFERENCES.md (Schmitt trigger,
+// relaxation oscillator, single-pole op-amp); the offset enters as in the op-amp model of DEVELOPERS.md,
 // vd = v+ − v− + Vos, so every threshold below is the input at which vd crosses zero.
 import { xoroshiro128plus } from "pure-rand/generator/xoroshiro128plus";
 import { uniformFloat64 } from "pure-rand/distribution/uniformFloat64";
@@ -32,9 +32,16 @@ export interface Figures {
 }
 
 export type FigureName = keyof Figures;
-export const FIGURE_NAMES: FigureName[] = ["upperThreshold", "lowerThreshold", "hysteresis", "gain", "frequency", "dutyCycle"];
+export const FIGURE_NAMES: FigureName[] = [
+  "upperThreshold",
+  "lowerThreshold",
+  "hysteresis",
+  "gain",
+  "frequency",
+  "dutyCycle",
+];
 
-/** Voh = V+ − headroomHigh, Vol = V− + headroomLow (DESIGN.md). */
+/** Voh = V+ − headroomHigh, Vol = V− + headroomLow (DEVELOPERS.md § Behavioural op-amp model). */
 export function outputSwing(opamp: OpAmp, supply: Supply): { high: number; low: number } {
   return { high: supply.positive - opamp.outputHeadroomHigh, low: supply.negative + opamp.outputHeadroomLow };
 }
@@ -70,7 +77,14 @@ export function thevenin(
   };
 }
 
-const NONE: Figures = { upperThreshold: null, lowerThreshold: null, hysteresis: null, gain: null, frequency: null, dutyCycle: null };
+const NONE: Figures = {
+  upperThreshold: null,
+  lowerThreshold: null,
+  hysteresis: null,
+  gain: null,
+  frequency: null,
+  dutyCycle: null,
+};
 
 /** Capacitor-node switching points of the relaxation oscillator (input-referred to v−). */
 export function oscillatorSwitchingPoints(stage: Extract<Stage, { kind: "relaxation-oscillator" }>, c: Conditions) {
@@ -80,7 +94,7 @@ export function oscillatorSwitchingPoints(stage: Extract<Stage, { kind: "relaxat
 }
 
 /**
- * Period parts of the relaxation oscillator (REFERENCES.md, [derived]):
+ * Period parts of the relaxation oscillator (tests/REFERENCES.md, [derived]):
  * t_high = RC·ln((Voh − VL)/(Voh − VH)), t_low = RC·ln((VH − Vol)/(VL − Vol)).
  * Null when the switching points are not strictly inside the output swing (no oscillation).
  */
@@ -92,7 +106,7 @@ export function oscillatorTiming(rc: number, upper: number, lower: number, high:
 }
 
 /**
- * The same with real edges [derived from DESIGN.md's op-amp model, confirmed against lib/sim]:
+ * The same with real edges [derived from the op-amp model in DEVELOPERS.md, confirmed against lib/sim]:
  * 1. Regenerative start: after v− crosses v+, vd = v+ − v− + Vos grows as e^(λt), λ = 2π·GBW·k
  *    (positive feedback k), from the capacitor's slope c until 2π·GBW·|vd| reaches the slew rate
  *    (|vd| = SR/(2π·GBW)): t1 = ln(1 + λ·vs/c)/λ, while the output moves Δ = (vs + c·t1)/k.
@@ -146,12 +160,12 @@ export function oscillatorTimingWithSlew(
 export function stageFigures(stage: Stage, c: Conditions): Figures {
   switch (stage.kind) {
     case "noninverting-amplifier": {
-      // Closed-loop gain with finite A: A/(1 + Aβ), β = rG/(rG + rF) (REFERENCES.md, single-pole op-amp).
+      // Closed-loop gain with finite A: A/(1 + Aβ), β = rG/(rG + rF) (tests/REFERENCES.md, single-pole op-amp).
       const ideal = 1 + stage.rFeedback / stage.rGround;
       return { ...NONE, gain: ideal / (1 + ideal / c.openLoopGain) };
     }
     case "inverting-amplifier": {
-      // −(rF/rI)/(1 + noise gain/A), noise gain 1 + rF/rI (REFERENCES.md, from memory there).
+      // −(rF/rI)/(1 + noise gain/A), noise gain 1 + rF/rI (tests/REFERENCES.md, from memory there).
       const ratio = stage.rFeedback / stage.rInput;
       return { ...NONE, gain: -ratio / (1 + (1 + ratio) / c.openLoopGain) };
     }
@@ -228,7 +242,8 @@ interface Working {
 const RESISTOR_ROLES = ["rInput", "rFeedback", "rGround", "rReference", "rTiming"] as const;
 
 function spreadModel(stage: Stage, opamp: OpAmp, supply: Supply, tolerance: number, options: SpreadOptions) {
-  if (!(tolerance >= 0 && tolerance < 1)) throw new RangeError(`tolerance must be a fraction in [0, 1) (got ${tolerance})`);
+  if (!(tolerance >= 0 && tolerance < 1))
+    throw new RangeError(`tolerance must be a fraction in [0, 1) (got ${tolerance})`);
   const nominal: Record<string, number> = {};
   const s = stage as Record<string, unknown>;
   for (const role of RESISTOR_ROLES) if (typeof s[role] === "number") nominal[role] = s[role] as number;
@@ -251,9 +266,15 @@ function spreadModel(stage: Stage, opamp: OpAmp, supply: Supply, tolerance: numb
   }
   if (offsetMag > 0) variables.push({ name: "inputOffset", apply: (u, w) => void (w.offset = offsetMag * u) });
   if (hs > 0 && opamp.outputHeadroomHigh > 0)
-    variables.push({ name: "outputHeadroomHigh", apply: (u, w) => void (w.headroomHigh = opamp.outputHeadroomHigh * (1 + hs * u)) });
+    variables.push({
+      name: "outputHeadroomHigh",
+      apply: (u, w) => void (w.headroomHigh = opamp.outputHeadroomHigh * (1 + hs * u)),
+    });
   if (hs > 0 && opamp.outputHeadroomLow > 0)
-    variables.push({ name: "outputHeadroomLow", apply: (u, w) => void (w.headroomLow = opamp.outputHeadroomLow * (1 + hs * u)) });
+    variables.push({
+      name: "outputHeadroomLow",
+      apply: (u, w) => void (w.headroomLow = opamp.outputHeadroomLow * (1 + hs * u)),
+    });
 
   // An explicit offset magnitude means "spread around zero" (as the tolerance study draws it);
   // otherwise the part's own signed offset is the nominal and ±|Vos| the corners.
@@ -296,7 +317,13 @@ export type WorstCase = Record<FigureName, Interval | null> & { corners: number;
  * tolerance, ±|input offset| and the headroom spread. The figures are monotonic in each quantity,
  * so the extremes lie at corners (checked against the Monte Carlo in the tests).
  */
-export function worstCase(stage: Stage, opamp: OpAmp, supply: Supply, tolerance: number, options: SpreadOptions = {}): WorstCase {
+export function worstCase(
+  stage: Stage,
+  opamp: OpAmp,
+  supply: Supply,
+  tolerance: number,
+  options: SpreadOptions = {},
+): WorstCase {
   const model = spreadModel(stage, opamp, supply, tolerance, options);
   const n = model.variables.length;
   if (n > 16) throw new RangeError("too many varied quantities for a corner search");
@@ -374,7 +401,8 @@ function deviate(rng: RandomGenerator, distribution: "uniform" | "normal"): numb
 export function monteCarlo(stage: Stage, opamp: OpAmp, supply: Supply, options: MonteCarloOptions): MonteCarloResult {
   const { tolerance, distribution } = options;
   const draws = Math.floor(options.draws);
-  if (!(draws >= 1 && draws <= 1_000_000)) throw new RangeError(`draws must be between 1 and 1,000,000 (got ${options.draws})`);
+  if (!(draws >= 1 && draws <= 1_000_000))
+    throw new RangeError(`draws must be between 1 and 1,000,000 (got ${options.draws})`);
   const seed = options.seed >>> 0;
   const bins = Math.max(1, Math.min(200, Math.floor(options.bins ?? 20)));
   const model = spreadModel(stage, opamp, supply, tolerance, options);

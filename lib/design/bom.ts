@@ -1,4 +1,4 @@
-// Parts list of a scenario (DESIGN.md "The circuit as built"): every resistor and capacitor of
+// Parts list of a scenario (lib/schemas/README.md § The circuit as built): every resistor and capacitor of
 // the source, filter, stage, reference divider and output, derived from the scenario itself, each
 // with its ref, role, value, RKM code, series and tolerance. A value outside every IEC 60063
 // series is never listed as a part to buy without a warning. Pure TypeScript.
@@ -34,7 +34,7 @@ export interface Bom {
 export function seriesOf(value: number): SeriesName | null {
   if (!(value > 0 && Number.isFinite(value))) return null;
   const decade = Math.floor(Math.log10(value));
-  let mantissa = value / Math.pow(10, decade);
+  let mantissa = value / 10 ** decade;
   if (mantissa >= 9.995) mantissa /= 10;
   const m = Number(mantissa.toPrecision(3));
   if (Math.abs(mantissa - m) > 1e-9 * m) return null;
@@ -89,9 +89,34 @@ export function billOfMaterials(scenario: Scenario | ScenarioInput): Bom {
   } else if (sensor?.kind === "ntc") {
     const m = sensor.model as Record<string, unknown>;
     const nominal = typeof m.r25 === "number" ? m.r25 : undefined;
-    if (nominal !== undefined) add("thermistor", "source", "source.sensor.model.r25", `NTC thermistor (${sensor.position} of the sensing divider)`, nominal);
-    else lines.push({ ref: `TH${++th}`, kind: "thermistor", group: "source", field: "source.sensor.model", role: `NTC thermistor (${sensor.position} of the sensing divider), curve by coefficients`, value: NaN, code: "—", series: null, tolerance: tol.ntcR25, warning: null });
-    add("resistor", "source", "source.sensor.rFixed", `fixed resistor (${sensor.position === "bottom" ? "top" : "bottom"} of the sensing divider)`, sensor.rFixed);
+    if (nominal !== undefined)
+      add(
+        "thermistor",
+        "source",
+        "source.sensor.model.r25",
+        `NTC thermistor (${sensor.position} of the sensing divider)`,
+        nominal,
+      );
+    else
+      lines.push({
+        ref: `TH${++th}`,
+        kind: "thermistor",
+        group: "source",
+        field: "source.sensor.model",
+        role: `NTC thermistor (${sensor.position} of the sensing divider), curve by coefficients`,
+        value: NaN,
+        code: "—",
+        series: null,
+        tolerance: tol.ntcR25,
+        warning: null,
+      });
+    add(
+      "resistor",
+      "source",
+      "source.sensor.rFixed",
+      `fixed resistor (${sensor.position === "bottom" ? "top" : "bottom"} of the sensing divider)`,
+      sensor.rFixed,
+    );
   }
   if (scenario.filter) {
     add("resistor", "filter", "filter.r", "filter resistor (sensor output to the stage input)", scenario.filter.r);
@@ -104,12 +129,37 @@ export function billOfMaterials(scenario: Scenario | ScenarioInput): Bom {
     if (role === "rReference" && divider) continue;
     add("resistor", "stage", `stage.${role}`, STAGE_ROLES[role], st[role] as number | undefined);
   }
-  add("capacitor", "stage", "stage.cTiming", "timing capacitor (capacitor node to 0 V)", st.cTiming as number | undefined);
+  add(
+    "capacitor",
+    "stage",
+    "stage.cTiming",
+    "timing capacitor (capacitor node to 0 V)",
+    st.cTiming as number | undefined,
+  );
   if (divider) {
-    add("resistor", "reference", "stage.referenceDivider.rTop", "reference divider, top end to the reference node", divider.rTop);
-    add("resistor", "reference", "stage.referenceDivider.rBottom", "reference divider, reference node to the bottom end", divider.rBottom);
+    add(
+      "resistor",
+      "reference",
+      "stage.referenceDivider.rTop",
+      "reference divider, top end to the reference node",
+      divider.rTop,
+    );
+    add(
+      "resistor",
+      "reference",
+      "stage.referenceDivider.rBottom",
+      "reference divider, reference node to the bottom end",
+      divider.rBottom,
+    );
   }
-  if (scenario.output?.kind === "open-drain") add("resistor", "output", "output.pullUp", "pull-up resistor (output pin to the pull-up rail)", scenario.output.pullUp);
+  if (scenario.output?.kind === "open-drain")
+    add(
+      "resistor",
+      "output",
+      "output.pullUp",
+      "pull-up resistor (output pin to the pull-up rail)",
+      scenario.output.pullUp,
+    );
   return { lines, warnings: lines.flatMap((l) => (l.warning ? [l.warning] : [])) };
 }
 
@@ -118,6 +168,19 @@ export function bomToCsv(bom: Bom): string {
   const q = (s: string) => (/[",\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
   const rows = ["ref,kind,group,field,role,value,code,series,tolerance,warning"];
   for (const l of bom.lines)
-    rows.push([l.ref, l.kind, l.group, l.field, q(l.role), String(l.value), q(l.code), l.series ?? "", String(l.tolerance), q(l.warning ?? "")].join(","));
+    rows.push(
+      [
+        l.ref,
+        l.kind,
+        l.group,
+        l.field,
+        q(l.role),
+        String(l.value),
+        q(l.code),
+        l.series ?? "",
+        String(l.tolerance),
+        q(l.warning ?? ""),
+      ].join(","),
+    );
   return rows.join("\n") + "\n";
 }

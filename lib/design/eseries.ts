@@ -17,14 +17,17 @@ export const SERIES_TOLERANCE: Record<SeriesName, number> = {
 
 // E6–E24 are hard-coded: the published values differ from plain rounding of 10^(i/24) at
 // 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7 and 8.2 (IEC 60063).
-const E24 = [1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2, 9.1];
+const E24 = [
+  1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2,
+  9.1,
+];
 const E12 = E24.filter((_, i) => i % 2 === 0);
 const E6 = E24.filter((_, i) => i % 4 === 0);
 
 // E48–E192 follow round(10^(i/N), 3 significant figures) except E192 i = 185, published as 9.20.
 function rounded(n: number): number[] {
   const out: number[] = [];
-  for (let i = 0; i < n; i++) out.push(Number(Math.pow(10, i / n).toPrecision(3)));
+  for (let i = 0; i < n; i++) out.push(Number((10 ** (i / n)).toPrecision(3)));
   return out;
 }
 const E192 = rounded(192);
@@ -52,7 +55,7 @@ export function seriesValues(name: SeriesName): readonly number[] {
 }
 
 function scaled(mantissa: number, decade: number): number {
-  return Number((mantissa * Math.pow(10, decade)).toPrecision(6));
+  return Number((mantissa * 10 ** decade).toPrecision(6));
 }
 
 export type SnapMode = "nearest" | "up" | "down";
@@ -62,7 +65,8 @@ export type SnapMode = "nearest" | "up" | "down";
  * A value already in the series (to 1 ppm) maps to itself in every mode.
  */
 export function snapToSeries(value: number, name: SeriesName, mode: SnapMode = "nearest"): number {
-  if (!Number.isFinite(value) || value <= 0) throw new RangeError(`snapToSeries needs a positive, finite value (got ${value})`);
+  if (!Number.isFinite(value) || value <= 0)
+    throw new RangeError(`snapToSeries needs a positive, finite value (got ${value})`);
   const values = seriesValues(name);
   const decade = Math.floor(Math.log10(value));
   // Candidates from the decade below to the decade above cover float edge cases at 10^k.

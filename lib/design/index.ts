@@ -1,4 +1,4 @@
-// Design from spec: `design(spec)` → `railwise.design/1` (DESIGN.md) plus extras:
+// Design from spec: `design(spec)` → `railwise.design/1` (lib/schemas/README.md § Design JSON) plus extras:
 // `errors` (target vs achieved), `reference` (how the reference is made), `assumptions`,
 // `warnings` and a seeded `monteCarlo` spread. Pure TypeScript: no React, Next or database.
 import { designSpecSchema, DESIGN_SCHEMA_ID, type DesignSensor, type DesignSpec } from "@/lib/schemas/design";
@@ -20,7 +20,16 @@ import { circuitWorstCase } from "./spread";
 import { CURRENT_DRAWING_KINDS, parseScenario, type ScenarioInput } from "@/lib/schemas/scenario";
 
 export { worstCase, monteCarlo, stageFigures, thevenin, outputSwing, conditionsOf } from "./analysis";
-export type { Figures, FigureName, Interval, WorstCase, MonteCarloOptions, MonteCarloResult, SpreadOptions, ReferenceDivider } from "./analysis";
+export type {
+  Figures,
+  FigureName,
+  Interval,
+  WorstCase,
+  MonteCarloOptions,
+  MonteCarloResult,
+  SpreadOptions,
+  ReferenceDivider,
+} from "./analysis";
 export { DesignError } from "./synthesis";
 export { parseQuantity, formatQuantity, formatRkm } from "./notation";
 export { seriesValues, snapToSeries, seriesInRange, SERIES_TOLERANCE, SERIES_NAMES, type SeriesName } from "./eseries";
@@ -59,7 +68,14 @@ export interface DesignResult {
   /** With an open-drain output in the spec: the scenario's `output` (with the chosen pull-up). */
   output?: { kind: "open-drain"; pullUp: number; pullUpTo?: "positive" | number; load?: { r: number; to?: number } };
   parts: DesignPart[];
-  achieved: { upperThreshold: number | null; lowerThreshold: number | null; gain: number | null; hysteresis: number | null; frequency: number | null; dutyCycle: number | null };
+  achieved: {
+    upperThreshold: number | null;
+    lowerThreshold: number | null;
+    gain: number | null;
+    hysteresis: number | null;
+    frequency: number | null;
+    dutyCycle: number | null;
+  };
   worstCase: Record<FigureName, Interval | null>;
   errors: Partial<Record<FigureName, { target: number; achieved: number; deviation: number; relative: number }>>;
   reference: {
@@ -68,7 +84,14 @@ export interface DesignResult {
     /** rTop runs from `top` (V) to the reference node, rBottom from the node to `bottom` (V). */
     divider?: { rTop: number; rBottom: number; top: number; bottom: number; theveninResistance: number };
   };
-  assumptions: { tolerance: number; capacitorTolerance?: number; inputOffset: number; headroomSpread: number; range: { min: number; max: number }; maxError: number };
+  assumptions: {
+    tolerance: number;
+    capacitorTolerance?: number;
+    inputOffset: number;
+    headroomSpread: number;
+    range: { min: number; max: number };
+    maxError: number;
+  };
   warnings: string[];
   /** How the spec was read (e.g. an inverting gain given as a magnitude). */
   notes: string[];
@@ -89,10 +112,17 @@ const ROLE_NOTE: Record<Role, string> = {
   cTiming: "capacitor node to 0 V",
 };
 
-function noteOf(role: Role, divider: { top?: number; bottom?: number } | undefined, supply: { positive: number; negative: number }): string {
-  const name = (v: number) => (v === 0 ? "0 V" : v === supply.positive ? `the positive supply (${v} V)` : `the negative supply (${v} V)`);
-  if (role === "rTop" && divider) return `reference divider, ${name(divider.top ?? supply.positive)} to the reference node`;
-  if (role === "rBottom" && divider) return `reference divider, reference node to ${name(divider.bottom ?? supply.negative)}`;
+function noteOf(
+  role: Role,
+  divider: { top?: number; bottom?: number } | undefined,
+  supply: { positive: number; negative: number },
+): string {
+  const name = (v: number) =>
+    v === 0 ? "0 V" : v === supply.positive ? `the positive supply (${v} V)` : `the negative supply (${v} V)`;
+  if (role === "rTop" && divider)
+    return `reference divider, ${name(divider.top ?? supply.positive)} to the reference node`;
+  if (role === "rBottom" && divider)
+    return `reference divider, reference node to ${name(divider.bottom ?? supply.negative)}`;
   return ROLE_NOTE[role];
 }
 
@@ -101,7 +131,9 @@ export function design(input: unknown): DesignResult {
   const parsed = designSpecSchema.safeParse(input);
   if (!parsed.success) throw new DesignSpecError(describeIssues(parsed.error));
   const spec = parsed.data;
-  const result = spec.output ? designOpenDrain(spec, spec.output) : asBuilt(spec, spec.sensor ? designWithSensor(spec, spec.sensor) : designVolts(spec));
+  const result = spec.output
+    ? designOpenDrain(spec, spec.output)
+    : asBuilt(spec, spec.sensor ? designWithSensor(spec, spec.sensor) : designVolts(spec));
   return spec.filter ? withFilterSuggestion(spec, spec.filter, result) : result;
 }
 
@@ -112,11 +144,18 @@ export function design(input: unknown): DesignResult {
  * 1 nF–10 µF and the resistor from the spec's series in its range, the pair nearest that RC.
  * The input resistance of a current-drawing stage is left out (it shortens the time slightly).
  */
-function withFilterSuggestion(spec: DesignSpec, f: NonNullable<DesignSpec["filter"]>, result: DesignResult): DesignResult {
+function withFilterSuggestion(
+  spec: DesignSpec,
+  f: NonNullable<DesignSpec["filter"]>,
+  result: DesignResult,
+): DesignResult {
   const step = f.step ?? spec.supply.positive;
   const vth = result.achieved.upperThreshold;
   if (vth === null || !(step > vth && vth > 0))
-    throw new DesignError("filter", `filter.step (${step} V) must be above the upper switching point (${vth === null ? "none" : `${Number(vth.toPrecision(4))} V`}) at the stage input, and that point above 0 V`);
+    throw new DesignError(
+      "filter",
+      `filter.step (${step} V) must be above the upper switching point (${vth === null ? "none" : `${Number(vth.toPrecision(4))} V`}) at the stage input, and that point above 0 V`,
+    );
   const rc = f.bounceTime / Math.log(step / (step - vth));
   const range = spec.range ?? { min: 1e3, max: 1e6 };
   let best: { r: number; c: number; err: number } | null = null;
@@ -126,14 +165,34 @@ function withFilterSuggestion(spec: DesignSpec, f: NonNullable<DesignSpec["filte
     const err = Math.abs(Math.log((r * c) / rc));
     if (!best || err < best.err) best = { r, c, err };
   }
-  if (!best) throw new DesignError("filter", `no ${spec.series} resistor in ${formatQuantity(range.min, "Ω")}–${formatQuantity(range.max, "Ω")} with an E6 capacitor gives RC = ${formatQuantity(rc, "s")}`);
+  if (!best)
+    throw new DesignError(
+      "filter",
+      `no ${spec.series} resistor in ${formatQuantity(range.min, "Ω")}–${formatQuantity(range.max, "Ω")} with an E6 capacitor gives RC = ${formatQuantity(rc, "s")}`,
+    );
   const filter = { r: best.r, c: best.c };
   const nR = result.parts.filter((p) => p.ref.startsWith("R")).length;
   const nC = result.parts.filter((p) => p.ref.startsWith("C")).length;
   const parts: DesignPart[] = [
     ...result.parts,
-    { ref: `R${nR + 1}`, role: "filterR", value: best.r, series: spec.series as SeriesName, code: formatRkm(best.r), tolerance: result.assumptions.tolerance, note: "RC filter, sensor output to the stage input" },
-    { ref: `C${nC + 1}`, role: "filterC", value: best.c, series: "E6", code: formatQuantity(best.c, "F"), tolerance: 0.05, note: "RC filter, stage input to 0 V" },
+    {
+      ref: `R${nR + 1}`,
+      role: "filterR",
+      value: best.r,
+      series: spec.series as SeriesName,
+      code: formatRkm(best.r),
+      tolerance: result.assumptions.tolerance,
+      note: "RC filter, sensor output to the stage input",
+    },
+    {
+      ref: `C${nC + 1}`,
+      role: "filterC",
+      value: best.c,
+      series: "E6",
+      code: formatQuantity(best.c, "F"),
+      tolerance: 0.05,
+      note: "RC filter, stage input to 0 V",
+    },
   ];
   const delay = best.r * best.c * Math.log(step / (step - vth));
   return {
@@ -158,10 +217,18 @@ export const DEFAULT_PULL_UP = 10e3;
  */
 function designOpenDrain(spec: DesignSpec, out: NonNullable<DesignSpec["output"]>): DesignResult {
   const pullUp = out.pullUp ?? snapToSeries(DEFAULT_PULL_UP, spec.series as SeriesName);
-  const output = { kind: "open-drain" as const, pullUp, ...(out.pullUpTo !== undefined ? { pullUpTo: out.pullUpTo } : {}), ...(out.load ? { load: out.load } : {}) };
+  const output = {
+    kind: "open-drain" as const,
+    pullUp,
+    ...(out.pullUpTo !== undefined ? { pullUpTo: out.pullUpTo } : {}),
+    ...(out.load ? { load: out.load } : {}),
+  };
   const pullTo = out.pullUpTo === undefined || out.pullUpTo === "positive" ? spec.supply.positive : out.pullUpTo;
   const pin = out.load
-    ? { v: (pullTo * out.load.r + (out.load.to ?? 0) * pullUp) / (pullUp + out.load.r), r: (pullUp * out.load.r) / (pullUp + out.load.r) }
+    ? {
+        v: (pullTo * out.load.r + (out.load.to ?? 0) * pullUp) / (pullUp + out.load.r),
+        r: (pullUp * out.load.r) / (pullUp + out.load.r),
+      }
     : { v: pullTo, r: pullUp };
   let high = pin.v;
   let result: DesignResult | null = null;
@@ -169,15 +236,32 @@ function designOpenDrain(spec: DesignSpec, out: NonNullable<DesignSpec["output"]
   // Error of the as-built circuit (loaded high level) against the spec's own targets.
   const asBuiltError = (r: DesignResult) => {
     const pairs: [number | null, number | undefined][] = r.sensor
-      ? [[r.sensor.achieved.upperThreshold, r.sensor.target.upperThreshold], [r.sensor.achieved.lowerThreshold, r.sensor.target.lowerThreshold]]
-      : [[r.achieved.upperThreshold, spec.target.upperThreshold ?? spec.target.threshold], [r.achieved.lowerThreshold, spec.target.lowerThreshold ?? spec.target.threshold]];
+      ? [
+          [r.sensor.achieved.upperThreshold, r.sensor.target.upperThreshold],
+          [r.sensor.achieved.lowerThreshold, r.sensor.target.lowerThreshold],
+        ]
+      : [
+          [r.achieved.upperThreshold, spec.target.upperThreshold ?? spec.target.threshold],
+          [r.achieved.lowerThreshold, spec.target.lowerThreshold ?? spec.target.threshold],
+        ];
     let worst = 0;
-    for (const [a, t] of pairs) if (t !== undefined) worst = Math.max(worst, a === null ? Infinity : Math.abs(a - t) / Math.max(Math.abs(t), 1e-12));
+    for (const [a, t] of pairs)
+      if (t !== undefined)
+        worst = Math.max(worst, a === null ? Infinity : Math.abs(a - t) / Math.max(Math.abs(t), 1e-12));
     return worst;
   };
   for (let round = 0; round < 12; round++) {
-    const loaded: DesignSpec = { ...spec, output: undefined, opamp: { ...spec.opamp, outputHeadroomHigh: spec.supply.positive - high } };
-    const candidate = asBuilt(loaded, loaded.sensor ? designWithSensor(loaded, loaded.sensor) : designVolts(loaded), output, spec);
+    const loaded: DesignSpec = {
+      ...spec,
+      output: undefined,
+      opamp: { ...spec.opamp, outputHeadroomHigh: spec.supply.positive - high },
+    };
+    const candidate = asBuilt(
+      loaded,
+      loaded.sensor ? designWithSensor(loaded, loaded.sensor) : designVolts(loaded),
+      output,
+      spec,
+    );
     // The network changes with the level it is designed for; keep the round whose as-built circuit comes closest.
     const err = asBuiltError(candidate);
     if (err < bestError) {
@@ -187,7 +271,8 @@ function designOpenDrain(spec: DesignSpec, out: NonNullable<DesignSpec["output"]
     const st = candidate.stage;
     // The released pin's level with this network [derived, nodal analysis]:
     let next = pin.v;
-    if (st.kind === "schmitt-inverting") next = (pin.v * (st.rReference + st.rFeedback) + st.reference * pin.r) / (pin.r + st.rReference + st.rFeedback);
+    if (st.kind === "schmitt-inverting")
+      next = (pin.v * (st.rReference + st.rFeedback) + st.reference * pin.r) / (pin.r + st.rReference + st.rFeedback);
     else if (st.kind === "schmitt-noninverting") {
       const u = candidate.achieved.lowerThreshold ?? st.reference;
       const s = st.rInput + st.rFeedback;
@@ -200,7 +285,9 @@ function designOpenDrain(spec: DesignSpec, out: NonNullable<DesignSpec["output"]
   const r = result!;
   const maxError = r.assumptions.maxError;
   if (bestError > maxError)
-    r.warnings.push(`open-drain output: with the loaded high level the best ${spec.series} network is ${(100 * bestError).toFixed(2)} % off a target (maxError ${(100 * maxError).toFixed(1)} %); a smaller pull-up or larger feedback resistors load it less`);
+    r.warnings.push(
+      `open-drain output: with the loaded high level the best ${spec.series} network is ${(100 * bestError).toFixed(2)} % off a target (maxError ${(100 * maxError).toFixed(1)} %); a smaller pull-up or larger feedback resistors load it less`,
+    );
   r.notes.push(
     `open-drain output: ${formatRkm(pullUp)} pull-up to ${formatQuantity(pullTo, "V")}; the thresholds are designed with the loaded high level ${formatQuantity(high, "V", 4)} (pull-up against the feedback network)`,
   );
@@ -216,14 +303,20 @@ const encodeEnd = (v: number, supply: { positive: number; negative: number }, bo
  * tolerance and the NTC's R25/Beta tolerance (lib/design/spread, the same function the summary and
  * the tolerance spread study use).
  */
-function asBuilt(spec: DesignSpec, result: DesignResult, output?: { kind: "open-drain"; pullUp: number; pullUpTo?: "positive" | number; load?: { r: number; to?: number } }, original: DesignSpec = spec): DesignResult {
+function asBuilt(
+  spec: DesignSpec,
+  result: DesignResult,
+  output?: { kind: "open-drain"; pullUp: number; pullUpTo?: "positive" | number; load?: { r: number; to?: number } },
+  original: DesignSpec = spec,
+): DesignResult {
   const div = result.reference.divider;
   let stage: ScenarioInput["stage"] = result.stage;
   if (div) {
     const { reference: _r, ...rest } = result.stage as Stage & Record<string, unknown>;
     void _r;
     const plain = { ...rest } as Record<string, unknown>;
-    if (result.stage.kind === "schmitt-inverting" || result.stage.kind === "relaxation-oscillator") delete plain.rReference;
+    if (result.stage.kind === "schmitt-inverting" || result.stage.kind === "relaxation-oscillator")
+      delete plain.rReference;
     plain.referenceDivider = {
       rTop: div.rTop,
       rBottom: div.rBottom,
@@ -236,12 +329,24 @@ function asBuilt(spec: DesignSpec, result: DesignResult, output?: { kind: "open-
   const tolerance = result.assumptions.tolerance;
   const sensor = spec.sensor;
   const addPart = (role: SourceRole, value: number, note: string) =>
-    parts.push({ ref: `R${parts.filter((p) => p.ref.startsWith("R")).length + 1}`, role, value, series: spec.series, code: formatRkm(value), tolerance, note });
+    parts.push({
+      ref: `R${parts.filter((p) => p.ref.startsWith("R")).length + 1}`,
+      role,
+      value,
+      series: spec.series,
+      code: formatRkm(value),
+      tolerance,
+      note,
+    });
   if (sensor?.kind === "divider") {
     addPart("sourceTop", sensor.rTop, "source divider, source to the sensing node (given in the spec)");
     addPart("sourceBottom", sensor.rBottom, "source divider, sensing node to 0 V (given in the spec)");
   } else if (sensor?.kind === "ntc") {
-    addPart("sourceFixed", sensor.rFixed, `fixed resistor of the NTC divider (${sensor.position === "bottom" ? "top" : "bottom"}; given in the spec)`);
+    addPart(
+      "sourceFixed",
+      sensor.rFixed,
+      `fixed resistor of the NTC divider (${sensor.position === "bottom" ? "top" : "bottom"}; given in the spec)`,
+    );
   }
   if (output) addPart("pullUp", output.pullUp, "pull-up, output pin to the pull-up rail (open-drain output)");
   const source = sensor ? { sensor } : undefined;
@@ -257,24 +362,48 @@ function asBuilt(spec: DesignSpec, result: DesignResult, output?: { kind: "open-
     stage,
     ...(source ? { source } : {}),
     ...(output ? { output } : {}),
-    tolerances: { resistor: tolerance, ...(result.assumptions.capacitorTolerance !== undefined ? { capacitor: result.assumptions.capacitorTolerance } : {}) },
+    tolerances: {
+      resistor: tolerance,
+      ...(result.assumptions.capacitorTolerance !== undefined
+        ? { capacitor: result.assumptions.capacitorTolerance }
+        : {}),
+    },
     input: { components: [{ kind: "dc", level: 0 }] },
     run: { duration: 1, points: 2 },
   });
   const wc = circuitWorstCase(scenario, { headroomSpread: result.assumptions.headroomSpread });
   const worst = { ...result.worstCase };
   for (const n of FIGURE_NAMES) worst[n] = wc[n];
-  const out: DesignResult = { ...result, stage: scenario.stage, parts, worstCase: worst, ...(source ? { source } : {}), ...(output ? { output } : {}) };
+  const out: DesignResult = {
+    ...result,
+    stage: scenario.stage,
+    parts,
+    worstCase: worst,
+    ...(source ? { source } : {}),
+    ...(output ? { output } : {}),
+  };
   if (output) {
     // Achieved figures of the as-built circuit (loaded high level), not of the stand-in part.
     const n = wc.nominal;
-    out.achieved = { ...out.achieved, upperThreshold: n.upperThreshold, lowerThreshold: n.lowerThreshold, hysteresis: n.hysteresis };
+    out.achieved = {
+      ...out.achieved,
+      upperThreshold: n.upperThreshold,
+      lowerThreshold: n.lowerThreshold,
+      hysteresis: n.hysteresis,
+    };
     out.kind = original.kind;
   }
   if (result.sensor) {
     out.sensor = {
       ...result.sensor,
-      ...(output ? { achieved: { upperThreshold: wc.nominal.sourceUpperThreshold, lowerThreshold: wc.nominal.sourceLowerThreshold } } : {}),
+      ...(output
+        ? {
+            achieved: {
+              upperThreshold: wc.nominal.sourceUpperThreshold,
+              lowerThreshold: wc.nominal.sourceLowerThreshold,
+            },
+          }
+        : {}),
       worstCase: { upperThreshold: wc.sourceUpperThreshold, lowerThreshold: wc.sourceLowerThreshold },
     };
   }
@@ -292,7 +421,13 @@ export interface SensorReport {
   achieved: { upperThreshold: number | null; lowerThreshold: number | null };
   worstCase: { upperThreshold: Interval | null; lowerThreshold: Interval | null };
   /** NTC: self-heating at the warmer threshold (the larger power for an NTC at the bottom … or top). */
-  selfHeating?: { atThreshold: number; power: number; temperatureRise: number; limit: number; dissipationConstant: number };
+  selfHeating?: {
+    atThreshold: number;
+    power: number;
+    temperatureRise: number;
+    limit: number;
+    dissipationConstant: number;
+  };
 }
 
 /** Thresholds in sensor units → stage-input volts → design → back to sensor units. */
@@ -306,14 +441,20 @@ function designWithSensor(spec: DesignSpec, sensor: DesignSensor): DesignResult 
   const voltageTarget = { upperThreshold: Math.max(vUpper, vLower), lowerThreshold: Math.min(vUpper, vLower) };
   const target = t.threshold !== undefined ? { threshold: voltageTarget.upperThreshold } : voltageTarget;
   // The stage's upper voltage threshold belongs to the lower quantity when the sensor inverts.
-  const swap = (fig: string) => (fe.inverted ? ({ upperThreshold: "lowerThreshold", lowerThreshold: "upperThreshold" } as Record<string, string>)[fig] ?? fig : fig);
+  const swap = (fig: string) =>
+    fe.inverted
+      ? (({ upperThreshold: "lowerThreshold", lowerThreshold: "upperThreshold" } as Record<string, string>)[fig] ?? fig)
+      : fig;
   let result: DesignResult;
   try {
     result = designVolts({ ...spec, sensor: undefined, target });
   } catch (e) {
     if (e instanceof DesignError) {
       const map = `target ${upper} / ${lower} ${fe.unit} is ${fmtV(vUpper)} / ${fmtV(vLower)} at the stage input`;
-      throw new DesignError(e.figure === "threshold" ? e.figure : swap(e.figure), `${e.detail} (through the sensor: ${map})`);
+      throw new DesignError(
+        e.figure === "threshold" ? e.figure : swap(e.figure),
+        `${e.detail} (through the sensor: ${map})`,
+      );
     }
     throw e;
   }
@@ -334,7 +475,10 @@ function designWithSensor(spec: DesignSpec, sensor: DesignSensor): DesignResult 
     target: { upperThreshold: upper, lowerThreshold: lower },
     voltageTarget,
     achieved: { upperThreshold: units(a[upperV]), lowerThreshold: units(a[lowerV]) },
-    worstCase: { upperThreshold: interval(result.worstCase[upperV]), lowerThreshold: interval(result.worstCase[lowerV]) },
+    worstCase: {
+      upperThreshold: interval(result.worstCase[upperV]),
+      lowerThreshold: interval(result.worstCase[lowerV]),
+    },
   };
   if (fe.selfHeating && sensor.kind === "ntc") {
     // The NTC dissipates most where its resistance is nearest rFixed; check both thresholds.
@@ -349,10 +493,14 @@ function designWithSensor(spec: DesignSpec, sensor: DesignSensor): DesignResult 
     };
     if (worst.h.warning) result.warnings.push(worst.h.warning);
     if (sensor.dissipationConstant === undefined)
-      result.notes.push("sensor.dissipationConstant not given: self-heating assumes δ = 1 mW/K (a small bead in still air; common practice, no source)");
+      result.notes.push(
+        "sensor.dissipationConstant not given: self-heating assumes δ = 1 mW/K (a small bead in still air; common practice, no source)",
+      );
   }
   if (fe.inverted)
-    result.notes.push(`the sensor inverts: the stage's upper voltage threshold is the lower ${fe.unit} threshold and vice versa`);
+    result.notes.push(
+      `the sensor inverts: the stage's upper voltage threshold is the lower ${fe.unit} threshold and vice versa`,
+    );
   return { ...result, sensor: report };
 }
 
@@ -401,27 +549,40 @@ function designVolts(spec: DesignSpec): DesignResult {
   const warnings = [...ctx.warnings];
   const notes: string[] = [];
   if (spec.kind === "inverting-amplifier" && spec.target.gain! > 0)
-    notes.push(`target.gain ${spec.target.gain} read as the magnitude of an inverting gain: vo/vin = −${spec.target.gain}`);
+    notes.push(
+      `target.gain ${spec.target.gain} read as the magnitude of an inverting gain: vo/vin = −${spec.target.gain}`,
+    );
   if (spec.kind === "relaxation-oscillator")
-    notes.push("the duty cycle is set by the reference: it moves the switching points off the centre of the output swing (reference \"auto\" solves it); thresholds here are null, the capacitor switching points are internal");
+    notes.push(
+      'the duty cycle is set by the reference: it moves the switching points off the centre of the output swing (reference "auto" solves it); thresholds here are null, the capacitor switching points are internal',
+    );
   for (const [name, e] of Object.entries(errors)) {
     if (Math.abs(e.relative) > ctx.maxError)
-      warnings.push(`${name}: the best ${spec.series} combination is ${(100 * Math.abs(e.relative)).toFixed(2)} % off the target (maxError ${(100 * ctx.maxError).toFixed(2)} %); a finer series would come closer`);
+      warnings.push(
+        `${name}: the best ${spec.series} combination is ${(100 * Math.abs(e.relative)).toFixed(2)} % off the target (maxError ${(100 * ctx.maxError).toFixed(2)} %); a finer series would come closer`,
+      );
   }
   for (const [name, win] of Object.entries(window) as [FigureName, Interval][]) {
     const w = worst[name];
     if (w && (w[0] < win[0] || w[1] > win[1]))
-      warnings.push(`${name}: the worst case ${fmtRange(w)} leaves the ±${(100 * ctx.maxError).toFixed(1)} % window ${fmtRange(win)}; tighter tolerance or a lower-offset part would help`);
+      warnings.push(
+        `${name}: the worst case ${fmtRange(w)} leaves the ±${(100 * ctx.maxError).toFixed(1)} % window ${fmtRange(win)}; tighter tolerance or a lower-offset part would help`,
+      );
   }
   if (worst.hysteresis && best.figures.hysteresis! > 0 && worst.hysteresis[0] <= 0)
     warnings.push("hysteresis: at a worst-case corner the deadband closes; the stage may chatter");
   if (spec.kind === "relaxation-oscillator") {
-    if (worst.frequency && worst.frequency[0] <= 0) warnings.push("frequency: at a worst-case corner the switching points leave the output swing and the stage stops oscillating");
+    if (worst.frequency && worst.frequency[0] <= 0)
+      warnings.push(
+        "frequency: at a worst-case corner the switching points leave the output swing and the stage stops oscillating",
+      );
     const { high, low } = ctx.cond;
     const edge = (high - low) / Math.min(spec.opamp.slewRate, spec.opamp.slewRateFall ?? spec.opamp.slewRate);
     const period = 1 / best.figures.frequency!;
     if (edge > 0.01 * period)
-      warnings.push(`frequency: each output edge takes ${formatQuantity(edge, "s")} at the slew rate, ${(100 * edge / period).toFixed(1)} % of the period; the measured frequency will be lower`);
+      warnings.push(
+        `frequency: each output edge takes ${formatQuantity(edge, "s")} at the slew rate, ${((100 * edge) / period).toFixed(1)} % of the period; the measured frequency will be lower`,
+      );
   }
 
   const mcSetting = spec.monteCarlo;
@@ -464,7 +625,8 @@ function designVolts(spec: DesignSpec): DesignResult {
               rBottom: best.divider.rBottom,
               top: best.divider.top ?? spec.supply.positive,
               bottom: best.divider.bottom ?? spec.supply.negative,
-              theveninResistance: (best.divider.rTop * best.divider.rBottom) / (best.divider.rTop + best.divider.rBottom),
+              theveninResistance:
+                (best.divider.rTop * best.divider.rBottom) / (best.divider.rTop + best.divider.rBottom),
             },
           }
         : {}),

@@ -8,8 +8,8 @@ const PREFIX: Record<string, number> = {
   p: 1e-12,
   n: 1e-9,
   u: 1e-6,
-  "µ": 1e-6, // U+00B5 micro sign
-  "μ": 1e-6, // U+03BC Greek mu
+  µ: 1e-6, // U+00B5 micro sign
+  μ: 1e-6, // U+03BC Greek mu
   m: 1e-3,
   k: 1e3,
   K: 1e3,
@@ -30,8 +30,8 @@ const RKM_LETTER: Record<string, number> = {
   p: 1e-12,
   n: 1e-9,
   u: 1e-6,
-  "µ": 1e-6,
-  "μ": 1e-6,
+  µ: 1e-6,
+  μ: 1e-6,
   m: 1e-3,
   F: 1,
 };
@@ -137,7 +137,8 @@ export function formatQuantity(value: number, unit: string, digits = 3): string 
  * 10 000 → "10K", 0.47 → "R47". Three significant figures by default (enough for E192).
  */
 export function formatRkm(ohms: number, digits = 3): string {
-  if (!Number.isFinite(ohms) || ohms <= 0) throw new RangeError(`formatRkm needs a positive, finite resistance (got ${ohms})`);
+  if (!Number.isFinite(ohms) || ohms <= 0)
+    throw new RangeError(`formatRkm needs a positive, finite resistance (got ${ohms})`);
   const d = Math.max(1, Math.min(6, Math.round(digits)));
   const letters: [number, string][] = [
     [1e12, "T"],
@@ -190,13 +191,17 @@ export function formatTicks(values: readonly number[], unit: string): string[] {
   for (; decimals < 9; decimals++) {
     const f = 10 ** decimals;
     // Every tick must round-trip at this many decimals (relative to the tick spacing).
-    const ok = scaled.every((x) => !Number.isFinite(x) || Math.abs(Math.round(x * f) / f - x) <= 1e-6 * Math.max(1e-9, tickStep(scaled)));
+    const ok = scaled.every(
+      (x) => !Number.isFinite(x) || Math.abs(Math.round(x * f) / f - x) <= 1e-6 * Math.max(1e-9, tickStep(scaled)),
+    );
     if (ok) break;
   }
   const sep = unit || prefix ? " " : "";
   return scaled.map((x) => {
     if (!Number.isFinite(x)) return "";
-    const text = (Object.is(Math.round(x * 10 ** decimals), -0) ? 0 : x).toFixed(decimals).replace(/^-0(\.0+)?$/, "0$1");
+    const text = (Object.is(Math.round(x * 10 ** decimals), -0) ? 0 : x)
+      .toFixed(decimals)
+      .replace(/^-0(\.0+)?$/, "0$1");
     return `${text}${sep}${prefix}${unit}`;
   });
 }

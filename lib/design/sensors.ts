@@ -76,7 +76,9 @@ export function steinhartHartResistance(tKelvin: number, m: Omit<SteinhartHartMo
 }
 
 /** Steinhart–Hart coefficients through three [T (K), R (Ω)] points (exact 3×3 solve). */
-export function fitSteinhartHart(points: [[number, number], [number, number], [number, number]]): Omit<SteinhartHartModel, "kind"> {
+export function fitSteinhartHart(
+  points: [[number, number], [number, number], [number, number]],
+): Omit<SteinhartHartModel, "kind"> {
   const rows = points.map(([t, r]) => {
     positive(t, "temperature (K)");
     positive(r, "resistance");
@@ -129,9 +131,11 @@ export function ntcDividerVoltage(d: NtcDivider, tKelvin: number): number {
 }
 
 export function ntcDividerTemperature(d: NtcDivider, volts: number): number {
-  if (!(volts > 0 && volts < d.supply)) throw new RangeError(`divider voltage ${volts} V must lie strictly between 0 and ${d.supply} V`);
+  if (!(volts > 0 && volts < d.supply))
+    throw new RangeError(`divider voltage ${volts} V must lie strictly between 0 and ${d.supply} V`);
   // bottom: V = S·Rt/(Rt + Rf) → Rt = Rf·V/(S − V); top: V = S·Rf/(Rt + Rf) → Rt = Rf·(S − V)/V.
-  const rt = d.position === "bottom" ? (d.rFixed * volts) / (d.supply - volts) : (d.rFixed * (d.supply - volts)) / volts;
+  const rt =
+    d.position === "bottom" ? (d.rFixed * volts) / (d.supply - volts) : (d.rFixed * (d.supply - volts)) / volts;
   return ntcTemperature(d.model, rt);
 }
 
@@ -175,7 +179,7 @@ export interface SelfHeating {
 
 /**
  * Self-heating of the NTC at temperature T: P = V²/R_ntc, rise = P/δ with δ the dissipation
- * constant (W/K). Keep the rise to ¼ of the accuracy wanted (REFERENCES.md: ¼–1/10, common
+ * constant (W/K). Keep the rise to ¼ of the accuracy wanted (tests/REFERENCES.md: ¼–1/10, common
  * practice); `maxRise` overrides that limit.
  */
 export function ntcSelfHeating(
@@ -261,7 +265,10 @@ export function batteryThresholds(d: VoltageDivider, v: { upper: number; lower: 
 export type SensorSpec =
   | {
       kind: "ntc";
-      model: { beta: number; r25: number; t0?: number } | { a: number; b: number; c: number } | { points: [number, number][] };
+      model:
+        | { beta: number; r25: number; t0?: number }
+        | { a: number; b: number; c: number }
+        | { points: [number, number][] };
       rFixed: number;
       position: "top" | "bottom";
       supplyVoltage?: number;
@@ -293,10 +300,21 @@ export function sensorFrontEnd(sensor: SensorSpec, defaultSupply: number): Senso
           : "points" in m
             ? {
                 kind: "steinhart-hart",
-                ...fitSteinhartHart(m.points.map(([c, r]) => [celsiusToKelvin(c), r]) as [[number, number], [number, number], [number, number]]),
+                ...fitSteinhartHart(
+                  m.points.map(([c, r]) => [celsiusToKelvin(c), r]) as [
+                    [number, number],
+                    [number, number],
+                    [number, number],
+                  ],
+                ),
               }
             : { kind: "steinhart-hart", ...m };
-      const d: NtcDivider = { model, rFixed: sensor.rFixed, supply: sensor.supplyVoltage ?? defaultSupply, position: sensor.position };
+      const d: NtcDivider = {
+        model,
+        rFixed: sensor.rFixed,
+        supply: sensor.supplyVoltage ?? defaultSupply,
+        position: sensor.position,
+      };
       return {
         unit: "°C",
         inverted: sensor.position === "bottom",

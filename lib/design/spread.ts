@@ -1,9 +1,9 @@
-// One worst case for the circuit as built (DESIGN.md): the spread of a scenario's figures over
+// One worst case for the circuit as built (lib/schemas/README.md): the spread of a scenario's figures over
 // every part of the network — stage resistors, the reference divider, the source divider or NTC
 // (R25, Beta, fixed resistor), the filter resistor where the input draws current, the pull-up —
 // plus the supply tolerance, a numeric reference's tolerance, ±|input offset| and the output
 // headroom spread. The design panel, the design summary and the tolerance spread study all use
-// these functions, so their figures agree. Closed forms: lib/design/analysis (REFERENCES.md).
+// these functions, so their figures agree. Closed forms: lib/design/analysis (tests/REFERENCES.md).
 import { xoroshiro128plus } from "pure-rand/generator/xoroshiro128plus";
 import { uniformFloat64 } from "pure-rand/distribution/uniformFloat64";
 import {
@@ -13,7 +13,14 @@ import {
   type Scenario,
   type Stage,
 } from "@/lib/schemas/scenario";
-import { DEFAULT_HEADROOM_SPREAD, FIGURE_NAMES, stageFigures, type FigureName, type Figures, type Interval } from "./analysis";
+import {
+  DEFAULT_HEADROOM_SPREAD,
+  FIGURE_NAMES,
+  stageFigures,
+  type FigureName,
+  type Figures,
+  type Interval,
+} from "./analysis";
 import { sensorFrontEnd, type SensorSpec } from "./sensors";
 
 export interface SpreadVariable {
@@ -43,7 +50,11 @@ export interface CircuitFigures extends Figures {
 }
 
 export type CircuitFigureName = keyof CircuitFigures;
-export const CIRCUIT_FIGURE_NAMES: CircuitFigureName[] = [...FIGURE_NAMES, "sourceUpperThreshold", "sourceLowerThreshold"];
+export const CIRCUIT_FIGURE_NAMES: CircuitFigureName[] = [
+  ...FIGURE_NAMES,
+  "sourceUpperThreshold",
+  "sourceLowerThreshold",
+];
 
 const STAGE_RESISTORS = ["rInput", "rFeedback", "rGround", "rReference", "rTiming"] as const;
 const par = (a: number, b: number) => (a * b) / (a + b);
@@ -79,7 +90,8 @@ export function spreadVariables(scenario: Scenario, options: CircuitSpreadOption
       add("source.sensor.model.beta", tol.ntcBeta);
     }
   }
-  if (scenario.filter && (options.everyPart || CURRENT_DRAWING_KINDS.includes(scenario.stage.kind))) add("filter.r", tol.resistor);
+  if (scenario.filter && (options.everyPart || CURRENT_DRAWING_KINDS.includes(scenario.stage.kind)))
+    add("filter.r", tol.resistor);
   if (scenario.filter && options.everyPart) add("filter.c", tol.capacitor);
   if (scenario.output?.kind === "open-drain") add("output.pullUp", tol.resistor);
   const supplyTol = scenario.supply.tolerance ?? 0;
@@ -97,23 +109,36 @@ export function spreadVariables(scenario: Scenario, options: CircuitSpreadOption
  * The figures with each variable at nominal·(1 + tolerance·u), u ∈ [−1, 1] per name (absent: 0,
  * the nominal). The input offset is |Vos|·u (the part's signed offset when u is absent).
  */
-export function circuitFigures(scenario: Scenario, u: Record<string, number> = {}, options: CircuitSpreadOptions = {}): CircuitFigures {
+export function circuitFigures(
+  scenario: Scenario,
+  u: Record<string, number> = {},
+  options: CircuitSpreadOptions = {},
+): CircuitFigures {
   const tol = { ...DEFAULT_TOLERANCES, ...(scenario.tolerances ?? {}) };
   const hs = options.headroomSpread ?? DEFAULT_HEADROOM_SPREAD;
   const f = (name: string, nominal: number, t: number) => nominal * (1 + t * (u[name] ?? 0));
   const supplyTol = scenario.supply.tolerance ?? 0;
-  const supply = { positive: f("supply.positive", scenario.supply.positive, supplyTol), negative: f("supply.negative", scenario.supply.negative, supplyTol) };
+  const supply = {
+    positive: f("supply.positive", scenario.supply.positive, supplyTol),
+    negative: f("supply.negative", scenario.supply.negative, supplyTol),
+  };
   const op = scenario.opamp;
   const offset =
-    u["opamp.inputOffset"] !== undefined ? Math.abs(options.offset ?? op.inputOffset) * u["opamp.inputOffset"] : options.offset !== undefined ? 0 : op.inputOffset;
+    u["opamp.inputOffset"] !== undefined
+      ? Math.abs(options.offset ?? op.inputOffset) * u["opamp.inputOffset"]
+      : options.offset !== undefined
+        ? 0
+        : op.inputOffset;
   const driveHigh = supply.positive - f("opamp.outputHeadroomHigh", op.outputHeadroomHigh, hs);
   const low = supply.negative + f("opamp.outputHeadroomLow", op.outputHeadroomLow, hs);
 
   const src = scenario.stage as Record<string, unknown>;
   const st: Record<string, unknown> = { ...src };
   delete st.referenceDivider;
-  for (const role of STAGE_RESISTORS) if (typeof src[role] === "number") st[role] = f(`stage.${role}`, src[role] as number, tol.resistor);
-  if (scenario.stage.kind === "relaxation-oscillator") st.cTiming = f("stage.cTiming", scenario.stage.cTiming, tol.capacitor);
+  for (const role of STAGE_RESISTORS)
+    if (typeof src[role] === "number") st[role] = f(`stage.${role}`, src[role] as number, tol.resistor);
+  if (scenario.stage.kind === "relaxation-oscillator")
+    st.cTiming = f("stage.cTiming", scenario.stage.cTiming, tol.capacitor);
   const div = scenario.stage.referenceDivider;
   if (div) {
     const rTop = f("stage.referenceDivider.rTop", div.rTop, tol.resistor);
@@ -122,7 +147,8 @@ export function circuitFigures(scenario: Scenario, u: Record<string, number> = {
     const bottom = dividerEndVolts(div.bottom, supply, "ground");
     st.reference = bottom + ((top - bottom) * rBottom) / (rTop + rBottom);
     const rth = par(rTop, rBottom);
-    if (scenario.stage.kind === "schmitt-inverting" || scenario.stage.kind === "relaxation-oscillator") st.rReference = rth;
+    if (scenario.stage.kind === "schmitt-inverting" || scenario.stage.kind === "relaxation-oscillator")
+      st.rReference = rth;
     else if (scenario.stage.kind === "noninverting-amplifier") st.rGround = (st.rGround as number) + rth;
   } else {
     st.reference = f("stage.reference", scenario.stage.reference, tol.reference);
@@ -136,7 +162,11 @@ export function circuitFigures(scenario: Scenario, u: Record<string, number> = {
   if (sensor) {
     let s: SensorSpec = sensor as SensorSpec;
     if (sensor.kind === "divider") {
-      s = { ...sensor, rTop: f("source.sensor.rTop", sensor.rTop, tol.resistor), rBottom: f("source.sensor.rBottom", sensor.rBottom, tol.resistor) };
+      s = {
+        ...sensor,
+        rTop: f("source.sensor.rTop", sensor.rTop, tol.resistor),
+        rBottom: f("source.sensor.rBottom", sensor.rBottom, tol.resistor),
+      };
       const r = par(s.rTop, s.rBottom);
       rSource = () => r;
     } else if (sensor.kind === "ntc") {
@@ -168,7 +198,11 @@ export function circuitFigures(scenario: Scenario, u: Record<string, number> = {
   const out = scenario.output;
   const openDrain = out?.kind === "open-drain";
   const pullUp = openDrain ? f("output.pullUp", out.pullUp, tol.resistor) : 0;
-  const pullTo = openDrain ? (out.pullUpTo === undefined || out.pullUpTo === "positive" ? supply.positive : out.pullUpTo) : 0;
+  const pullTo = openDrain
+    ? out.pullUpTo === undefined || out.pullUpTo === "positive"
+      ? supply.positive
+      : out.pullUpTo
+    : 0;
   const pinThevenin = () => {
     if (!openDrain) return { v: driveHigh, r: 0 };
     if (!out.load) return { v: pullTo, r: pullUp };
@@ -185,15 +219,19 @@ export function circuitFigures(scenario: Scenario, u: Record<string, number> = {
       const p = pinThevenin();
       // Loaded high level (a Thevenin source p.v, p.r driving the feedback network) [derived].
       if (plain.kind === "schmitt-inverting") {
-        const rr = plain.rReference, rf = plain.rFeedback;
+        const rr = plain.rReference,
+          rf = plain.rFeedback;
         high = Math.min(high, (p.v * (rr + rf) + plain.reference * p.r) / (p.r + rr + rf));
       } else if (plain.kind === "schmitt-noninverting") {
         // Released pin: vo = (p.v·(rI + rF) + u·p.r)/(p.r + rI + rF); v+ = (u·rF + vo·rI)/(rI + rF).
         // The lower threshold is the u at which v+ = reference − offset; solve the affine v+(u).
-        const ri = plain.rInput, rf = plain.rFeedback, s = ri + rf;
+        const ri = plain.rInput,
+          rf = plain.rFeedback,
+          s = ri + rf;
         const vp = (x: number) => (x * rf + ((p.v * s + x * p.r) / (p.r + s)) * ri) / s;
         const target = plain.reference - offset;
-        const a0 = vp(0), a1 = vp(1) - a0;
+        const a0 = vp(0),
+          a1 = vp(1) - a0;
         const lower = (target - a0) / a1;
         const fig = stageFigures(plain, { high, low, offset, openLoopGain: op.openLoopGain });
         return { ...fig, lowerThreshold: lower, hysteresis: fig.upperThreshold! - lower };
@@ -275,7 +313,12 @@ export function circuitWorstCase(scenario: Scenario, options: CircuitSpreadOptio
 }
 
 /** Seeded uniform Monte Carlo of circuitFigures over the same variables (for checks and plots). */
-export function circuitMonteCarlo(scenario: Scenario, draws: number, seed: number, options: CircuitSpreadOptions = {}): CircuitFigures[] {
+export function circuitMonteCarlo(
+  scenario: Scenario,
+  draws: number,
+  seed: number,
+  options: CircuitSpreadOptions = {},
+): CircuitFigures[] {
   const vars = spreadVariables(scenario, options);
   const rng = xoroshiro128plus(seed >>> 0);
   const out: CircuitFigures[] = [];
@@ -294,7 +337,11 @@ export type { FigureName };
  * the same draw the corner search and circuitFigures make, as a scenario to simulate. A reference
  * divider's filled Thevenin values are recomputed by lib/sim/circuit from the varied divider.
  */
-export function perturbScenario(scenario: Scenario, u: Record<string, number>, options: CircuitSpreadOptions = {}): Scenario {
+export function perturbScenario(
+  scenario: Scenario,
+  u: Record<string, number>,
+  options: CircuitSpreadOptions = {},
+): Scenario {
   const vars = spreadVariables(scenario, options);
   const out = structuredClone({ ...scenario, input: undefined }) as unknown as Record<string, unknown>;
   out.input = scenario.input;
@@ -309,6 +356,7 @@ export function perturbScenario(scenario: Scenario, u: Record<string, number>, o
     if (v.name === "opamp.inputOffset") obj[leaf] = offsetMag * x;
     else obj[leaf] = (obj[leaf] as number) * (1 + v.tolerance * x);
   }
-  if (options.offset !== undefined && u["opamp.inputOffset"] === undefined) (out.opamp as Record<string, unknown>).inputOffset = 0;
+  if (options.offset !== undefined && u["opamp.inputOffset"] === undefined)
+    (out.opamp as Record<string, unknown>).inputOffset = 0;
   return out as unknown as Scenario;
 }

@@ -157,7 +157,15 @@ function evaluate(
   const resistors = Object.entries(values)
     .filter(([role]) => role !== "cTiming")
     .map(([, v]) => v as number);
-  return { stage, divider, values, figures, error: worstError(figures, ctx), penalty: penaltyOf(resistors, ctx), referenceMode };
+  return {
+    stage,
+    divider,
+    values,
+    figures,
+    error: worstError(figures, ctx),
+    penalty: penaltyOf(resistors, ctx),
+    referenceMode,
+  };
 }
 
 /** Minimum over a log-spaced scan plus golden refinement of a 1-D function of x in [lo, hi]. */
@@ -167,7 +175,7 @@ export function continuousMinimum(fn: (x: number) => number, lo: number, hi: num
   let best = Infinity;
   const xs: number[] = [];
   for (let i = 0; i <= n; i++) {
-    const x = lo * Math.pow(hi / lo, i / n);
+    const x = lo * (hi / lo) ** (i / n);
     xs.push(x);
     const v = fn(x);
     if (v < best) {
@@ -200,13 +208,25 @@ function requireRatio(ratio: number, what: string, figure: string, ctx: Synthesi
 }
 
 /** The Thevenin voltage an "auto" reference must reach; refuses one outside the rails. */
-function requireReference(voltage: number, figureBelow: string, figureAbove: string, why: string, ctx: SynthesisContext) {
+function requireReference(
+  voltage: number,
+  figureBelow: string,
+  figureAbove: string,
+  why: string,
+  ctx: SynthesisContext,
+) {
   const { positive, negative } = ctx.supply;
   const margin = 1e-6 * (positive - negative);
   if (voltage <= negative + margin)
-    throw new DesignError(figureBelow, `${why} needs a reference of ${fmt(voltage)} V, at or below the negative supply (${negative} V)`);
+    throw new DesignError(
+      figureBelow,
+      `${why} needs a reference of ${fmt(voltage)} V, at or below the negative supply (${negative} V)`,
+    );
   if (voltage >= positive - margin)
-    throw new DesignError(figureAbove, `${why} needs a reference of ${fmt(voltage)} V, at or above the positive supply (${positive} V)`);
+    throw new DesignError(
+      figureAbove,
+      `${why} needs a reference of ${fmt(voltage)} V, at or above the positive supply (${positive} V)`,
+    );
 }
 
 /** An "auto" reference that lands on ground in a split supply needs no divider. */
@@ -247,7 +267,12 @@ function comparator(ctx: SynthesisContext): Candidate {
   const ref = referenceSetting(ctx);
   if (ref !== "auto") {
     const c = evaluate(stageOf(ref), {}, ctx, "given");
-    requireConsistent(c.error, "threshold", `reference ${ref} V with input offset ${ctx.cond.offset} V switches at ${fmt(c.figures.upperThreshold!)} V`, ctx);
+    requireConsistent(
+      c.error,
+      "threshold",
+      `reference ${ref} V with input offset ${ctx.cond.offset} V switches at ${fmt(c.figures.upperThreshold!)} V`,
+      ctx,
+    );
     return c;
   }
   requireReference(needed, "threshold", "threshold", `threshold ${t} V`, ctx);
@@ -258,7 +283,11 @@ function comparator(ctx: SynthesisContext): Candidate {
       return evaluate(stageOf(th.voltage), { rTop: d.rTop, rBottom: d.rBottom }, ctx, "auto", d);
     }),
   );
-  if (!best) throw new DesignError("threshold", `no divider between ${ctx.range.min} Ω and ${ctx.range.max} Ω reaches ${fmt(needed)} V`);
+  if (!best)
+    throw new DesignError(
+      "threshold",
+      `no divider between ${ctx.range.min} Ω and ${ctx.range.max} Ω reaches ${fmt(needed)} V`,
+    );
   return best;
 }
 
@@ -278,7 +307,11 @@ function schmittNoninverting(ctx: SynthesisContext): Candidate {
   const ref = referenceSetting(ctx);
   const maxRatio = ctx.range.max / ctx.range.min;
   if (ref !== "auto") {
-    const cont = continuousMinimum((r) => worstError(stageFigures(stageOf(r, 1, ref), ctx.cond), ctx), 1 / maxRatio, maxRatio);
+    const cont = continuousMinimum(
+      (r) => worstError(stageFigures(stageOf(r, 1, ref), ctx.cond), ctx),
+      1 / maxRatio,
+      maxRatio,
+    );
     requireConsistent(cont.value, "upperThreshold", `with reference ${ref} V the thresholds cannot both be met`, ctx);
     const ratios = [...pairsNear(rIdeal, ctx), ...pairsNear(cont.x, ctx)];
     const best = pick(ratios.map(([a, b]) => evaluate(stageOf(a, b, ref), { rInput: a, rFeedback: b }, ctx, "given")));
@@ -294,7 +327,15 @@ function schmittNoninverting(ctx: SynthesisContext): Candidate {
     }
     for (const d of dividersNear(need, ctx, 16)) {
       const th = theveninOf(d, ctx);
-      cands.push(evaluate(stageOf(a, b, th.voltage), { rInput: a, rFeedback: b, rTop: d.rTop, rBottom: d.rBottom }, ctx, "auto", d));
+      cands.push(
+        evaluate(
+          stageOf(a, b, th.voltage),
+          { rInput: a, rFeedback: b, rTop: d.rTop, rBottom: d.rBottom },
+          ctx,
+          "auto",
+          d,
+        ),
+      );
     }
   }
   const best = pick(cands);
@@ -326,15 +367,27 @@ function schmittInverting(ctx: SynthesisContext): Candidate {
   const vth = (L - offset - k * low) / (1 - k);
   if (ref !== "auto" || isGround(vth, ctx)) {
     const fixed = ref === "auto" ? 0 : ref;
-    const cont = continuousMinimum((r) => worstError(stageFigures(stageOf(r, 1, fixed), ctx.cond), ctx), 1 / maxRatio, maxRatio);
+    const cont = continuousMinimum(
+      (r) => worstError(stageFigures(stageOf(r, 1, fixed), ctx.cond), ctx),
+      1 / maxRatio,
+      maxRatio,
+    );
     requireConsistent(cont.value, "upperThreshold", `with reference ${fixed} V the thresholds cannot both be met`, ctx);
     const ratios = [...pairsNear(ratioIdeal, ctx), ...pairsNear(cont.x, ctx)];
     return pick(
-      ratios.map(([a, b]) => evaluate(stageOf(a, b, fixed), { rReference: a, rFeedback: b }, ctx, ref === "auto" ? "ground" : "given")),
+      ratios.map(([a, b]) =>
+        evaluate(stageOf(a, b, fixed), { rReference: a, rFeedback: b }, ctx, ref === "auto" ? "ground" : "given"),
+      ),
     )!;
   }
   // "auto": three resistors, rTop (V+ → node), rBottom (node → V−), rFeedback (output → node).
-  requireReference(vth, "lowerThreshold", "upperThreshold", `thresholds ${L} V … ${U} V with output limits ${fmt(low)} V … ${fmt(high)} V`, ctx);
+  requireReference(
+    vth,
+    "lowerThreshold",
+    "upperThreshold",
+    `thresholds ${L} V … ${U} V with output limits ${fmt(low)} V … ${fmt(high)} V`,
+    ctx,
+  );
   const { list } = ctx;
   let best: Candidate | null = null;
   for (const { top, bottom } of dividerEnds(vth, ctx.supply)) {
@@ -346,13 +399,23 @@ function schmittInverting(ctx: SynthesisContext): Candidate {
         for (const j of around(bottomIdeal, list)) {
           const d = { rTop: list[i], rBottom: list[j], top, bottom };
           const th = theveninOf(d, ctx);
-          const c = evaluate(stageOf(th.resistance, rf, th.voltage), { rTop: d.rTop, rBottom: d.rBottom, rFeedback: rf }, ctx, "auto", d);
+          const c = evaluate(
+            stageOf(th.resistance, rf, th.voltage),
+            { rTop: d.rTop, rBottom: d.rBottom, rFeedback: rf },
+            ctx,
+            "auto",
+            d,
+          );
           if (Number.isFinite(c.error) && better(c, best)) best = c;
         }
       }
     }
   }
-  if (!best) throw new DesignError("upperThreshold", `no divider and feedback resistor between ${ctx.range.min} Ω and ${ctx.range.max} Ω meet the thresholds`);
+  if (!best)
+    throw new DesignError(
+      "upperThreshold",
+      `no divider and feedback resistor between ${ctx.range.min} Ω and ${ctx.range.max} Ω meet the thresholds`,
+    );
   return best;
 }
 
@@ -367,7 +430,12 @@ function amplifier(ctx: SynthesisContext): Candidate {
     const reference = ref === "auto" ? 0 : ref;
     return pick(
       pairsNear(ideal - 1, ctx).map(([rF, rG]) =>
-        evaluate({ kind: "noninverting-amplifier", rGround: rG, rFeedback: rF, reference }, { rGround: rG, rFeedback: rF }, ctx, "given"),
+        evaluate(
+          { kind: "noninverting-amplifier", rGround: rG, rFeedback: rF, reference },
+          { rGround: rG, rFeedback: rF },
+          ctx,
+          "given",
+        ),
       ),
     )!;
   }
@@ -379,7 +447,12 @@ function amplifier(ctx: SynthesisContext): Candidate {
   if (ref !== "auto") {
     return pick(
       pairs.map(([rF, rI]) =>
-        evaluate({ kind: "inverting-amplifier", rInput: rI, rFeedback: rF, reference: ref }, { rInput: rI, rFeedback: rF }, ctx, "given"),
+        evaluate(
+          { kind: "inverting-amplifier", rInput: rI, rFeedback: rF, reference: ref },
+          { rInput: rI, rFeedback: rF },
+          ctx,
+          "given",
+        ),
       ),
     )!;
   }
@@ -390,8 +463,16 @@ function amplifier(ctx: SynthesisContext): Candidate {
   for (const [rF, rI] of pairs) {
     for (const d of dividers) {
       const reference = d ? theveninOf(d, ctx).voltage : 0;
-      const values = d ? { rInput: rI, rFeedback: rF, rTop: d.rTop, rBottom: d.rBottom } : { rInput: rI, rFeedback: rF };
-      const c = evaluate({ kind: "inverting-amplifier", rInput: rI, rFeedback: rF, reference }, values, ctx, d ? "auto" : "ground", d ?? undefined);
+      const values = d
+        ? { rInput: rI, rFeedback: rF, rTop: d.rTop, rBottom: d.rBottom }
+        : { rInput: rI, rFeedback: rF };
+      const c = evaluate(
+        { kind: "inverting-amplifier", rInput: rI, rFeedback: rF, reference },
+        values,
+        ctx,
+        d ? "auto" : "ground",
+        d ?? undefined,
+      );
       // The bias only has to be near the middle: rank by gain, then by how central the bias is.
       c.penalty += Math.abs(reference - mid) / (ctx.cond.high - ctx.cond.low);
       cands.push(c);
@@ -424,7 +505,12 @@ function oscillator(ctx: SynthesisContext): Candidate {
   };
 
   // 1. The threshold network: ideal feedback fraction and reference.
-  type Net = { stage: Omit<Extract<Stage, { kind: "relaxation-oscillator" }>, "rTiming" | "cTiming">; values: Partial<Record<Role, number>>; divider?: ReferenceDivider; mode: Candidate["referenceMode"] };
+  type Net = {
+    stage: Omit<Extract<Stage, { kind: "relaxation-oscillator" }>, "rTiming" | "cTiming">;
+    values: Partial<Record<Role, number>>;
+    divider?: ReferenceDivider;
+    mode: Candidate["referenceMode"];
+  };
   const nets: { net: Net; dutyErr: number; pen: number }[] = [];
   const addNet = (net: Net) => {
     const d = dutyOf(net.stage.rReference / (net.stage.rReference + net.stage.rFeedback), net.stage.reference);
@@ -446,7 +532,10 @@ function oscillator(ctx: SynthesisContext): Candidate {
     const lo = Number.isFinite(dA) ? dA : 0;
     const hi = Number.isFinite(dB) ? dB : 1;
     if (!(want > lo && want < hi) && !(Number.isNaN(dA) || Number.isNaN(dB))) {
-      throw new DesignError("duty", `duty ${want} is out of reach: with thresholds at 1/3 and 2/3 of the swing and the reference inside the supply it lies between ${fmt(lo, 3)} and ${fmt(hi, 3)}`);
+      throw new DesignError(
+        "duty",
+        `duty ${want} is out of reach: with thresholds at 1/3 and 2/3 of the swing and the reference inside the supply it lies between ${fmt(lo, 3)} and ${fmt(hi, 3)}`,
+      );
     }
     for (let it = 0; it < 200; it++) {
       const m = (a + b) / 2;
@@ -464,16 +553,19 @@ function oscillator(ctx: SynthesisContext): Candidate {
   }
   // Without a duty target, a split supply whose ideal reference is within 2 % of the span from
   // 0 V (only the offset moves it) uses ground: two resistors fewer for a duty off by a hair.
-  const nearGround =
-    duty === undefined && negative < 0 && positive > 0 && Math.abs(vth) < 0.02 * (positive - negative);
+  const nearGround = duty === undefined && negative < 0 && positive > 0 && Math.abs(vth) < 0.02 * (positive - negative);
   if (ref !== "auto" || isGround(vth, ctx) || nearGround) {
     const fixed = ref === "auto" ? 0 : ref;
     let kIdeal = k0;
     if (duty !== undefined) {
-      const cont = continuousMinimum((r) => {
-        const d = dutyOf(r / (1 + r), fixed);
-        return Number.isFinite(d) ? Math.abs(d - duty) / duty : Infinity;
-      }, 1 / maxRatio, maxRatio);
+      const cont = continuousMinimum(
+        (r) => {
+          const d = dutyOf(r / (1 + r), fixed);
+          return Number.isFinite(d) ? Math.abs(d - duty) / duty : Infinity;
+        },
+        1 / maxRatio,
+        maxRatio,
+      );
       // Duty is set only by moving the switching points off the swing's centre (the reference).
       const centred = Math.abs(fixed + offset - (high + low) / 2) < 1e-3 * (high - low);
       requireConsistent(
@@ -487,7 +579,11 @@ function oscillator(ctx: SynthesisContext): Candidate {
       kIdeal = cont.x / (1 + cont.x);
     }
     for (const [a, b] of pairsNear(kIdeal / (1 - kIdeal), ctx, 40)) {
-      addNet({ stage: { kind: "relaxation-oscillator", rReference: a, rFeedback: b, reference: fixed }, values: { rReference: a, rFeedback: b }, mode: ref === "auto" ? "ground" : "given" });
+      addNet({
+        stage: { kind: "relaxation-oscillator", rReference: a, rFeedback: b, reference: fixed },
+        values: { rReference: a, rFeedback: b },
+        mode: ref === "auto" ? "ground" : "given",
+      });
     }
   } else {
     const { list } = ctx;
@@ -570,7 +666,11 @@ export function contextOf(spec: DesignSpec): SynthesisContext {
   const cond = conditionsOf(spec.opamp, spec.supply);
   const range = spec.range ?? DEFAULT_RANGE;
   const list = seriesInRange(spec.series, range.min, range.max);
-  if (list.length < 2) throw new DesignError("range", `fewer than two ${spec.series} values lie between ${range.min} Ω and ${range.max} Ω`);
+  if (list.length < 2)
+    throw new DesignError(
+      "range",
+      `fewer than two ${spec.series} values lie between ${range.min} Ω and ${range.max} Ω`,
+    );
   const t = spec.target;
   const targets: SynthesisContext["targets"] = {};
   const span = spec.supply.positive - spec.supply.negative;

@@ -1,4 +1,4 @@
-// Request bodies of the boards, scenarios and runs API (DESIGN.md "HTTP API").
+// Request bodies of the boards, scenarios and runs API (DEVELOPERS.md § HTTP API).
 // Shared by the route handlers and the client forms.
 import { z } from "zod";
 import { scenarioSchema } from "./scenario";
@@ -19,7 +19,9 @@ export const boardCreateSchema = z.object({ name: name("name"), description: des
 
 export const boardPatchSchema = z
   .strictObject({ name: name("name").optional(), description: description.optional() })
-  .refine((b) => b.name !== undefined || b.description !== undefined, { message: "send name or description to change" });
+  .refine((b) => b.name !== undefined || b.description !== undefined, {
+    message: "send name or description to change",
+  });
 
 export const scenarioCreateSchema = z.object({
   boardId: z.string({ error: "boardId must be a board id" }).min(1, { message: "boardId must be a board id" }),
@@ -32,14 +34,24 @@ export const scenarioUpdateSchema = z
   .strictObject({
     name: name("name").optional(),
     scenario: scenarioSchema.optional(),
-    note: z.string({ error: "note must be text" }).trim().max(500, { message: "note must be at most 500 characters" }).optional(),
+    note: z
+      .string({ error: "note must be text" })
+      .trim()
+      .max(500, { message: "note must be at most 500 characters" })
+      .optional(),
     baseVersion: z.number({ error: "baseVersion must be a version number" }).int().min(1).optional(),
   })
   .refine((b) => b.name !== undefined || b.scenario !== undefined, { message: "send scenario or name to save" });
 
 export const runCreateSchema = z.object({
-  scenarioId: z.string({ error: "scenarioId must be a scenario id" }).min(1, { message: "scenarioId must be a scenario id" }),
-  label: z.string({ error: "label must be text" }).trim().max(200, { message: "label must be at most 200 characters" }).optional(),
+  scenarioId: z
+    .string({ error: "scenarioId must be a scenario id" })
+    .min(1, { message: "scenarioId must be a scenario id" }),
+  label: z
+    .string({ error: "label must be text" })
+    .trim()
+    .max(200, { message: "label must be at most 200 characters" })
+    .optional(),
 });
 
 export type BoardCreate = z.infer<typeof boardCreateSchema>;

@@ -1,9 +1,9 @@
-// The `railwise.design-spec/1` contract (DESIGN.md) with Railwise's extensions: comparator
+// The `railwise.design-spec/1` contract (lib/schemas/README.md § Design spec JSON) with Railwise's extensions: comparator
 // `{ threshold }`, oscillator `{ frequency, duty? }`, resistor `range`, `maxError`, spread settings.
 // The schemas live in ./scenario (a scenario keeps its spec and takes the spec's sensor object);
 // this module is the design side's name for them.
 import type { z } from "zod";
-import { designSpecSchema } from "./scenario";
+import type { designSpecSchema } from "./scenario";
 
 export {
   DESIGN_SPEC_SCHEMA_ID,

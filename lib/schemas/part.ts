@@ -1,4 +1,4 @@
-// Part profile: a named set of behavioural op-amp parameters (DESIGN.md "Part profile").
+// Part profile: a named set of behavioural op-amp parameters (lib/schemas/README.md § Part profile).
 // The parameters are exactly the scenario's `opamp` object, validated by the same schema,
 // so a profile drops straight into a scenario.
 import { z } from "zod";
@@ -74,7 +74,8 @@ export interface PartCsvResult {
  * when there is any error.
  */
 export function parsePartsCsv(text: string): PartCsvResult {
-  if (text.length > PART_CSV_MAX_BYTES) return { parts: [], errors: [`The file is larger than ${PART_CSV_MAX_BYTES / 1024} KB.`] };
+  if (text.length > PART_CSV_MAX_BYTES)
+    return { parts: [], errors: [`The file is larger than ${PART_CSV_MAX_BYTES / 1024} KB.`] };
   if (!text.trim()) return { parts: [], errors: ["The file is empty."] };
   const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ""), {
     header: true,
@@ -88,7 +89,8 @@ export function parsePartsCsv(text: string): PartCsvResult {
   if (unknown.length) errors.push(`Unknown column(s): ${unknown.join(", ")}. Known: name, ${OPAMP_PARAMS.join(", ")}.`);
   if (errors.length) return { parts: [], errors };
   if (parsed.data.length === 0) return { parts: [], errors: ["The file has a header row but no parts."] };
-  if (parsed.data.length > PART_CSV_MAX_ROWS) return { parts: [], errors: [`At most ${PART_CSV_MAX_ROWS} parts per file.`] };
+  if (parsed.data.length > PART_CSV_MAX_ROWS)
+    return { parts: [], errors: [`At most ${PART_CSV_MAX_ROWS} parts per file.`] };
 
   const parts: PartProfileInput[] = [];
   const seen = new Set<string>();

@@ -9,7 +9,11 @@ export const LINK_LABEL_MAX = 120;
 export const REVIEWERS_MAX = 10;
 
 // Plain text: CR/LF normalised, control characters other than newline and tab dropped.
-const clean = (s: string) => s.replace(/\r\n?/g, "\n").replace(/[\u0000-\u0008\u000b-\u001f\u007f]/g, "").trim();
+const clean = (s: string) =>
+  s
+    .replace(/\r\n?/g, "\n")
+    .replace(/[\u0000-\u0008\u000b-\u001f\u007f]/g, "")
+    .trim();
 
 const noteText = z
   .string({ error: "note must be text" })
@@ -31,15 +35,22 @@ export const signoffDecisionSchema = z
   })
   .superRefine((b, ctx) => {
     if (b.decision === "changes_requested" && b.note.length === 0) {
-      ctx.addIssue({ code: "custom", path: ["note"], message: "note is required when requesting changes: say what must change" });
+      ctx.addIssue({
+        code: "custom",
+        path: ["note"],
+        message: "note is required when requesting changes: say what must change",
+      });
     }
   });
 
 export const reviewRequestCreateSchema = z.object({
   reviewerIds: z
-    .array(z.string({ error: "reviewerIds must be member ids" }).min(1, { message: "reviewerIds must be member ids" }), {
-      error: "reviewerIds must be a list of member ids",
-    })
+    .array(
+      z.string({ error: "reviewerIds must be member ids" }).min(1, { message: "reviewerIds must be member ids" }),
+      {
+        error: "reviewerIds must be a list of member ids",
+      },
+    )
     .min(1, { message: "reviewerIds must name at least one reviewer" })
     .max(REVIEWERS_MAX, { message: `reviewerIds may name at most ${REVIEWERS_MAX} reviewers` }),
   note: noteText.default(""),

@@ -1,4 +1,4 @@
-// Team roles and sign-off decisions (DESIGN.md "Roles"), shared by models, session and UI.
+// Team roles and sign-off decisions (DEVELOPERS.md § Roles), shared by models, session and UI.
 import { z } from "zod";
 
 export const ROLES = ["owner", "designer", "reviewer", "viewer"] as const;

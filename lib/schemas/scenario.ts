@@ -1,4 +1,4 @@
-// The `railwise.scenario/1` contract (DESIGN.md). All values in SI base units.
+// The `railwise.scenario/1` contract (lib/schemas/README.md). All values in SI base units.
 // Shared by the API, the simulator, the CLIs and the workbench form.
 import { z } from "zod";
 
@@ -43,13 +43,17 @@ export const supplySchema = z
   });
 
 export const opampSchema = z.object({
-  openLoopGain: positive("openLoopGain", 1e10).refine((v) => v >= 1, { message: "openLoopGain must be at least 1 V/V" }),
+  openLoopGain: positive("openLoopGain", 1e10).refine((v) => v >= 1, {
+    message: "openLoopGain must be at least 1 V/V",
+  }),
   gainBandwidth: positive("gainBandwidth (Hz)", 1e11),
   slewRate: positive("slewRate (V/s)", 1e12),
   slewRateFall: positive("slewRateFall (V/s)", 1e12).optional(),
   outputHeadroomHigh: nonNegative("outputHeadroomHigh (V)", MAX_ABS_VOLTS),
   outputHeadroomLow: nonNegative("outputHeadroomLow (V)", MAX_ABS_VOLTS),
-  inputOffset: finite("inputOffset (V)").refine((v) => Math.abs(v) <= 1, { message: "inputOffset must be within ±1 V" }),
+  inputOffset: finite("inputOffset (V)").refine((v) => Math.abs(v) <= 1, {
+    message: "inputOffset must be within ±1 V",
+  }),
   propagationDelay: nonNegative("propagationDelay (s)", 1).optional(),
 });
 
@@ -66,7 +70,11 @@ export const referenceDividerSchema = z.strictObject({
   rTop: ohms("referenceDivider.rTop"),
   rBottom: ohms("referenceDivider.rBottom"),
   /** Default "positive": the supply rail, so the reference follows the supply. */
-  top: z.union([z.literal("positive"), dividerEnd("referenceDivider.top")], { error: 'referenceDivider.top must be "positive" or a voltage' }).optional(),
+  top: z
+    .union([z.literal("positive"), dividerEnd("referenceDivider.top")], {
+      error: 'referenceDivider.top must be "positive" or a voltage',
+    })
+    .optional(),
   /** Default "ground" (0 V). */
   bottom: z
     .union([z.literal("negative"), z.literal("ground"), dividerEnd("referenceDivider.bottom")], {
@@ -76,55 +84,66 @@ export const referenceDividerSchema = z.strictObject({
 });
 const referenceDivider = referenceDividerSchema.optional();
 
-export const stageSchema = z.discriminatedUnion("kind", [
-  z.object({
-    kind: z.literal("noninverting-amplifier"),
-    rGround: ohms("rGround"),
-    rFeedback: ohms("rFeedback"),
-    reference,
-    referenceDivider,
-  }),
-  z.object({
-    kind: z.literal("inverting-amplifier"),
-    rInput: ohms("rInput"),
-    rFeedback: ohms("rFeedback"),
-    reference,
-    referenceDivider,
-  }),
-  z.object({
-    kind: z.literal("comparator"),
-    reference,
-    referenceDivider,
-    inputAt: z.enum(["noninverting", "inverting"], { error: 'inputAt must be "noninverting" or "inverting"' }).default("noninverting"),
-  }),
-  z.object({
-    kind: z.literal("schmitt-noninverting"),
-    rInput: ohms("rInput"),
-    rFeedback: ohms("rFeedback"),
-    reference,
-    referenceDivider,
-  }),
-  z.object({
-    kind: z.literal("schmitt-inverting"),
-    rReference: ohms("rReference").optional(),
-    rFeedback: ohms("rFeedback"),
-    reference,
-    referenceDivider,
-  }),
-  z.object({
-    kind: z.literal("relaxation-oscillator"),
-    rReference: ohms("rReference").optional(),
-    rFeedback: ohms("rFeedback"),
-    rTiming: ohms("rTiming"),
-    cTiming: positive("cTiming (F)", 1),
-    reference,
-    referenceDivider,
-  }),
-], { error: "stage.kind must be one of noninverting-amplifier, inverting-amplifier, comparator, schmitt-noninverting, schmitt-inverting, relaxation-oscillator" });
+export const stageSchema = z.discriminatedUnion(
+  "kind",
+  [
+    z.object({
+      kind: z.literal("noninverting-amplifier"),
+      rGround: ohms("rGround"),
+      rFeedback: ohms("rFeedback"),
+      reference,
+      referenceDivider,
+    }),
+    z.object({
+      kind: z.literal("inverting-amplifier"),
+      rInput: ohms("rInput"),
+      rFeedback: ohms("rFeedback"),
+      reference,
+      referenceDivider,
+    }),
+    z.object({
+      kind: z.literal("comparator"),
+      reference,
+      referenceDivider,
+      inputAt: z
+        .enum(["noninverting", "inverting"], { error: 'inputAt must be "noninverting" or "inverting"' })
+        .default("noninverting"),
+    }),
+    z.object({
+      kind: z.literal("schmitt-noninverting"),
+      rInput: ohms("rInput"),
+      rFeedback: ohms("rFeedback"),
+      reference,
+      referenceDivider,
+    }),
+    z.object({
+      kind: z.literal("schmitt-inverting"),
+      rReference: ohms("rReference").optional(),
+      rFeedback: ohms("rFeedback"),
+      reference,
+      referenceDivider,
+    }),
+    z.object({
+      kind: z.literal("relaxation-oscillator"),
+      rReference: ohms("rReference").optional(),
+      rFeedback: ohms("rFeedback"),
+      rTiming: ohms("rTiming"),
+      cTiming: positive("cTiming (F)", 1),
+      reference,
+      referenceDivider,
+    }),
+  ],
+  {
+    error:
+      "stage.kind must be one of noninverting-amplifier, inverting-amplifier, comparator, schmitt-noninverting, schmitt-inverting, relaxation-oscillator",
+  },
+);
 
 const timeValuePoints = (what: string, strict: boolean) =>
   z
-    .array(z.tuple([finite(`${what} time`), volts(`${what} value`)]), { error: `${what} must be a list of [t, v] pairs` })
+    .array(z.tuple([finite(`${what} time`), volts(`${what} value`)]), {
+      error: `${what} must be a list of [t, v] pairs`,
+    })
     .min(strict ? 2 : 1, { message: `${what} needs at least ${strict ? 2 : 1} point(s)` })
     .max(1_000_000, { message: `${what} may hold at most 1,000,000 points` })
     .superRefine((pts, ctx) => {
@@ -141,44 +160,51 @@ const timeValuePoints = (what: string, strict: boolean) =>
       }
     });
 
-export const componentSchema = z.discriminatedUnion("kind", [
-  z.object({ kind: z.literal("dc"), level: volts("dc.level") }),
-  z.object({
-    kind: z.literal("sine"),
-    amplitude: nonNegative("sine.amplitude", MAX_ABS_VOLTS),
-    frequency: positive("sine.frequency", 1e10),
-    phase: finite("sine.phase (degrees)").default(0),
-    offset: volts("sine.offset").default(0),
-  }),
-  z.object({
-    kind: z.literal("triangle"),
-    amplitude: nonNegative("triangle.amplitude", MAX_ABS_VOLTS),
-    frequency: positive("triangle.frequency", 1e10),
-    phase: finite("triangle.phase (degrees)").default(0),
-    offset: volts("triangle.offset").default(0),
-  }),
-  z.object({
-    kind: z.literal("ramp"),
-    from: volts("ramp.from"),
-    to: volts("ramp.to"),
-    start: nonNegative("ramp.start"),
-    duration: nonNegative("ramp.duration"),
-  }),
-  z
-    .object({
-      kind: z.literal("pulse"),
-      low: volts("pulse.low"),
-      high: volts("pulse.high"),
-      period: positive("pulse.period"),
-      duty: finite("pulse.duty").refine((d) => d >= 0 && d <= 1, { message: "pulse.duty must be between 0 and 1" }),
-      rise: nonNegative("pulse.rise").default(0),
-      fall: nonNegative("pulse.fall").default(0),
-      delay: nonNegative("pulse.delay").default(0),
-    })
-    .refine((p) => p.rise + p.fall <= p.period, { message: "pulse.rise + pulse.fall must fit in pulse.period", path: ["rise"] }),
-  z.object({ kind: z.literal("pwl"), points: timeValuePoints("pwl.points", false) }),
-  z.object({ kind: z.literal("capture"), samples: timeValuePoints("capture.samples", true) }),
-], { error: "input component kind must be one of dc, sine, triangle, ramp, pulse, pwl, capture" });
+export const componentSchema = z.discriminatedUnion(
+  "kind",
+  [
+    z.object({ kind: z.literal("dc"), level: volts("dc.level") }),
+    z.object({
+      kind: z.literal("sine"),
+      amplitude: nonNegative("sine.amplitude", MAX_ABS_VOLTS),
+      frequency: positive("sine.frequency", 1e10),
+      phase: finite("sine.phase (degrees)").default(0),
+      offset: volts("sine.offset").default(0),
+    }),
+    z.object({
+      kind: z.literal("triangle"),
+      amplitude: nonNegative("triangle.amplitude", MAX_ABS_VOLTS),
+      frequency: positive("triangle.frequency", 1e10),
+      phase: finite("triangle.phase (degrees)").default(0),
+      offset: volts("triangle.offset").default(0),
+    }),
+    z.object({
+      kind: z.literal("ramp"),
+      from: volts("ramp.from"),
+      to: volts("ramp.to"),
+      start: nonNegative("ramp.start"),
+      duration: nonNegative("ramp.duration"),
+    }),
+    z
+      .object({
+        kind: z.literal("pulse"),
+        low: volts("pulse.low"),
+        high: volts("pulse.high"),
+        period: positive("pulse.period"),
+        duty: finite("pulse.duty").refine((d) => d >= 0 && d <= 1, { message: "pulse.duty must be between 0 and 1" }),
+        rise: nonNegative("pulse.rise").default(0),
+        fall: nonNegative("pulse.fall").default(0),
+        delay: nonNegative("pulse.delay").default(0),
+      })
+      .refine((p) => p.rise + p.fall <= p.period, {
+        message: "pulse.rise + pulse.fall must fit in pulse.period",
+        path: ["rise"],
+      }),
+    z.object({ kind: z.literal("pwl"), points: timeValuePoints("pwl.points", false) }),
+    z.object({ kind: z.literal("capture"), samples: timeValuePoints("capture.samples", true) }),
+  ],
+  { error: "input component kind must be one of dc, sine, triangle, ramp, pulse, pwl, capture" },
+);
 
 export const noiseSchema = z.object({
   rms: nonNegative("noise.rms (V)", MAX_ABS_VOLTS),
@@ -198,7 +224,9 @@ export const runSettingsSchema = z.object({
     .min(2, { message: "run.points must be at least 2" })
     .max(2_000_000, { message: "run.points must be at most 2,000,000" }),
   // Absent: "settled" for the two amplifier kinds, "low" for the others (lib/sim decides).
-  initialOutput: z.enum(["low", "high", "settled"], { error: 'run.initialOutput must be "low", "high" or "settled"' }).optional(),
+  initialOutput: z
+    .enum(["low", "high", "settled"], { error: 'run.initialOutput must be "low", "high" or "settled"' })
+    .optional(),
   // Extensions (optional): chatter hold-off in seconds and the solver choice.
   holdOff: positive("run.holdOff (s)").optional(),
   solver: z.enum(["exact", "odex"], { error: 'run.solver must be "exact" or "odex"' }).optional(),
@@ -234,8 +262,12 @@ const SERIES = ["E6", "E12", "E24", "E48", "E96", "E192"] as const;
 const rangeSchema = (what: string, unit: string, lo: number, hi: number) =>
   z
     .strictObject({
-      min: finite(`${what}.min`).refine((v) => v >= lo && v <= hi, { message: `${what}.min must lie between ${lo} and ${hi} ${unit}` }),
-      max: finite(`${what}.max`).refine((v) => v >= lo && v <= hi, { message: `${what}.max must lie between ${lo} and ${hi} ${unit}` }),
+      min: finite(`${what}.min`).refine((v) => v >= lo && v <= hi, {
+        message: `${what}.min must lie between ${lo} and ${hi} ${unit}`,
+      }),
+      max: finite(`${what}.max`).refine((v) => v >= lo && v <= hi, {
+        message: `${what}.max must lie between ${lo} and ${hi} ${unit}`,
+      }),
     })
     .refine((r) => r.max > r.min, { message: `${what}.max must be above ${what}.min`, path: ["max"] });
 
@@ -252,16 +284,23 @@ export const designTargetSchema = z.strictObject({
     .optional(),
 });
 
-const pos = (what: string) =>
-  finite(what).refine((v) => v > 0, { message: `${what} must be greater than 0` });
+const pos = (what: string) => finite(what).refine((v) => v > 0, { message: `${what} must be greater than 0` });
 const celsius = (what: string) =>
   finite(what).refine((v) => v > -273.15 && v < 1000, { message: `${what} must be a temperature in °C above −273.15` });
 
 /** NTC curve: Beta (with R at t0 °C, default 25 °C), Steinhart–Hart coefficients, or three [°C, Ω] points to fit. */
 export const ntcModelSchema = z.union(
   [
-    z.strictObject({ beta: pos("sensor.model.beta (K)"), r25: pos("sensor.model.r25 (Ω)"), t0: celsius("sensor.model.t0 (°C)").optional() }),
-    z.strictObject({ a: finite("sensor.model.a"), b: pos("sensor.model.b"), c: finite("sensor.model.c").refine((v) => v >= 0, { message: "sensor.model.c must not be negative" }) }),
+    z.strictObject({
+      beta: pos("sensor.model.beta (K)"),
+      r25: pos("sensor.model.r25 (Ω)"),
+      t0: celsius("sensor.model.t0 (°C)").optional(),
+    }),
+    z.strictObject({
+      a: finite("sensor.model.a"),
+      b: pos("sensor.model.b"),
+      c: finite("sensor.model.c").refine((v) => v >= 0, { message: "sensor.model.c must not be negative" }),
+    }),
     z.strictObject({
       points: z
         .array(z.tuple([celsius("sensor.model.points temperature (°C)"), pos("sensor.model.points resistance (Ω)")]), {
@@ -294,7 +333,9 @@ export const sensorSchema = z.discriminatedUnion(
     }),
     z.strictObject({
       kind: z.literal("linear"),
-      voltsPerUnit: finite("sensor.voltsPerUnit").refine((v) => v !== 0, { message: "sensor.voltsPerUnit must not be 0" }),
+      voltsPerUnit: finite("sensor.voltsPerUnit").refine((v) => v !== 0, {
+        message: "sensor.voltsPerUnit must not be 0",
+      }),
       offset: volts("sensor.offset"),
       unit: z.string().max(20, { message: "sensor.unit must be at most 20 characters" }).optional(),
     }),
@@ -316,9 +357,13 @@ export const designSpecSchema = z
     series: z.enum(SERIES, { error: `series must be one of ${SERIES.join(", ")}` }),
     /** Resistor tolerance; defaults to the series' usual tolerance. */
     tolerance: fraction("tolerance", 0.2).optional(),
-    reference: z.union([volts("reference"), z.literal("auto")], { error: 'reference must be a voltage or "auto"' }).optional(),
+    reference: z
+      .union([volts("reference"), z.literal("auto")], { error: 'reference must be a voltage or "auto"' })
+      .optional(),
     /** Comparator only: the pin the input drives. */
-    inputAt: z.enum(["noninverting", "inverting"], { error: 'inputAt must be "noninverting" or "inverting"' }).optional(),
+    inputAt: z
+      .enum(["noninverting", "inverting"], { error: 'inputAt must be "noninverting" or "inverting"' })
+      .optional(),
     /** Practical resistor range (Ω); default 1 kΩ–1 MΩ. */
     range: rangeSchema("range", "Ω", 0.1, 1e9).optional(),
     /** Oscillator timing capacitor: series (default E6), range (default 100 pF–10 µF), tolerance (default 0.05). */
@@ -335,7 +380,9 @@ export const designSpecSchema = z
     /** RC filter suggestion: the input must not reach the switching point within `bounceTime` of a step of `step` volts at the stage input (default the positive supply). */
     filter: z
       .strictObject({
-        bounceTime: pos("filter.bounceTime (s)").refine((v) => v <= 100, { message: "filter.bounceTime must be at most 100 s" }),
+        bounceTime: pos("filter.bounceTime (s)").refine((v) => v <= 100, {
+          message: "filter.bounceTime must be at most 100 s",
+        }),
         step: volts("filter.step").optional(),
       })
       .optional(),
@@ -344,7 +391,11 @@ export const designSpecSchema = z
       .strictObject({
         kind: z.literal("open-drain", { error: 'output.kind must be "open-drain" (push-pull is the default)' }),
         pullUp: pos("output.pullUp (Ω)").optional(),
-        pullUpTo: z.union([z.literal("positive"), volts("output.pullUpTo")], { error: 'output.pullUpTo must be "positive" or a voltage' }).optional(),
+        pullUpTo: z
+          .union([z.literal("positive"), volts("output.pullUpTo")], {
+            error: 'output.pullUpTo must be "positive" or a voltage',
+          })
+          .optional(),
         load: z.strictObject({ r: pos("output.load.r (Ω)"), to: volts("output.load.to").optional() }).optional(),
       })
       .optional(),
@@ -364,7 +415,9 @@ export const designSpecSchema = z
             .min(0, { message: "monteCarlo.seed must not be negative" })
             .max(4294967295, { message: "monteCarlo.seed must fit in 32 bits" })
             .optional(),
-          distribution: z.enum(["uniform", "normal"], { error: 'monteCarlo.distribution must be "uniform" or "normal"' }).optional(),
+          distribution: z
+            .enum(["uniform", "normal"], { error: 'monteCarlo.distribution must be "uniform" or "normal"' })
+            .optional(),
           bins: z.number().int().min(1).max(200, { message: "monteCarlo.bins must be at most 200" }).optional(),
         }),
       ])
@@ -374,24 +427,33 @@ export const designSpecSchema = z
     const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: "custom", path, message });
     const span = s.supply.positive - s.supply.negative;
     if (s.opamp.outputHeadroomHigh + s.opamp.outputHeadroomLow >= span) {
-      issue(["opamp", "outputHeadroomHigh"], `outputHeadroomHigh + outputHeadroomLow must be smaller than the supply span (${span} V)`);
+      issue(
+        ["opamp", "outputHeadroomHigh"],
+        `outputHeadroomHigh + outputHeadroomLow must be smaller than the supply span (${span} V)`,
+      );
     }
     if (typeof s.reference === "number" && (s.reference > s.supply.positive || s.reference < s.supply.negative)) {
-      issue(["reference"], `reference (${s.reference} V) must lie within the supplies (${s.supply.negative} V … ${s.supply.positive} V)`);
+      issue(
+        ["reference"],
+        `reference (${s.reference} V) must lie within the supplies (${s.supply.negative} V … ${s.supply.positive} V)`,
+      );
     }
     const t = s.target;
     const has = (k: keyof typeof t) => t[k] !== undefined;
     const only = (allowed: (keyof typeof t)[]) => {
       for (const k of Object.keys(t) as (keyof typeof t)[]) {
-        if (!allowed.includes(k)) issue(["target", k], `target.${k} does not apply to ${s.kind} (use ${allowed.join(", ")})`);
+        if (!allowed.includes(k))
+          issue(["target", k], `target.${k} does not apply to ${s.kind} (use ${allowed.join(", ")})`);
       }
     };
     switch (s.kind) {
       case "schmitt-inverting":
       case "schmitt-noninverting":
         only(["upperThreshold", "lowerThreshold"]);
-        if (!has("upperThreshold")) issue(["target", "upperThreshold"], "target.upperThreshold is required for a Schmitt trigger");
-        if (!has("lowerThreshold")) issue(["target", "lowerThreshold"], "target.lowerThreshold is required for a Schmitt trigger");
+        if (!has("upperThreshold"))
+          issue(["target", "upperThreshold"], "target.upperThreshold is required for a Schmitt trigger");
+        if (!has("lowerThreshold"))
+          issue(["target", "lowerThreshold"], "target.lowerThreshold is required for a Schmitt trigger");
         if (has("upperThreshold") && has("lowerThreshold") && t.upperThreshold! <= t.lowerThreshold!) {
           issue(
             ["target", "upperThreshold"],
@@ -403,9 +465,13 @@ export const designSpecSchema = z
         only(["threshold", "upperThreshold", "lowerThreshold"]);
         if (has("threshold")) {
           for (const k of ["upperThreshold", "lowerThreshold"] as const)
-            if (has(k) && t[k] !== t.threshold) issue(["target", k], `target.${k} must equal target.threshold for a comparator`);
+            if (has(k) && t[k] !== t.threshold)
+              issue(["target", k], `target.${k} must equal target.threshold for a comparator`);
         } else if (!has("upperThreshold") || !has("lowerThreshold")) {
-          issue(["target", "threshold"], "target.threshold (or equal upperThreshold and lowerThreshold) is required for a comparator");
+          issue(
+            ["target", "threshold"],
+            "target.threshold (or equal upperThreshold and lowerThreshold) is required for a comparator",
+          );
         } else if (t.upperThreshold !== t.lowerThreshold) {
           issue(
             ["target", "upperThreshold"],
@@ -417,40 +483,67 @@ export const designSpecSchema = z
         only(["gain"]);
         if (!has("gain")) issue(["target", "gain"], "target.gain is required for an amplifier");
         else if (!(t.gain! > 1 && t.gain! <= 1e5))
-          issue(["target", "gain"], `target.gain (${t.gain}) must be above 1 and at most 100000 for a non-inverting amplifier (a gain of 1 is a follower and needs no resistors)`);
+          issue(
+            ["target", "gain"],
+            `target.gain (${t.gain}) must be above 1 and at most 100000 for a non-inverting amplifier (a gain of 1 is a follower and needs no resistors)`,
+          );
         if (s.reference === "auto")
-          issue(["reference"], 'reference "auto" is not offered for the non-inverting amplifier: rGround returns its current into the reference, so give a buffered reference voltage');
+          issue(
+            ["reference"],
+            'reference "auto" is not offered for the non-inverting amplifier: rGround returns its current into the reference, so give a buffered reference voltage',
+          );
         break;
       case "inverting-amplifier":
         only(["gain"]);
         if (!has("gain")) issue(["target", "gain"], "target.gain is required for an amplifier");
         else if (!(Math.abs(t.gain!) > 0 && Math.abs(t.gain!) <= 1e5))
-          issue(["target", "gain"], `target.gain (${t.gain}) must be non-zero with a magnitude of at most 100000 (−10 and 10 both mean an inverting gain of −10)`);
+          issue(
+            ["target", "gain"],
+            `target.gain (${t.gain}) must be non-zero with a magnitude of at most 100000 (−10 and 10 both mean an inverting gain of −10)`,
+          );
         break;
       case "relaxation-oscillator":
         only(["frequency", "duty"]);
-        if (!has("frequency")) issue(["target", "frequency"], "target.frequency is required for a relaxation oscillator");
+        if (!has("frequency"))
+          issue(["target", "frequency"], "target.frequency is required for a relaxation oscillator");
         break;
     }
-    if (s.inputAt !== undefined && s.kind !== "comparator") issue(["inputAt"], "inputAt applies to the comparator only");
+    if (s.inputAt !== undefined && s.kind !== "comparator")
+      issue(["inputAt"], "inputAt applies to the comparator only");
     if (s.filter && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
-      issue(["filter"], "a filter suggestion applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)");
+      issue(
+        ["filter"],
+        "a filter suggestion applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)",
+      );
     if (s.output && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
-      issue(["output"], "an open-drain output applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)");
+      issue(
+        ["output"],
+        "an open-drain output applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)",
+      );
     if (s.sensor && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
-      issue(["sensor"], "a sensor applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)");
+      issue(
+        ["sensor"],
+        "a sensor applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)",
+      );
   });
 
 export const SCENARIO_SCHEMA_ID = "railwise.scenario/1";
 
 // ---------------------------------------------------------------------------------------------
-// The circuit as built (DESIGN.md): source, filter, output, tolerances, spec.
+// The circuit as built (lib/schemas/README.md): source, filter, output, tolerances, spec.
 
 export const sourceSchema = z.strictObject({
   /** A label, e.g. "battery", "water temperature". */
-  quantity: z.string({ error: "source.quantity must be text" }).max(60, { message: "source.quantity must be at most 60 characters" }).optional(),
+  quantity: z
+    .string({ error: "source.quantity must be text" })
+    .max(60, { message: "source.quantity must be at most 60 characters" })
+    .optional(),
   /** Default "V" (divider), "°C" (ntc), sensor.unit (linear). */
-  unit: z.string({ error: "source.unit must be text" }).min(1, { message: "source.unit must not be empty" }).max(20, { message: "source.unit must be at most 20 characters" }).optional(),
+  unit: z
+    .string({ error: "source.unit must be text" })
+    .min(1, { message: "source.unit must not be empty" })
+    .max(20, { message: "source.unit must be at most 20 characters" })
+    .optional(),
   sensor: sensorSchema,
 });
 
@@ -467,14 +560,24 @@ export const outputSchema = z.discriminatedUnion(
       kind: z.literal("open-drain"),
       pullUp: ohms("output.pullUp"),
       /** Default "positive" (the positive supply). */
-      pullUpTo: z.union([z.literal("positive"), volts("output.pullUpTo")], { error: 'output.pullUpTo must be "positive" or a voltage' }).optional(),
+      pullUpTo: z
+        .union([z.literal("positive"), volts("output.pullUpTo")], {
+          error: 'output.pullUpTo must be "positive" or a voltage',
+        })
+        .optional(),
       load: z.strictObject({ r: ohms("output.load.r"), to: volts("output.load.to").optional() }).optional(),
     }),
   ],
   { error: 'output.kind must be "push-pull" or "open-drain"' },
 );
 
-export const DEFAULT_TOLERANCES = { resistor: 0.01, capacitor: 0.05, reference: 0, ntcR25: 0.01, ntcBeta: 0.01 } as const;
+export const DEFAULT_TOLERANCES = {
+  resistor: 0.01,
+  capacitor: 0.05,
+  reference: 0,
+  ntcR25: 0.01,
+  ntcBeta: 0.01,
+} as const;
 
 export const tolerancesSchema = z.strictObject({
   resistor: fraction("tolerances.resistor", 0.5).optional(),
@@ -485,19 +588,31 @@ export const tolerancesSchema = z.strictObject({
 });
 
 /** Voltage of a reference-divider end: "positive" = supply.positive, "negative" = supply.negative, "ground" = 0 V. */
-export function dividerEndVolts(end: "positive" | "negative" | "ground" | number | undefined, supply: { positive: number; negative: number }, fallback: "positive" | "ground"): number {
+export function dividerEndVolts(
+  end: "positive" | "negative" | "ground" | number | undefined,
+  supply: { positive: number; negative: number },
+  fallback: "positive" | "ground",
+): number {
   const e = end ?? fallback;
   return e === "positive" ? supply.positive : e === "negative" ? supply.negative : e === "ground" ? 0 : e;
 }
 
 /** Open-circuit voltage and Thevenin resistance of a reference divider (rTop from `top` to the node, rBottom from the node to `bottom`). */
-export function referenceDividerThevenin(d: z.infer<typeof referenceDividerSchema>, supply: { positive: number; negative: number }): { voltage: number; resistance: number; top: number; bottom: number } {
+export function referenceDividerThevenin(
+  d: z.infer<typeof referenceDividerSchema>,
+  supply: { positive: number; negative: number },
+): { voltage: number; resistance: number; top: number; bottom: number } {
   const top = dividerEndVolts(d.top, supply, "positive");
   const bottom = dividerEndVolts(d.bottom, supply, "ground");
-  return { voltage: bottom + ((top - bottom) * d.rBottom) / (d.rTop + d.rBottom), resistance: (d.rTop * d.rBottom) / (d.rTop + d.rBottom), top, bottom };
+  return {
+    voltage: bottom + ((top - bottom) * d.rBottom) / (d.rTop + d.rBottom),
+    resistance: (d.rTop * d.rBottom) / (d.rTop + d.rBottom),
+    top,
+    bottom,
+  };
 }
 
-/** Stage kinds whose input pin draws current from the source (DESIGN.md "source"). */
+/** Stage kinds whose input pin draws current from the source (lib/schemas/README.md § The circuit as built, source). */
 export const CURRENT_DRAWING_KINDS: readonly StageKind[] = ["schmitt-noninverting", "inverting-amplifier"];
 
 const scenarioObject = z.object({
@@ -538,19 +653,44 @@ export const scenarioSchema = scenarioObject
     const supplies = `(${s.supply.negative} V … ${s.supply.positive} V)`;
     if (st.referenceDivider) {
       const th = referenceDividerThevenin(st.referenceDivider, s.supply);
-      if (!within(th.top)) issue(["stage", "referenceDivider", "top"], `stage.referenceDivider.top (${th.top} V) must lie within the supplies ${supplies}`);
-      if (!within(th.bottom)) issue(["stage", "referenceDivider", "bottom"], `stage.referenceDivider.bottom (${th.bottom} V) must lie within the supplies ${supplies}`);
-      if (!(th.top > th.bottom)) issue(["stage", "referenceDivider", "top"], `stage.referenceDivider.top (${th.top} V) must be above its bottom end (${th.bottom} V)`);
+      if (!within(th.top))
+        issue(
+          ["stage", "referenceDivider", "top"],
+          `stage.referenceDivider.top (${th.top} V) must lie within the supplies ${supplies}`,
+        );
+      if (!within(th.bottom))
+        issue(
+          ["stage", "referenceDivider", "bottom"],
+          `stage.referenceDivider.bottom (${th.bottom} V) must lie within the supplies ${supplies}`,
+        );
+      if (!(th.top > th.bottom))
+        issue(
+          ["stage", "referenceDivider", "top"],
+          `stage.referenceDivider.top (${th.top} V) must be above its bottom end (${th.bottom} V)`,
+        );
       // A stored scenario carries the filled-in open-circuit voltage; anything else is a second reference.
       if (st.reference !== undefined && Math.abs(st.reference - th.voltage) > 1e-9 * Math.max(1, Math.abs(th.voltage)))
-        issue(["stage", "referenceDivider"], "give exactly one of stage.reference (a voltage) and stage.referenceDivider");
-      if ((st.kind === "schmitt-inverting" || st.kind === "relaxation-oscillator") && st.rReference !== undefined && Math.abs(st.rReference - th.resistance) > 1e-9 * th.resistance)
-        issue(["stage", "rReference"], `stage.rReference must be absent with stage.referenceDivider: for ${st.kind} the divider's two resistors meet at v+ with rFeedback and replace it`);
+        issue(
+          ["stage", "referenceDivider"],
+          "give exactly one of stage.reference (a voltage) and stage.referenceDivider",
+        );
+      if (
+        (st.kind === "schmitt-inverting" || st.kind === "relaxation-oscillator") &&
+        st.rReference !== undefined &&
+        Math.abs(st.rReference - th.resistance) > 1e-9 * th.resistance
+      )
+        issue(
+          ["stage", "rReference"],
+          `stage.rReference must be absent with stage.referenceDivider: for ${st.kind} the divider's two resistors meet at v+ with rFeedback and replace it`,
+        );
     } else {
       if (st.reference !== undefined && !within(st.reference))
         issue(["stage", "reference"], `stage.reference (${st.reference} V) must lie within the supplies ${supplies}`);
       if ((st.kind === "schmitt-inverting" || st.kind === "relaxation-oscillator") && st.rReference === undefined)
-        issue(["stage", "rReference"], "rReference must be a positive resistance in Ω (or give stage.referenceDivider instead)");
+        issue(
+          ["stage", "rReference"],
+          "rReference must be a positive resistance in Ω (or give stage.referenceDivider instead)",
+        );
     }
     if (s.filter && st.kind === "relaxation-oscillator")
       issue(["filter"], "filter does not apply to the relaxation oscillator (its input is not connected)");
@@ -559,23 +699,38 @@ export const scenarioSchema = scenarioObject
         ["source", "sensor"],
         `an NTC source cannot feed the ${st.kind} input directly: that input draws current and the NTC's resistance changes with temperature; put it on a high-impedance input (comparator, schmitt-inverting) or add a filter`,
       );
-    if (s.source?.sensor.kind === "ntc" && s.source.sensor.supplyVoltage !== undefined && !within(s.source.sensor.supplyVoltage))
-      issue(["source", "sensor", "supplyVoltage"], `source.sensor.supplyVoltage (${s.source.sensor.supplyVoltage} V) must lie within the supplies ${supplies}`);
+    if (
+      s.source?.sensor.kind === "ntc" &&
+      s.source.sensor.supplyVoltage !== undefined &&
+      !within(s.source.sensor.supplyVoltage)
+    )
+      issue(
+        ["source", "sensor", "supplyVoltage"],
+        `source.sensor.supplyVoltage (${s.source.sensor.supplyVoltage} V) must lie within the supplies ${supplies}`,
+      );
     if (s.output?.kind === "open-drain") {
-      const to = s.output.pullUpTo === undefined || s.output.pullUpTo === "positive" ? s.supply.positive : s.output.pullUpTo;
+      const to =
+        s.output.pullUpTo === undefined || s.output.pullUpTo === "positive" ? s.supply.positive : s.output.pullUpTo;
       const vol = s.supply.negative + s.opamp.outputHeadroomLow;
-      if (!(to > vol)) issue(["output", "pullUpTo"], `output.pullUpTo (${to} V) must be above the output's low level (${vol} V)`);
+      if (!(to > vol))
+        issue(["output", "pullUpTo"], `output.pullUpTo (${to} V) must be above the output's low level (${vol} V)`);
     }
   })
   .transform((s): ResolvedScenario => {
     const st = s.stage;
-    if (!st.referenceDivider) return { ...s, stage: { ...st, reference: st.reference ?? 0 } as WithReference<typeof st> };
+    if (!st.referenceDivider)
+      return { ...s, stage: { ...st, reference: st.reference ?? 0 } as WithReference<typeof st> };
     // Fill the divider's Thevenin form (open-circuit voltage, and the resistance where the divider
     // replaces rReference): electrically exact for the linear network, so every reader of the plain
     // fields sees the same stage. The parts to buy stay the divider's two resistors (lib/design/bom).
     const th = referenceDividerThevenin(st.referenceDivider, s.supply);
     const replaces = st.kind === "schmitt-inverting" || st.kind === "relaxation-oscillator";
-    return { ...s, stage: { ...st, reference: th.voltage, ...(replaces ? { rReference: th.resistance } : {}) } as WithReference<typeof st> };
+    return {
+      ...s,
+      stage: { ...st, reference: th.voltage, ...(replaces ? { rReference: th.resistance } : {}) } as WithReference<
+        typeof st
+      >,
+    };
   });
 
 export type Scenario = z.infer<typeof scenarioSchema>;
@@ -587,7 +742,6 @@ export type Supply = Scenario["supply"];
 export type InputComponent = Scenario["input"]["components"][number];
 export type Noise = NonNullable<Scenario["input"]["noise"]>;
 export type RunSettings = Scenario["run"];
-
 
 /** One line per issue: `stage.rFeedback: rFeedback must be a positive resistance in Ω`. */
 export function describeIssues(error: z.ZodError): string[] {

@@ -43,7 +43,12 @@ export const invitationAcceptSchema = z.object({ name: personNameSchema, passwor
 const plainText = (field: string, max: number, min: number) =>
   z
     .string({ error: `${field} must be text` })
-    .transform((s) => s.replace(/\r\n?/g, "\n").replace(/[\u0000-\u0008\u000b-\u001f\u007f]/g, "").trim())
+    .transform((s) =>
+      s
+        .replace(/\r\n?/g, "\n")
+        .replace(/[\u0000-\u0008\u000b-\u001f\u007f]/g, "")
+        .trim(),
+    )
     .pipe(
       z
         .string()
@@ -53,7 +58,10 @@ const plainText = (field: string, max: number, min: number) =>
 
 /** `{ body }`; `{ text }` is read as the same field. */
 export const commentCreateSchema = z.preprocess(
-  (raw) => (raw && typeof raw === "object" && !("body" in raw) && "text" in raw ? { body: (raw as { text: unknown }).text } : raw),
+  (raw) =>
+    raw && typeof raw === "object" && !("body" in raw) && "text" in raw
+      ? { body: (raw as { text: unknown }).text }
+      : raw,
   z.object({ body: plainText("body", COMMENT_MAX, 1) }),
 );
 
@@ -69,15 +77,24 @@ export const signoffCreateSchema = z.object({
 /** Optional expiry: an ISO date-time in the future, or a number of days (≤ LINK_MAX_DAYS). */
 export const linkCreateSchema = z
   .object({
-    expiresAt: z.iso.datetime({ offset: true, message: "expiresAt must be an ISO date-time such as 2030-01-31T12:00:00Z" }).nullable().optional(),
+    expiresAt: z.iso
+      .datetime({ offset: true, message: "expiresAt must be an ISO date-time such as 2030-01-31T12:00:00Z" })
+      .nullable()
+      .optional(),
     expiresInDays: z
       .number({ error: "expiresInDays must be a number" })
       .positive({ message: "expiresInDays must be greater than 0" })
       .max(LINK_MAX_DAYS, { message: `expiresInDays must be at most ${LINK_MAX_DAYS}` })
       .optional(),
   })
-  .refine((b) => !(b.expiresAt && b.expiresInDays !== undefined), { message: "give expiresAt or expiresInDays, not both", path: ["expiresAt"] })
-  .refine((b) => !b.expiresAt || Date.parse(b.expiresAt) > Date.now(), { message: "expiresAt must be in the future", path: ["expiresAt"] })
+  .refine((b) => !(b.expiresAt && b.expiresInDays !== undefined), {
+    message: "give expiresAt or expiresInDays, not both",
+    path: ["expiresAt"],
+  })
+  .refine((b) => !b.expiresAt || Date.parse(b.expiresAt) > Date.now(), {
+    message: "expiresAt must be in the future",
+    path: ["expiresAt"],
+  })
   .refine((b) => !b.expiresAt || Date.parse(b.expiresAt) <= Date.now() + LINK_MAX_DAYS * 86_400_000, {
     message: `expiresAt must be within ${LINK_MAX_DAYS} days`,
     path: ["expiresAt"],

@@ -69,26 +69,38 @@ export async function listAudit({ teamId, limit = 200 }: { teamId: string; limit
 function fallbackName(details: unknown): string | null {
   if (!details || typeof details !== "object") return null;
   const d = details as Record<string, unknown>;
-  if (typeof d.runLabel === "string") return typeof d.scenarioName === "string" ? `run "${d.runLabel}" of ${d.scenarioName}` : `run "${d.runLabel}"`;
+  if (typeof d.runLabel === "string")
+    return typeof d.scenarioName === "string" ? `run "${d.runLabel}" of ${d.scenarioName}` : `run "${d.runLabel}"`;
   if (typeof d.name === "string" && d.name) return d.name;
   if (typeof d.email === "string") return d.email;
   return null;
 }
 
 /** Names of the members and runs the entries point at, looked up in two queries. */
-async function targetNames(teamId: string, rows: { targetType: string | null; targetId: string | null }[]): Promise<Map<string, string>> {
+async function targetNames(
+  teamId: string,
+  rows: { targetType: string | null; targetId: string | null }[],
+): Promise<Map<string, string>> {
   const { User, Run, Scenario } = getModels();
   const out = new Map<string, string>();
-  const ids = (type: string) => [...new Set(rows.filter((r) => r.targetType === type && r.targetId).map((r) => r.targetId as string))];
+  const ids = (type: string) => [
+    ...new Set(rows.filter((r) => r.targetType === type && r.targetId).map((r) => r.targetId as string)),
+  ];
   const userIds = ids("user");
   if (userIds.length) {
-    for (const u of await User.findAll({ where: { id: { [Op.in]: userIds } }, attributes: ["id", "name"] })) out.set(`user:${u.id}`, u.name);
+    for (const u of await User.findAll({ where: { id: { [Op.in]: userIds } }, attributes: ["id", "name"] }))
+      out.set(`user:${u.id}`, u.name);
   }
   const runIds = ids("run");
   if (runIds.length) {
-    const runs = await Run.findAll({ where: { teamId, id: { [Op.in]: runIds } }, attributes: ["id", "label", "scenarioId"] });
+    const runs = await Run.findAll({
+      where: { teamId, id: { [Op.in]: runIds } },
+      attributes: ["id", "label", "scenarioId"],
+    });
     const scenarioIds = [...new Set(runs.map((r) => r.scenarioId as string))];
-    const scenarios = scenarioIds.length ? await Scenario.findAll({ where: { id: { [Op.in]: scenarioIds } }, attributes: ["id", "name"] }) : [];
+    const scenarios = scenarioIds.length
+      ? await Scenario.findAll({ where: { id: { [Op.in]: scenarioIds } }, attributes: ["id", "name"] })
+      : [];
     const scenarioName = new Map(scenarios.map((s) => [s.id, s.name]));
     for (const r of runs) {
       const sName = scenarioName.get(r.scenarioId as string);

@@ -26,7 +26,11 @@ function transport(): Transporter {
   const url = smtpUrl();
   const cached = globalForMail.railwiseMailer;
   if (cached && cached.url === url) return cached.transport;
-  const created = nodemailer.createTransport(url, { connectionTimeout: 5_000, greetingTimeout: 5_000, socketTimeout: 10_000 });
+  const created = nodemailer.createTransport(url, {
+    connectionTimeout: 5_000,
+    greetingTimeout: 5_000,
+    socketTimeout: 10_000,
+  });
   globalForMail.railwiseMailer = { url, transport: created };
   return created;
 }

@@ -48,7 +48,9 @@ export async function listMailbox(limit = 100): Promise<MailboxMessage[]> {
   const out: MailboxMessage[] = [];
   for (const name of names.slice(0, limit)) {
     try {
-      out.push(JSON.parse(await readFile(path.join(/*turbopackIgnore: true*/ mailDir(), name), "utf8")) as MailboxMessage);
+      out.push(
+        JSON.parse(await readFile(path.join(/*turbopackIgnore: true*/ mailDir(), name), "utf8")) as MailboxMessage,
+      );
     } catch {
       // A file being written or damaged is skipped, not fatal.
     }
@@ -80,12 +82,16 @@ async function mailTeams(mails: MailboxMessage[]): Promise<Map<string, Set<strin
   const inviteTeam = new Map<string, string>();
   const runTeam = new Map<string, string>();
   if (hashes.length) {
-    for (const row of await Invitation.findAll({ where: { tokenHash: { [Op.in]: hashes } }, attributes: ["tokenHash", "teamId"] })) {
+    for (const row of await Invitation.findAll({
+      where: { tokenHash: { [Op.in]: hashes } },
+      attributes: ["tokenHash", "teamId"],
+    })) {
       inviteTeam.set(row.tokenHash, row.teamId as string);
     }
   }
   if (runIds.length) {
-    for (const row of await Run.findAll({ where: { id: { [Op.in]: runIds } }, attributes: ["id", "teamId"] })) runTeam.set(row.id, row.teamId as string);
+    for (const row of await Run.findAll({ where: { id: { [Op.in]: runIds } }, attributes: ["id", "teamId"] }))
+      runTeam.set(row.id, row.teamId as string);
   }
   const out = new Map<string, Set<string>>();
   for (const m of mails) {
@@ -111,7 +117,8 @@ async function mailTeams(mails: MailboxMessage[]): Promise<Map<string, Set<strin
 export async function listMailboxFor(viewer: MailboxViewer, limit = 100): Promise<MailboxMessage[]> {
   const all = await listMailbox(limit);
   const mine = (viewer.email ?? "").trim().toLowerCase();
-  const addressed = (m: MailboxMessage) => !!mine && Array.isArray(m.to) && m.to.some((to) => String(to).trim().toLowerCase() === mine);
+  const addressed = (m: MailboxMessage) =>
+    !!mine && Array.isArray(m.to) && m.to.some((to) => String(to).trim().toLowerCase() === mine);
   if (viewer.role !== "owner") return all.filter(addressed);
   const teams = await mailTeams(all);
   return all.filter((m) => {

@@ -1,5 +1,5 @@
 import "server-only";
-import { AppError, badRequest, MAX_JSON_BYTES, readBodyBytes, tooLarge } from "@/lib/server/errors";
+import { type AppError, badRequest, MAX_JSON_BYTES, readBodyBytes, tooLarge } from "@/lib/server/errors";
 
 // Request bodies beyond plain JSON (which is errors.ts's readJson): an optional JSON body, and
 // uploads cut off at a byte limit while streaming (413) instead of being buffered whole first.
@@ -16,7 +16,8 @@ export async function readOptionalJson(request: Request, limitBytes = MAX_JSON_B
 }
 
 function tooLargeError(limitBytes: number): AppError {
-  const size = limitBytes >= 1024 * 1024 ? `${Math.round(limitBytes / (1024 * 1024))} MB` : `${Math.round(limitBytes / 1024)} KB`;
+  const size =
+    limitBytes >= 1024 * 1024 ? `${Math.round(limitBytes / (1024 * 1024))} MB` : `${Math.round(limitBytes / 1024)} KB`;
   return tooLarge(`The upload is larger than ${size}.`);
 }
 

@@ -7,7 +7,7 @@ import { isId } from "@/lib/server/ids";
 import { recordAudit } from "@/lib/server/audit";
 import { appBaseUrl, sendMail } from "@/lib/server/mail";
 import { hashToken, newToken, plausibleToken } from "@/lib/server/tokens";
-import { type CommentJson, type DecisionName, type RunLinkJson } from "@/lib/schemas/team";
+import type { CommentJson, DecisionName, RunLinkJson } from "@/lib/schemas/team";
 import type { QueueItem, ReviewQueue, ReviewRequestJson, SignoffList, SignoffRecord } from "@/lib/schemas/review";
 
 // Review of runs: run links, comments and sign-offs. Every lookup is scoped by teamId.
@@ -15,7 +15,15 @@ import type { QueueItem, ReviewQueue, ReviewRequestJson, SignoffList, SignoffRec
 const iso = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString() : null);
 
 /** The run's row inside the caller's team, or 404 (another team's run is a 404 too). */
-export async function runInTeamOrThrow({ runId, teamId, transaction }: { runId: string; teamId: string; transaction?: Transaction }) {
+export async function runInTeamOrThrow({
+  runId,
+  teamId,
+  transaction,
+}: {
+  runId: string;
+  teamId: string;
+  transaction?: Transaction;
+}) {
   if (!isId(runId)) throw notFound("No such run in your team.");
   const run = await getModels().Run.findOne({
     where: { id: runId, teamId },
@@ -89,9 +97,19 @@ export async function createRunLink({
   await runInTeamOrThrow({ runId, teamId });
   const { token, tokenHash } = newToken();
   const row = await getSequelize().transaction(async (transaction) => {
-    const created = await getModels().RunLink.create({ teamId, runId, tokenHash, expiresAt, createdBy: actorId, label: label || null }, { transaction });
+    const created = await getModels().RunLink.create(
+      { teamId, runId, tokenHash, expiresAt, createdBy: actorId, label: label || null },
+      { transaction },
+    );
     await recordAudit(
-      { teamId, actorId, action: "link.created", targetType: "run", targetId: runId, details: { linkId: created.id, expiresAt: iso(expiresAt), label: label || null } },
+      {
+        teamId,
+        actorId,
+        action: "link.created",
+        targetType: "run",
+        targetId: runId,
+        details: { linkId: created.id, expiresAt: iso(expiresAt), label: label || null },
+      },
       transaction,
     );
     return created;
@@ -99,17 +117,38 @@ export async function createRunLink({
   return { ...linkJson(row), token, url: `${appBaseUrl(request)}/share/${token}` };
 }
 
-export async function revokeRunLink({ runId, linkId, teamId, actorId }: { runId: string; linkId: string; teamId: string; actorId: string }): Promise<RunLinkRecord> {
+export async function revokeRunLink({
+  runId,
+  linkId,
+  teamId,
+  actorId,
+}: {
+  runId: string;
+  linkId: string;
+  teamId: string;
+  actorId: string;
+}): Promise<RunLinkRecord> {
   await runInTeamOrThrow({ runId, teamId });
   if (!isId(linkId)) throw notFound("No such link on this run.");
   return getSequelize().transaction(async (transaction) => {
-    const row = await getModels().RunLink.findOne({ where: { id: linkId, runId, teamId }, transaction, lock: transaction.LOCK.UPDATE });
+    const row = await getModels().RunLink.findOne({
+      where: { id: linkId, runId, teamId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!row) throw notFound("No such link on this run.");
     if (!row.revokedAt) {
       row.revokedAt = new Date();
       await row.save({ transaction });
       await recordAudit(
-        { teamId, actorId, action: "link.revoked", targetType: "run", targetId: runId, details: { linkId, label: row.label ?? null } },
+        {
+          teamId,
+          actorId,
+          action: "link.revoked",
+          targetType: "run",
+          targetId: runId,
+          details: { linkId, label: row.label ?? null },
+        },
         transaction,
       );
     }
@@ -177,19 +216,37 @@ export async function listComments({ runId, teamId }: { runId: string; teamId: s
 }
 
 /** E-mail addresses of the run's author, earlier commenters and reviewers, minus `exceptUserId`. */
-async function participantEmails({ runId, teamId, exceptUserId }: { runId: string; teamId: string; exceptUserId: string }): Promise<string[]> {
+async function participantEmails({
+  runId,
+  teamId,
+  exceptUserId,
+}: {
+  runId: string;
+  teamId: string;
+  exceptUserId: string;
+}): Promise<string[]> {
   const { Run, Comment, Signoff, User, Membership } = getModels();
   const run = await Run.findOne({ where: { id: runId, teamId }, attributes: ["createdBy"] });
   const commenters = await Comment.findAll({ where: { runId, teamId }, attributes: ["authorId"], group: ["authorId"] });
-  const reviewers = await Signoff.findAll({ where: { runId, teamId }, attributes: ["reviewerId"], group: ["reviewerId"] });
+  const reviewers = await Signoff.findAll({
+    where: { runId, teamId },
+    attributes: ["reviewerId"],
+    group: ["reviewerId"],
+  });
   const ids = new Set<string>();
   for (const id of [run?.createdBy, ...commenters.map((c) => c.authorId), ...reviewers.map((s) => s.reviewerId)]) {
     if (typeof id === "string" && id !== exceptUserId) ids.add(id);
   }
   if (ids.size === 0) return [];
   // Only people still in the team hear about it.
-  const members = await Membership.findAll({ where: { teamId, userId: { [Op.in]: [...ids] } }, attributes: ["userId"] });
-  const users = await User.findAll({ where: { id: { [Op.in]: members.map((m) => m.userId as string) } }, attributes: ["email"] });
+  const members = await Membership.findAll({
+    where: { teamId, userId: { [Op.in]: [...ids] } },
+    attributes: ["userId"],
+  });
+  const users = await User.findAll({
+    where: { id: { [Op.in]: members.map((m) => m.userId as string) } },
+    attributes: ["email"],
+  });
   return users.map((u) => u.email);
 }
 
@@ -214,10 +271,22 @@ export async function addComment({
     void sendMail({
       to,
       subject: `New comment on run "${run.label}"`,
-      text: [`${author.name} commented on the run "${run.label}":`, "", body, "", `Open the run: ${appBaseUrl(request)}/runs/${runId}`].join("\n"),
+      text: [
+        `${author.name} commented on the run "${run.label}":`,
+        "",
+        body,
+        "",
+        `Open the run: ${appBaseUrl(request)}/runs/${runId}`,
+      ].join("\n"),
     });
   }
-  return { id: row.id, runId, body: row.body, author: { id: author.userId, name: author.name }, createdAt: iso(row.createdAt)! };
+  return {
+    id: row.id,
+    runId,
+    body: row.body,
+    author: { id: author.userId, name: author.name },
+    createdAt: iso(row.createdAt)!,
+  };
 }
 
 // ---- Sign-offs ----
@@ -269,7 +338,10 @@ function decisionPhrase(decision: DecisionName): string {
   return decision === "approved" ? "approved" : "requested changes on";
 }
 
-async function scenarioNameOf(scenarioId: string, transaction?: Transaction): Promise<{ name: string; version: number } | null> {
+async function scenarioNameOf(
+  scenarioId: string,
+  transaction?: Transaction,
+): Promise<{ name: string; version: number } | null> {
   const row = await getModels().Scenario.findByPk(scenarioId, { attributes: ["name", "version"], transaction });
   return row ? { name: row.name, version: row.version } : null;
 }
@@ -308,7 +380,13 @@ export async function addSignoff({
         action: "signoff.created",
         targetType: "run",
         targetId: runId,
-        details: { decision, signoffId: created.id, runLabel: run.label, scenarioName: scenario?.name ?? null, scenarioVersion: run.scenarioVersion ?? null },
+        details: {
+          decision,
+          signoffId: created.id,
+          runLabel: run.label,
+          scenarioName: scenario?.name ?? null,
+          scenarioVersion: run.scenarioVersion ?? null,
+        },
       },
       transaction,
     );
@@ -335,11 +413,25 @@ export async function addSignoff({
 }
 
 /** A reviewer takes back their own standing decision; others' decisions are a 403. */
-export async function withdrawSignoff({ runId, signoffId, teamId, actorId }: { runId: string; signoffId: string; teamId: string; actorId: string }): Promise<SignoffRecord> {
+export async function withdrawSignoff({
+  runId,
+  signoffId,
+  teamId,
+  actorId,
+}: {
+  runId: string;
+  signoffId: string;
+  teamId: string;
+  actorId: string;
+}): Promise<SignoffRecord> {
   if (!isId(signoffId)) throw notFound("No such sign-off on this run.");
   return getSequelize().transaction(async (transaction) => {
     const run = await runInTeamOrThrow({ runId, teamId, transaction });
-    const row = await getModels().Signoff.findOne({ where: { id: signoffId, runId, teamId }, transaction, lock: transaction.LOCK.UPDATE });
+    const row = await getModels().Signoff.findOne({
+      where: { id: signoffId, runId, teamId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!row) throw notFound("No such sign-off on this run.");
     if (row.reviewerId !== actorId) throw forbidden("Only the reviewer who made a decision can withdraw it.");
     if (row.withdrawnAt) throw conflict("This decision has already been withdrawn.");
@@ -353,7 +445,13 @@ export async function withdrawSignoff({ runId, signoffId, teamId, actorId }: { r
         action: "signoff.withdrawn",
         targetType: "run",
         targetId: runId,
-        details: { decision: row.decision, signoffId: row.id, runLabel: run.label, scenarioName: scenario?.name ?? null, scenarioVersion: row.scenarioVersion ?? null },
+        details: {
+          decision: row.decision,
+          signoffId: row.id,
+          runLabel: run.label,
+          scenarioName: scenario?.name ?? null,
+          scenarioVersion: row.scenarioVersion ?? null,
+        },
       },
       transaction,
     );
@@ -378,15 +476,26 @@ export interface LatestDecisionJson {
  * The latest standing sign-off over all runs of each scenario, for the board's scenario table
  * (`latestDecision` on the scenario objects). Scenarios without one are absent from the map.
  */
-export async function latestDecisionsByScenario({ teamId, scenarioIds }: { teamId: string; scenarioIds: string[] }): Promise<Map<string, LatestDecisionJson>> {
+export async function latestDecisionsByScenario({
+  teamId,
+  scenarioIds,
+}: {
+  teamId: string;
+  scenarioIds: string[];
+}): Promise<Map<string, LatestDecisionJson>> {
   const out = new Map<string, LatestDecisionJson>();
   if (scenarioIds.length === 0) return out;
   const { Run, Signoff, User, Scenario } = getModels();
-  const runs = await Run.findAll({ where: { teamId, scenarioId: { [Op.in]: scenarioIds } }, attributes: ["id", "scenarioId", "scenarioVersion"] });
+  const runs = await Run.findAll({
+    where: { teamId, scenarioId: { [Op.in]: scenarioIds } },
+    attributes: ["id", "scenarioId", "scenarioVersion"],
+  });
   if (runs.length === 0) return out;
   const runById = new Map(runs.map((r) => [r.id, r]));
   const versions = new Map(
-    (await Scenario.findAll({ where: { teamId, id: { [Op.in]: scenarioIds } }, attributes: ["id", "version"] })).map((s) => [s.id, s.version]),
+    (await Scenario.findAll({ where: { teamId, id: { [Op.in]: scenarioIds } }, attributes: ["id", "version"] })).map(
+      (s) => [s.id, s.version],
+    ),
   );
   const signoffs = await Signoff.findAll({
     where: { teamId, runId: { [Op.in]: [...runById.keys()] }, withdrawnAt: null },
@@ -441,22 +550,40 @@ export async function requestReview({
   const { Membership, User, ReviewRequest } = getModels();
   const wanted = [...new Set(reviewerIds)];
   const bad = wanted.findIndex((id) => !isId(id));
-  if (bad >= 0) throw badRequest("reviewerIds must be members of your team who can sign off", [{ path: ["reviewerIds", bad], message: "not a member id" }]);
-  const members = await Membership.findAll({ where: { teamId, userId: { [Op.in]: wanted } }, attributes: ["userId", "role"] });
+  if (bad >= 0)
+    throw badRequest("reviewerIds must be members of your team who can sign off", [
+      { path: ["reviewerIds", bad], message: "not a member id" },
+    ]);
+  const members = await Membership.findAll({
+    where: { teamId, userId: { [Op.in]: wanted } },
+    attributes: ["userId", "role"],
+  });
   const roleOf = new Map(members.map((m) => [m.userId as string, m.role]));
   for (const [i, id] of wanted.entries()) {
     const role = roleOf.get(id);
-    if (!role) throw badRequest("reviewerIds must be members of your team", [{ path: ["reviewerIds", i], message: "not a member of your team" }]);
+    if (!role)
+      throw badRequest("reviewerIds must be members of your team", [
+        { path: ["reviewerIds", i], message: "not a member of your team" },
+      ]);
     if (!(SIGNERS as readonly string[]).includes(role)) {
-      throw badRequest(`reviewerIds: a ${role} cannot sign off; choose an owner or a reviewer`, [{ path: ["reviewerIds", i], message: `a ${role} cannot sign off` }]);
+      throw badRequest(`reviewerIds: a ${role} cannot sign off; choose an owner or a reviewer`, [
+        { path: ["reviewerIds", i], message: `a ${role} cannot sign off` },
+      ]);
     }
-    if (id === actor.userId) throw badRequest("reviewerIds: you cannot ask yourself to review your own run", [{ path: ["reviewerIds", i], message: "that is you" }]);
+    if (id === actor.userId)
+      throw badRequest("reviewerIds: you cannot ask yourself to review your own run", [
+        { path: ["reviewerIds", i], message: "that is you" },
+      ]);
   }
   const reviewerNames = await namesOf(wanted);
   const { run, scenario, fresh } = await getSequelize().transaction(async (transaction) => {
     const run = await runInTeamOrThrow({ runId, teamId, transaction });
     const scenario = await scenarioNameOf(run.scenarioId as string, transaction);
-    const existing = await ReviewRequest.findAll({ where: { runId, teamId, reviewerId: { [Op.in]: wanted } }, attributes: ["reviewerId"], transaction });
+    const existing = await ReviewRequest.findAll({
+      where: { runId, teamId, reviewerId: { [Op.in]: wanted } },
+      attributes: ["reviewerId"],
+      transaction,
+    });
     const have = new Set(existing.map((r) => r.reviewerId as string));
     const fresh: string[] = [];
     for (const reviewerId of wanted) {
@@ -472,7 +599,13 @@ export async function requestReview({
           action: "review.requested",
           targetType: "run",
           targetId: runId,
-          details: { reviewerIds: fresh, reviewerNames: fresh.map((id) => reviewerNames.get(id) ?? "(removed account)"), runLabel: run.label, scenarioName: scenario?.name ?? null, scenarioVersion: run.scenarioVersion ?? null },
+          details: {
+            reviewerIds: fresh,
+            reviewerNames: fresh.map((id) => reviewerNames.get(id) ?? "(removed account)"),
+            runLabel: run.label,
+            scenarioName: scenario?.name ?? null,
+            scenarioVersion: run.scenarioVersion ?? null,
+          },
         },
         transaction,
       );
@@ -500,9 +633,20 @@ export async function requestReview({
   return listReviewRequests({ runId, teamId });
 }
 
-type RequestRowish = { id: string; runId: unknown; reviewerId: unknown; requestedBy: unknown; note: string; createdAt: Date };
+type RequestRowish = {
+  id: string;
+  runId: unknown;
+  reviewerId: unknown;
+  requestedBy: unknown;
+  note: string;
+  createdAt: Date;
+};
 
-function requestJson(r: RequestRowish, names: Map<string, string>, standing: Map<string, SignoffRecord>): ReviewRequestJson {
+function requestJson(
+  r: RequestRowish,
+  names: Map<string, string>,
+  standing: Map<string, SignoffRecord>,
+): ReviewRequestJson {
   const reviewerId = r.reviewerId as string;
   const decided = standing.get(`${r.runId as string}:${reviewerId}`);
   const requester = (r.requestedBy as string | null) ?? null;
@@ -510,7 +654,10 @@ function requestJson(r: RequestRowish, names: Map<string, string>, standing: Map
     id: r.id,
     runId: r.runId as string,
     reviewer: { id: reviewerId, name: names.get(reviewerId) ?? "(removed account)" },
-    requestedBy: { id: requester, name: requester ? (names.get(requester) ?? "(removed account)") : "(removed account)" },
+    requestedBy: {
+      id: requester,
+      name: requester ? (names.get(requester) ?? "(removed account)") : "(removed account)",
+    },
     note: r.note,
     createdAt: iso(r.createdAt)!,
     decision: decided?.decision ?? null,
@@ -549,9 +696,21 @@ function byReviewer(signoffs: SignoffRecord[]): Map<string, SignoffRecord> {
   return m;
 }
 
-export async function listReviewRequests({ runId, teamId }: { runId: string; teamId: string }): Promise<ReviewRequestJson[]> {
+export async function listReviewRequests({
+  runId,
+  teamId,
+}: {
+  runId: string;
+  teamId: string;
+}): Promise<ReviewRequestJson[]> {
   await runInTeamOrThrow({ runId, teamId });
-  const rows = await getModels().ReviewRequest.findAll({ where: { runId, teamId }, order: [["createdAt", "ASC"], ["id", "ASC"]] });
+  const rows = await getModels().ReviewRequest.findAll({
+    where: { runId, teamId },
+    order: [
+      ["createdAt", "ASC"],
+      ["id", "ASC"],
+    ],
+  });
   const names = await namesOf(rows.flatMap((r) => [r.reviewerId, r.requestedBy]));
   const standing = byReviewer(await standingSignoffs(teamId, [runId]));
   return rows.map((r) => requestJson(r, names, standing));
@@ -562,26 +721,54 @@ export async function listReviewRequests({ runId, teamId }: { runId: string; tea
  * review, and runs with a standing decision (the latest 50), each with the scenario it belongs to
  * and whether the decision still covers the scenario's current version. `boardId` narrows it.
  */
-export async function reviewQueue({ teamId, userId, boardId }: { teamId: string; userId: string; boardId?: string | null }): Promise<ReviewQueue> {
+export async function reviewQueue({
+  teamId,
+  userId,
+  boardId,
+}: {
+  teamId: string;
+  userId: string;
+  boardId?: string | null;
+}): Promise<ReviewQueue> {
   const { ReviewRequest, Run, Scenario, Board, Signoff } = getModels();
   if (boardId != null && !isId(boardId)) throw notFound("No such board in your team.");
-  const requests = await ReviewRequest.findAll({ where: { teamId }, order: [["createdAt", "DESC"], ["id", "DESC"]] });
+  const requests = await ReviewRequest.findAll({
+    where: { teamId },
+    order: [
+      ["createdAt", "DESC"],
+      ["id", "DESC"],
+    ],
+  });
   const decidedRows = await Signoff.findAll({
     where: { teamId, withdrawnAt: null },
     attributes: ["runId"],
-    order: [["createdAt", "DESC"], ["id", "DESC"]],
+    order: [
+      ["createdAt", "DESC"],
+      ["id", "DESC"],
+    ],
     limit: 500,
   });
-  const runIds = [...new Set([...requests.map((r) => r.runId as string), ...decidedRows.map((s) => s.runId as string)])];
+  const runIds = [
+    ...new Set([...requests.map((r) => r.runId as string), ...decidedRows.map((s) => s.runId as string)]),
+  ];
   const runs = runIds.length
-    ? await Run.findAll({ where: { teamId, id: { [Op.in]: runIds } }, attributes: ["id", "label", "createdAt", "scenarioId", "scenarioVersion"] })
+    ? await Run.findAll({
+        where: { teamId, id: { [Op.in]: runIds } },
+        attributes: ["id", "label", "createdAt", "scenarioId", "scenarioVersion"],
+      })
     : [];
   const scenarioIds = [...new Set(runs.map((r) => r.scenarioId as string))];
   const scenarios = scenarioIds.length
-    ? await Scenario.findAll({ where: { teamId, id: { [Op.in]: scenarioIds } }, attributes: ["id", "name", "version", "boardId"] })
+    ? await Scenario.findAll({
+        where: { teamId, id: { [Op.in]: scenarioIds } },
+        attributes: ["id", "name", "version", "boardId"],
+      })
     : [];
   const boards = scenarios.length
-    ? await Board.findAll({ where: { teamId, id: { [Op.in]: [...new Set(scenarios.map((s) => s.boardId as string))] } }, attributes: ["id", "name"] })
+    ? await Board.findAll({
+        where: { teamId, id: { [Op.in]: [...new Set(scenarios.map((s) => s.boardId as string))] } },
+        attributes: ["id", "name"],
+      })
     : [];
   const boardName = new Map(boards.map((b) => [b.id, b.name]));
   const scenarioById = new Map(scenarios.map((s) => [s.id, s]));
@@ -595,7 +782,13 @@ export async function reviewQueue({ teamId, userId, boardId }: { teamId: string;
       label: r.label,
       createdAt: iso(r.createdAt)!,
       scenarioVersion: r.scenarioVersion ?? null,
-      scenario: { id: s.id, name: s.name, version: s.version, boardId: s.boardId as string, boardName: boardName.get(s.boardId as string) ?? "" },
+      scenario: {
+        id: s.id,
+        name: s.name,
+        version: s.version,
+        boardId: s.boardId as string,
+        boardName: boardName.get(s.boardId as string) ?? "",
+      },
     });
   }
   const signoffs = await standingSignoffs(teamId, [...refs.keys()]);

@@ -94,7 +94,13 @@ export async function createRun({
   return getRunOrThrow({ id: row.id, teamId });
 }
 
-export async function listRuns({ scenarioId, teamId }: { scenarioId: string; teamId: string }): Promise<RunSummaryJson[]> {
+export async function listRuns({
+  scenarioId,
+  teamId,
+}: {
+  scenarioId: string;
+  teamId: string;
+}): Promise<RunSummaryJson[]> {
   await getScenarioDataOrThrow({ id: scenarioId, teamId });
   const rows = await getModels().Run.findAll({
     where: { scenarioId, teamId },
@@ -110,11 +116,24 @@ export async function getRunOrThrow({ id, teamId }: { id: string; teamId: string
   return runJson(row);
 }
 
-export async function deleteRun({ id, teamId, actorId }: { id: string; teamId: string; actorId: string }): Promise<void> {
+export async function deleteRun({
+  id,
+  teamId,
+  actorId,
+}: {
+  id: string;
+  teamId: string;
+  actorId: string;
+}): Promise<void> {
   await getSequelize().transaction(async (transaction) => {
-    const row = isId(id) ? await getModels().Run.findOne({ where: { id, teamId }, attributes: ["id", "label"], transaction }) : null;
+    const row = isId(id)
+      ? await getModels().Run.findOne({ where: { id, teamId }, attributes: ["id", "label"], transaction })
+      : null;
     if (!row) throw notFound("No such run in your team.");
     await row.destroy({ transaction });
-    await recordAudit({ teamId, actorId, action: "run.deleted", targetType: "run", targetId: id, details: { label: row.label } }, transaction);
+    await recordAudit(
+      { teamId, actorId, action: "run.deleted", targetType: "run", targetId: id, details: { label: row.label } },
+      transaction,
+    );
   });
 }

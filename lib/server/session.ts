@@ -23,7 +23,7 @@ export interface Member {
   email: string;
 }
 
-/** Roles per action (DESIGN.md "Roles"). */
+/** Roles per action (DEVELOPERS.md § Roles). */
 export const CAN = {
   read: ["owner", "designer", "reviewer", "viewer"],
   edit: ["owner", "designer"], // scenarios, runs, captures, part profiles, run links
@@ -66,13 +66,21 @@ export function checkSameOrigin(request: Request): void {
   const origin = request.headers.get("origin");
   if (origin !== null) {
     if (!ownOrigins(request).has(origin)) {
-      throw new AppError(403, "cross_origin", `Requests from another site are refused (Origin ${origin.slice(0, 100)}).`);
+      throw new AppError(
+        403,
+        "cross_origin",
+        `Requests from another site are refused (Origin ${origin.slice(0, 100)}).`,
+      );
     }
     return;
   }
   const site = request.headers.get("sec-fetch-site");
   if (site !== null && site !== "same-origin" && site !== "none") {
-    throw new AppError(403, "cross_origin", `Requests from another site are refused (Sec-Fetch-Site ${site.slice(0, 40)}).`);
+    throw new AppError(
+      403,
+      "cross_origin",
+      `Requests from another site are refused (Sec-Fetch-Site ${site.slice(0, 40)}).`,
+    );
   }
 }
 
@@ -96,7 +104,11 @@ export function checkBodyType(request: Request, { multipart = false }: { multipa
   // preflight can send, so it cannot carry a forged request.
   if (type === "application/json" || (multipart && (type === "multipart/form-data" || type === "text/csv"))) return;
   const want = multipart ? "application/json, multipart/form-data or text/csv" : "application/json";
-  throw new AppError(403, "unsupported_content_type", `Send the body as ${want} (content-type was ${type ? `"${type.slice(0, 80)}"` : "missing"}).`);
+  throw new AppError(
+    403,
+    "unsupported_content_type",
+    `Send the body as ${want} (content-type was ${type ? `"${type.slice(0, 80)}"` : "missing"}).`,
+  );
 }
 
 /** Both request guards; upload routes pass `multipart: true`. */
@@ -153,14 +165,22 @@ export const SIGN_IN_ADDRESS: RateRule = { maxFailures: 20, windowMs: 15 * 60_00
 export const INVITE_ADDRESS: RateRule = { maxFailures: 20, windowMs: 15 * 60_000, lockMs: 15 * 60_000 };
 
 export const tooManyRequests = (retryAfterS: number) =>
-  new AppError(429, "rate_limited", `Too many failed attempts; try again in ${Math.ceil(retryAfterS / 60)} min.`, undefined);
+  new AppError(
+    429,
+    "rate_limited",
+    `Too many failed attempts; try again in ${Math.ceil(retryAfterS / 60)} min.`,
+    undefined,
+  );
 
 /** Seconds until `key` may try again, or 0 when it is not locked. */
 export async function lockedFor(key: string, now = Date.now()): Promise<number> {
-  const rows = await getSequelize().query<{ lockedUntil: number | string }>(`SELECT "lockedUntil" FROM "rate_limits" WHERE "key" = :key`, {
-    replacements: { key },
-    type: QueryTypes.SELECT,
-  });
+  const rows = await getSequelize().query<{ lockedUntil: number | string }>(
+    `SELECT "lockedUntil" FROM "rate_limits" WHERE "key" = :key`,
+    {
+      replacements: { key },
+      type: QueryTypes.SELECT,
+    },
+  );
   const until = Number(rows[0]?.lockedUntil ?? 0);
   return until > now ? Math.ceil((until - now) / 1000) : 0;
 }
@@ -208,10 +228,19 @@ export function clientAddress(request: Request): string {
  * For pages of one board, scenario or run: 404 (Next's not-found page) unless `id` names an
  * item of the viewer's team, like the API answers — never an empty view of another team's id.
  */
-export async function requireTeamItemOr404(kind: "board" | "scenario" | "run", id: string, teamId: string): Promise<void> {
+export async function requireTeamItemOr404(
+  kind: "board" | "scenario" | "run",
+  id: string,
+  teamId: string,
+): Promise<void> {
   if (!isId(id)) notFound();
   const { Board, Scenario, Run } = getModels();
   const where = { where: { id, teamId }, attributes: ["id"] };
-  const row = kind === "board" ? await Board.findOne(where) : kind === "scenario" ? await Scenario.findOne(where) : await Run.findOne(where);
+  const row =
+    kind === "board"
+      ? await Board.findOne(where)
+      : kind === "scenario"
+        ? await Scenario.findOne(where)
+        : await Run.findOne(where);
   if (!row) notFound();
 }

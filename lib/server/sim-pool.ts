@@ -26,7 +26,8 @@ export const studyBudgetMs = () => num("RAILWISE_STUDY_BUDGET_MS", 60_000);
 /** Old-generation heap of each worker (RAILWISE_SIM_MEMORY_MB, default 512 MB). */
 export const workerMemoryMb = () => num("RAILWISE_SIM_MEMORY_MB", 512);
 /** Worker threads: one core is left to the request thread (RAILWISE_SIM_THREADS overrides). */
-export const poolThreads = () => Math.floor(num("RAILWISE_SIM_THREADS", Math.max(1, Math.min(4, availableParallelism() - 1))));
+export const poolThreads = () =>
+  Math.floor(num("RAILWISE_SIM_THREADS", Math.max(1, Math.min(4, availableParallelism() - 1))));
 /** Tasks waiting for a thread before new ones are refused with 503. */
 const MAX_QUEUE = 32;
 /** How long a task may wait for a free thread, on top of its own budget, before the hard stop. */
@@ -47,7 +48,8 @@ function projectRoot(): string {
 /** Bundles the worker once per source version; the file name carries the source hash. */
 async function workerFile(): Promise<string> {
   const entry = path.join(/*turbopackIgnore: true*/ projectRoot(), "lib", "server", "sim-worker.ts");
-  if (!existsSync(entry)) throw new Error(`simulation worker source not found at ${entry} (set RAILWISE_ROOT to the project folder)`);
+  if (!existsSync(entry))
+    throw new Error(`simulation worker source not found at ${entry} (set RAILWISE_ROOT to the project folder)`);
   const esbuild = await import("esbuild");
   // The hash covers the bundle's inputs: build to memory first, then write once.
   const built = await esbuild.build({
@@ -111,7 +113,9 @@ function failure(answer: Extract<SimAnswer, { ok: false }>): AppError {
  * mismatch) become AppErrors with their status; a worker ended by the hard stop or by its heap
  * limit answers 422 saying which; a full queue answers 503.
  */
-export async function runInPool<K extends SimTask["kind"]>(task: SimTask & { kind: K }): Promise<Extract<SimAnswer, { ok: true; kind: K }>> {
+export async function runInPool<K extends SimTask["kind"]>(
+  task: SimTask & { kind: K },
+): Promise<Extract<SimAnswer, { ok: true; kind: K }>> {
   const p = await pool();
   if (p.queueSize >= MAX_QUEUE) {
     throw new AppError(503, "busy", "The server is running too many simulations; try again in a minute.");
@@ -124,12 +128,21 @@ export async function runInPool<K extends SimTask["kind"]>(task: SimTask & { kin
     const code = (err as { code?: string }).code ?? "";
     const message = err instanceof Error ? err.message : String(err);
     if (code === "ERR_WORKER_OUT_OF_MEMORY" || /out of memory/i.test(message)) {
-      throw new AppError(422, "over_memory", `This simulation needed more than the server's ${workerMemoryMb()} MB per run and was stopped; shorten the run or lower run.points.`);
+      throw new AppError(
+        422,
+        "over_memory",
+        `This simulation needed more than the server's ${workerMemoryMb()} MB per run and was stopped; shorten the run or lower run.points.`,
+      );
     }
     if (hardStop.aborted || (err instanceof Error && err.name === "AbortError")) {
-      throw new AppError(422, "over_budget", `This simulation did not finish within the server's budget and was stopped.`);
+      throw new AppError(
+        422,
+        "over_budget",
+        `This simulation did not finish within the server's budget and was stopped.`,
+      );
     }
-    if (/queue is at limit/i.test(message)) throw new AppError(503, "busy", "The server is running too many simulations; try again in a minute.");
+    if (/queue is at limit/i.test(message))
+      throw new AppError(503, "busy", "The server is running too many simulations; try again in a minute.");
     throw err;
   }
   if (!answer.ok) throw failure(answer);

@@ -86,7 +86,15 @@ export function storedResult(result: SimResult): StoredResultJson {
   const pick = (a: Float64Array) => Float64Array.from(idx, (i) => a[i]);
   // Optional columns (capacitor, filter node, source units) are picked at the same indices.
   const opt = (a: Float64Array | undefined) => (a && a.length === n ? pick(a) : undefined);
-  const thinned: SimResult = { ...result, t: pick(result.t), input: pick(result.input), output: pick(result.output), capacitor: opt(result.capacitor), filtered: opt(result.filtered), source: opt(result.source) };
+  const thinned: SimResult = {
+    ...result,
+    t: pick(result.t),
+    input: pick(result.input),
+    output: pick(result.output),
+    capacitor: opt(result.capacitor),
+    filtered: opt(result.filtered),
+    source: opt(result.source),
+  };
   return { ...toResultJson(thinned), decimation: { from: n, kept: idx.length, method: "min-max" } };
 }
 
@@ -140,13 +148,16 @@ function overBudget(budgetMs: number, what: string): SimAnswer {
 }
 
 function sameNumber(a: unknown, b: unknown): boolean {
-  if (typeof a === "number" && typeof b === "number") return Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(a), Math.abs(b));
+  if (typeof a === "number" && typeof b === "number")
+    return Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(a), Math.abs(b));
   return (a ?? null) === (b ?? null);
 }
 
 function sameOutput(server: object, client: object): boolean {
   const keys = new Set([...Object.keys(server), ...Object.keys(client)]);
-  return [...keys].every((k) => sameNumber((server as Record<string, unknown>)[k], (client as Record<string, unknown>)[k]));
+  return [...keys].every((k) =>
+    sameNumber((server as Record<string, unknown>)[k], (client as Record<string, unknown>)[k]),
+  );
 }
 
 function runTask(task: Extract<SimTask, { kind: "run" }>): SimAnswer {
@@ -162,7 +173,13 @@ function runTask(task: Extract<SimTask, { kind: "run" }>): SimAnswer {
   } catch (err) {
     const name = err instanceof Error ? err.name : "";
     if (name === "SimCancelled") return overBudget(task.budgetMs, "This run");
-    if (name === "SimFailed") return { ok: false, status: 400, code: "invalid_input", message: `The simulation could not finish: ${(err as Error).message}` };
+    if (name === "SimFailed")
+      return {
+        ok: false,
+        status: 400,
+        code: "invalid_input",
+        message: `The simulation could not finish: ${(err as Error).message}`,
+      };
     throw err;
   }
 }
@@ -203,23 +220,42 @@ function studyTask(task: Extract<SimTask, { kind: "study" }>): SimAnswer {
     if (upload.noiseMargin) {
       const { config, tasks } = upload.noiseMargin;
       const want = noiseTaskCount(config);
-      if (tasks.length !== want) throw new StudyMismatch(`noiseMargin.tasks must hold ${want} outputs (1 reference + levels × seedsPerLevel), got ${tasks.length}`, "noiseMargin.tasks");
+      if (tasks.length !== want)
+        throw new StudyMismatch(
+          `noiseMargin.tasks must hold ${want} outputs (1 reference + levels × seedsPerLevel), got ${tasks.length}`,
+          "noiseMargin.tasks",
+        );
       const server = tasks.map((_, i) => runNoiseTask(scenario, config, i, bounded));
       const bad = server.findIndex((s, i) => !sameOutput(s, tasks[i]));
-      if (bad >= 0) throw new StudyMismatch(`noiseMargin.tasks[${bad}] does not match a re-run on this run's scenario`, `noiseMargin.tasks.${bad}`);
+      if (bad >= 0)
+        throw new StudyMismatch(
+          `noiseMargin.tasks[${bad}] does not match a re-run on this run's scenario`,
+          `noiseMargin.tasks.${bad}`,
+        );
       serverUpload.noiseMargin = { ...upload.noiseMargin, tasks: server };
     }
     if (upload.toleranceSpread) {
       const { config, tasks } = upload.toleranceSpread;
       const want = toleranceTaskCount(config);
-      if (tasks.length !== want) throw new StudyMismatch(`toleranceSpread.tasks must hold ${want} outputs (1 nominal + draws), got ${tasks.length}`, "toleranceSpread.tasks");
+      if (tasks.length !== want)
+        throw new StudyMismatch(
+          `toleranceSpread.tasks must hold ${want} outputs (1 nominal + draws), got ${tasks.length}`,
+          "toleranceSpread.tasks",
+        );
       const server = tasks.map((_, i) => runToleranceTask(scenario, config, i, bounded));
       const bad = server.findIndex((s, i) => !sameOutput(s, tasks[i]));
-      if (bad >= 0) throw new StudyMismatch(`toleranceSpread.tasks[${bad}] does not match a re-run on this run's scenario`, `toleranceSpread.tasks.${bad}`);
+      if (bad >= 0)
+        throw new StudyMismatch(
+          `toleranceSpread.tasks[${bad}] does not match a re-run on this run's scenario`,
+          `toleranceSpread.tasks.${bad}`,
+        );
       serverUpload.toleranceSpread = { ...upload.toleranceSpread, tasks: server };
     }
     // Summaries from the server's own task outputs (spotChecks 0: task 0 is compared once more).
-    const study = buildSavedStudy(scenario, serverUpload, bounded, { spotChecks: 0, corners: studyCorners(scenario, upload.toleranceSpread?.config) });
+    const study = buildSavedStudy(scenario, serverUpload, bounded, {
+      spotChecks: 0,
+      corners: studyCorners(scenario, upload.toleranceSpread?.config),
+    });
     return { ok: true, kind: "study", study, elapsedMs: performance.now() - started, tasksRun };
   } catch (err) {
     if (err instanceof PastBounds) return pastBounds(err.reasons, ["scenario"], "A task of this study");
@@ -234,7 +270,13 @@ function studyTask(task: Extract<SimTask, { kind: "study" }>): SimAnswer {
     }
     const name = err instanceof Error ? err.name : "";
     if (name === "SimCancelled") return overBudget(task.budgetMs, "This study");
-    if (name === "SimFailed") return { ok: false, status: 400, code: "invalid_input", message: `A study task could not finish: ${(err as Error).message}` };
+    if (name === "SimFailed")
+      return {
+        ok: false,
+        status: 400,
+        code: "invalid_input",
+        message: `A study task could not finish: ${(err as Error).message}`,
+      };
     throw err;
   }
 }

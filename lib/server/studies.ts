@@ -13,23 +13,47 @@ import { isId } from "./ids";
 import { runInPool, studyBudgetMs } from "./sim-pool";
 
 /** Saved studies are read with the run; this one is for the study alone. */
-export async function getRunStudyOrThrow({ runId, teamId }: { runId: string; teamId: string }): Promise<SavedStudy | null> {
-  const run = isId(runId) ? await getModels().Run.findOne({ where: { id: runId, teamId }, attributes: ["id", "study"] }) : null;
+export async function getRunStudyOrThrow({
+  runId,
+  teamId,
+}: {
+  runId: string;
+  teamId: string;
+}): Promise<SavedStudy | null> {
+  const run = isId(runId)
+    ? await getModels().Run.findOne({ where: { id: runId, teamId }, attributes: ["id", "study"] })
+    : null;
   if (!run) throw notFound("No such run in your team.");
   return (run.study as SavedStudy | null) ?? null;
 }
 
-export async function saveRunStudy({ runId, teamId, actorId, upload }: { runId: string; teamId: string; actorId: string; upload: StudyUpload }): Promise<SavedStudy> {
+export async function saveRunStudy({
+  runId,
+  teamId,
+  actorId,
+  upload,
+}: {
+  runId: string;
+  teamId: string;
+  actorId: string;
+  upload: StudyUpload;
+}): Promise<SavedStudy> {
   const { Run } = getModels();
   const run = isId(runId) ? await Run.findOne({ where: { id: runId, teamId }, attributes: ["id", "scenario"] }) : null;
   if (!run) throw notFound("No such run in your team.");
   try {
     parseScenario(run.scenario);
   } catch (err) {
-    if (err instanceof ScenarioError) throw new AppError(409, "conflict", "This run's scenario snapshot no longer parses; re-run the scenario first.");
+    if (err instanceof ScenarioError)
+      throw new AppError(409, "conflict", "This run's scenario snapshot no longer parses; re-run the scenario first.");
     throw err;
   }
-  const { study: saved } = await runInPool({ kind: "study", scenario: run.scenario, upload, budgetMs: studyBudgetMs() });
+  const { study: saved } = await runInPool({
+    kind: "study",
+    scenario: run.scenario,
+    upload,
+    budgetMs: studyBudgetMs(),
+  });
   await getSequelize().transaction(async (transaction) => {
     await Run.update({ study: saved }, { where: { id: runId, teamId }, transaction });
     await recordAudit(

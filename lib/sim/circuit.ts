@@ -1,8 +1,14 @@
-// The circuit as built (DESIGN.md): lowers a scenario with a source (divider, NTC or linear
+// The circuit as built (lib/schemas/README.md): lowers a scenario with a source (divider, NTC or linear
 // sensor), a reference divider, an RC filter and an output stage to the plain scenario the solver
 // understands, plus the pieces the solver needs (filter node, output stage) and the mapping that
 // reads results back in source units. Pure TypeScript: no React, Next or database.
-import { CURRENT_DRAWING_KINDS, referenceDividerThevenin, type InputComponent, type Scenario, type Stage } from "@/lib/schemas/scenario";
+import {
+  CURRENT_DRAWING_KINDS,
+  referenceDividerThevenin,
+  type InputComponent,
+  type Scenario,
+  type Stage,
+} from "@/lib/schemas/scenario";
 import { sensorFrontEnd, type SensorSpec } from "@/lib/design/sensors";
 import { InputSignal, evaluateInputSignal } from "./signals";
 import { SimFailed } from "./errors";
@@ -59,7 +65,8 @@ export function sourceMap(scenario: Scenario): SourceMap | null {
   const src = scenario.source;
   if (!src) return null;
   const sensor = src.sensor as SensorSpec;
-  const excitation = sensor.kind === "ntc" ? (sensor.supplyVoltage ?? scenario.supply.positive) : scenario.supply.positive;
+  const excitation =
+    sensor.kind === "ntc" ? (sensor.supplyVoltage ?? scenario.supply.positive) : scenario.supply.positive;
   const fe = sensorFrontEnd(sensor, excitation);
   const unit = src.unit ?? (sensor.kind === "divider" ? "V" : sensor.kind === "ntc" ? "°C" : (sensor.unit ?? fe.unit));
   let resistance: (x: number) => number;
@@ -70,7 +77,8 @@ export function sourceMap(scenario: Scenario): SourceMap | null {
     // R_ntc from the divider voltage: bottom V = S·Rt/(Rt + Rf), top V = S·Rf/(Rt + Rf).
     resistance = (x) => {
       const v = fe.toVolts(x);
-      const rt = sensor.position === "bottom" ? (sensor.rFixed * v) / (excitation - v) : (sensor.rFixed * (excitation - v)) / v;
+      const rt =
+        sensor.position === "bottom" ? (sensor.rFixed * v) / (excitation - v) : (sensor.rFixed * (excitation - v)) / v;
       return parallel(rt, sensor.rFixed);
     };
   } else {
@@ -100,10 +108,22 @@ function scaleComponent(c: InputComponent, a: number): InputComponent {
     case "dc":
       return { kind: "dc", level: a * c.level };
     case "sine":
-      return { kind: "sine", amplitude: Math.abs(a) * c.amplitude, frequency: c.frequency, phase: (c.phase ?? 0) + flip, offset: a * (c.offset ?? 0) };
+      return {
+        kind: "sine",
+        amplitude: Math.abs(a) * c.amplitude,
+        frequency: c.frequency,
+        phase: (c.phase ?? 0) + flip,
+        offset: a * (c.offset ?? 0),
+      };
     case "triangle":
       // A symmetric triangle negated is the same triangle half a period later.
-      return { kind: "triangle", amplitude: Math.abs(a) * c.amplitude, frequency: c.frequency, phase: (c.phase ?? 0) + flip, offset: a * (c.offset ?? 0) };
+      return {
+        kind: "triangle",
+        amplitude: Math.abs(a) * c.amplitude,
+        frequency: c.frequency,
+        phase: (c.phase ?? 0) + flip,
+        offset: a * (c.offset ?? 0),
+      };
     case "ramp":
       return { ...c, from: a * c.from, to: a * c.to };
     case "pulse":
@@ -120,7 +140,10 @@ function sourceKnots(components: InputComponent[], T: number, maxPoints: number)
   const knots: number[] = [0, T];
   const push = (t: number) => {
     if (t > 0 && t < T) knots.push(t);
-    if (knots.length > maxPoints) throw new SimFailed(`the NTC source waveform has more than ${maxPoints} corners over the run; shorten run.duration`);
+    if (knots.length > maxPoints)
+      throw new SimFailed(
+        `the NTC source waveform has more than ${maxPoints} corners over the run; shorten run.duration`,
+      );
   };
   for (const c of components) {
     switch (c.kind) {
@@ -149,7 +172,7 @@ function sourceKnots(components: InputComponent[], T: number, maxPoints: number)
         const p = 1 / c.frequency;
         const turns = (c.phase ?? 0) / 360;
         const shift = (turns - Math.floor(turns)) * p;
-        for (let k = -1; k * p / 2 - shift < T; k++) push(p / 4 + (k * p) / 2 - shift);
+        for (let k = -1; (k * p) / 2 - shift < T; k++) push(p / 4 + (k * p) / 2 - shift);
         break;
       }
       case "sine": {
@@ -179,10 +202,11 @@ function resampleNtc(map: SourceMap, components: InputComponent[], T: number, to
     if (!Number.isFinite(v)) throw new SimFailed(`the NTC source reaches ${x} ${map.unit}, outside its model`);
     return v;
   };
-  const evalAt = (ts: number[]) => Array.from(map.evaluate(Float64Array.from(ts)), (x) => {
-    if (!(x > -273.15)) throw new SimFailed(`input: the NTC source reaches ${x} °C, below absolute zero`);
-    return f(x);
-  });
+  const evalAt = (ts: number[]) =>
+    Array.from(map.evaluate(Float64Array.from(ts)), (x) => {
+      if (!(x > -273.15)) throw new SimFailed(`input: the NTC source reaches ${x} °C, below absolute zero`);
+      return f(x);
+    });
   const points: [number, number][] = [];
   let worst = 0;
   const refine = (a: number, va: number, b: number, vb: number, depth: number) => {
@@ -197,7 +221,10 @@ function resampleNtc(map: SourceMap, components: InputComponent[], T: number, to
     }
     worst = Math.max(worst, err);
     points.push([b, vb]);
-    if (points.length > maxPoints) throw new SimFailed(`the NTC source needs more than ${maxPoints} points to stay within ${tol * 1e3} mV; shorten run.duration`);
+    if (points.length > maxPoints)
+      throw new SimFailed(
+        `the NTC source needs more than ${maxPoints} points to stay within ${tol * 1e3} mV; shorten run.duration`,
+      );
   };
   for (let k = 0; k + 1 < knots.length; k++) {
     const a = knots[k];
@@ -224,7 +251,7 @@ function plainStage(stage: Stage, scenario: Scenario, seriesInput: number): Stag
     if (stage.kind === "schmitt-inverting" || stage.kind === "relaxation-oscillator") out.rReference = th.resistance;
   }
   if (div && stage.kind === "noninverting-amplifier") {
-    // The reference connects through rGround: its Thevenin resistance sits in series (DESIGN.md).
+    // The reference connects through rGround: its Thevenin resistance sits in series (lib/schemas/README.md § The circuit as built).
     out.rGround = stage.rGround + parallel(div.rTop, div.rBottom);
   }
   if (seriesInput > 0 && (stage.kind === "schmitt-noninverting" || stage.kind === "inverting-amplifier")) {
@@ -239,9 +266,13 @@ export function lowerCircuit(scenario: Scenario, options: LowerOptions = {}): Lo
   const { source: _s, filter: _f, output: _o, tolerances: _t, spec: _sp, ...rest } = scenario;
   void _s, _f, _o, _t, _sp;
   if (scenario.filter && !options.allowFilter)
-    throw new SimFailed("filter: the RC filter node is not supported by the solver yet; remove filter to run this scenario");
+    throw new SimFailed(
+      "filter: the RC filter node is not supported by the solver yet; remove filter to run this scenario",
+    );
   if (scenario.output?.kind === "open-drain" && !options.allowOpenDrain)
-    throw new SimFailed('output: the open-drain output is not supported by the solver yet; use { kind: "push-pull" } to run this scenario');
+    throw new SimFailed(
+      'output: the open-drain output is not supported by the solver yet; use { kind: "push-pull" } to run this scenario',
+    );
 
   const map = sourceMap(scenario);
   let components = scenario.input.components;
@@ -255,12 +286,19 @@ export function lowerCircuit(scenario: Scenario, options: LowerOptions = {}): Lo
       const a = map.toVolts(1) - b;
       components = components.map((c) => scaleComponent(c, a));
       if (b !== 0) {
-        if (components.length >= 64) throw new SimFailed("input.components: a linear sensor's offset needs one more component; use at most 63");
+        if (components.length >= 64)
+          throw new SimFailed("input.components: a linear sensor's offset needs one more component; use at most 63");
         components = [...components, { kind: "dc", level: b }];
       }
       rSource = map.resistance(0);
     } else {
-      const r = resampleNtc(map, components, scenario.run.duration, options.ntcTolerance ?? NTC_RESAMPLE_TOLERANCE, options.maxPoints ?? 200_000);
+      const r = resampleNtc(
+        map,
+        components,
+        scenario.run.duration,
+        options.ntcTolerance ?? NTC_RESAMPLE_TOLERANCE,
+        options.maxPoints ?? 200_000,
+      );
       components = [r.component];
       inputError = r.error;
       const x0 = map.evaluate(Float64Array.of(0))[0];
@@ -270,7 +308,9 @@ export function lowerCircuit(scenario: Scenario, options: LowerOptions = {}): Lo
     void sensor;
   }
   const drawsCurrent = CURRENT_DRAWING_KINDS.includes(scenario.stage.kind);
-  const filter = scenario.filter ? { r: scenario.filter.r + rSource, c: scenario.filter.c, rVaries: rVaries && rSource > 0 } : null;
+  const filter = scenario.filter
+    ? { r: scenario.filter.r + rSource, c: scenario.filter.c, rVaries: rVaries && rSource > 0 }
+    : null;
   const stage = plainStage(scenario.stage, scenario, !filter && drawsCurrent ? rSource : 0);
   const out = scenario.output;
   const output: LoweredOutput =
@@ -312,7 +352,10 @@ export interface SourceReadings {
  * slope) turns the stage's upper voltage threshold into the lower source threshold, so a rising
  * °C may cause the falling-volts edge.
  */
-export function sourceReadings(lowered: LoweredCircuit, result: Pick<SimResult, "t" | "events" | "metrics">): SourceReadings | null {
+export function sourceReadings(
+  lowered: LoweredCircuit,
+  result: Pick<SimResult, "t" | "events" | "metrics">,
+): SourceReadings | null {
   const map = lowered.source;
   if (!map) return null;
   const conv = (v: number | null) => (v === null ? null : map.toSource(v));
@@ -322,13 +365,18 @@ export function sourceReadings(lowered: LoweredCircuit, result: Pick<SimResult, 
   return {
     source: map.evaluate(result.t),
     events: result.events.map((e) => conv(e.input)),
-    metrics: { unit: map.unit, upperThreshold: up, lowerThreshold: low, hysteresis: up !== null && low !== null ? up - low : null },
+    metrics: {
+      unit: map.unit,
+      upperThreshold: up,
+      lowerThreshold: low,
+      hysteresis: up !== null && low !== null ? up - low : null,
+    },
   };
 }
 
 /**
  * The result of the lowered run in the as-built terms: with a source, `source` samples,
- * `events[].source` and `metrics.source` (DESIGN.md result additions). Without one, unchanged.
+ * `events[].source` and `metrics.source` (lib/schemas/README.md result additions). Without one, unchanged.
  */
 export function attachSourceReadings<R extends SimResult>(lowered: LoweredCircuit, result: R): R {
   const readings = sourceReadings(lowered, result);

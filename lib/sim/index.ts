@@ -3,7 +3,16 @@
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { ResultJson, SimOptions, SimResult, SolverName } from "./types";
 import { InputSignal, evaluateInputSignal } from "./signals";
-import { buildNetwork, withFilter, defaultInitialOutput, highLevelAt, initialCapacitor, openDrainHigh, outputLimits, settledState } from "./network";
+import {
+  buildNetwork,
+  withFilter,
+  defaultInitialOutput,
+  highLevelAt,
+  initialCapacitor,
+  openDrainHigh,
+  outputLimits,
+  settledState,
+} from "./network";
 import { SimFailed } from "./errors";
 import { Recorder, amplifierMetrics, defaultHoldOff, finishMetrics } from "./measure";
 import { ExactSolver, type ExactParams } from "./exact";
@@ -58,7 +67,8 @@ export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult
   const td = op.propagationDelay ?? 0;
   const t = sampleTimes(duration, scenario.run.points);
   const output = new Float64Array(t.length);
-  const capacitor = scenario.stage.kind === "relaxation-oscillator" || circuit.filter ? new Float64Array(t.length) : null;
+  const capacitor =
+    scenario.stage.kind === "relaxation-oscillator" || circuit.filter ? new Float64Array(t.length) : null;
   const recorder = new Recorder(rails, signal, td);
   const start = scenario.run.initialOutput ?? defaultInitialOutput(scenario.stage.kind);
   let vo0: number;
@@ -102,7 +112,7 @@ export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult
     evaluations = s.evaluations;
     firstHigh = s.firstHigh;
   }
-  // An open drain's high level: the loaded level at the first high state (DESIGN.md).
+  // An open drain's high level: the loaded level at the first high state (DEVELOPERS.md).
   const resultRails = net.high && Number.isFinite(firstHigh) ? { high: firstHigh, low: rails.low } : rails;
   const holdOff = options.holdOff ?? scenario.run.holdOff ?? defaultHoldOff(duration, signal.longestPeriod);
   const metrics = finishMetrics(recorder, {
@@ -182,7 +192,11 @@ export function resultToCsv(result: SimResult): string {
   const cap = result.capacitor;
   const lines = [cap ? "t,input,output,capacitor" : "t,input,output"];
   for (let i = 0; i < result.t.length; i++)
-    lines.push(cap ? `${result.t[i]},${result.input[i]},${result.output[i]},${cap[i]}` : `${result.t[i]},${result.input[i]},${result.output[i]}`);
+    lines.push(
+      cap
+        ? `${result.t[i]},${result.input[i]},${result.output[i]},${cap[i]}`
+        : `${result.t[i]},${result.input[i]},${result.output[i]}`,
+    );
   return lines.join("\n") + "\n";
 }
 
@@ -220,7 +234,7 @@ function oscillatorCycles(scenario: Scenario): number | null {
   const vH = (st.reference * st.rFeedback + high * st.rReference) / s;
   const vL = (st.reference * st.rFeedback + low * st.rReference) / s;
   const rc = st.rTiming * st.cTiming;
-  // t_high = RC·ln((Voh − VL)/(Voh − VH)), t_low = RC·ln((VH − Vol)/(VL − Vol)) (REFERENCES.md)
+  // t_high = RC·ln((Voh − VL)/(Voh − VH)), t_low = RC·ln((VH − Vol)/(VL − Vol)) (tests/REFERENCES.md)
   const period = rc * (Math.log((high - vL) / (high - vH)) + Math.log((vH - low) / (vL - low)));
   return Number.isFinite(period) && period > 0 ? scenario.run.duration / period : null;
 }
@@ -239,7 +253,9 @@ export function checkRunBounds(scenario: Scenario, limits: Partial<RunLimits> = 
       `input.noise gives ${fmt(segments)} noise segments (2 × bandwidth × duration); the limit is ${fmt(L.maxNoiseSegments)}: lower the bandwidth or shorten the run`,
     );
   if (table > L.maxTablePoints)
-    reasons.push(`the pwl and capture components hold ${fmt(table)} points together; the limit is ${fmt(L.maxTablePoints)}`);
+    reasons.push(
+      `the pwl and capture components hold ${fmt(table)} points together; the limit is ${fmt(L.maxTablePoints)}`,
+    );
   if (corners > L.maxPeriodicCorners)
     reasons.push(
       `the periodic components switch about ${fmt(corners)} times over the run; the limit is ${fmt(L.maxPeriodicCorners)}: lower the frequency or shorten the run`,
@@ -252,7 +268,9 @@ export function checkRunBounds(scenario: Scenario, limits: Partial<RunLimits> = 
   if (solver === "odex") {
     const work = segments + table + corners;
     if (work > L.maxOdexSegments)
-      reasons.push(`the odex solver restarts at every input corner; this run has about ${fmt(work)} (limit ${fmt(L.maxOdexSegments)}): use the exact solver`);
+      reasons.push(
+        `the odex solver restarts at every input corner; this run has about ${fmt(work)} (limit ${fmt(L.maxOdexSegments)}): use the exact solver`,
+      );
     const op = scenario.opamp;
     // Fastest rate of the model: the closed-loop/open-loop pole, bounded by 2π·GBW.
     const stiffness = 2 * Math.PI * op.gainBandwidth * T;

@@ -155,7 +155,7 @@ export function finishMetrics(
 ): SimMetrics {
   const ev = rec.events.slice(rec.startupEvents);
   // Output edges caused by the input crossing upward: rising for non-inverting stages,
-  // falling for inverting ones (DESIGN.md "Result JSON"). A relaxation oscillator's input is
+  // falling for inverting ones (lib/schemas/README.md § Result JSON). A relaxation oscillator's input is
   // not connected, so no edge is caused by the input: its thresholds are null.
   const upEdge = opts.inverting ? "falling" : "rising";
   const upper = opts.inputConnected ? mean(ev.filter((e) => e.edge === upEdge).map((e) => e.input)) : null;
@@ -185,7 +185,7 @@ export function finishMetrics(
     dutyCycle = high / (last - first);
   }
   if (opts.amplifier) {
-    // Amplifiers do not switch: no switching readings (DESIGN.md "The circuit as built").
+    // Amplifiers do not switch: no switching readings (lib/schemas/README.md § The circuit as built).
     return {
       transitions: null,
       upperThreshold: null,

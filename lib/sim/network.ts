@@ -1,4 +1,4 @@
-// Stage topologies (DESIGN.md "Stage topologies"): the op-amp's differential input
+// Stage topologies (lib/schemas/README.md § Stage topologies): the op-amp's differential input
 // vd = v+ − v− + Vos is linear in the input u, the output vo and, when the stage has one, a
 // capacitor voltage x (the oscillator's timing capacitor):
 //   vd    = alpha·u + beta·vo + gamma·x + delta
@@ -54,7 +54,12 @@ export function defaultInitialOutput(kind: Scenario["stage"]["kind"]): "low" | "
  * The DC operating point for input u at t = 0 (vo from vo = A0·vd with x at its steady value
  * when it has one), with vo clamped to the output limits; x then steady for that vo.
  */
-export function settledState(net: Network, u: number, openLoopGain: number, rails: { high: number; low: number }): { vo: number; x: number } {
+export function settledState(
+  net: Network,
+  u: number,
+  openLoopGain: number,
+  rails: { high: number; low: number },
+): { vo: number; x: number } {
   const A0 = openLoopGain;
   const s = net.state;
   let vo: number;
@@ -93,12 +98,28 @@ export function buildNetwork(scenario: Scenario): Network {
     case "noninverting-amplifier": {
       // v+ = u; v− = ref + (vo − ref)·rG/(rG + rF)
       const g = st.rGround / (st.rGround + st.rFeedback);
-      return { alpha: 1, beta: -g, gamma: 0, delta: -ref * (1 - g) + vos, state: null, inverting: false, amplifier: true };
+      return {
+        alpha: 1,
+        beta: -g,
+        gamma: 0,
+        delta: -ref * (1 - g) + vos,
+        state: null,
+        inverting: false,
+        amplifier: true,
+      };
     }
     case "inverting-amplifier": {
       // v+ = ref; v− = (u·rF + vo·rI)/(rI + rF)
       const s = st.rInput + st.rFeedback;
-      return { alpha: -st.rFeedback / s, beta: -st.rInput / s, gamma: 0, delta: ref + vos, state: null, inverting: true, amplifier: true };
+      return {
+        alpha: -st.rFeedback / s,
+        beta: -st.rInput / s,
+        gamma: 0,
+        delta: ref + vos,
+        state: null,
+        inverting: true,
+        amplifier: true,
+      };
     }
     case "comparator":
       return st.inputAt === "inverting"
@@ -107,12 +128,28 @@ export function buildNetwork(scenario: Scenario): Network {
     case "schmitt-noninverting": {
       // v+ = (u·rF + vo·rI)/(rI + rF); v− = ref
       const s = st.rInput + st.rFeedback;
-      return { alpha: st.rFeedback / s, beta: st.rInput / s, gamma: 0, delta: -ref + vos, state: null, inverting: false, amplifier: false };
+      return {
+        alpha: st.rFeedback / s,
+        beta: st.rInput / s,
+        gamma: 0,
+        delta: -ref + vos,
+        state: null,
+        inverting: false,
+        amplifier: false,
+      };
     }
     case "schmitt-inverting": {
       // v+ = (ref·rF + vo·rR)/(rR + rF); v− = u
       const s = st.rReference + st.rFeedback;
-      return { alpha: -1, beta: st.rReference / s, gamma: 0, delta: (ref * st.rFeedback) / s + vos, state: null, inverting: true, amplifier: false };
+      return {
+        alpha: -1,
+        beta: st.rReference / s,
+        gamma: 0,
+        delta: (ref * st.rFeedback) / s + vos,
+        state: null,
+        inverting: true,
+        amplifier: false,
+      };
     }
     case "relaxation-oscillator": {
       // As schmitt-inverting, but v− is the capacitor node (rTiming from vo, cTiming to 0 V);
@@ -145,7 +182,8 @@ export function withFilter(net: Network, scenario: Scenario, filter: { r: number
   if (net.state !== null) throw new Error("filter is not for the relaxation oscillator");
   const w = 1 / (filter.r * filter.c);
   let leak = 0;
-  if (st.kind === "schmitt-noninverting" || st.kind === "inverting-amplifier") leak = 1 / ((st.rInput + st.rFeedback) * filter.c);
+  if (st.kind === "schmitt-noninverting" || st.kind === "inverting-amplifier")
+    leak = 1 / ((st.rInput + st.rFeedback) * filter.c);
   return {
     ...net,
     alpha: 0,

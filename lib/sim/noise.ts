@@ -18,8 +18,27 @@ function lnSeries(m: number): number {
   // |z| ≤ 0.1716: the odd series has converged to 1 ulp by z^29.
   const s =
     1 +
-    z2 * (1 / 3 + z2 * (1 / 5 + z2 * (1 / 7 + z2 * (1 / 9 + z2 * (1 / 11 + z2 * (1 / 13 + z2 * (1 / 15 +
-    z2 * (1 / 17 + z2 * (1 / 19 + z2 * (1 / 21 + z2 * (1 / 23 + z2 * (1 / 25 + z2 * (1 / 27 + z2 * (1 / 29))))))))))))));
+    z2 *
+      (1 / 3 +
+        z2 *
+          (1 / 5 +
+            z2 *
+              (1 / 7 +
+                z2 *
+                  (1 / 9 +
+                    z2 *
+                      (1 / 11 +
+                        z2 *
+                          (1 / 13 +
+                            z2 *
+                              (1 / 15 +
+                                z2 *
+                                  (1 / 17 +
+                                    z2 *
+                                      (1 / 19 +
+                                        z2 *
+                                          (1 / 21 +
+                                            z2 * (1 / 23 + z2 * (1 / 25 + z2 * (1 / 27 + z2 * (1 / 29))))))))))))));
   return 2 * z * s;
 }
 
@@ -73,9 +92,15 @@ export function portableLn(x: number): number {
 // computing the inverse normal cumulative distribution function", 2003): relative error below
 // 1.15e-9 over (0, 1). The central 95 % needs no logarithm at all, which makes a million
 // samples cheap; the tails use portableLn.
-const A = [-3.969683028665376e1, 2.209460984245205e2, -2.759285104469687e2, 1.38357751867269e2, -3.066479806614716e1, 2.506628277459239];
+const A = [
+  -3.969683028665376e1, 2.209460984245205e2, -2.759285104469687e2, 1.38357751867269e2, -3.066479806614716e1,
+  2.506628277459239,
+];
 const B = [-5.447609879822406e1, 1.615858368580409e2, -1.556989798598866e2, 6.680131188771972e1, -1.328068155288572e1];
-const C = [-7.784894002430293e-3, -3.223964580411365e-1, -2.400758277161838, -2.549732539343734, 4.374664141464968, 2.938163982698783];
+const C = [
+  -7.784894002430293e-3, -3.223964580411365e-1, -2.400758277161838, -2.549732539343734, 4.374664141464968,
+  2.938163982698783,
+];
 const D = [7.784695709041462e-3, 3.224671290700398e-1, 2.445134137142996, 3.754408661907416];
 const P_LOW = 0.02425;
 const P_HIGH = 1 - P_LOW;
@@ -85,11 +110,17 @@ const TWO_POW_M54 = 5.551115123125783e-17; // stands in for p = 0 (uniformFloat6
 export function normalQuantile(p: number): number {
   if (p < P_LOW) {
     const q = Math.sqrt(-2 * portableLn(p));
-    return (((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) / ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1);
+    return (
+      (((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) /
+      ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1)
+    );
   }
   if (p > P_HIGH) {
     const q = Math.sqrt(-2 * portableLn(1 - p));
-    return -(((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) / ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1);
+    return (
+      -(((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) /
+      ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1)
+    );
   }
   const q = p - 0.5;
   const r = q * q;
@@ -137,7 +168,7 @@ export function fillStandardNormal(out: Float64Array, seed: number): Float64Arra
   return out;
 }
 
-/** Knot interval of the noise: samples at 1/(2·bandwidth) (DESIGN.md). */
+/** Knot interval of the noise: samples at 1/(2·bandwidth) (lib/schemas/README.md § Input signal). */
 export function noiseInterval(noise: Noise): number {
   return 1 / (2 * noise.bandwidth);
 }

@@ -59,7 +59,8 @@ export function runOdex(p: OdexParams): OdexStats {
     const ts = x - td;
     sig.affineAt(ts);
     let d = sig.slope;
-    for (let j = 0; j < sig.sineAmp.length; j++) d += sig.sineAmp[j] * sig.sineOmega[j] * Math.cos(sig.sineOmega[j] * ts + sig.sinePhase[j]);
+    for (let j = 0; j < sig.sineAmp.length; j++)
+      d += sig.sineAmp[j] * sig.sineOmega[j] * Math.cos(sig.sineOmega[j] * ts + sig.sinePhase[j]);
     return d;
   };
   const rate = (x: number, vo: number, vc: number, u: number): number => {
@@ -172,7 +173,11 @@ export function runOdex(p: OdexParams): OdexStats {
         const gb = voAt(b) - levels[lv] >= 0;
         if (gb !== (sides[lv] === 1)) {
           const L = levels[lv];
-          rec.push(locate((s) => voAt(s) - L, a, b, sides[lv] === 1), lv, gb);
+          rec.push(
+            locate((s) => voAt(s) - L, a, b, sides[lv] === 1),
+            lv,
+            gb,
+          );
           sides[lv] = gb ? 1 : 0;
         }
       }

@@ -3,7 +3,7 @@
 // points, pulse/ramp corners, triangle vertices); the solver asks for the affine piece around a
 // time and for the next breakpoint, and handles the sines in closed form.
 //
-// Waveform conventions (DESIGN.md): sine and triangle equal `offset` at t = 0 and rise first,
+// Waveform conventions (lib/schemas/README.md § Input signal): sine and triangle equal `offset` at t = 0 and rise first,
 // `phase` (degrees) shifts both; ramp holds `from` before `start` and `to` after
 // `start + duration`; pulse starts low and begins its rise at `delay`; pwl and capture
 // interpolate linearly and hold their end values. Values are right-continuous at jumps.
@@ -16,7 +16,16 @@ type Compiled =
   | { kind: "const"; level: number }
   | { kind: "triangle"; amplitude: number; frequency: number; shift: number; offset: number }
   | { kind: "ramp"; from: number; to: number; start: number; end: number }
-  | { kind: "pulse"; low: number; high: number; period: number; rise: number; fallStart: number; fallEnd: number; delay: number }
+  | {
+      kind: "pulse";
+      low: number;
+      high: number;
+      period: number;
+      rise: number;
+      fallStart: number;
+      fallEnd: number;
+      delay: number;
+    }
   | { kind: "table"; times: Float64Array; values: Float64Array };
 
 function compile(c: InputComponent): Compiled {
@@ -27,14 +36,29 @@ function compile(c: InputComponent): Compiled {
       // The sine itself is kept apart (closed form); only its offset is piecewise constant.
       return { kind: "const", level: c.offset ?? 0 };
     case "triangle":
-      return { kind: "triangle", amplitude: c.amplitude, frequency: c.frequency, shift: (c.phase ?? 0) / 360, offset: c.offset ?? 0 };
+      return {
+        kind: "triangle",
+        amplitude: c.amplitude,
+        frequency: c.frequency,
+        shift: (c.phase ?? 0) / 360,
+        offset: c.offset ?? 0,
+      };
     case "ramp":
       return { kind: "ramp", from: c.from, to: c.to, start: c.start, end: c.start + c.duration };
     case "pulse": {
       const rise = c.rise ?? 0;
       const fall = c.fall ?? 0;
       const fallStart = Math.min(Math.max(rise, c.duty * c.period), c.period - fall);
-      return { kind: "pulse", low: c.low, high: c.high, period: c.period, rise, fallStart, fallEnd: fallStart + fall, delay: c.delay ?? 0 };
+      return {
+        kind: "pulse",
+        low: c.low,
+        high: c.high,
+        period: c.period,
+        rise,
+        fallStart,
+        fallEnd: fallStart + fall,
+        delay: c.delay ?? 0,
+      };
     }
     case "pwl":
     case "capture": {
@@ -250,7 +274,8 @@ export class InputSignal {
   /** Sum of the sine components at t. */
   sinesAt(t: number): number {
     let v = 0;
-    for (let j = 0; j < this.sineAmp.length; j++) v += this.sineAmp[j] * Math.sin(this.sineOmega[j] * t + this.sinePhase[j]);
+    for (let j = 0; j < this.sineAmp.length; j++)
+      v += this.sineAmp[j] * Math.sin(this.sineOmega[j] * t + this.sinePhase[j]);
     return v;
   }
 
@@ -273,10 +298,10 @@ export class InputSignal {
           // Vertices at x = 1/4 + n/2.
           const x = p.frequency * t + p.shift;
           let n = Math.floor((x - 0.25) * 2) + 1;
-          b = ((0.25 + n / 2) - p.shift) / p.frequency;
+          b = (0.25 + n / 2 - p.shift) / p.frequency;
           while (b <= t) {
             n += 1;
-            b = ((0.25 + n / 2) - p.shift) / p.frequency;
+            b = (0.25 + n / 2 - p.shift) / p.frequency;
           }
           break;
         }

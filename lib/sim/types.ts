@@ -1,4 +1,4 @@
-// Public types of the simulation core. `railwise.result/1` is the JSON contract (DESIGN.md);
+// Public types of the simulation core. `railwise.result/1` is the JSON contract (lib/schemas/README.md § Result JSON);
 // `SimResult` is the in-memory form with typed arrays (transferable from the worker).
 import type { Scenario } from "@/lib/schemas/scenario";
 
@@ -29,7 +29,7 @@ export interface SimEvent {
   source?: number;
 }
 
-/** Readings of an amplifier stage (DESIGN.md "The circuit as built"). */
+/** Readings of an amplifier stage (lib/schemas/README.md § The circuit as built). */
 export interface AmplifierMetrics {
   /** Measured vo/vin slope while the output is in its linear region. */
   gain: number | null;
@@ -86,7 +86,14 @@ export interface SimResult {
 export interface ResultJson {
   schema: "railwise.result/1";
   rails: { high: number; low: number };
-  samples: { t: number[]; input: number[]; output: number[]; capacitor?: number[]; filtered?: number[]; source?: number[] };
+  samples: {
+    t: number[];
+    input: number[];
+    output: number[];
+    capacitor?: number[];
+    filtered?: number[];
+    source?: number[];
+  };
   events: SimEvent[];
   metrics: SimMetrics;
   solver: SolverStats;

@@ -42,7 +42,10 @@ export interface CaptureNoiseEstimate {
   limitedBySampling: boolean;
 }
 
-export function estimateCaptureNoise(samples: ReadonlyArray<readonly [number, number]>, windowSeconds?: number): CaptureNoiseEstimate {
+export function estimateCaptureNoise(
+  samples: ReadonlyArray<readonly [number, number]>,
+  windowSeconds?: number,
+): CaptureNoiseEstimate {
   if (windowSeconds === undefined && samples.length >= 16) {
     const n = samples.length;
     const meanDt = (samples[n - 1][0] - samples[0][0]) / (n - 1);
@@ -73,16 +76,28 @@ function estimateWith(samples: ReadonlyArray<readonly [number, number]>, windowS
   w = Math.min(w, n % 2 === 1 ? n : n - 1);
   const half = (w - 1) / 2;
   // Prefix sums of t, v, t², t·v (time relative to the start to keep them well conditioned).
-  const St = new Float64Array(n + 1), Sv = new Float64Array(n + 1), Stt = new Float64Array(n + 1), Stv = new Float64Array(n + 1);
+  const St = new Float64Array(n + 1),
+    Sv = new Float64Array(n + 1),
+    Stt = new Float64Array(n + 1),
+    Stv = new Float64Array(n + 1);
   for (let i = 0; i < n; i++) {
-    const t = samples[i][0] - t0, v = samples[i][1];
-    St[i + 1] = St[i] + t; Sv[i + 1] = Sv[i] + v; Stt[i + 1] = Stt[i] + t * t; Stv[i + 1] = Stv[i] + t * v;
+    const t = samples[i][0] - t0,
+      v = samples[i][1];
+    St[i + 1] = St[i] + t;
+    Sv[i + 1] = Sv[i] + v;
+    Stt[i + 1] = Stt[i] + t * t;
+    Stv[i + 1] = Stv[i] + t * v;
   }
   const residual = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     // Shift the window inwards at the ends so it always holds w samples.
-    const a = Math.min(Math.max(0, i - half), n - w), b = a + w;
-    const m = w, st = St[b] - St[a], sv = Sv[b] - Sv[a], stt = Stt[b] - Stt[a], stv = Stv[b] - Stv[a];
+    const a = Math.min(Math.max(0, i - half), n - w),
+      b = a + w;
+    const m = w,
+      st = St[b] - St[a],
+      sv = Sv[b] - Sv[a],
+      stt = Stt[b] - Stt[a],
+      stv = Stv[b] - Stv[a];
     const den = m * stt - st * st;
     const slope = den > 0 ? (m * stv - st * sv) / den : 0;
     const icpt = (sv - slope * st) / m;
@@ -91,13 +106,15 @@ function estimateWith(samples: ReadonlyArray<readonly [number, number]>, windowS
   const abs = Array.from(residual, Math.abs).sort((a, b) => a - b);
   const mad = abs[Math.floor(n / 2)];
   const cut = 4.5 * 1.4826 * mad;
-  let ss = 0, kept = 0, changes = 0;
+  let ss = 0,
+    kept = 0,
+    changes = 0;
   for (let i = 0; i < n; i++) {
     if (Math.abs(residual[i]) <= cut) {
       ss += residual[i] * residual[i];
       kept++;
     }
-    if (i > 0 && residual[i] !== 0 && residual[i - 1] !== 0 && (residual[i] > 0) !== (residual[i - 1] > 0)) changes++;
+    if (i > 0 && residual[i] !== 0 && residual[i - 1] !== 0 && residual[i] > 0 !== residual[i - 1] > 0) changes++;
   }
   const bandwidth = changes / span;
   const independent = Math.max(2, Math.min(w, w * meanDt * 2 * bandwidth));

@@ -1,7 +1,7 @@
 // The output grid of study tasks.
 /**
  * Output points of a study task. Transitions, thresholds and period come from the solver's
- * located events, which do not depend on the output grid (DESIGN.md: results must not
+ * located events, which do not depend on the output grid (DEVELOPERS.md § Behavioural op-amp model: results must not
  * depend on it; checked in tests/unit/studies-split.test.ts), so a task whose figures are all
  * event-based samples its output on this coarse grid instead of the scenario's. The solver
  * still integrates the whole run; only the sampled copy of the waveform is smaller.

@@ -14,7 +14,7 @@ import { wilsonInterval } from "./stats";
 import { studyRunSettings } from "./grid";
 
 /** Rule of thumb: a deadband of at least 6.6 × rms keeps ~0.1 % of noise samples outside it
- * (REFERENCES.md, "Noise and hysteresis": erfc(6.6/(2√2)) = 0.097 %; common practice). */
+ * (tests/REFERENCES.md, "Noise and hysteresis": erfc(6.6/(2√2)) = 0.097 %; common practice). */
 export const RULE_OF_THUMB_FACTOR = 6.6;
 
 export interface NoiseTaskOutput {
@@ -70,10 +70,19 @@ export function noiseTaskScenario(scenario: Scenario, config: NoiseMarginConfig,
   if (index === 0) return { ...scenario, input, run };
   const level = Math.floor((index - 1) / config.seedsPerLevel);
   const rms = noiseLevels(config)[level];
-  return { ...scenario, run, input: { ...input, noise: { rms, bandwidth: config.bandwidth, seed: taskSeed(config.seed, index) } } };
+  return {
+    ...scenario,
+    run,
+    input: { ...input, noise: { rms, bandwidth: config.bandwidth, seed: taskSeed(config.seed, index) } },
+  };
 }
 
-export function runNoiseTask(scenario: Scenario, config: NoiseMarginConfig, index: number, simulate: SimulateFn): NoiseTaskOutput {
+export function runNoiseTask(
+  scenario: Scenario,
+  config: NoiseMarginConfig,
+  index: number,
+  simulate: SimulateFn,
+): NoiseTaskOutput {
   let r;
   try {
     r = simulate(noiseTaskScenario(scenario, config, index), config.holdOff ? { holdOff: config.holdOff } : undefined);

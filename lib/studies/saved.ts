@@ -3,8 +3,20 @@
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { SimulateFn } from "@/lib/sim/types";
 import type { DrawOutput, StudyUpload } from "./schema";
-import { noiseTaskCount, runNoiseTask, summarizeNoiseMargin, type NoiseMarginSummary, type NoiseTaskOutput } from "./noise-margin";
-import { runToleranceTask, summarizeToleranceSpread, toleranceTaskCount, type Corners, type ToleranceSpreadSummary } from "./tolerance-spread";
+import {
+  noiseTaskCount,
+  runNoiseTask,
+  summarizeNoiseMargin,
+  type NoiseMarginSummary,
+  type NoiseTaskOutput,
+} from "./noise-margin";
+import {
+  runToleranceTask,
+  summarizeToleranceSpread,
+  toleranceTaskCount,
+  type Corners,
+  type ToleranceSpreadSummary,
+} from "./tolerance-spread";
 
 export interface SavedStudy {
   schema: "railwise.study/1";
@@ -13,7 +25,10 @@ export interface SavedStudy {
 }
 
 export class StudyMismatch extends Error {
-  constructor(message: string, readonly field: string) {
+  constructor(
+    message: string,
+    readonly field: string,
+  ) {
     super(message);
     this.name = "StudyMismatch";
   }
@@ -26,7 +41,9 @@ function sameNumber(a: number | null, b: number | null): boolean {
 }
 
 function sameOutput(a: NoiseTaskOutput | DrawOutput, b: NoiseTaskOutput | DrawOutput): boolean {
-  return Object.keys(a).every((k) => sameNumber((a as unknown as Record<string, number | null>)[k], (b as unknown as Record<string, number | null>)[k]));
+  return Object.keys(a).every((k) =>
+    sameNumber((a as unknown as Record<string, number | null>)[k], (b as unknown as Record<string, number | null>)[k]),
+  );
 }
 
 /**
@@ -50,10 +67,17 @@ export function buildSavedStudy(
   if (upload.noiseMargin) {
     const { config, tasks } = upload.noiseMargin;
     const want = noiseTaskCount(config);
-    if (tasks.length !== want) throw new StudyMismatch(`noiseMargin.tasks must hold ${want} outputs (1 reference + levels × seedsPerLevel), got ${tasks.length}`, "noiseMargin.tasks");
+    if (tasks.length !== want)
+      throw new StudyMismatch(
+        `noiseMargin.tasks must hold ${want} outputs (1 reference + levels × seedsPerLevel), got ${tasks.length}`,
+        "noiseMargin.tasks",
+      );
     for (const i of indices(want)) {
       if (!sameOutput(runNoiseTask(scenario, config, i, simulate), tasks[i])) {
-        throw new StudyMismatch(`noiseMargin.tasks[${i}] does not match a re-run on this run's scenario`, `noiseMargin.tasks.${i}`);
+        throw new StudyMismatch(
+          `noiseMargin.tasks[${i}] does not match a re-run on this run's scenario`,
+          `noiseMargin.tasks.${i}`,
+        );
       }
     }
     saved.noiseMargin = { ...upload.noiseMargin, summary: summarizeNoiseMargin(config, tasks) };
@@ -61,13 +85,23 @@ export function buildSavedStudy(
   if (upload.toleranceSpread) {
     const { config, tasks } = upload.toleranceSpread;
     const want = toleranceTaskCount(config);
-    if (tasks.length !== want) throw new StudyMismatch(`toleranceSpread.tasks must hold ${want} outputs (1 nominal + draws), got ${tasks.length}`, "toleranceSpread.tasks");
+    if (tasks.length !== want)
+      throw new StudyMismatch(
+        `toleranceSpread.tasks must hold ${want} outputs (1 nominal + draws), got ${tasks.length}`,
+        "toleranceSpread.tasks",
+      );
     for (const i of indices(want)) {
       if (!sameOutput(runToleranceTask(scenario, config, i, simulate), tasks[i])) {
-        throw new StudyMismatch(`toleranceSpread.tasks[${i}] does not match a re-run on this run's scenario`, `toleranceSpread.tasks.${i}`);
+        throw new StudyMismatch(
+          `toleranceSpread.tasks[${i}] does not match a re-run on this run's scenario`,
+          `toleranceSpread.tasks.${i}`,
+        );
       }
     }
-    saved.toleranceSpread = { ...upload.toleranceSpread, summary: summarizeToleranceSpread(config, tasks, options.corners) };
+    saved.toleranceSpread = {
+      ...upload.toleranceSpread,
+      summary: summarizeToleranceSpread(config, tasks, options.corners),
+    };
   }
   return saved;
 }

@@ -28,19 +28,27 @@ export const noiseMarginConfigSchema = z
     seed,
     /** Noise rms levels swept: `levels` values from rmsFrom to rmsTo, evenly spaced. */
     rmsFrom: finite("rmsFrom (V)").refine((v) => v >= 0, { message: "rmsFrom must not be negative" }),
-    rmsTo: finite("rmsTo (V)").refine((v) => v > 0 && v <= 1000, { message: "rmsTo must be above 0 and at most 1000 V" }),
+    rmsTo: finite("rmsTo (V)").refine((v) => v > 0 && v <= 1000, {
+      message: "rmsTo must be above 0 and at most 1000 V",
+    }),
     levels: count("levels", 2, 200),
     seedsPerLevel: count("seedsPerLevel", 1, 10_000),
     /** Noise bandwidth in Hz (the noise model of the scenario contract). */
-    bandwidth: finite("bandwidth (Hz)").refine((v) => v > 0 && v <= 1e11, { message: "bandwidth must be above 0 and at most 1e11 Hz" }),
+    bandwidth: finite("bandwidth (Hz)").refine((v) => v > 0 && v <= 1e11, {
+      message: "bandwidth must be above 0 and at most 1e11 Hz",
+    }),
     /** Chatter probability limit for the "largest safe noise" answer, e.g. 0.01. */
     limit: finite("limit").refine((v) => v > 0 && v < 1, { message: "limit must be between 0 and 1" }),
-    holdOff: finite("holdOff (s)").refine((v) => v > 0, { message: "holdOff must be above 0" }).optional(),
+    holdOff: finite("holdOff (s)")
+      .refine((v) => v > 0, { message: "holdOff must be above 0" })
+      .optional(),
     /** Noise estimated from a capture, shown against the sweep. */
     measured: z
       .object({
         rms: finite("measured.rms (V)").refine((v) => v >= 0, { message: "measured.rms must not be negative" }),
-        bandwidth: finite("measured.bandwidth (Hz)").refine((v) => v > 0, { message: "measured.bandwidth must be above 0" }),
+        bandwidth: finite("measured.bandwidth (Hz)").refine((v) => v > 0, {
+          message: "measured.bandwidth must be above 0",
+        }),
         label: z.string().max(200).optional(),
       })
       .optional(),
@@ -59,13 +67,21 @@ export const toleranceSpreadConfigSchema = z.object({
   seed,
   draws: count("draws", 1, MAX_STUDY_TASKS),
   /** Relative resistor tolerance, e.g. 0.01 for 1 %. */
-  resistorTolerance: finite("resistorTolerance").refine((v) => v >= 0 && v <= 0.5, { message: "resistorTolerance must be between 0 and 0.5" }),
+  resistorTolerance: finite("resistorTolerance").refine((v) => v >= 0 && v <= 0.5, {
+    message: "resistorTolerance must be between 0 and 0.5",
+  }),
   /** Capacitor tolerance (fraction) for cTiming; defaults to resistorTolerance. */
-  capacitorTolerance: finite("capacitorTolerance").refine((v) => v >= 0 && v <= 0.5, { message: "capacitorTolerance must be between 0 and 0.5" }).optional(),
+  capacitorTolerance: finite("capacitorTolerance")
+    .refine((v) => v >= 0 && v <= 0.5, { message: "capacitorTolerance must be between 0 and 0.5" })
+    .optional(),
   /** Input offset magnitude (V): the offset is drawn in ±this (a part profile's offset has no known sign). */
-  offsetTolerance: finite("offsetTolerance (V)").refine((v) => v >= 0 && v <= 1, { message: "offsetTolerance must be between 0 and 1 V" }),
+  offsetTolerance: finite("offsetTolerance (V)").refine((v) => v >= 0 && v <= 1, {
+    message: "offsetTolerance must be between 0 and 1 V",
+  }),
   /** Output headroom spread as a fraction of each nominal headroom (± this share), e.g. 0.2. */
-  headroomSpread: finite("headroomSpread").refine((v) => v >= 0 && v <= 1, { message: "headroomSpread must be between 0 and 1" }),
+  headroomSpread: finite("headroomSpread").refine((v) => v >= 0 && v <= 1, {
+    message: "headroomSpread must be between 0 and 1",
+  }),
   distribution: z.enum(["uniform", "normal"], { error: 'distribution must be "uniform" or "normal"' }),
   /** "scenario": the scenario's own input without its noise; "triangle": one slow sweep low→high→low. */
   probe: z.discriminatedUnion(
@@ -89,7 +105,9 @@ export const toleranceSpreadConfigSchema = z.object({
     })
     .default({}),
   bins: count("bins", 4, 200).default(30),
-  holdOff: finite("holdOff (s)").refine((v) => v > 0, { message: "holdOff must be above 0" }).optional(),
+  holdOff: finite("holdOff (s)")
+    .refine((v) => v > 0, { message: "holdOff must be above 0" })
+    .optional(),
 });
 
 export const studyConfigSchema = z.discriminatedUnion("kind", [noiseMarginConfigSchema, toleranceSpreadConfigSchema], {

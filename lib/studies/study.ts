@@ -28,7 +28,8 @@ export function runStudyTasks(
   onTask?: (done: number) => void,
 ): TaskOutput[] {
   const total = studyTaskCount(request.config);
-  if (!(start >= 0 && end <= total && start <= end)) throw new Error(`task range [${start}, ${end}) outside [0, ${total})`);
+  if (!(start >= 0 && end <= total && start <= end))
+    throw new Error(`task range [${start}, ${end}) outside [0, ${total})`);
   const out: TaskOutput[] = [];
   for (let i = start; i < end; i++) {
     out.push(
@@ -52,7 +53,8 @@ export function splitTasks(total: number, size: number): Array<[number, number]>
 /** All tasks in this thread (tests, CLI, server spot checks), in ranges of `batch`. */
 export function runStudyInProcess(request: StudyRequest, simulate: SimulateFn, batch = 64): TaskOutput[] {
   const out: TaskOutput[] = [];
-  for (const [a, b] of splitTasks(studyTaskCount(request.config), batch)) out.push(...runStudyTasks(request, a, b, simulate));
+  for (const [a, b] of splitTasks(studyTaskCount(request.config), batch))
+    out.push(...runStudyTasks(request, a, b, simulate));
   return out;
 }
 

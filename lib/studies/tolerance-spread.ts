@@ -22,7 +22,11 @@ import { sourceMap } from "@/lib/sim/circuit";
 export function studyScenario(scenario: Scenario, config: ToleranceSpreadConfig): Scenario {
   return {
     ...scenario,
-    tolerances: { ...(scenario.tolerances ?? {}), resistor: config.resistorTolerance, capacitor: config.capacitorTolerance ?? config.resistorTolerance },
+    tolerances: {
+      ...(scenario.tolerances ?? {}),
+      resistor: config.resistorTolerance,
+      capacitor: config.capacitorTolerance ?? config.resistorTolerance,
+    },
   };
 }
 
@@ -37,11 +41,16 @@ export function toleranceTaskCount(config: ToleranceSpreadConfig): number {
 }
 
 /** Unit deviations u per varied quantity for task `index` (task 0: none, the nominal circuit). */
-export function drawPerturbation(scenario: Scenario, config: ToleranceSpreadConfig, index: number): Record<string, number> {
+export function drawPerturbation(
+  scenario: Scenario,
+  config: ToleranceSpreadConfig,
+  index: number,
+): Record<string, number> {
   if (index === 0) return {};
   const s = createStream(taskSeed(config.seed, index));
   const u: Record<string, number> = {};
-  for (const v of spreadVariables(studyScenario(scenario, config), studySpreadOptions(config))) u[v.name] = drawDeviation(s, config.distribution);
+  for (const v of spreadVariables(studyScenario(scenario, config), studySpreadOptions(config)))
+    u[v.name] = drawDeviation(s, config.distribution);
   return u;
 }
 
@@ -60,7 +69,8 @@ function outputFollowsInput(stage: Stage): boolean {
 
 export function toleranceTaskScenario(scenario: Scenario, config: ToleranceSpreadConfig, index: number): Scenario {
   const u = drawPerturbation(scenario, config, index);
-  const varied = index === 0 ? scenario : perturbScenario(studyScenario(scenario, config), u, studySpreadOptions(config));
+  const varied =
+    index === 0 ? scenario : perturbScenario(studyScenario(scenario, config), u, studySpreadOptions(config));
   const { stage, opamp } = varied;
   // The spread of the parts is the question, not the noise: the probe never carries noise.
   const { noise: _dropped, ...ownInput } = scenario.input;
@@ -75,14 +85,25 @@ export function toleranceTaskScenario(scenario: Scenario, config: ToleranceSprea
     if (map) {
       const a = map.toSource(low);
       const b = map.toSource(high);
-      if (a === null || b === null) throw new RangeError(`probe: ${low} V … ${high} V is outside what the ${map.unit} source can give at the stage input`);
+      if (a === null || b === null)
+        throw new RangeError(
+          `probe: ${low} V … ${high} V is outside what the ${map.unit} source can give at the stage input`,
+        );
       [low, high] = [Math.min(a, b), Math.max(a, b)];
       if (map.inverted) follows = !follows;
     }
-    // One sweep over the run: phase 270° starts the triangle at its minimum (DESIGN.md:
+    // One sweep over the run: phase 270° starts the triangle at its minimum (lib/schemas/README.md § Input signal:
     // a triangle equals its offset at t = 0 and rises first; the phase shifts it).
     input = {
-      components: [{ kind: "triangle", amplitude: (high - low) / 2, offset: (high + low) / 2, frequency: 1 / scenario.run.duration, phase: 270 }],
+      components: [
+        {
+          kind: "triangle",
+          amplitude: (high - low) / 2,
+          offset: (high + low) / 2,
+          frequency: 1 / scenario.run.duration,
+          phase: 270,
+        },
+      ],
     };
     run = { ...run, initialOutput: follows ? "low" : "high" };
   }
@@ -97,12 +118,20 @@ export function toleranceTaskScenario(scenario: Scenario, config: ToleranceSprea
 export function measureGain(r: SimResult): number | null {
   const { high, low } = r.rails;
   const margin = 0.02 * (high - low);
-  let n = 0, sx = 0, sy = 0, sxx = 0, sxy = 0;
+  let n = 0,
+    sx = 0,
+    sy = 0,
+    sxx = 0,
+    sxy = 0;
   for (let i = 0; i < r.output.length; i++) {
     const y = r.output[i];
     if (y <= low + margin || y >= high - margin) continue;
     const x = r.input[i];
-    n++; sx += x; sy += y; sxx += x * x; sxy += x * y;
+    n++;
+    sx += x;
+    sy += y;
+    sxx += x * x;
+    sxy += x * y;
   }
   if (n < 8) return null;
   const den = n * sxx - sx * sx;
@@ -111,10 +140,18 @@ export function measureGain(r: SimResult): number | null {
   return Number.isFinite(g) ? g : null;
 }
 
-export function runToleranceTask(scenario: Scenario, config: ToleranceSpreadConfig, index: number, simulate: SimulateFn): DrawOutput {
+export function runToleranceTask(
+  scenario: Scenario,
+  config: ToleranceSpreadConfig,
+  index: number,
+  simulate: SimulateFn,
+): DrawOutput {
   let r: SimResult;
   try {
-    r = simulate(toleranceTaskScenario(scenario, config, index), config.holdOff ? { holdOff: config.holdOff } : undefined);
+    r = simulate(
+      toleranceTaskScenario(scenario, config, index),
+      config.holdOff ? { holdOff: config.holdOff } : undefined,
+    );
   } catch (err) {
     // A solver that gives up on one draw must not sink the study: count it, show it.
     if (!(err instanceof Error) || err.name === "SimCancelled") throw err;
@@ -170,7 +207,11 @@ export interface ToleranceSpreadSummary {
 
 export type Corners = Partial<Record<Measure, [number, number]>>;
 
-export function summarizeToleranceSpread(config: ToleranceSpreadConfig, tasks: readonly DrawOutput[], corners: Corners = {}): ToleranceSpreadSummary {
+export function summarizeToleranceSpread(
+  config: ToleranceSpreadConfig,
+  tasks: readonly DrawOutput[],
+  corners: Corners = {},
+): ToleranceSpreadSummary {
   if (tasks.length !== toleranceTaskCount(config)) {
     throw new Error(`tolerance spread expects ${toleranceTaskCount(config)} task outputs, got ${tasks.length}`);
   }
@@ -188,7 +229,11 @@ export function summarizeToleranceSpread(config: ToleranceSpreadConfig, tasks: r
     // The axis spans the draws, the nominal and the corners; the window joins when it is of a
     // similar size (a window far wider than the spread would squeeze the bars into a sliver —
     // its shading then simply fills the axis).
-    const core = [...(summary.min !== null ? [summary.min, summary.max as number] : []), ...(nominal[measure] !== null ? [nominal[measure] as number] : []), ...(wc ?? [])];
+    const core = [
+      ...(summary.min !== null ? [summary.min, summary.max as number] : []),
+      ...(nominal[measure] !== null ? [nominal[measure] as number] : []),
+      ...(wc ?? []),
+    ];
     let lo = core.length ? Math.min(...core) : (win?.[0] ?? 0);
     let hi = core.length ? Math.max(...core) : (win?.[1] ?? 1);
     if (win) {
@@ -199,18 +244,30 @@ export function summarizeToleranceSpread(config: ToleranceSpreadConfig, tasks: r
     const pad = (hi - lo) * 0.06 || Math.abs(hi) * 1e-3 || 1e-6;
     const hist = histogram(values, lo - pad, hi + pad, config.bins);
     const inside = win ? values.filter((v) => v >= win[0] && v <= win[1]).length : null;
-    return { measure, nominal: nominal[measure], summary, missing: draws.length - values.length, histogram: hist, worstCase: wc, window: win, inside };
+    return {
+      measure,
+      nominal: nominal[measure],
+      summary,
+      missing: draws.length - values.length,
+      histogram: hist,
+      worstCase: wc,
+      window: win,
+      inside,
+    };
   });
   const windowed = config.measures.filter((m) => config.window[m]);
   let inside: number | null = null;
   if (windowed.length) {
     inside = 0;
     for (const d of draws) {
-      if (windowed.every((m) => {
-        const v = d[m];
-        const w = config.window[m] as [number, number];
-        return v !== null && v >= w[0] && v <= w[1];
-      })) inside++;
+      if (
+        windowed.every((m) => {
+          const v = d[m];
+          const w = config.window[m] as [number, number];
+          return v !== null && v >= w[0] && v <= w[1];
+        })
+      )
+        inside++;
     }
   }
   const ci = inside !== null ? wilsonInterval(inside, draws.length) : null;

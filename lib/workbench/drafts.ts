@@ -17,9 +17,18 @@ interface StorageLike {
 
 export const draftKey = (scenarioId: string) => `railwise:draft:${scenarioId}`;
 
-export function writeDraft<T>(store: StorageLike, scenarioId: string, baseVersion: number, draft: T, now = new Date()): void {
+export function writeDraft<T>(
+  store: StorageLike,
+  scenarioId: string,
+  baseVersion: number,
+  draft: T,
+  now = new Date(),
+): void {
   try {
-    store.setItem(draftKey(scenarioId), JSON.stringify({ baseVersion, savedAt: now.toISOString(), draft } satisfies StoredDraft<T>));
+    store.setItem(
+      draftKey(scenarioId),
+      JSON.stringify({ baseVersion, savedAt: now.toISOString(), draft } satisfies StoredDraft<T>),
+    );
   } catch {
     // Storage full or disabled: the leave-page warning still protects the edit.
   }
@@ -44,7 +53,14 @@ export function readDraft<T>(store: StorageLike, scenarioId: string, current: T)
   if (!text) return null;
   try {
     const d = JSON.parse(text) as StoredDraft<T>;
-    if (typeof d !== "object" || d === null || typeof d.baseVersion !== "number" || typeof d.savedAt !== "string" || d.draft === undefined) throw new Error("shape");
+    if (
+      typeof d !== "object" ||
+      d === null ||
+      typeof d.baseVersion !== "number" ||
+      typeof d.savedAt !== "string" ||
+      d.draft === undefined
+    )
+      throw new Error("shape");
     if (JSON.stringify(d.draft) === JSON.stringify(current)) {
       clearDraft(store, scenarioId);
       return null;

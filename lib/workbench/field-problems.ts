@@ -14,7 +14,10 @@ interface Positioned {
 const FOLLOWING = 4; // Node.DOCUMENT_POSITION_FOLLOWING
 
 /** Problems in document order; fields whose element is missing go last, in label order. */
-export function listFieldProblems<T extends FieldProblemLike>(problems: readonly T[], find: (id: string) => Positioned | null): T[] {
+export function listFieldProblems<T extends FieldProblemLike>(
+  problems: readonly T[],
+  find: (id: string) => Positioned | null,
+): T[] {
   const withEl = problems.map((p) => ({ p, el: find(p.inputId) }));
   return withEl
     .sort((a, b) => {

@@ -21,14 +21,14 @@ export interface Designed {
   oscillator: boolean;
 }
 
-/** Output limits from the part profile: Voh = V+ − headroomHigh, Vol = V− + headroomLow (DESIGN.md). */
+/** Output limits from the part profile: Voh = V+ − headroomHigh, Vol = V− + headroomLow (DEVELOPERS.md § Behavioural op-amp model). */
 export function railsOf(s: Scenario): Rails {
   return outputSwing(s.opamp, s.supply);
 }
 
 /**
  * Input-referred switching points, gain and period from the network and the output limits,
- * by lib/design's closed forms (REFERENCES.md: Schmitt-trigger equations, relaxation-oscillator
+ * by lib/design's closed forms (tests/REFERENCES.md: Schmitt-trigger equations, relaxation-oscillator
  * timing, finite-A closed-loop gain). The oscillator's points are those of its capacitor node.
  */
 export function designedFigures(s: Scenario): Designed {
@@ -36,9 +36,21 @@ export function designedFigures(s: Scenario): Designed {
   const f = stageFigures(s.stage, c);
   if (s.stage.kind === "relaxation-oscillator") {
     const p = oscillatorSwitchingPoints(s.stage, c);
-    return { upperThreshold: p.upper, lowerThreshold: p.lower, gain: null, period: f.frequency ? 1 / f.frequency : null, oscillator: true };
+    return {
+      upperThreshold: p.upper,
+      lowerThreshold: p.lower,
+      gain: null,
+      period: f.frequency ? 1 / f.frequency : null,
+      oscillator: true,
+    };
   }
-  return { upperThreshold: f.upperThreshold, lowerThreshold: f.lowerThreshold, gain: f.gain, period: null, oscillator: false };
+  return {
+    upperThreshold: f.upperThreshold,
+    lowerThreshold: f.lowerThreshold,
+    gain: f.gain,
+    period: null,
+    oscillator: false,
+  };
 }
 
 /** The switching points worth drawing on the plots (none for oscillators: no input to compare). */
@@ -74,7 +86,7 @@ export function measuredGain(input: ArrayLike<number>, output: ArrayLike<number>
   return (n * sxy - sx * sy) / den;
 }
 
-/** DESIGN.md "result additions": an amplifier's readings in place of switching metrics. */
+/** lib/schemas/README.md § Result JSON (additions): an amplifier's readings in place of switching metrics. */
 export interface AmplifierReadings {
   gain: number | null;
   /** Input level at which the output first reaches Voh / Vol (null if it never does). */
@@ -99,7 +111,12 @@ export function isAmplifierKind(kind: Scenario["stage"]["kind"]): boolean {
  * measured here and the first input level at which the output comes within 0.1 % of the swing
  * of each limit (the same definition, taken from the samples).
  */
-export function amplifierReadings(metrics: MetricsIn, input: ArrayLike<number> | null, output: ArrayLike<number> | null, rails: Rails): AmplifierReadings {
+export function amplifierReadings(
+  metrics: MetricsIn,
+  input: ArrayLike<number> | null,
+  output: ArrayLike<number> | null,
+  rails: Rails,
+): AmplifierReadings {
   if (metrics.amplifier) return metrics.amplifier;
   if (!input || !output) return { gain: null, clipInputHigh: null, clipInputLow: null };
   const tol = 1e-3 * (rails.high - rails.low);
@@ -129,7 +146,13 @@ export interface Check {
   tolerance: number;
   pass: boolean | null;
   /** The same figure in the source unit, when the scenario has a `source` (shown first). */
-  source?: { designed: number | null; measured: number | null; unit: string; quantity: string | null; difference: boolean };
+  source?: {
+    designed: number | null;
+    measured: number | null;
+    unit: string;
+    quantity: string | null;
+    difference: boolean;
+  };
 }
 
 /**
@@ -137,7 +160,12 @@ export interface Check {
  * whichever is larger (common practice, no source) — widened by 3 × noise rms for thresholds,
  * since noise moves each crossing.
  */
-export function buildChecks(s: Scenario, metrics: MetricsIn | SimMetrics, gain: number | null, options: { chatterLimit?: number } = {}): Check[] {
+export function buildChecks(
+  s: Scenario,
+  metrics: MetricsIn | SimMetrics,
+  gain: number | null,
+  options: { chatterLimit?: number } = {},
+): Check[] {
   const d = designedFigures(s);
   const span = s.supply.positive - s.supply.negative;
   const noise = s.input.noise?.rms ?? 0;
@@ -183,11 +211,25 @@ export function buildChecks(s: Scenario, metrics: MetricsIn | SimMetrics, gain: 
   if (KIND_INFO[s.stage.kind].switching) {
     const limit = Math.max(0, Math.floor(options.chatterLimit ?? 0));
     const measured = metrics.chatter ?? null;
-    out.push({ label: "No extra transitions", designed: limit, measured, unit: "edges", tolerance: 0, pass: measured === null ? null : measured <= limit });
+    out.push({
+      label: "No extra transitions",
+      designed: limit,
+      measured,
+      unit: "edges",
+      tolerance: 0,
+      pass: measured === null ? null : measured <= limit,
+    });
   }
   if (d.gain !== null) {
     const tolerance = 0.01 * Math.abs(d.gain);
-    out.push({ label: "Gain", designed: d.gain, measured: gain, unit: "V/V", tolerance, pass: gain === null ? null : Math.abs(gain - d.gain) <= tolerance });
+    out.push({
+      label: "Gain",
+      designed: d.gain,
+      measured: gain,
+      unit: "V/V",
+      tolerance,
+      pass: gain === null ? null : Math.abs(gain - d.gain) <= tolerance,
+    });
   }
   if (d.period !== null) {
     const tolerance = 0.02 * d.period;
@@ -229,14 +271,22 @@ export function buildWarnings({ scenario: s, metrics: m, inputMin, inputMax }: W
   if (m.clippedFraction > 0.001) {
     w.push(
       switching
-        ? { level: "note", text: `Output rests at a limit for ${pct(m.clippedFraction)} of the run, as a switching stage should.` }
-        : { level: "alert", text: `Clipping: the output is held at a limit for ${pct(m.clippedFraction)} of the run. Lower the gain or the input, or widen the supplies.` },
+        ? {
+            level: "note",
+            text: `Output rests at a limit for ${pct(m.clippedFraction)} of the run, as a switching stage should.`,
+          }
+        : {
+            level: "alert",
+            text: `Clipping: the output is held at a limit for ${pct(m.clippedFraction)} of the run. Lower the gain or the input, or widen the supplies.`,
+          },
     );
   }
 
   if (noise > 0 && switching) {
     const d = designedFigures(s);
-    const deadband = m.hysteresis ?? (d.upperThreshold !== null && d.lowerThreshold !== null ? d.upperThreshold - d.lowerThreshold : 0);
+    const deadband =
+      m.hysteresis ??
+      (d.upperThreshold !== null && d.lowerThreshold !== null ? d.upperThreshold - d.lowerThreshold : 0);
     const needed = 6.6 * noise;
     if (deadband < needed) {
       w.push({
@@ -276,7 +326,12 @@ export { extent as minMax } from "./extent";
 /** The edges the input causes when it rises (rising output for non-inverting stages). */
 export function isInvertingStage(s: Scenario): boolean {
   const k = s.stage.kind;
-  return k === "inverting-amplifier" || k === "schmitt-inverting" || k === "relaxation-oscillator" || (k === "comparator" && s.stage.inputAt === "inverting");
+  return (
+    k === "inverting-amplifier" ||
+    k === "schmitt-inverting" ||
+    k === "relaxation-oscillator" ||
+    (k === "comparator" && s.stage.inputAt === "inverting")
+  );
 }
 
 export type { SimEvent };

@@ -1,4 +1,4 @@
-// Readings in the sensor's units (DESIGN.md "The circuit as built"): when a scenario has a
+// Readings in the sensor's units (lib/schemas/README.md § The circuit as built): when a scenario has a
 // `source`, switching points and the deadband are given in the source unit first ("12.49 V
 // battery"), volts at the stage-input pin second. Pure functions over lib/sim's source map.
 import type { Scenario } from "@/lib/schemas/scenario";
@@ -35,7 +35,11 @@ export function sourceNumber(v: number): string {
 }
 
 /** "11.40 V battery", "19.02 °C water temperature"; a difference drops the quantity. */
-export function formatSource(v: number | null | undefined, terms: Pick<SourceTerms, "unit" | "quantity">, difference = false): string {
+export function formatSource(
+  v: number | null | undefined,
+  terms: Pick<SourceTerms, "unit" | "quantity">,
+  difference = false,
+): string {
   if (v == null || !Number.isFinite(v)) return "—";
   const q = !difference && terms.quantity ? ` ${terms.quantity}` : "";
   return `${sourceNumber(v)} ${terms.unit}${q}`;
@@ -104,17 +108,28 @@ export function sourceSentence(
 
 /** A CSV column-name piece: letters, digits and underscores ("water temperature" → water_temperature, °C → degC). */
 export function csvName(s: string): string {
-  return s.replace(/°/g, "deg").replace(/[^A-Za-z0-9]+/g, "_").replace(/^_|_$/g, "") || "source";
+  return (
+    s
+      .replace(/°/g, "deg")
+      .replace(/[^A-Za-z0-9]+/g, "_")
+      .replace(/^_|_$/g, "") || "source"
+  );
 }
 
 /** The samples CSV's further columns: the input in source units, the filter node, the capacitor. */
 export function extraSampleColumns(
   s: Scenario,
-  cols: { source?: ArrayLike<number> | null; filtered?: ArrayLike<number> | null; capacitor?: ArrayLike<number> | null },
+  cols: {
+    source?: ArrayLike<number> | null;
+    filtered?: ArrayLike<number> | null;
+    capacitor?: ArrayLike<number> | null;
+  },
 ): { name: string; values: ArrayLike<number> }[] {
   const terms = sourceTerms(s);
   return [
-    ...(terms && cols.source ? [{ name: `${csvName(terms.quantity ?? "source")}_${csvName(terms.unit)}`, values: cols.source }] : []),
+    ...(terms && cols.source
+      ? [{ name: `${csvName(terms.quantity ?? "source")}_${csvName(terms.unit)}`, values: cols.source }]
+      : []),
     ...(cols.filtered ? [{ name: "filter_node_V", values: cols.filtered }] : []),
     ...(cols.capacitor ? [{ name: "capacitor_V", values: cols.capacitor }] : []),
   ];

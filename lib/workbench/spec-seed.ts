@@ -1,5 +1,5 @@
 // The From spec form's starting values: the scenario's stored `spec` (the spec it was designed
-// from, DESIGN.md "The circuit as built") when it has one the form can show, else defaults
+// from, lib/schemas/README.md § The circuit as built) when it has one the form can show, else defaults
 // around the middle of the supply. Also the reverse: the spec to store when a design is applied.
 import type { Scenario, StageKind } from "@/lib/schemas/scenario";
 import type { DesignSpecInput } from "@/lib/schemas/design";
@@ -67,7 +67,14 @@ export function specSeed(s: Scenario): SpecSeed {
   if (sn) {
     if (sn.kind === "divider") sensor = { kind: "divider", rTop: sn.rTop, rBottom: sn.rBottom };
     else if (sn.kind === "ntc" && "beta" in sn.model && sn.model.t0 === undefined) {
-      sensor = { kind: "ntc", r25: sn.model.r25, beta: sn.model.beta, rFixed: sn.rFixed, position: sn.position, vSupply: sn.supplyVoltage ?? spec.supply.positive };
+      sensor = {
+        kind: "ntc",
+        r25: sn.model.r25,
+        beta: sn.model.beta,
+        rFixed: sn.rFixed,
+        position: sn.position,
+        vSupply: sn.supplyVoltage ?? spec.supply.positive,
+      };
     } else return base;
   }
   const t = spec.target as Record<string, number | undefined>;
@@ -93,6 +100,13 @@ export function specSeed(s: Scenario): SpecSeed {
 /** The sensor as the design-spec contract writes it (null for plain input volts). */
 export function sensorOfSetup(s: SpecSensor): NonNullable<DesignSpecInput["sensor"]> | null {
   if (s.kind === "divider") return { kind: "divider", rTop: s.rTop, rBottom: s.rBottom };
-  if (s.kind === "ntc") return { kind: "ntc", model: { beta: s.beta, r25: s.r25 }, rFixed: s.rFixed, position: s.position, supplyVoltage: s.vSupply };
+  if (s.kind === "ntc")
+    return {
+      kind: "ntc",
+      model: { beta: s.beta, r25: s.r25 },
+      rFixed: s.rFixed,
+      position: s.position,
+      supplyVoltage: s.vSupply,
+    };
   return null;
 }

@@ -43,7 +43,8 @@ export function suggestTolerance(s: Scenario) {
   for (const m of measures) {
     const v = nominal[m];
     // A suggested ±2 % window around the designed figure; the form says where it came from.
-    if (v !== null && v !== undefined && Number.isFinite(v)) window[m] = [v - Math.abs(v) * 0.02, v + Math.abs(v) * 0.02];
+    if (v !== null && v !== undefined && Number.isFinite(v))
+      window[m] = [v - Math.abs(v) * 0.02, v + Math.abs(v) * 0.02];
   }
   return {
     draws: 1000,
@@ -62,11 +63,11 @@ export function inputRange(s: Scenario): [number, number] {
   const f = stageFigures(s.stage, conditionsOf(s.opamp, s.supply));
   const pts = [f.upperThreshold, f.lowerThreshold].filter((v): v is number => v !== null && Number.isFinite(v));
   if (pts.length === 0) return [s.supply.negative, s.supply.positive];
-  const lo = Math.min(...pts), hi = Math.max(...pts);
+  const lo = Math.min(...pts),
+    hi = Math.max(...pts);
   const pad = Math.max(0.25 * (hi - lo), 0.05 * (s.supply.positive - s.supply.negative));
   return [lo - pad, hi + pad];
 }
-
 
 /** The labels the study forms show, by config key. */
 export const STUDY_FIELD_LABEL: Record<string, string> = {
@@ -90,7 +91,8 @@ export function studyIssueText(issues: readonly { message: string; path?: readon
     .slice(0, 3)
     .map((i) => {
       let text = i.message;
-      for (const [key, label] of Object.entries(STUDY_FIELD_LABEL)) text = text.replace(new RegExp(`\\b${key}\\b`, "g"), `“${label}”`);
+      for (const [key, label] of Object.entries(STUDY_FIELD_LABEL))
+        text = text.replace(new RegExp(`\\b${key}\\b`, "g"), `“${label}”`);
       return text;
     })
     .join("; ");

@@ -70,7 +70,10 @@ export async function up({ context: qi }: { context: QueryInterface }) {
     note: str(true),
     createdAt: stamp,
   });
-  await qi.addIndex("scenario_versions", ["scenarioId", "version"], { unique: true, name: "scenario_versions_scenario_version" });
+  await qi.addIndex("scenario_versions", ["scenarioId", "version"], {
+    unique: true,
+    name: "scenario_versions_scenario_version",
+  });
 
   await qi.createTable("runs", {
     id,

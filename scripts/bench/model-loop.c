@@ -6,7 +6,7 @@
  * bit (xoroshiro128+ and the Marsaglia polar method here), only the same segment count and a
  * Gaussian of the same rms.
  *
- * Model (DESIGN.md "Behavioural op-amp model"): vd = alpha*u + beta*vo + delta,
+ * Model (DEVELOPERS.md § Behavioural op-amp model): vd = alpha*u + beta*vo + delta,
  * dvo/dt = wp*(A0*vd - vo), clamped to [-SRfall, +SR], vo held in [Vol, Voh].
  * Over a segment u(tau) = u0 + s*tau, so dvo/dt = a*vo + c0 + c1*tau with
  * a = wp*(A0*beta - 1), c0 = wp*A0*(alpha*u0 + delta), c1 = wp*A0*alpha*s, whose exact solution

@@ -104,7 +104,9 @@ describe("foundation pages in Chromium", () => {
     // The value shows as a formatted quantity (tables) or as a typed value (workbench).
     await expect.poll(async () => resistorShown(page, BATTERY_R_FEEDBACK), { timeout: 15_000 }).toBe(true);
     // A battery disconnect switches a load: the caution is on the page.
-    await expect(page.getByTestId("safety-caution").textContent()).resolves.toMatch(/local electrical codes and licensed practice/);
+    await expect(page.getByTestId("safety-caution").textContent()).resolves.toMatch(
+      /local electrical codes and licensed practice/,
+    );
     await screenshot(page, "foundation-scenario-designer");
     await context.close();
   });
@@ -167,7 +169,7 @@ describe("foundation pages in Chromium", () => {
     expect(text).toContain(formatQuantity(33e3, "Ω", 4)); // rReference "33 kΩ"
     expect(text).toContain("V/µs");
     expect(text).toContain("Schmitt trigger, inverting");
-    // Designed switching points at the divider: inverting-trigger closed form (REFERENCES.md),
+    // Designed switching points at the divider: inverting-trigger closed form (tests/REFERENCES.md),
     // upper = (Vref·rFb + Voh·rRef)/(rRef + rFb) + Vos = 2.6153 V, lower with Vol = 2.3857 V
     // (Vref 2.5 V, rRef 33 kΩ, rFb 680 kΩ, Voh 4.98 V, Vol 0.02 V, Vos 0.5 mV; worked by hand).
     expect(text).toContain("2.615 V");

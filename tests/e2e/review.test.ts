@@ -40,11 +40,19 @@ async function scenarioOf(s: SignedIn, id: string): Promise<ScenarioJson> {
   return (await res.json()) as ScenarioJson;
 }
 
-async function saveScenario(s: SignedIn, id: string, edit: (doc: ScenarioJson["scenario"]) => void, note: string): Promise<number> {
+async function saveScenario(
+  s: SignedIn,
+  id: string,
+  edit: (doc: ScenarioJson["scenario"]) => void,
+  note: string,
+): Promise<number> {
   const cur = await scenarioOf(s, id);
   const doc = structuredClone(cur.scenario);
   edit(doc);
-  const res = await s.fetch(`/api/scenarios/${id}`, { method: "PUT", body: JSON.stringify({ scenario: doc, note, baseVersion: cur.version }) });
+  const res = await s.fetch(`/api/scenarios/${id}`, {
+    method: "PUT",
+    body: JSON.stringify({ scenario: doc, note, baseVersion: cur.version }),
+  });
   expect(res.status, await res.clone().text()).toBe(200);
   return ((await res.json()) as { version: number }).version;
 }
@@ -71,7 +79,12 @@ describe("review you can sign", () => {
     const designer = await signIn(server.url, EMAILS.designer, DEMO_PASSWORD);
     const scenarioId = await firstScenarioId(designer, "Battery low-voltage disconnect");
     await createRun(designer, scenarioId, "Cut-off check, 680k feedback");
-    const reviewedVersion = await saveScenario(designer, scenarioId, (d) => (d.stage.rFeedback = 560e3), "Feedback 680k → 560k for a wider deadband");
+    const reviewedVersion = await saveScenario(
+      designer,
+      scenarioId,
+      (d) => (d.stage.rFeedback = 560e3),
+      "Feedback 680k → 560k for a wider deadband",
+    );
     const runId = await createRun(designer, scenarioId, "Cut-off check, 560k feedback");
 
     // 1. The designer asks the reviewer from the run page.
@@ -81,14 +94,19 @@ describe("review you can sign", () => {
     const requestForm = dPage.getByRole("form", { name: "Request review" });
     await requestForm.waitFor();
     await requestForm.getByLabel(/Maren Lie/).check();
-    await dPage.getByLabel("Message to the reviewers").fill("Wider deadband after the feedback change; please check reconnect.");
+    await dPage
+      .getByLabel("Message to the reviewers")
+      .fill("Wider deadband after the feedback change; please check reconnect.");
     await requestForm.getByRole("button", { name: "Request review" }).click();
     await dPage.getByText(/Review requested from Maren Lie/).waitFor();
     await dPage.getByRole("list", { name: "Review requests" }).getByText("Maren Lie").waitFor();
     await screenshot(dPage, "review-request-sent");
 
     // 2. The reviewer's mail, through the local mail sink.
-    const mail = await waitForMail(server.mailDir, (m) => m.to.includes(EMAILS.reviewer) && m.subject === 'Review requested: run "Cut-off check, 560k feedback"');
+    const mail = await waitForMail(
+      server.mailDir,
+      (m) => m.to.includes(EMAILS.reviewer) && m.subject === 'Review requested: run "Cut-off check, 560k feedback"',
+    );
     expect(mail.text).toContain("Wider deadband after the feedback change");
     const runUrl = /https?:\/\/\S+\/runs\/[0-9a-f-]{36}/.exec(mail.text)?.[0];
     expect(runUrl).toBeDefined();
@@ -105,7 +123,9 @@ describe("review you can sign", () => {
     await rPage.waitForURL((u) => u.pathname === `/runs/${runId}`);
 
     // 4. What changed since the previous version, in the UI's notation, with the change note.
-    const diff = rPage.getByRole("table", { name: `Changes from version ${reviewedVersion - 1} to ${reviewedVersion}` });
+    const diff = rPage.getByRole("table", {
+      name: `Changes from version ${reviewedVersion - 1} to ${reviewedVersion}`,
+    });
     await diff.waitFor();
     const row = diff.locator("tr", { hasText: "R feedback" });
     await expect.poll(() => row.textContent()).toContain("680 kΩ");
@@ -121,7 +141,12 @@ describe("review you can sign", () => {
     await readings.waitFor();
     // A smaller feedback resistor moves the switching points: at least those rows differ.
     expect(await readings.locator('tr[data-differs="yes"]', { hasText: "switching point" }).count()).toBe(2);
-    expect(await rPage.getByRole("table", { name: "Scenario changes between the runs" }).locator("tr", { hasText: "R feedback" }).count()).toBe(1);
+    expect(
+      await rPage
+        .getByRole("table", { name: "Scenario changes between the runs" })
+        .locator("tr", { hasText: "R feedback" })
+        .count(),
+    ).toBe(1);
     await screenshot(rPage, "review-compare");
 
     // 6. A deliberate sign-off: nothing chosen, a note required for changes, approval confirmed.
@@ -144,13 +169,24 @@ describe("review you can sign", () => {
     expect(confirmText).toContain(`version ${reviewedVersion}`);
     expect(confirmText).toContain("Cut-off check, 560k feedback");
     // Nothing is stored before the confirmation.
-    expect(((await (await designer.fetch(`/api/runs/${runId}/signoffs`)).json()) as { items: unknown[] }).items).toHaveLength(0);
+    expect(
+      ((await (await designer.fetch(`/api/runs/${runId}/signoffs`)).json()) as { items: unknown[] }).items,
+    ).toHaveLength(0);
     await screenshot(rPage, "review-approve-confirm");
     await rPage.getByRole("button", { name: `Approve version ${reviewedVersion}` }).click();
     await expect.poll(() => rPage.getByTestId("review-state").textContent(), { timeout: 10_000 }).toContain("Approved");
-    const stored = (await (await designer.fetch(`/api/runs/${runId}/signoffs`)).json()) as { items: { decision: string; scenarioVersion: number; reviewer: { name: string } }[] };
-    expect(stored.items[0]).toMatchObject({ decision: "approved", scenarioVersion: reviewedVersion, reviewer: { name: "Maren Lie" } });
-    await waitForMail(server.mailDir, (m) => m.to.includes(EMAILS.designer) && m.subject === 'Approved: run "Cut-off check, 560k feedback"');
+    const stored = (await (await designer.fetch(`/api/runs/${runId}/signoffs`)).json()) as {
+      items: { decision: string; scenarioVersion: number; reviewer: { name: string } }[];
+    };
+    expect(stored.items[0]).toMatchObject({
+      decision: "approved",
+      scenarioVersion: reviewedVersion,
+      reviewer: { name: "Maren Lie" },
+    });
+    await waitForMail(
+      server.mailDir,
+      (m) => m.to.includes(EMAILS.designer) && m.subject === 'Approved: run "Cut-off check, 560k feedback"',
+    );
     expect(await rPage.getByTestId("signoff-out-of-date").count()).toBe(0);
 
     // 7. A later edit: the approval shows as out of date on the run and on the board.
@@ -168,7 +204,10 @@ describe("review you can sign", () => {
     await screenshot(rPage, "review-board-out-of-date");
     // The queue moved the run from "waiting" to "decided".
     await rPage.goto(`${server.url}/review`);
-    await rPage.getByRole("table", { name: "Decided" }).getByRole("link", { name: "Cut-off check, 560k feedback" }).waitFor();
+    await rPage
+      .getByRole("table", { name: "Decided" })
+      .getByRole("link", { name: "Cut-off check, 560k feedback" })
+      .waitFor();
     expect(await rPage.getByRole("table", { name: "Waiting on me" }).count()).toBe(0);
 
     // 8. The design review report, on screen and printed to A4 and Letter.
@@ -181,7 +220,9 @@ describe("review you can sign", () => {
     expect(reportText).toContain("Approved by Maren Lie");
     expect(reportText).toContain(`Out of date: the scenario is now at version ${reviewedVersion + 1}`);
     expect(reportText).toContain(`/runs/${runId}`);
-    expect(await rPage.getByRole("table", { name: "Parts list" }).locator("tbody tr").count()).toBeGreaterThanOrEqual(2);
+    expect(await rPage.getByRole("table", { name: "Parts list" }).locator("tbody tr").count()).toBeGreaterThanOrEqual(
+      2,
+    );
     expect(await rPage.getByTestId("safety-caution").count()).toBe(1);
     await screenshot(rPage, "review-report");
     fs.mkdirSync(OUT, { recursive: true });
@@ -203,7 +244,10 @@ describe("review you can sign", () => {
     const designer = await signIn(server.url, EMAILS.designer, DEMO_PASSWORD);
     const scenarioId = await firstScenarioId(designer, "Battery low-voltage disconnect");
     const runId = await createRun(designer, scenarioId, "Shared for the yard");
-    const linkRes = await designer.fetch(`/api/runs/${runId}/links`, { method: "POST", body: JSON.stringify({ expiresInDays: 7, label: "yard bench tech" }) });
+    const linkRes = await designer.fetch(`/api/runs/${runId}/links`, {
+      method: "POST",
+      body: JSON.stringify({ expiresInDays: 7, label: "yard bench tech" }),
+    });
     expect(linkRes.status).toBe(201);
     const { token } = (await linkRes.json()) as { token: string };
 
@@ -237,7 +281,10 @@ describe("review you can sign", () => {
     await signInPage(vPage, server.url, EMAILS.viewer);
     await vPage.goto(`${server.url}/runs/${runId}`);
     await vPage.getByTestId("review-panel").waitFor();
-    await vPage.getByRole("list", { name: "Review requests" }).or(vPage.getByText("Nobody has been asked to review this run yet.")).waitFor();
+    await vPage
+      .getByRole("list", { name: "Review requests" })
+      .or(vPage.getByText("Nobody has been asked to review this run yet."))
+      .waitFor();
     expect(await vPage.getByRole("form", { name: "Sign off" }).count()).toBe(0);
     expect(await vPage.getByRole("form", { name: "Request review" }).count()).toBe(0);
 
@@ -258,7 +305,10 @@ describe("review you can sign", () => {
     for (const sub of ["report", "compare"]) {
       await xPage.goto(`${server.url}/runs/${runId}/${sub}`);
       // Either the page's own "Run not found" or the app's 404 page: both say it is not there.
-      await xPage.getByText(/^(Run not found|Nothing at this address)$/).first().waitFor();
+      await xPage
+        .getByText(/^(Run not found|Nothing at this address)$/)
+        .first()
+        .waitFor();
       expect(await xPage.content()).not.toContain("Shared for the yard");
     }
     expect(errors).toEqual([]);

@@ -47,7 +47,11 @@ async function stopJankProbe(p: Page) {
   return p.evaluate(() => {
     const w = window as unknown as { __jank: { longest: number; count: number; maxGap: number; stop: boolean } };
     w.__jank.stop = true;
-    return { longestTaskMs: Math.round(w.__jank.longest), longTasks: w.__jank.count, maxFrameGapMs: Math.round(w.__jank.maxGap) };
+    return {
+      longestTaskMs: Math.round(w.__jank.longest),
+      longTasks: w.__jank.count,
+      maxFrameGapMs: Math.round(w.__jank.maxGap),
+    };
   });
 }
 
@@ -70,7 +74,11 @@ beforeAll(async () => {
   const bilge = DEMO_SCENARIOS.find((s) => s.key === "bilge-float")!.scenario;
   const res = await api.fetch("/api/scenarios", {
     method: "POST",
-    body: JSON.stringify({ boardId: board.id, name: "Bilge float, 20k samples", scenario: { ...bilge, name: "Bilge float, 20k samples", run: { ...bilge.run, points: 20_000 } } }),
+    body: JSON.stringify({
+      boardId: board.id,
+      name: "Bilge float, 20k samples",
+      scenario: { ...bilge, name: "Bilge float, 20k samples", run: { ...bilge.run, points: 20_000 } },
+    }),
   });
   expect(res.status).toBe(201);
   scenarioId = ((await res.json()) as { id: string }).id;
@@ -131,11 +139,15 @@ describe("studies in the browser", () => {
     const t = await reportedSeconds(page, "tolerance-result");
     expect(t.runs).toBe(1001);
     figures.toleranceSpread = { ...t, clickToResultMs: clickToResult, ...jank };
-    await expect(page.getByTestId("tolerance-verdict").textContent()).resolves.toMatch(/of 1,000 draws inside the spec window/);
+    await expect(page.getByTestId("tolerance-verdict").textContent()).resolves.toMatch(
+      /of 1,000 draws inside the spec window/,
+    );
     expect(await page.getByTestId("histogram-upperThreshold").locator("canvas").count()).toBeGreaterThan(0);
     expect(await page.getByTestId("histogram-lowerThreshold").locator("canvas").count()).toBeGreaterThan(0);
     await screenshot(page, "studies-workbench");
-    await page.getByTestId("studies-card").screenshot({ path: path.join(SCREENSHOT_DIR, "studies-tolerance-card.png") });
+    await page
+      .getByTestId("studies-card")
+      .screenshot({ path: path.join(SCREENSHOT_DIR, "studies-tolerance-card.png") });
   });
 
   it("cancel stops every study worker", async () => {
@@ -163,31 +175,55 @@ describe("studies in the browser", () => {
     await page.getByTestId("saved-studies").waitFor({ timeout: 60_000 });
     await page.getByTestId("chatter-plot").locator("canvas").first().waitFor();
     await expect(page.getByTestId("noise-verdict").textContent()).resolves.toMatch(/Chatter/);
-    await expect(page.getByTestId("tolerance-verdict").textContent()).resolves.toMatch(/of 1,000 draws inside the spec window/);
+    await expect(page.getByTestId("tolerance-verdict").textContent()).resolves.toMatch(
+      /of 1,000 draws inside the spec window/,
+    );
     await page.getByTestId("saved-studies").scrollIntoViewIfNeeded();
     await screenshot(page, "studies-run-page");
 
     // Stored through the API and recomputed by the server.
     const api = await signIn(server.url, DESIGNER, PASSWORD);
-    const stored = (await (await api.fetch(`/api/runs/${runId}/study`)).json()) as { study: { noiseMargin: { summary: { levels: unknown[] } }; toleranceSpread: { summary: { draws: number } } } };
+    const stored = (await (await api.fetch(`/api/runs/${runId}/study`)).json()) as {
+      study: { noiseMargin: { summary: { levels: unknown[] } }; toleranceSpread: { summary: { draws: number } } };
+    };
     expect(stored.study.noiseMargin.summary.levels).toHaveLength(20);
     expect(stored.study.toleranceSpread.summary.draws).toBe(1000);
 
     // A tampered upload is refused with the field named; a viewer may not save at all.
-    const full = (await (await api.fetch(`/api/runs/${runId}/study`)).json()) as { study: { schema: string; noiseMargin: { config: unknown; tasks: { transitions: number }[] } } };
+    const full = (await (await api.fetch(`/api/runs/${runId}/study`)).json()) as {
+      study: { schema: string; noiseMargin: { config: unknown; tasks: { transitions: number }[] } };
+    };
     const tasks = full.study.noiseMargin.tasks.map((t) => ({ ...t }));
     tasks[0].transitions += 3;
-    const bad = await api.fetch(`/api/runs/${runId}/study`, { method: "PUT", body: JSON.stringify({ schema: "railwise.study/1", noiseMargin: { config: full.study.noiseMargin.config, tasks } }) });
+    const bad = await api.fetch(`/api/runs/${runId}/study`, {
+      method: "PUT",
+      body: JSON.stringify({
+        schema: "railwise.study/1",
+        noiseMargin: { config: full.study.noiseMargin.config, tasks },
+      }),
+    });
     expect(bad.status).toBe(400);
     expect(((await bad.json()) as { message: string }).message).toMatch(/noiseMargin\.tasks\[0\]/);
-    const junk = await api.fetch(`/api/runs/${runId}/study`, { method: "PUT", body: JSON.stringify({ schema: "railwise.study/1", noiseMargin: { config: { kind: "noise-margin", levels: 1 }, tasks: [] } }) });
+    const junk = await api.fetch(`/api/runs/${runId}/study`, {
+      method: "PUT",
+      body: JSON.stringify({
+        schema: "railwise.study/1",
+        noiseMargin: { config: { kind: "noise-margin", levels: 1 }, tasks: [] },
+      }),
+    });
     expect(junk.status).toBe(400);
     const viewer = await signIn(server.url, VIEWER, PASSWORD);
-    const denied = await viewer.fetch(`/api/runs/${runId}/study`, { method: "PUT", body: JSON.stringify({ schema: "railwise.study/1", noiseMargin: full.study.noiseMargin }) });
+    const denied = await viewer.fetch(`/api/runs/${runId}/study`, {
+      method: "PUT",
+      body: JSON.stringify({ schema: "railwise.study/1", noiseMargin: full.study.noiseMargin }),
+    });
     expect(denied.status).toBe(403);
 
     // The shared link, opened without a session.
-    const link = (await (await api.fetch(`/api/runs/${runId}/links`, { method: "POST", body: "{}" })).json()) as { token: string; url?: string };
+    const link = (await (await api.fetch(`/api/runs/${runId}/links`, { method: "POST", body: "{}" })).json()) as {
+      token: string;
+      url?: string;
+    };
     const anon = await browser.newContext({ viewport: { width: 1280, height: 1000 } });
     const shared = await anon.newPage();
     await shared.goto(link.url ?? `${server.url}/share/${link.token}`);

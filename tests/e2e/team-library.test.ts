@@ -74,7 +74,9 @@ describe("team library and invitations in the browser", () => {
       const level = t < 300 ? 0.1 : t < 320 ? (i % 2 ? 3.2 : 0.3) : 3.25;
       rows.push(`${t},12.1,${level.toFixed(3)}`);
     }
-    await page.locator("#capture-file").setInputFiles({ name: "float-pen2.csv", mimeType: "text/csv", buffer: Buffer.from(rows.join("\n")) });
+    await page
+      .locator("#capture-file")
+      .setInputFiles({ name: "float-pen2.csv", mimeType: "text/csv", buffer: Buffer.from(rows.join("\n")) });
     await page.getByRole("table", { name: "First rows of the file" }).waitFor();
     await page.getByLabel("Volts column").selectOption({ label: "float_v" });
     await expect.poll(() => page.getByLabel("Time unit").inputValue()).toBe("ms");
@@ -91,7 +93,9 @@ describe("team library and invitations in the browser", () => {
 
     // The stored capture becomes a capture component of a scenario's input signal.
     const boards = (await (await page.request.get(`${server.url}/api/boards`)).json()) as { items: { id: string }[] };
-    const list = (await (await page.request.get(`${server.url}/api/scenarios?boardId=${boards.items[0].id}`)).json()) as { items: { id: string; name: string }[] };
+    const list = (await (
+      await page.request.get(`${server.url}/api/scenarios?boardId=${boards.items[0].id}`)
+    ).json()) as { items: { id: string; name: string }[] };
     const hydrophone = list.items.find((x) => x.name === "Hydrophone preamp")!;
     await page.goto(`${server.url}/scenarios/${hydrophone.id}`);
     await page.getByRole("tab", { name: "Signal" }).click();
@@ -117,7 +121,9 @@ describe("team library and invitations in the browser", () => {
     await page.getByText("inputOffset must be within ±1 V").waitFor();
     await page.getByLabel("Input offset (V)").fill("3m");
     await page.getByRole("button", { name: "Save" }).click();
-    const part = page.getByRole("table", { name: "Part profiles" }).getByRole("row", { name: /low-power CMOS 100 kHz/ });
+    const part = page
+      .getByRole("table", { name: "Part profiles" })
+      .getByRole("row", { name: /low-power CMOS 100 kHz/ });
     await part.waitFor();
     expect(await part.textContent()).toContain("0.05 V/µs");
     await screenshot(page, "team-parts");

@@ -22,7 +22,9 @@ async function listScenarios() {
   const boards = (await (await api.fetch("/api/boards")).json()) as { items: { id: string }[] };
   const out: { id: string; name: string }[] = [];
   for (const b of boards.items) {
-    const list = (await (await api.fetch(`/api/scenarios?boardId=${b.id}`)).json()) as { items: { id: string; name: string }[] };
+    const list = (await (await api.fetch(`/api/scenarios?boardId=${b.id}`)).json()) as {
+      items: { id: string; name: string }[];
+    };
     out.push(...list.items.map((s) => ({ id: s.id, name: s.name })));
   }
   return out;
@@ -93,7 +95,9 @@ describe("invalid fields stop Run and Save; earlier results turn stale (#16 item
       expect(status).toMatch(/Not run/);
       expect(status).not.toBe(statusBefore);
       // Focus is on the first listed field.
-      const focusedName = await page.evaluate(() => (document.activeElement as HTMLInputElement | null)?.getAttribute("data-field"));
+      const focusedName = await page.evaluate(() =>
+        (document.activeElement as HTMLInputElement | null)?.getAttribute("data-field"),
+      );
       const firstLabel = items[0].split(":")[0].trim();
       const focusedLabel = await page.evaluate(() => {
         const el = document.activeElement as HTMLElement | null;
@@ -130,7 +134,9 @@ describe("value entry (#16 item 11)", () => {
       await openWorkbench(page, scenarioId(/battery/i));
       await typeField(page, "stage.rFeedback", "1meg");
       // "meg" is not an SI prefix (BIPM SI Brochure table 7) nor an IEC 60062 letter.
-      await expect.poll(() => page.locator('[data-parsed="stage.rFeedback"]').textContent()).toMatch(/write M for mega/);
+      await expect
+        .poll(() => page.locator('[data-parsed="stage.rFeedback"]').textContent())
+        .toMatch(/write M for mega/);
       await page.getByTestId("run-button").click();
       await expect.poll(() => page.getByTestId("fields-at-fault").textContent()).toMatch(/write M for mega/);
       await typeField(page, "stage.rFeedback", "1M0");
@@ -149,7 +155,9 @@ describe("tick labels (#16 item 3)", () => {
       await runAndWait(page);
       const seen: string[][] = [];
       // The oscillator's capacitor is on the Trace with its two switching levels (#10).
-      expect(await page.getByTestId("trace-plot").getAttribute("data-series")).toMatch(/capacitor \(v−\).*switching levels of the capacitor/);
+      expect(await page.getByTestId("trace-plot").getAttribute("data-series")).toMatch(
+        /capacitor \(v−\).*switching levels of the capacitor/,
+      );
       // Widths in small steps: uPlot picks 1, 2, 2.5 or 5 × 10ⁿ per tick from the pixels it has.
       const widths = [390, 480];
       for (let w = 640; w <= 1840; w += 60) widths.push(w);
@@ -157,7 +165,9 @@ describe("tick labels (#16 item 3)", () => {
         await page.setViewportSize({ width, height: 900 });
         await page.waitForTimeout(250);
         const sets = await page.evaluate(() =>
-          Array.from(document.querySelectorAll<HTMLElement>("[data-testid=trace-plot] .uplot, [data-testid=loop-plot] .uplot")).flatMap((el) =>
+          Array.from(
+            document.querySelectorAll<HTMLElement>("[data-testid=trace-plot] .uplot, [data-testid=loop-plot] .uplot"),
+          ).flatMap((el) =>
             [el.dataset.ticks0, el.dataset.ticks1].filter((x): x is string => !!x).map((x) => x.split("|")),
           ),
         );
@@ -169,15 +179,26 @@ describe("tick labels (#16 item 3)", () => {
         // Each label is a quantity; consecutive ticks are equally spaced (uPlot places ticks on a
         // uniform grid), so the labels must be too — "0.3, 0.5, 0.8" for quarter steps is not.
         const values = labels.map((l) => parseQuantity(l.replace(/\s+/g, "")));
-        expect(values.every((v) => v !== null), `labels parse: ${labels.join(", ")}`).toBe(true);
+        expect(
+          values.every((v) => v !== null),
+          `labels parse: ${labels.join(", ")}`,
+        ).toBe(true);
         const v = values as number[];
         if (v.length < 3) continue;
         const step = v[1] - v[0];
-        for (let i = 2; i < v.length; i++) expect(Math.abs(v[i] - v[i - 1] - step), `equal spacing: ${labels.join(", ")}`).toBeLessThan(Math.abs(step) * 1e-6);
+        for (let i = 2; i < v.length; i++)
+          expect(Math.abs(v[i] - v[i - 1] - step), `equal spacing: ${labels.join(", ")}`).toBeLessThan(
+            Math.abs(step) * 1e-6,
+          );
         const mant = Math.abs(step) / 10 ** Math.floor(Math.log10(Math.abs(step)));
         if (Math.abs(mant - 2.5) < 1e-9) nonRound++;
       }
-      console.log(`[hygiene] tick sets read: ${seen.length}, with 2.5-type steps: ${nonRound}; e.g. ${seen.slice(0, 3).map((s) => s.join(" ")).join(" / ")}`);
+      console.log(
+        `[hygiene] tick sets read: ${seen.length}, with 2.5-type steps: ${nonRound}; e.g. ${seen
+          .slice(0, 3)
+          .map((s) => s.join(" "))
+          .join(" / ")}`,
+      );
       // The sweep must have met the case that used to be mislabelled (0.25 s read as 0.3 s).
       expect(nonRound).toBeGreaterThan(0);
     } finally {
@@ -215,10 +236,25 @@ describe("amplifiers read as amplifiers (#10)", () => {
       const metrics = page.getByTestId("metrics");
       await metrics.waitFor();
       const names = await metrics.locator("tr").evaluateAll((rows) => rows.map((r) => r.getAttribute("data-metric")));
-      for (const want of ["Gain (linear region)", "Output high limit (Voh)", "Output low limit (Vol)", "Held at a limit", "Clips high from input", "Clips low from input"]) {
+      for (const want of [
+        "Gain (linear region)",
+        "Output high limit (Voh)",
+        "Output low limit (Vol)",
+        "Held at a limit",
+        "Clips high from input",
+        "Clips low from input",
+      ]) {
         expect(names).toContain(want);
       }
-      for (const not of ["Output transitions", "Chatter", "Upper switching point", "Period", "Duty cycle", "Rise time 10–90 %"]) expect(names).not.toContain(not);
+      for (const not of [
+        "Output transitions",
+        "Chatter",
+        "Upper switching point",
+        "Period",
+        "Duty cycle",
+        "Rise time 10–90 %",
+      ])
+        expect(names).not.toContain(not);
       const series = await page.getByTestId("trace-plot").getAttribute("data-series");
       expect(series).not.toMatch(/measured edges/);
       expect(await page.locator('[data-check="No extra transitions"]').count()).toBe(0);
@@ -322,8 +358,14 @@ describe("exports stand on their own (#16 items 8 and 9)", () => {
       await signInPage(page, server.url, DESIGNER);
       await openWorkbench(page, scenarioId(/hydrophone/i));
       await runAndWait(page);
-      const canvasHeight = await page.locator("[data-testid=trace-plot] canvas").first().evaluate((c) => (c as HTMLCanvasElement).height);
-      const [png] = await Promise.all([page.waitForEvent("download"), page.getByTestId("trace-plot").getByRole("button", { name: "PNG" }).click()]);
+      const canvasHeight = await page
+        .locator("[data-testid=trace-plot] canvas")
+        .first()
+        .evaluate((c) => (c as HTMLCanvasElement).height);
+      const [png] = await Promise.all([
+        page.waitForEvent("download"),
+        page.getByTestId("trace-plot").getByRole("button", { name: "PNG" }).click(),
+      ]);
       const file = await png.path();
       const { readFileSync } = await import("node:fs");
       const bytes = readFileSync(file!);
@@ -334,9 +376,15 @@ describe("exports stand on their own (#16 items 8 and 9)", () => {
       // Title, scenario and run lines, export date, axis units and the legend sit above the plot.
       expect(height - canvasHeight).toBeGreaterThanOrEqual(80);
 
-      const [csv] = await Promise.all([page.waitForEvent("download"), page.getByTestId("run-bar").getByRole("button", { name: "CSV" }).click()]);
+      const [csv] = await Promise.all([
+        page.waitForEvent("download"),
+        page.getByTestId("run-bar").getByRole("button", { name: "CSV" }).click(),
+      ]);
       const text = readFileSync((await csv.path())!, "utf8");
-      const times = text.split(/\r?\n/).slice(1, 50).map((l) => l.split(",")[0]);
+      const times = text
+        .split(/\r?\n/)
+        .slice(1, 50)
+        .map((l) => l.split(",")[0]);
       // 12,000 points over 12 ms: steps of about 1 µs need ~10 decimals, not 17 digits of binary noise.
       for (const t of times) expect(t.replace(/^-?\d*\.?/, "").length).toBeLessThanOrEqual(10);
       expect(new Set(times).size).toBe(times.length);

@@ -13,7 +13,7 @@ const PASSWORD = "railwise-demo";
 
 let server: TestServer;
 let browser: Browser;
-let scenarios: { id: string; name: string }[] = [];
+const scenarios: { id: string; name: string }[] = [];
 
 beforeAll(async () => {
   server = await startServer();
@@ -21,7 +21,9 @@ beforeAll(async () => {
   const api = await signIn(server.url, DESIGNER, PASSWORD);
   const boards = (await (await api.fetch("/api/boards")).json()) as { items: { id: string }[] };
   for (const b of boards.items) {
-    const list = (await (await api.fetch(`/api/scenarios?boardId=${b.id}`)).json()) as { items: { id: string; name: string }[] };
+    const list = (await (await api.fetch(`/api/scenarios?boardId=${b.id}`)).json()) as {
+      items: { id: string; name: string }[];
+    };
     scenarios.push(...list.items.map((s) => ({ id: s.id, name: s.name })));
   }
   mkdirSync(SCREENSHOT_DIR, { recursive: true });
@@ -37,12 +39,17 @@ async function clipped(page: Page, selector: string): Promise<string[]> {
   return page.evaluate((sel) => {
     const out: string[] = [];
     for (const root of Array.from(document.querySelectorAll(sel))) {
-      for (const el of Array.from(root.querySelectorAll<HTMLElement>("span, td, th, label, p, h2, h3, option, button, a"))) {
+      for (const el of Array.from(
+        root.querySelectorAll<HTMLElement>("span, td, th, label, p, h2, h3, option, button, a"),
+      )) {
         if (el.offsetParent === null) continue; // hidden
         const cs = getComputedStyle(el);
         const clips = cs.overflowX === "hidden" || cs.overflowX === "clip" || cs.textOverflow === "ellipsis";
         if (!clips) continue;
-        if (el.scrollWidth > el.clientWidth + 1 && (el.textContent ?? "").trim()) out.push(`${el.tagName.toLowerCase()}: "${(el.textContent ?? "").trim().slice(0, 60)}" (${el.scrollWidth} > ${el.clientWidth})`);
+        if (el.scrollWidth > el.clientWidth + 1 && (el.textContent ?? "").trim())
+          out.push(
+            `${el.tagName.toLowerCase()}: "${(el.textContent ?? "").trim().slice(0, 60)}" (${el.scrollWidth} > ${el.clientWidth})`,
+          );
       }
     }
     return out;
@@ -72,9 +79,13 @@ describe("workbench panels at three widths", () => {
           const tag = `${re.source.replace(/\W/g, "")}-${width}`;
           await page.goto(`${server.url}/scenarios/${s!.id}`);
           await page.getByTestId("run-button").waitFor();
-          await expect.poll(() => page.getByTestId("run-status").textContent(), { timeout: 30_000 }).toMatch(/Solver ready/);
+          await expect
+            .poll(() => page.getByTestId("run-status").textContent(), { timeout: 30_000 })
+            .toMatch(/Solver ready/);
           await page.getByTestId("run-button").click();
-          await expect.poll(() => page.getByTestId("run-status").textContent(), { timeout: 60_000 }).toMatch(/^Done in/);
+          await expect
+            .poll(() => page.getByTestId("run-status").textContent(), { timeout: 60_000 })
+            .toMatch(/^Done in/);
           await page.waitForTimeout(500);
           if (re.source === "battery") {
             // A saved run, so the Runs table has a row to show.
@@ -111,7 +122,9 @@ describe("workbench panels at three widths", () => {
         await ctx.close();
       }
       const unique = Array.from(new Set(problems));
-      console.log(`[layout] ${width} px: ${unique.length} cut-off text element(s)${unique.length ? "\n  " + unique.join("\n  ") : ""}`);
+      console.log(
+        `[layout] ${width} px: ${unique.length} cut-off text element(s)${unique.length ? "\n  " + unique.join("\n  ") : ""}`,
+      );
       expect(unique).toEqual([]);
     });
   }

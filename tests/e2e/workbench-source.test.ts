@@ -13,7 +13,7 @@ const PASSWORD = "railwise-demo";
 
 let server: TestServer;
 let browser: Browser;
-let scenarios: { id: string; name: string }[] = [];
+const scenarios: { id: string; name: string }[] = [];
 
 function scenarioId(re: RegExp): string {
   const s = scenarios.find((x) => re.test(x.name));
@@ -42,7 +42,9 @@ beforeAll(async () => {
   const api = await signIn(server.url, DESIGNER, PASSWORD);
   const boards = (await (await api.fetch("/api/boards")).json()) as { items: { id: string }[] };
   for (const b of boards.items) {
-    const list = (await (await api.fetch(`/api/scenarios?boardId=${b.id}`)).json()) as { items: { id: string; name: string }[] };
+    const list = (await (await api.fetch(`/api/scenarios?boardId=${b.id}`)).json()) as {
+      items: { id: string; name: string }[];
+    };
     scenarios.push(...list.items.map((s) => ({ id: s.id, name: s.name })));
   }
 });
@@ -60,7 +62,9 @@ describe("readings in the sensor's units", () => {
       const sentence = page.getByTestId("source-sentence");
       await sentence.waitFor();
       // Designed pin thresholds 2.615 / 2.385 V through the 68 k / 18 k divider ≈ 12.49 / 11.40 V.
-      expect(await sentence.textContent()).toMatch(/^Switches at 12\.\d\d V battery rising and 11\.\d\d V battery falling \(deadband 1\.\d+ V\); at the pin 2\.6\d+ V and 2\.3\d+ V\.$/);
+      expect(await sentence.textContent()).toMatch(
+        /^Switches at 12\.\d\d V battery rising and 11\.\d\d V battery falling \(deadband 1\.\d+ V\); at the pin 2\.6\d+ V and 2\.3\d+ V\.$/,
+      );
       const upper = page.locator('[data-check="Upper switching point"]');
       expect(await upper.locator("[data-source]").first().textContent()).toMatch(/^12\.\d\d V$/);
       expect(await upper.locator("[data-pin]").first().textContent()).toMatch(/^2\.6\d+ V pin$/);
@@ -69,9 +73,15 @@ describe("readings in the sensor's units", () => {
       const card = await page.getByTestId("readings").boundingBox();
       const badge = await upper.locator("td").last().boundingBox();
       expect(badge!.x + badge!.width).toBeLessThanOrEqual(card!.x + card!.width + 1);
-      expect(await page.locator('[data-metric="Lower switching point"]').textContent()).toMatch(/11\.\d\d V\s*2\.3\d+ V at the pin/);
-      expect(await page.getByTestId("metrics-source-note").textContent()).toBe("switching points in battery V, volts at the pin beneath");
-      expect(await page.getByTestId("trace-plot").first().getAttribute("data-series")).toContain("battery (V, right scale)");
+      expect(await page.locator('[data-metric="Lower switching point"]').textContent()).toMatch(
+        /11\.\d\d V\s*2\.3\d+ V at the pin/,
+      );
+      expect(await page.getByTestId("metrics-source-note").textContent()).toBe(
+        "switching points in battery V, volts at the pin beneath",
+      );
+      expect(await page.getByTestId("trace-plot").first().getAttribute("data-series")).toContain(
+        "battery (V, right scale)",
+      );
       await screenshot(page, "source-workbench-battery");
     } finally {
       await ctx.close();
@@ -88,7 +98,9 @@ describe("readings in the sensor's units", () => {
       // Its spec asks for 19 °C / 17.5 °C (demo data); the E24 build lands within half a degree.
       expect(Math.abs(Number(m![1]) - 19)).toBeLessThan(0.5);
       expect(Math.abs(Number(m![2]) - 17.5)).toBeLessThan(0.5);
-      expect(await page.getByTestId("trace-plot").first().getAttribute("data-series")).toContain("water temperature (°C, right scale)");
+      expect(await page.getByTestId("trace-plot").first().getAttribute("data-series")).toContain(
+        "water temperature (°C, right scale)",
+      );
       await screenshot(page, "source-workbench-water");
     } finally {
       await ctx.close();
@@ -102,8 +114,12 @@ describe("readings in the sensor's units", () => {
     try {
       await page.goto(`${server.url}/runs/${runId}`);
       await page.getByTestId("run-view").waitFor();
-      expect(await page.getByTestId("source-sentence").textContent()).toMatch(/12\.\d\d V battery rising and 11\.\d\d V battery falling/);
-      expect(await page.getByTestId("trace-plot").first().getAttribute("data-series")).toContain("battery (V, right scale)");
+      expect(await page.getByTestId("source-sentence").textContent()).toMatch(
+        /12\.\d\d V battery rising and 11\.\d\d V battery falling/,
+      );
+      expect(await page.getByTestId("trace-plot").first().getAttribute("data-series")).toContain(
+        "battery (V, right scale)",
+      );
       await screenshot(page, "source-run-battery");
     } finally {
       await ctx.close();
@@ -149,10 +165,14 @@ describe("Save with a change note", () => {
       await note.waitFor();
       await note.fill("Feedback to 120k for a slower blink");
       await page.getByTestId("save-button").click();
-      await expect.poll(() => page.getByText(/Saved as version \d+ with the note/).count(), { timeout: 15_000 }).toBe(1);
+      await expect
+        .poll(() => page.getByText(/Saved as version \d+ with the note/).count(), { timeout: 15_000 })
+        .toBe(1);
       await screenshot(page, "source-save-note");
       const api = await signIn(server.url, DESIGNER, PASSWORD);
-      const versions = (await (await api.fetch(`/api/scenarios/${id}/versions`)).json()) as { items: { version: number; note: string | null }[] };
+      const versions = (await (await api.fetch(`/api/scenarios/${id}/versions`)).json()) as {
+        items: { version: number; note: string | null }[];
+      };
       expect(versions.items[0].note).toBe("Feedback to 120k for a slower blink");
     } finally {
       await ctx.close();
@@ -170,7 +190,9 @@ describe("the run snapshot names the default start output per kind", () => {
       await page.getByTestId("run-view").waitFor();
       const row = page.locator("tr", { hasText: "Output at start" }).first();
       expect(await row.textContent()).toMatch(/settled|low|high/);
-      const stored = (await (await api.fetch(`/api/runs/${runId}`)).json()) as { scenario: { run: { initialOutput?: string } } };
+      const stored = (await (await api.fetch(`/api/runs/${runId}`)).json()) as {
+        scenario: { run: { initialOutput?: string } };
+      };
       const expected = stored.scenario.run.initialOutput ?? "settled (default)";
       expect(await row.textContent()).toContain(expected);
     } finally {

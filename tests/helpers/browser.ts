@@ -29,16 +29,27 @@ export async function launchBrowser(): Promise<Browser> {
  * Sign in through the sign-in form as a user would (demo password unless given) and wait for
  * the signed-in landing page. Throws with the page's alert text if sign-in fails.
  */
-export async function signInPage(page: Page, url: string, email: string, password: string = DEMO_PASSWORD): Promise<void> {
+export async function signInPage(
+  page: Page,
+  url: string,
+  email: string,
+  password: string = DEMO_PASSWORD,
+): Promise<void> {
   await page.goto(`${url}/signin`);
   await page.locator("#email").fill(email);
   await page.locator("#password").fill(password);
   await Promise.all([
-    page.waitForURL((u) => !u.pathname.startsWith("/signin"), { timeout: 30_000 }).catch(async (err) => {
-      // Next renders an empty role=alert route announcer; the form's own alert is the one to read.
-      const alert = await page.locator("form [role=alert]").first().textContent({ timeout: 1000 }).catch(() => null);
-      throw new Error(`sign-in as ${email} failed${alert ? `: ${alert}` : ""} (${String(err)})`);
-    }),
+    page
+      .waitForURL((u) => !u.pathname.startsWith("/signin"), { timeout: 30_000 })
+      .catch(async (err) => {
+        // Next renders an empty role=alert route announcer; the form's own alert is the one to read.
+        const alert = await page
+          .locator("form [role=alert]")
+          .first()
+          .textContent({ timeout: 1000 })
+          .catch(() => null);
+        throw new Error(`sign-in as ${email} failed${alert ? `: ${alert}` : ""} (${String(err)})`);
+      }),
     page.getByRole("button", { name: "Sign in", exact: true }).click(),
   ]);
 }

@@ -35,7 +35,8 @@ function anonymous(url: string, extraHeaders: Record<string, string> = {}): Call
     fetch(p, init = {}) {
       const headers = new Headers(init.headers);
       for (const [k, v] of Object.entries(extraHeaders)) headers.set(k, v);
-      if (typeof init.body === "string" && !headers.has("content-type")) headers.set("content-type", "application/json");
+      if (typeof init.body === "string" && !headers.has("content-type"))
+        headers.set("content-type", "application/json");
       return fetch(new URL(p, url), { ...init, headers, redirect: "manual" });
     },
   };
@@ -50,7 +51,10 @@ async function json<T>(res: Response, what: string): Promise<T> {
 export async function firstScenarioId(s: SignedIn, name?: string): Promise<string> {
   const boards = await json<{ items: { id: string }[] }>(await s.fetch("/api/boards"), "boards");
   for (const b of boards.items) {
-    const list = await json<{ items: { id: string; name: string }[] }>(await s.fetch(`/api/scenarios?boardId=${b.id}`), "scenarios");
+    const list = await json<{ items: { id: string; name: string }[] }>(
+      await s.fetch(`/api/scenarios?boardId=${b.id}`),
+      "scenarios",
+    );
     const hit = name ? list.items.find((x) => x.name === name) : list.items[0];
     if (hit) return hit.id;
   }
@@ -58,13 +62,17 @@ export async function firstScenarioId(s: SignedIn, name?: string): Promise<strin
 }
 
 export async function createRun(s: SignedIn, scenarioId: string, label = "team test run"): Promise<string> {
-  const run = await json<{ id: string }>(await s.fetch("/api/runs", { method: "POST", body: JSON.stringify({ scenarioId, label }) }), "create run");
+  const run = await json<{ id: string }>(
+    await s.fetch("/api/runs", { method: "POST", body: JSON.stringify({ scenarioId, label }) }),
+    "create run",
+  );
   return run.id;
 }
 
 export async function setupTeam(server: TestServer): Promise<TeamFixture> {
   const sessions = {} as TeamFixture["sessions"];
-  for (const k of Object.keys(EMAILS) as (keyof typeof EMAILS)[]) sessions[k] = await signIn(server.url, EMAILS[k], DEMO_PASSWORD);
+  for (const k of Object.keys(EMAILS) as (keyof typeof EMAILS)[])
+    sessions[k] = await signIn(server.url, EMAILS[k], DEMO_PASSWORD);
   const scenarioId = await firstScenarioId(sessions.designer, "Battery low-voltage disconnect");
   const runId = await createRun(sessions.designer, scenarioId);
   const link = await json<{ token: string }>(
@@ -101,12 +109,21 @@ export function readMails(mailDir: string): SinkMail[] {
 }
 
 /** Waits until the sink has stored a mail matching `match` (mail is sent after the response). */
-export async function waitForMail(mailDir: string, match: (m: SinkMail) => boolean, timeoutMs = 10_000): Promise<SinkMail> {
+export async function waitForMail(
+  mailDir: string,
+  match: (m: SinkMail) => boolean,
+  timeoutMs = 10_000,
+): Promise<SinkMail> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const hit = readMails(mailDir).find(match);
     if (hit) return hit;
-    if (Date.now() > deadline) throw new Error(`no matching mail within ${timeoutMs} ms; have: ${readMails(mailDir).map((m) => `${m.to.join(",")}: ${m.subject}`).join(" | ")}`);
+    if (Date.now() > deadline)
+      throw new Error(
+        `no matching mail within ${timeoutMs} ms; have: ${readMails(mailDir)
+          .map((m) => `${m.to.join(",")}: ${m.subject}`)
+          .join(" | ")}`,
+      );
     await new Promise((r) => setTimeout(r, 100));
   }
 }

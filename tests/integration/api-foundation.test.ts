@@ -1,6 +1,6 @@
 // The foundation API against the real server (next start on a production build) and a fresh
 // SQLite file: sign-in through next-auth's own endpoints as every demo account, the role table
-// of DESIGN.md for boards, scenarios and runs, team isolation (another team's id → 404), bad
+// (DEVELOPERS.md § Roles) for boards, scenarios and runs, team isolation (another team's id → 404), bad
 // input → 400, and runs whose numbers come from lib/sim on the server.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from "@/lib/demo/accounts";
@@ -36,7 +36,9 @@ beforeAll(async () => {
   boardId = boards.items.find((b) => b.name === "Buoy power and sensing")!.id;
   const other = (await (await as.other.fetch("/api/boards")).json()) as { items: { id: string }[] };
   otherBoardId = other.items[0].id;
-  const list = (await (await as.designer.fetch(`/api/scenarios?boardId=${boardId}`)).json()) as { items: { id: string; name: string }[] };
+  const list = (await (await as.designer.fetch(`/api/scenarios?boardId=${boardId}`)).json()) as {
+    items: { id: string; name: string }[];
+  };
   for (const s of list.items) scenarioIds[s.name] = s.id;
 });
 
@@ -72,7 +74,9 @@ describe("sign-in and session", () => {
 describe("boards", () => {
   it("every role reads the team's boards; no session → 401", async () => {
     for (const who of ["owner", "designer", "reviewer", "viewer"] as const) {
-      const body = (await expectStatus(await as[who].fetch("/api/boards"), 200)) as { items: { id: string; scenarioCount: number }[] };
+      const body = (await expectStatus(await as[who].fetch("/api/boards"), 200)) as {
+        items: { id: string; scenarioCount: number }[];
+      };
       expect(body.items.map((b) => b.id)).toContain(boardId);
       expect(body.items.find((b) => b.id === boardId)!.scenarioCount).toBe(DEMO_SCENARIOS.length);
       expect(body.items.map((b) => b.id)).not.toContain(otherBoardId);
@@ -85,17 +89,36 @@ describe("boards", () => {
     for (const who of ["designer", "reviewer", "viewer"] as const) {
       await expectStatus(await as[who].fetch("/api/boards", { method: "POST", ...json({ name: "Spare board" }) }), 403);
     }
-    await expectStatus(await anon("/api/boards", { method: "POST", body: JSON.stringify({ name: "x" }), headers: { "content-type": "application/json" } }), 401);
-    const created = await expectStatus(await as.owner.fetch("/api/boards", { method: "POST", ...json({ name: "Feed barge", description: "Feeder controls" }) }), 201);
+    await expectStatus(
+      await anon("/api/boards", {
+        method: "POST",
+        body: JSON.stringify({ name: "x" }),
+        headers: { "content-type": "application/json" },
+      }),
+      401,
+    );
+    const created = await expectStatus(
+      await as.owner.fetch("/api/boards", {
+        method: "POST",
+        ...json({ name: "Feed barge", description: "Feeder controls" }),
+      }),
+      201,
+    );
     expect(typeof created.id).toBe("string");
     expect(created.name).toBe("Feed barge");
     const id = created.id as string;
 
     for (const who of ["designer", "reviewer", "viewer"] as const) {
-      await expectStatus(await as[who].fetch(`/api/boards/${id}`, { method: "PATCH", ...json({ name: "Renamed" }) }), 403);
+      await expectStatus(
+        await as[who].fetch(`/api/boards/${id}`, { method: "PATCH", ...json({ name: "Renamed" }) }),
+        403,
+      );
       await expectStatus(await as[who].fetch(`/api/boards/${id}`, { method: "DELETE" }), 403);
     }
-    const renamed = await expectStatus(await as.owner.fetch(`/api/boards/${id}`, { method: "PATCH", ...json({ name: "Feed barge 2" }) }), 200);
+    const renamed = await expectStatus(
+      await as.owner.fetch(`/api/boards/${id}`, { method: "PATCH", ...json({ name: "Feed barge 2" }) }),
+      200,
+    );
     expect(renamed.name).toBe("Feed barge 2");
     await expectStatus(await as.owner.fetch(`/api/boards/${id}`, { method: "DELETE" }), 200);
     await expectStatus(await as.owner.fetch(`/api/boards/${id}`), 404);
@@ -103,17 +126,26 @@ describe("boards", () => {
 
   it("another team's board is a 404 for every verb", async () => {
     await expectStatus(await as.other.fetch(`/api/boards/${boardId}`), 404);
-    await expectStatus(await as.other.fetch(`/api/boards/${boardId}`, { method: "PATCH", ...json({ name: "mine now" }) }), 404);
+    await expectStatus(
+      await as.other.fetch(`/api/boards/${boardId}`, { method: "PATCH", ...json({ name: "mine now" }) }),
+      404,
+    );
     await expectStatus(await as.other.fetch(`/api/boards/${boardId}`, { method: "DELETE" }), 404);
     await expectStatus(await as.owner.fetch(`/api/boards/${otherBoardId}`), 404);
     await expectStatus(await as.owner.fetch("/api/boards/not-an-id"), 404);
   });
 
   it("bad bodies are 400 with the field named, never 500", async () => {
-    const empty = await expectStatus(await as.owner.fetch("/api/boards", { method: "POST", ...json({ name: "" }) }), 400);
+    const empty = await expectStatus(
+      await as.owner.fetch("/api/boards", { method: "POST", ...json({ name: "" }) }),
+      400,
+    );
     expect(empty.error).toBe("invalid_input");
     expect(JSON.stringify(empty.issues)).toContain('"name"');
-    const malformed = await expectStatus(await as.owner.fetch("/api/boards", { method: "POST", body: "{not json" }), 400);
+    const malformed = await expectStatus(
+      await as.owner.fetch("/api/boards", { method: "POST", body: "{not json" }),
+      400,
+    );
     expect(String(malformed.message)).toMatch(/JSON/);
     await expectStatus(await as.owner.fetch("/api/boards", { method: "POST", body: "" }), 400);
     await expectStatus(await as.owner.fetch(`/api/boards/${boardId}`, { method: "PATCH", ...json({ name: 42 }) }), 400);
@@ -140,35 +172,67 @@ describe("scenarios", () => {
 
   it("owner and designer create, edit (new version) and delete; reviewer and viewer get 403", async () => {
     for (const who of ["reviewer", "viewer"] as const) {
-      await expectStatus(await as[who].fetch("/api/scenarios", { method: "POST", ...json({ boardId, scenario: demo() }) }), 403);
+      await expectStatus(
+        await as[who].fetch("/api/scenarios", { method: "POST", ...json({ boardId, scenario: demo() }) }),
+        403,
+      );
     }
-    const created = await expectStatus(await as.designer.fetch("/api/scenarios", { method: "POST", ...json({ boardId, name: "Cut-off copy", scenario: demo() }) }), 201);
+    const created = await expectStatus(
+      await as.designer.fetch("/api/scenarios", {
+        method: "POST",
+        ...json({ boardId, name: "Cut-off copy", scenario: demo() }),
+      }),
+      201,
+    );
     expect(created.version).toBe(1);
     const id = created.id as string;
-    const byOwner = await expectStatus(await as.owner.fetch("/api/scenarios", { method: "POST", ...json({ boardId, name: "Owner copy", scenario: demo() }) }), 201);
+    const byOwner = await expectStatus(
+      await as.owner.fetch("/api/scenarios", {
+        method: "POST",
+        ...json({ boardId, name: "Owner copy", scenario: demo() }),
+      }),
+      201,
+    );
 
     const changed = demo();
     (changed.stage as { rFeedback: number }).rFeedback = 560e3;
     for (const who of ["reviewer", "viewer"] as const) {
-      await expectStatus(await as[who].fetch(`/api/scenarios/${id}`, { method: "PUT", ...json({ scenario: changed }) }), 403);
+      await expectStatus(
+        await as[who].fetch(`/api/scenarios/${id}`, { method: "PUT", ...json({ scenario: changed }) }),
+        403,
+      );
       await expectStatus(await as[who].fetch(`/api/scenarios/${id}`, { method: "DELETE" }), 403);
     }
-    const v2 = await expectStatus(await as.owner.fetch(`/api/scenarios/${id}`, { method: "PUT", ...json({ scenario: changed }) }), 200);
+    const v2 = await expectStatus(
+      await as.owner.fetch(`/api/scenarios/${id}`, { method: "PUT", ...json({ scenario: changed }) }),
+      200,
+    );
     expect(v2.version).toBe(2);
     expect((v2.scenario as { stage: { rFeedback: number } }).stage.rFeedback).toBe(560e3);
-    const v3 = await expectStatus(await as.designer.fetch(`/api/scenarios/${id}`, { method: "PUT", ...json({ name: "Cut-off, 560k" }) }), 200);
+    const v3 = await expectStatus(
+      await as.designer.fetch(`/api/scenarios/${id}`, { method: "PUT", ...json({ name: "Cut-off, 560k" }) }),
+      200,
+    );
     expect(v3.version).toBe(3);
     expect(v3.name).toBe("Cut-off, 560k");
 
-    const stale = await expectStatus(await as.designer.fetch(`/api/scenarios/${id}`, { method: "PUT", ...json({ name: "late", baseVersion: 2 }) }), 409);
+    const stale = await expectStatus(
+      await as.designer.fetch(`/api/scenarios/${id}`, { method: "PUT", ...json({ name: "late", baseVersion: 2 }) }),
+      409,
+    );
     expect(String(stale.message)).toMatch(/version 3/);
 
-    const versions = (await expectStatus(await as.viewer.fetch(`/api/scenarios/${id}/versions`), 200)) as { items: { version: number }[] };
+    const versions = (await expectStatus(await as.viewer.fetch(`/api/scenarios/${id}/versions`), 200)) as {
+      items: { version: number }[];
+    };
     expect(versions.items.map((v) => v.version)).toEqual([3, 2, 1]);
     const first = await expectStatus(await as.viewer.fetch(`/api/scenarios/${id}/versions/1`), 200);
     expect((first.scenario as { stage: { rFeedback: number } }).stage.rFeedback).toBe(680e3);
     await expectStatus(await as.viewer.fetch(`/api/scenarios/${id}/versions/1/restore`, { method: "POST" }), 403);
-    const restored = await expectStatus(await as.designer.fetch(`/api/scenarios/${id}/versions/1/restore`, { method: "POST" }), 200);
+    const restored = await expectStatus(
+      await as.designer.fetch(`/api/scenarios/${id}/versions/1/restore`, { method: "POST" }),
+      200,
+    );
     expect(restored.version).toBe(4);
     expect((restored.scenario as { stage: { rFeedback: number } }).stage.rFeedback).toBe(680e3);
     await expectStatus(await as.designer.fetch(`/api/scenarios/${id}/versions/99`), 404);
@@ -185,23 +249,42 @@ describe("scenarios", () => {
     await expectStatus(await as.other.fetch(`/api/scenarios/${id}`, { method: "DELETE" }), 404);
     await expectStatus(await as.other.fetch(`/api/scenarios/${id}/versions`), 404);
     await expectStatus(await as.other.fetch(`/api/scenarios?boardId=${boardId}`), 404);
-    await expectStatus(await as.other.fetch("/api/scenarios", { method: "POST", ...json({ boardId, scenario: demo() }) }), 404);
+    await expectStatus(
+      await as.other.fetch("/api/scenarios", { method: "POST", ...json({ boardId, scenario: demo() }) }),
+      404,
+    );
   });
 
   it("a malformed scenario is a 400 naming the field, and nothing is stored", async () => {
     const bad = demo();
     (bad.stage as { rFeedback: number }).rFeedback = -1;
-    const body = await expectStatus(await as.designer.fetch("/api/scenarios", { method: "POST", ...json({ boardId, name: "Broken", scenario: bad }) }), 400);
+    const body = await expectStatus(
+      await as.designer.fetch("/api/scenarios", {
+        method: "POST",
+        ...json({ boardId, name: "Broken", scenario: bad }),
+      }),
+      400,
+    );
     expect(body.error).toBe("invalid_input");
     expect(String(body.message)).toContain("scenario.stage.rFeedback");
-    expect((body.issues as { path: unknown[] }[]).some((i) => i.path.join(".") === "scenario.stage.rFeedback")).toBe(true);
+    expect((body.issues as { path: unknown[] }[]).some((i) => i.path.join(".") === "scenario.stage.rFeedback")).toBe(
+      true,
+    );
     const put = await expectStatus(
-      await as.designer.fetch(`/api/scenarios/${scenarioIds["Hydrophone preamp"]}`, { method: "PUT", ...json({ scenario: { ...demo(), run: { duration: 1, points: 1 } } }) }),
+      await as.designer.fetch(`/api/scenarios/${scenarioIds["Hydrophone preamp"]}`, {
+        method: "PUT",
+        ...json({ scenario: { ...demo(), run: { duration: 1, points: 1 } } }),
+      }),
       400,
     );
     expect(String(put.message)).toContain("run.points");
-    await expectStatus(await as.designer.fetch(`/api/scenarios/${scenarioIds["Hydrophone preamp"]}`, { method: "PUT", body: "{" }), 400);
-    const list = (await (await as.designer.fetch(`/api/scenarios?boardId=${boardId}`)).json()) as { items: { name: string; version: number }[] };
+    await expectStatus(
+      await as.designer.fetch(`/api/scenarios/${scenarioIds["Hydrophone preamp"]}`, { method: "PUT", body: "{" }),
+      400,
+    );
+    const list = (await (await as.designer.fetch(`/api/scenarios?boardId=${boardId}`)).json()) as {
+      items: { name: string; version: number }[];
+    };
     expect(list.items.map((s) => s.name)).not.toContain("Broken");
     expect(list.items.find((s) => s.name === "Hydrophone preamp")!.version).toBe(1);
   });
@@ -213,8 +296,18 @@ describe("runs", () => {
     for (const who of ["reviewer", "viewer"] as const) {
       await expectStatus(await as[who].fetch("/api/runs", { method: "POST", ...json({ scenarioId }) }), 403);
     }
-    await expectStatus(await anon("/api/runs", { method: "POST", body: JSON.stringify({ scenarioId }), headers: { "content-type": "application/json" } }), 401);
-    const run = (await expectStatus(await as.designer.fetch("/api/runs", { method: "POST", ...json({ scenarioId, label: "bench check" }) }), 201)) as {
+    await expectStatus(
+      await anon("/api/runs", {
+        method: "POST",
+        body: JSON.stringify({ scenarioId }),
+        headers: { "content-type": "application/json" },
+      }),
+      401,
+    );
+    const run = (await expectStatus(
+      await as.designer.fetch("/api/runs", { method: "POST", ...json({ scenarioId, label: "bench check" }) }),
+      201,
+    )) as {
       id: string;
       label: string;
       scenario: unknown;
@@ -234,7 +327,7 @@ describe("runs", () => {
     expect(run.result.metrics).toEqual(JSON.parse(JSON.stringify(local.metrics)));
     expect(run.result.events).toEqual(JSON.parse(JSON.stringify(local.events)));
     expect(run.result.rails).toEqual(local.rails);
-    // The two designed switching points (REFERENCES.md inverting-trigger closed form, see
+    // The two designed switching points (tests/REFERENCES.md inverting-trigger closed form, see
     // lib/demo/scenarios.ts): 2.6148 V and 2.3852 V at the divider; allow 5 mV for offset/noise.
     expect(run.result.metrics.upperThreshold as number).toBeCloseTo(2.6148, 2);
     expect(run.result.metrics.lowerThreshold as number).toBeCloseTo(2.3852, 2);
@@ -275,10 +368,21 @@ describe("runs", () => {
   it("a run past the server's bounds is a 400 that says why, and nothing is stored", async () => {
     const big = structuredClone(parseScenario(DEMO_SCENARIOS[4].scenario));
     big.run.points = 1_500_000; // valid for the schema (≤ 2,000,000) but past the server's run bound
-    const created = await expectStatus(await as.designer.fetch("/api/scenarios", { method: "POST", ...json({ boardId, name: "Blinker, huge", scenario: big }) }), 201);
-    const refused = await expectStatus(await as.designer.fetch("/api/runs", { method: "POST", ...json({ scenarioId: created.id }) }), 400);
+    const created = await expectStatus(
+      await as.designer.fetch("/api/scenarios", {
+        method: "POST",
+        ...json({ boardId, name: "Blinker, huge", scenario: big }),
+      }),
+      201,
+    );
+    const refused = await expectStatus(
+      await as.designer.fetch("/api/runs", { method: "POST", ...json({ scenarioId: created.id }) }),
+      400,
+    );
     expect(String(refused.message)).toContain("run.points");
-    const list = (await expectStatus(await as.designer.fetch(`/api/runs?scenarioId=${created.id as string}`), 200)) as { items: unknown[] };
+    const list = (await expectStatus(await as.designer.fetch(`/api/runs?scenarioId=${created.id as string}`), 200)) as {
+      items: unknown[];
+    };
     expect(list.items).toHaveLength(0);
   });
 
@@ -286,7 +390,10 @@ describe("runs", () => {
     await expectStatus(await as.designer.fetch("/api/runs", { method: "POST", ...json({}) }), 400);
     await expectStatus(await as.designer.fetch("/api/runs", { method: "POST", body: "nope" }), 400);
     await expectStatus(await as.designer.fetch("/api/runs", { method: "POST", ...json({ scenarioId: 12 }) }), 400);
-    await expectStatus(await as.designer.fetch("/api/runs", { method: "POST", ...json({ scenarioId: "no-such-id" }) }), 404);
+    await expectStatus(
+      await as.designer.fetch("/api/runs", { method: "POST", ...json({ scenarioId: "no-such-id" }) }),
+      404,
+    );
     await expectStatus(await as.designer.fetch("/api/runs"), 400);
   });
 });
@@ -294,16 +401,27 @@ describe("runs", () => {
 describe("concurrent saves", () => {
   it("50 simultaneous saves of one scenario all land as versions, none lost", async () => {
     const scenario = parseScenario(DEMO_SCENARIOS[0].scenario);
-    const created = await expectStatus(await as.designer.fetch("/api/scenarios", { method: "POST", ...json({ boardId, name: "Busy scenario", scenario }) }), 201);
+    const created = await expectStatus(
+      await as.designer.fetch("/api/scenarios", {
+        method: "POST",
+        ...json({ boardId, name: "Busy scenario", scenario }),
+      }),
+      201,
+    );
     const id = created.id as string;
     const results = await Promise.all(
       Array.from({ length: 50 }, (_, i) =>
-        (i % 2 ? as.designer : as.owner).fetch(`/api/scenarios/${id}`, { method: "PUT", ...json({ name: `Busy scenario ${i}` }) }),
+        (i % 2 ? as.designer : as.owner).fetch(`/api/scenarios/${id}`, {
+          method: "PUT",
+          ...json({ name: `Busy scenario ${i}` }),
+        }),
       ),
     );
     const statuses = await Promise.all(results.map(async (r) => (await r.text(), r.status)));
     expect(statuses.filter((s) => s === 200)).toHaveLength(50);
-    const versions = (await expectStatus(await as.viewer.fetch(`/api/scenarios/${id}/versions`), 200)) as { items: { version: number; name: string }[] };
+    const versions = (await expectStatus(await as.viewer.fetch(`/api/scenarios/${id}/versions`), 200)) as {
+      items: { version: number; name: string }[];
+    };
     expect(versions.items).toHaveLength(51);
     expect(new Set(versions.items.map((v) => v.version)).size).toBe(51);
     expect(new Set(versions.items.map((v) => v.name)).size).toBe(51);

@@ -3,7 +3,7 @@
 // names a server, which `npm test` and CI do as a second pass): the last-owner rule under
 // concurrent demotions, 404 (never 5xx) for malformed ids on every dynamic API route, text up
 // to the API's limits, U+0000 stripped at the edge, and list order that does not follow the
-// cluster's locale. The expected values come from DESIGN.md's contract and the schemas' limits
+// cluster's locale. The expected values come from lib/schemas/README.md's contract and the schemas' limits
 // (lib/schemas); the code-point order is JavaScript's default string sort (ECMA-262
 // Array.prototype.sort compares UTF-16 code units, which equals UTF-8 byte order for the BMP
 // text used here).

@@ -75,18 +75,31 @@ describe("a deliberate sign-off", () => {
       expect(res.status, JSON.stringify(body)).toBe(400);
       const err = (await res.json()) as { error: string; issues: Issue[] };
       expect(err.error).toBe("invalid_input");
-      expect(err.issues.map((i) => i.path[0]), JSON.stringify(body)).toContain(field);
+      expect(
+        err.issues.map((i) => i.path[0]),
+        JSON.stringify(body),
+      ).toContain(field);
     }
     expect((await signoffs(runId)).items).toEqual([]);
 
-    const ok = await fx.sessions.reviewer.fetch(`/api/runs/${runId}/signoffs`, post({ decision: "changes_requested", note: "Reconnect point 0.2 V too low." }));
+    const ok = await fx.sessions.reviewer.fetch(
+      `/api/runs/${runId}/signoffs`,
+      post({ decision: "changes_requested", note: "Reconnect point 0.2 V too low." }),
+    );
     expect(ok.status).toBe(201);
     const created = (await ok.json()) as Signoff;
     const run = (await (await fx.sessions.viewer.fetch(`/api/runs/${runId}`)).json()) as { scenarioVersion: number };
-    expect(created).toMatchObject({ decision: "changes_requested", note: "Reconnect point 0.2 V too low.", scenarioVersion: run.scenarioVersion });
+    expect(created).toMatchObject({
+      decision: "changes_requested",
+      note: "Reconnect point 0.2 V too low.",
+      scenarioVersion: run.scenarioVersion,
+    });
 
     // The author's mail says what happened in words.
-    const mail = await waitForMail(server.mailDir, (m) => m.to.includes(EMAILS.designer) && m.subject === 'Changes requested: run "deliberate sign-off"');
+    const mail = await waitForMail(
+      server.mailDir,
+      (m) => m.to.includes(EMAILS.designer) && m.subject === 'Changes requested: run "deliberate sign-off"',
+    );
     expect(mail.text).toContain('Maren Lie requested changes on your run "deliberate sign-off"');
     expect(mail.text).toContain("Reconnect point 0.2 V too low.");
     expect(mail.text).not.toContain("signed off your run");
@@ -94,20 +107,35 @@ describe("a deliberate sign-off", () => {
 
   it("lets a reviewer withdraw their own decision only; a new decision replaces their earlier one", async () => {
     const runId = await createRun(fx.sessions.designer, fx.scenarioId, "withdraw test");
-    const first = (await (await fx.sessions.reviewer.fetch(`/api/runs/${runId}/signoffs`, post({ decision: "approved" }))).json()) as Signoff;
-    const second = (await (await fx.sessions.reviewer.fetch(`/api/runs/${runId}/signoffs`, post({ decision: "changes_requested", note: "On second look: chatter." }))).json()) as Signoff;
+    const first = (await (
+      await fx.sessions.reviewer.fetch(`/api/runs/${runId}/signoffs`, post({ decision: "approved" }))
+    ).json()) as Signoff;
+    const second = (await (
+      await fx.sessions.reviewer.fetch(
+        `/api/runs/${runId}/signoffs`,
+        post({ decision: "changes_requested", note: "On second look: chatter." }),
+      )
+    ).json()) as Signoff;
     let list = await signoffs(runId);
     expect(list.items.map((s) => s.id)).toEqual([second.id]);
     expect(list.withdrawn.map((s) => s.id)).toEqual([first.id]);
 
     // The owner may sign off, but not withdraw someone else's decision; a designer may not at all.
-    expect((await fx.sessions.owner.fetch(`/api/runs/${runId}/signoffs/${second.id}`, { method: "DELETE" })).status).toBe(403);
-    expect((await fx.sessions.designer.fetch(`/api/runs/${runId}/signoffs/${second.id}`, { method: "DELETE" })).status).toBe(403);
-    expect((await fx.sessions.other.fetch(`/api/runs/${runId}/signoffs/${second.id}`, { method: "DELETE" })).status).toBe(404);
+    expect(
+      (await fx.sessions.owner.fetch(`/api/runs/${runId}/signoffs/${second.id}`, { method: "DELETE" })).status,
+    ).toBe(403);
+    expect(
+      (await fx.sessions.designer.fetch(`/api/runs/${runId}/signoffs/${second.id}`, { method: "DELETE" })).status,
+    ).toBe(403);
+    expect(
+      (await fx.sessions.other.fetch(`/api/runs/${runId}/signoffs/${second.id}`, { method: "DELETE" })).status,
+    ).toBe(404);
     const gone = await fx.sessions.reviewer.fetch(`/api/runs/${runId}/signoffs/${second.id}`, { method: "DELETE" });
     expect(gone.status).toBe(200);
     expect(((await gone.json()) as Signoff).withdrawnAt).not.toBeNull();
-    expect((await fx.sessions.reviewer.fetch(`/api/runs/${runId}/signoffs/${second.id}`, { method: "DELETE" })).status).toBe(409);
+    expect(
+      (await fx.sessions.reviewer.fetch(`/api/runs/${runId}/signoffs/${second.id}`, { method: "DELETE" })).status,
+    ).toBe(409);
     list = await signoffs(runId);
     expect(list.items).toEqual([]);
     expect(list.withdrawn).toHaveLength(2);
@@ -121,22 +149,37 @@ describe("review requests, the queue and out-of-date approvals", () => {
     const runId = await createRun(fx.sessions.designer, fx.scenarioId, "queue test");
 
     // Only members who may sign off can be asked; a reviewer cannot ask; bad bodies name reviewerIds.
-    const asViewer = await fx.sessions.designer.fetch(`/api/runs/${runId}/review-requests`, post({ reviewerIds: [viewerId] }));
+    const asViewer = await fx.sessions.designer.fetch(
+      `/api/runs/${runId}/review-requests`,
+      post({ reviewerIds: [viewerId] }),
+    );
     expect(asViewer.status).toBe(400);
     expect(((await asViewer.json()) as { issues: Issue[] }).issues[0].path[0]).toBe("reviewerIds");
     const empty = await fx.sessions.designer.fetch(`/api/runs/${runId}/review-requests`, post({ reviewerIds: [] }));
     expect(empty.status).toBe(400);
     expect(((await empty.json()) as { issues: Issue[] }).issues[0].path[0]).toBe("reviewerIds");
-    expect((await fx.sessions.reviewer.fetch(`/api/runs/${runId}/review-requests`, post({ reviewerIds: [reviewerId] }))).status).toBe(403);
+    expect(
+      (await fx.sessions.reviewer.fetch(`/api/runs/${runId}/review-requests`, post({ reviewerIds: [reviewerId] })))
+        .status,
+    ).toBe(403);
 
-    const res = await fx.sessions.designer.fetch(`/api/runs/${runId}/review-requests`, post({ reviewerIds: [reviewerId], note: "Please check the reconnect point." }));
+    const res = await fx.sessions.designer.fetch(
+      `/api/runs/${runId}/review-requests`,
+      post({ reviewerIds: [reviewerId], note: "Please check the reconnect point." }),
+    );
     expect(res.status).toBe(201);
-    const mail = await waitForMail(server.mailDir, (m) => m.to.includes(EMAILS.reviewer) && m.subject === 'Review requested: run "queue test"');
+    const mail = await waitForMail(
+      server.mailDir,
+      (m) => m.to.includes(EMAILS.reviewer) && m.subject === 'Review requested: run "queue test"',
+    );
     expect(mail.text).toContain("Please check the reconnect point.");
     expect(mail.text).toContain(`/runs/${runId}`);
     expect(mail.text).toContain("/review");
     // Asking again does not mail again.
-    expect((await fx.sessions.designer.fetch(`/api/runs/${runId}/review-requests`, post({ reviewerIds: [reviewerId] }))).status).toBe(201);
+    expect(
+      (await fx.sessions.designer.fetch(`/api/runs/${runId}/review-requests`, post({ reviewerIds: [reviewerId] })))
+        .status,
+    ).toBe(201);
     await new Promise((r) => setTimeout(r, 500));
     expect(readMails(server.mailDir).filter((m) => m.subject === 'Review requested: run "queue test"')).toHaveLength(1);
     // (Other mails from earlier tests may still be arriving, so only this run's review mails are counted.)
@@ -147,7 +190,14 @@ describe("review requests, the queue and out-of-date approvals", () => {
     expect(designerQueue.requestedByMe.map((i) => i.run.id)).toContain(runId);
     expect(designerQueue.waitingOnMe.map((i) => i.run.id)).not.toContain(runId);
 
-    expect((await fx.sessions.reviewer.fetch(`/api/runs/${runId}/signoffs`, post({ decision: "approved", note: "Approved for layout." }))).status).toBe(201);
+    expect(
+      (
+        await fx.sessions.reviewer.fetch(
+          `/api/runs/${runId}/signoffs`,
+          post({ decision: "approved", note: "Approved for layout." }),
+        )
+      ).status,
+    ).toBe(201);
     queue = (await (await fx.sessions.reviewer.fetch("/api/review/queue")).json()) as Queue;
     expect(queue.waitingOnMe.map((i) => i.run.id)).not.toContain(runId);
     const decided = queue.decided.find((i) => i.run.id === runId)!;
@@ -158,12 +208,20 @@ describe("review requests, the queue and out-of-date approvals", () => {
       scenario: Record<string, unknown>;
       latestDecision: { runId: string; outOfDate: boolean; scenarioVersion: number };
     };
-    expect(scenario.latestDecision).toMatchObject({ runId, outOfDate: false, scenarioVersion: decided.run.scenarioVersion });
+    expect(scenario.latestDecision).toMatchObject({
+      runId,
+      outOfDate: false,
+      scenarioVersion: decided.run.scenarioVersion,
+    });
 
     // A later save of the scenario: the approval no longer covers the current version.
     const put = await fx.sessions.designer.fetch(`/api/scenarios/${fx.scenarioId}`, {
       method: "PUT",
-      body: JSON.stringify({ scenario: scenario.scenario, note: "Re-saved after review", baseVersion: scenario.version }),
+      body: JSON.stringify({
+        scenario: scenario.scenario,
+        note: "Re-saved after review",
+        baseVersion: scenario.version,
+      }),
     });
     expect(put.status).toBe(200);
     scenario = (await (await fx.sessions.viewer.fetch(`/api/scenarios/${fx.scenarioId}`)).json()) as typeof scenario;
@@ -175,7 +233,10 @@ describe("review requests, the queue and out-of-date approvals", () => {
 
 describe("run links and the audit log", () => {
   it("a link carries its label and last use; audit entries name the member and the run", async () => {
-    const res = await fx.sessions.designer.fetch(`/api/runs/${fx.runId}/links`, post({ label: "bench tech at the yard", expiresInDays: 3 }));
+    const res = await fx.sessions.designer.fetch(
+      `/api/runs/${fx.runId}/links`,
+      post({ label: "bench tech at the yard", expiresInDays: 3 }),
+    );
     expect(res.status).toBe(201);
     const link = (await res.json()) as { id: string; token: string; label: string; lastUsedAt: string | null };
     expect(link.label).toBe("bench tech at the yard");
@@ -189,7 +250,9 @@ describe("run links and the audit log", () => {
     const sharedBody = (await shared.json()) as Record<string, unknown>;
     expect(sharedBody.teamId).toBeUndefined();
     expect(sharedBody.scenarioName).toBe("Battery low-voltage disconnect");
-    const list = (await (await fx.sessions.designer.fetch(`/api/runs/${fx.runId}/links`)).json()) as { items: { id: string; label: string | null; lastUsedAt: string | null; useCount: number }[] };
+    const list = (await (await fx.sessions.designer.fetch(`/api/runs/${fx.runId}/links`)).json()) as {
+      items: { id: string; label: string | null; lastUsedAt: string | null; useCount: number }[];
+    };
     const mine = list.items.find((l) => l.id === link.id)!;
     expect(mine.label).toBe("bench tech at the yard");
     expect(mine.lastUsedAt).not.toBeNull();
@@ -197,12 +260,32 @@ describe("run links and the audit log", () => {
 
     // A role change and a sign-off, then the audit log says whose role and which run.
     const viewerId = await memberId(EMAILS.viewer);
-    expect((await fx.sessions.owner.fetch(`/api/team/members/${viewerId}`, { method: "PATCH", body: JSON.stringify({ role: "designer" }) })).status).toBe(200);
-    expect((await fx.sessions.owner.fetch(`/api/team/members/${viewerId}`, { method: "PATCH", body: JSON.stringify({ role: "viewer" }) })).status).toBe(200);
-    expect((await fx.sessions.reviewer.fetch(`/api/runs/${fx.runId}/signoffs`, post({ decision: "approved" }))).status).toBe(201);
-    const audit = (await (await fx.sessions.owner.fetch("/api/team/audit")).json()) as { items: { action: string; targetName: string | null; details: Record<string, unknown> }[] };
+    expect(
+      (
+        await fx.sessions.owner.fetch(`/api/team/members/${viewerId}`, {
+          method: "PATCH",
+          body: JSON.stringify({ role: "designer" }),
+        })
+      ).status,
+    ).toBe(200);
+    expect(
+      (
+        await fx.sessions.owner.fetch(`/api/team/members/${viewerId}`, {
+          method: "PATCH",
+          body: JSON.stringify({ role: "viewer" }),
+        })
+      ).status,
+    ).toBe(200);
+    expect(
+      (await fx.sessions.reviewer.fetch(`/api/runs/${fx.runId}/signoffs`, post({ decision: "approved" }))).status,
+    ).toBe(201);
+    const audit = (await (await fx.sessions.owner.fetch("/api/team/audit")).json()) as {
+      items: { action: string; targetName: string | null; details: Record<string, unknown> }[];
+    };
     const role = audit.items.find((e) => e.action === "member.role_changed")!;
-    const viewerName = ((await (await fx.sessions.owner.fetch("/api/team/members")).json()) as { items: { id: string; name: string }[] }).items.find((m) => m.id === viewerId)!.name;
+    const viewerName = (
+      (await (await fx.sessions.owner.fetch("/api/team/members")).json()) as { items: { id: string; name: string }[] }
+    ).items.find((m) => m.id === viewerId)!.name;
     expect(role.targetName).toBe(viewerName);
     const signed = audit.items.find((e) => e.action === "signoff.created")!;
     expect(signed.targetName).toBe('run "team test run" of Battery low-voltage disconnect');

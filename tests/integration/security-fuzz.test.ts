@@ -54,7 +54,7 @@ describe("fuzz: 10,000 malformed requests", () => {
   it("answer no 5xx on any route", { timeout: WALL_MS + 60_000 }, async () => {
     const stream = createStream(SEED);
     const rnd = () => stream.uniform();
-    const pick = <T,>(xs: readonly T[]): T => xs[Math.floor(rnd() * xs.length)];
+    const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rnd() * xs.length)];
     const { api, pages } = routePatterns();
     expect(api.length).toBeGreaterThan(20);
     expect(pages.length).toBeGreaterThan(5);
@@ -112,9 +112,27 @@ describe("fuzz: 10,000 malformed requests", () => {
       { scenario: { run: { duration: -1, points: 1e12 } } },
     ];
     const rawBodies = ["{", "not json", "\u0000\u0000", '{"a":}', "[".repeat(100_000), '"\\ud800"', "null", ""];
-    const types = ["application/json", "application/json", "application/json", "text/plain", "multipart/form-data; boundary=x", "application/x-www-form-urlencoded", ""];
+    const types = [
+      "application/json",
+      "application/json",
+      "application/json",
+      "text/plain",
+      "multipart/form-data; boundary=x",
+      "application/x-www-form-urlencoded",
+      "",
+    ];
     const methods = ["GET", "GET", "POST", "POST", "PUT", "PATCH", "DELETE", "HEAD", "OPTIONS"];
-    const queries = ["", "", "?boardId=%00", "?boardId=%ff", "?with=%ff%fe", "?scenarioId[]=1", `?boardId=${"z".repeat(3000)}`, "?limit=-1&offset=1e99", "?q=%"];
+    const queries = [
+      "",
+      "",
+      "?boardId=%00",
+      "?boardId=%ff",
+      "?with=%ff%fe",
+      "?scenarioId[]=1",
+      `?boardId=${"z".repeat(3000)}`,
+      "?limit=-1&offset=1e99",
+      "?q=%",
+    ];
     const callers = [fx.sessions.owner, fx.sessions.designer, fx.sessions.viewer, fx.sessions.other, null];
 
     const counts = new Map<number, number>();
@@ -137,7 +155,13 @@ describe("fuzz: 10,000 malformed requests", () => {
       }
       let status = 0;
       try {
-        const res = await fetch(`${server.url}${target}`, { method, headers, body, redirect: "manual", signal: AbortSignal.timeout(30_000) });
+        const res = await fetch(`${server.url}${target}`, {
+          method,
+          headers,
+          body,
+          redirect: "manual",
+          signal: AbortSignal.timeout(30_000),
+        });
         status = res.status;
         await res.arrayBuffer().catch(() => undefined);
       } catch (err) {
@@ -157,8 +181,12 @@ describe("fuzz: 10,000 malformed requests", () => {
     });
     await Promise.all(workers);
 
-    const table = [...counts.entries()].sort((a, b) => a[0] - b[0]).map(([s, n]) => `${s === -1 ? "client-refused" : s}: ${n}`);
-    console.log(`[fuzz] seed ${SEED}: ${done} requests over ${api.length} API routes and ${pages.length} pages; status counts ${table.join(", ")}`);
+    const table = [...counts.entries()]
+      .sort((a, b) => a[0] - b[0])
+      .map(([s, n]) => `${s === -1 ? "client-refused" : s}: ${n}`);
+    console.log(
+      `[fuzz] seed ${SEED}: ${done} requests over ${api.length} API routes and ${pages.length} pages; status counts ${table.join(", ")}`,
+    );
     if (fiveHundreds.length) console.log(`[fuzz] 5xx answers (first 20):\n${fiveHundreds.slice(0, 20).join("\n")}`);
     expect(done).toBe(REQUESTS);
     expect(fiveHundreds).toEqual([]);

@@ -85,7 +85,12 @@ describe("study uploads (items 2 and 7)", () => {
 
   it("a bandwidth past the run bounds is refused with 400 naming the field, before any simulation", async () => {
     const cfg = config({ bandwidth: 1e11, levels: 2, seedsPerLevel: 1 });
-    const tasks = Array.from({ length: 3 }, () => ({ transitions: 1, hysteresis: null, upperThreshold: null, lowerThreshold: null }));
+    const tasks = Array.from({ length: 3 }, () => ({
+      transitions: 1,
+      hysteresis: null,
+      upperThreshold: null,
+      lowerThreshold: null,
+    }));
     const res = await fx.sessions.designer.fetch(`/api/runs/${fx.runId}/study`, {
       method: "PUT",
       body: JSON.stringify({ schema: "railwise.study/1", noiseMargin: { config: cfg, tasks } }),
@@ -126,7 +131,8 @@ describe("study uploads (items 2 and 7)", () => {
 describe("cross-site request refusals (item 4)", () => {
   it("text/plain JSON, a foreign Origin and a cross-site Sec-Fetch-Site are refused with 403 and change nothing", async () => {
     const s = fx.sessions.designer;
-    const comments = async () => ((await (await s.fetch(`/api/runs/${fx.runId}/comments`)).json()) as { items: unknown[] }).items.length;
+    const comments = async () =>
+      ((await (await s.fetch(`/api/runs/${fx.runId}/comments`)).json()) as { items: unknown[] }).items.length;
     const before = await comments();
     const plain = await s.fetch(`/api/runs/${fx.runId}/comments`, {
       method: "POST",
@@ -152,7 +158,11 @@ describe("cross-site request refusals (item 4)", () => {
     // DELETE of a scenario from another origin: refused, the scenario is still there.
     const create = await s.fetch("/api/scenarios", {
       method: "POST",
-      body: JSON.stringify({ boardId: await boardIdOf(s), scenario: (await (await s.fetch(`/api/runs/${fx.runId}`)).json()).scenario, name: "CSRF target" }),
+      body: JSON.stringify({
+        boardId: await boardIdOf(s),
+        scenario: (await (await s.fetch(`/api/runs/${fx.runId}`)).json()).scenario,
+        name: "CSRF target",
+      }),
     });
     expect(create.status).toBe(201);
     const { id } = (await create.json()) as { id: string };
@@ -169,7 +179,10 @@ describe("cross-site request refusals (item 4)", () => {
 
 async function postCredentials(email: string, password: string, headers: Record<string, string> = {}) {
   const csrf = await fetch(`${server.url}/api/auth/csrf`);
-  const cookie = csrf.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  const cookie = csrf.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .join("; ");
   const { csrfToken } = (await csrf.json()) as { csrfToken: string };
   return fetch(`${server.url}/api/auth/callback/credentials`, {
     method: "POST",
@@ -265,7 +278,12 @@ describe("malformed requests answer 4xx (item 9)", () => {
 describe("pages for another team's ids (item 11)", () => {
   it("answer 404 like the API; the own team's answer 200", async () => {
     const board = await boardIdOf(fx.sessions.owner);
-    const pages = [`/boards/${board}`, `/scenarios/${fx.scenarioId}`, `/scenarios/${fx.scenarioId}/summary`, `/runs/${fx.runId}`];
+    const pages = [
+      `/boards/${board}`,
+      `/scenarios/${fx.scenarioId}`,
+      `/scenarios/${fx.scenarioId}/summary`,
+      `/runs/${fx.runId}`,
+    ];
     for (const p of pages) {
       expect((await fx.sessions.owner.fetch(p)).status, p).toBe(200);
       expect((await fx.sessions.other.fetch(p)).status, p).toBe(404);
@@ -328,12 +346,20 @@ describe("sessions end for real (item 6)", () => {
   it("a role change ends the member's sessions", async () => {
     const viewer = await signIn(server.url, EMAILS.viewer, DEMO_PASSWORD);
     expect((await viewer.fetch("/api/boards")).status).toBe(200);
-    const members = (await (await fx.sessions.owner.fetch("/api/team/members")).json()) as { items: { id: string; email: string }[] };
+    const members = (await (await fx.sessions.owner.fetch("/api/team/members")).json()) as {
+      items: { id: string; email: string }[];
+    };
     const v = members.items.find((m) => m.email === EMAILS.viewer)!;
-    const change = await fx.sessions.owner.fetch(`/api/team/members/${v.id}`, { method: "PATCH", body: JSON.stringify({ role: "reviewer" }) });
+    const change = await fx.sessions.owner.fetch(`/api/team/members/${v.id}`, {
+      method: "PATCH",
+      body: JSON.stringify({ role: "reviewer" }),
+    });
     expect(change.status).toBe(200);
     expect((await viewer.fetch("/api/boards")).status).toBe(401);
-    const back = await fx.sessions.owner.fetch(`/api/team/members/${v.id}`, { method: "PATCH", body: JSON.stringify({ role: "viewer" }) });
+    const back = await fx.sessions.owner.fetch(`/api/team/members/${v.id}`, {
+      method: "PATCH",
+      body: JSON.stringify({ role: "viewer" }),
+    });
     expect(back.status).toBe(200);
     // Changing it back does not revive the old cookie.
     expect((await viewer.fetch("/api/boards")).status).toBe(401);
@@ -349,7 +375,8 @@ describe("rate limits hold across a restart (item 5)", () => {
     // new server process on the copy.
     const keep = fs.mkdtempSync(path.join(os.tmpdir(), "railwise-sec-restart-"));
     const copy = path.join(keep, "railwise.sqlite");
-    for (const suffix of ["", "-wal"]) if (fs.existsSync(server.dbPath + suffix)) fs.copyFileSync(server.dbPath + suffix, copy + suffix);
+    for (const suffix of ["", "-wal"])
+      if (fs.existsSync(server.dbPath + suffix)) fs.copyFileSync(server.dbPath + suffix, copy + suffix);
     await server.stop();
     server = await startServer({ env: { DATABASE_URL: `sqlite:${copy}` } });
     expect((await postCredentials(email, DEMO_PASSWORD, { "x-forwarded-for": "10.4.0.51" })).status).toBe(429);

@@ -43,7 +43,14 @@ function oscillator(duration: number): Scenario {
       outputHeadroomLow: 0.02,
       inputOffset: 0,
     },
-    stage: { kind: "relaxation-oscillator", rReference: 50e3, rFeedback: 100e3, rTiming: 100e3, cTiming: 4.7e-9, reference: 2.5 },
+    stage: {
+      kind: "relaxation-oscillator",
+      rReference: 50e3,
+      rFeedback: 100e3,
+      rTiming: 100e3,
+      cTiming: 4.7e-9,
+      reference: 2.5,
+    },
     input: { components: [{ kind: "dc", level: 0 }] },
     run: { duration, points: 8000, initialOutput: "low" },
   } as unknown as Scenario;
@@ -84,7 +91,7 @@ describe("simulation worker pool", () => {
     const run = (await res.json()) as { result: { metrics: { period: number | null } } };
     // Period of the ideal relaxation oscillator 2·R·C·ln((1+β)/(1−β)) with β = 1/3 (three equal
     // resistors to a mid reference): 2·100 kΩ·4.7 nF·ln 2 ≈ 0.652 ms (handbook formula, see
-    // REFERENCES.md); the rail headroom moves it by well under 5 %.
+    // tests/REFERENCES.md); the rail headroom moves it by well under 5 %.
     expect(run.result.metrics.period).toBeGreaterThan(0.652e-3 * 0.95);
     expect(run.result.metrics.period).toBeLessThan(0.652e-3 * 1.05);
   });
@@ -94,7 +101,9 @@ describe("simulation worker pool", () => {
     const started = performance.now();
     const runs = Promise.all(
       Array.from({ length: 4 }, () =>
-        designer.fetch("/api/runs", { method: "POST", body: JSON.stringify({ scenarioId: id }) }).then(async (r) => ({ status: r.status, body: (await r.json()) as { error: string; message: string } })),
+        designer
+          .fetch("/api/runs", { method: "POST", body: JSON.stringify({ scenarioId: id }) })
+          .then(async (r) => ({ status: r.status, body: (await r.json()) as { error: string; message: string } })),
       ),
     );
     const times = await probeHealth(runs);

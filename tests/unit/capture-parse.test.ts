@@ -53,7 +53,9 @@ describe("parseCapture", () => {
   });
 
   it("names the row and column of a non-numeric cell, NaN or an empty cell", () => {
-    expect(refusal("t,v\n0,1\n1,abc\n", { timeColumn: "t", voltsColumn: "v" })).toBe('Row 3, column "v": "abc" is not a number.');
+    expect(refusal("t,v\n0,1\n1,abc\n", { timeColumn: "t", voltsColumn: "v" })).toBe(
+      'Row 3, column "v": "abc" is not a number.',
+    );
     expect(refusal("t,v\n0,1\n1,NaN\n", { timeColumn: "t", voltsColumn: "v" })).toMatch(/^Row 3, column "v": "NaN"/);
     expect(refusal("t,v\n0,1\n1,\n", { timeColumn: "t", voltsColumn: "v" })).toMatch(/^Row 3, column "v"/);
     expect(refusal("t,v\n0,1\nx,2\n", { timeColumn: "t", voltsColumn: "v" })).toMatch(/^Row 3, column "t": "x"/);
@@ -67,7 +69,9 @@ describe("parseCapture", () => {
   });
 
   it("requires strictly increasing time", () => {
-    expect(refusal("t,v\n0,1\n1,2\n1,3\n", { timeColumn: "t", voltsColumn: "v" })).toMatch(/^Row 4, column "t": time 1 is not after/);
+    expect(refusal("t,v\n0,1\n1,2\n1,3\n", { timeColumn: "t", voltsColumn: "v" })).toMatch(
+      /^Row 4, column "t": time 1 is not after/,
+    );
     expect(refusal("t,v\n0,1\n2,2\n1,3\n", { timeColumn: "t", voltsColumn: "v" })).toMatch(/strictly increasing/);
   });
 
@@ -81,7 +85,9 @@ describe("parseCapture", () => {
 
   it("enforces the row limit", () => {
     const rows = Array.from({ length: 11 }, (_, i) => `${i},0`).join("\n");
-    expect(refusal(`t,v\n${rows}`, { timeColumn: "t", voltsColumn: "v", maxRows: 10 })).toMatch(/11 data rows; at most 10/);
+    expect(refusal(`t,v\n${rows}`, { timeColumn: "t", voltsColumn: "v", maxRows: 10 })).toMatch(
+      /11 data rows; at most 10/,
+    );
     expect(parseCapture(`t,v\n${rows}`, { timeColumn: "t", voltsColumn: "v", maxRows: 11 }).rows).toBe(11);
   });
 
@@ -129,7 +135,9 @@ describe("separator and decimal comma", () => {
   });
 
   it("names both columns when the same one is chosen twice, and refuses a one-column file", () => {
-    expect(refusal("time;volts\n0;1\n1;2\n", { timeColumn: "time", voltsColumn: "time" })).toMatch(/Volts column: choose a different column.*"time"/);
+    expect(refusal("time;volts\n0;1\n1;2\n", { timeColumn: "time", voltsColumn: "time" })).toMatch(
+      /Volts column: choose a different column.*"time"/,
+    );
     expect(refusal("volts\n1\n2\n", { timeColumn: 0, voltsColumn: 0 })).toMatch(/only one column/);
   });
 });

@@ -1,5 +1,5 @@
 // The demo board uses the circuit as built: the battery cut-off reads in battery volts through its
-// 68 k / 18 k divider, the water alarm in °C through its NTC divider (DESIGN.md "Demo data").
+// 68 k / 18 k divider, the water alarm in °C through its NTC divider (DEVELOPERS.md § Demo data).
 import { describe, expect, it } from "vitest";
 import { DEMO_SCENARIOS } from "@/lib/demo/scenarios";
 import { parseScenario } from "@/lib/schemas/scenario";
@@ -14,7 +14,7 @@ describe("battery cut-off", () => {
 
   it("switches at 12.49 V / 11.40 V of battery (inverting Schmitt closed form through the divider)", () => {
     const r = simulate(s);
-    // upper = (Vref·rFb + Voh·rRef)/(rRef + rFb) with Voh 4.98 V, Vol 0.02 V (REFERENCES.md);
+    // upper = (Vref·rFb + Voh·rRef)/(rRef + rFb) with Voh 4.98 V, Vol 0.02 V (tests/REFERENCES.md);
     // battery = pin / (18/86) (voltage divider rule). Noise (4 mV rms) and offset allowed: 30 mV.
     const upper = (2.5 * 680e3 + 4.98 * 33e3) / 713e3 / (18 / 86);
     const lower = (2.5 * 680e3 + 0.02 * 33e3) / 713e3 / (18 / 86);
@@ -40,7 +40,7 @@ describe("water-temperature alarm", () => {
     const rRef = (7.5e3 * 6.8e3) / 14.3e3;
     const vLow = (vref * 200e3 + 0.02 * rRef) / (rRef + 200e3);
     const vUp = (vref * 200e3 + 4.98 * rRef) / (rRef + 200e3);
-    // Beta model inverse (REFERENCES.md): R = 15k·V/(5 − V); T = 1/(1/T25 + ln(R/R25)/B)
+    // Beta model inverse (tests/REFERENCES.md): R = 15k·V/(5 − V); T = 1/(1/T25 + ln(R/R25)/B)
     const c = (v: number) => 1 / (1 / 298.15 + Math.log((15e3 * v) / (5 - v) / 10e3) / 3977) - 273.15;
     expect(r.metrics.source!.unit).toBe("°C");
     // 3 mV rms pick-up over an 87 mV deadband: allow 0.1 °C
@@ -50,9 +50,17 @@ describe("water-temperature alarm", () => {
   });
 
   it("lists the NTC, its fixed resistor and the reference divider, and spreads over R25 and Beta", () => {
-    expect(billOfMaterials(s).lines.map((l) => `${l.ref} ${l.code}`)).toEqual(["TH1 10K", "R1 15K", "R2 200K", "R3 7K5", "R4 6K8"]);
+    expect(billOfMaterials(s).lines.map((l) => `${l.ref} ${l.code}`)).toEqual([
+      "TH1 10K",
+      "R1 15K",
+      "R2 200K",
+      "R3 7K5",
+      "R4 6K8",
+    ]);
     const wc = circuitWorstCase(s);
-    expect(wc.varied.map((v) => v.name)).toEqual(expect.arrayContaining(["source.sensor.model.r25", "source.sensor.model.beta", "stage.referenceDivider.rTop"]));
+    expect(wc.varied.map((v) => v.name)).toEqual(
+      expect.arrayContaining(["source.sensor.model.r25", "source.sensor.model.beta", "stage.referenceDivider.rTop"]),
+    );
     expect(wc.sourceUpperThreshold![0]).toBeLessThan(19);
     expect(wc.sourceUpperThreshold![1]).toBeGreaterThan(19);
   });

@@ -1,6 +1,6 @@
 // lib/sim/circuit.ts: the circuit as built lowered to the plain stage the solver runs, checked
 // against circuit theory (Thevenin, Kirchhoff), the Schmitt-trigger closed forms and the NTC
-// Beta / Steinhart–Hart inverses of REFERENCES.md.
+// Beta / Steinhart–Hart inverses of tests/REFERENCES.md.
 import { describe, expect, it } from "vitest";
 import { simulate } from "@/lib/sim";
 import { lowerCircuit, sourceReadings } from "@/lib/sim/circuit";
@@ -10,7 +10,14 @@ import { SimFailed } from "@/lib/sim/errors";
 // Finite A0 and GBW move a switching point by the overdrive the output needs to cross mid-level
 // (≈ √(2·ΔV·slope/(2π·GBW)) ≈ 0.1 mV for these sweeps; from memory), so closed forms that assume
 // an ideal switch are compared to 3 decimals (5e-4).
-const FAST = { openLoopGain: 2e5, gainBandwidth: 1e9, slewRate: 1e10, outputHeadroomHigh: 0, outputHeadroomLow: 0, inputOffset: 0 };
+const FAST = {
+  openLoopGain: 2e5,
+  gainBandwidth: 1e9,
+  slewRate: 1e10,
+  outputHeadroomHigh: 0,
+  outputHeadroomLow: 0,
+  inputOffset: 0,
+};
 
 const make = (partial: Record<string, unknown>): Scenario =>
   parseScenario({
@@ -30,7 +37,9 @@ const run = (s: Scenario) => {
 };
 
 // A triangle sweep over the run, starting at its minimum (phase 270°), for threshold stages.
-const sweep = (lo: number, hi: number) => ({ components: [{ kind: "triangle", amplitude: (hi - lo) / 2, offset: (hi + lo) / 2, frequency: 1, phase: 270 }] });
+const sweep = (lo: number, hi: number) => ({
+  components: [{ kind: "triangle", amplitude: (hi - lo) / 2, offset: (hi + lo) / 2, frequency: 1, phase: 270 }],
+});
 
 describe("battery divider source (high-impedance input)", () => {
   // 12 V battery through 68 k / 18 k into a schmitt-inverting stage (rReference 33 k to 2.5 V, rFeedback 680 k).
@@ -57,9 +66,9 @@ describe("battery divider source (high-impedance input)", () => {
   it("reads the switching points in battery volts: the volt thresholds divided by the ratio", () => {
     const { r, src } = run(s);
     const k = 18e3 / 86e3;
-    // Inverting Schmitt trigger: upper = (Vref·rFb + Voh·rRef)/(rRef + rFb) (REFERENCES.md, Sedra & Smith)
-    const upper = (2.5 * 680e3 + 5 * 33e3) / (713e3);
-    const lower = (2.5 * 680e3 + 0 * 33e3) / (713e3);
+    // Inverting Schmitt trigger: upper = (Vref·rFb + Voh·rRef)/(rRef + rFb) (tests/REFERENCES.md, Sedra & Smith)
+    const upper = (2.5 * 680e3 + 5 * 33e3) / 713e3;
+    const lower = (2.5 * 680e3 + 0 * 33e3) / 713e3;
     expect(r.metrics.upperThreshold!).toBeCloseTo(upper, 3);
     expect(src!.metrics.upperThreshold!).toBeCloseTo(upper / k, 3);
     expect(src!.metrics.lowerThreshold!).toBeCloseTo(lower / k, 3);
@@ -75,7 +84,11 @@ describe("battery divider source (high-impedance input)", () => {
 
 describe("divider source into a current-drawing input", () => {
   it("schmitt-noninverting: the divider's Thevenin resistance adds to rInput (nodal analysis)", () => {
-    const rTop = 68e3, rBottom = 18e3, rIn = 10e3, rFb = 100e3, vref = 2.5;
+    const rTop = 68e3,
+      rBottom = 18e3,
+      rIn = 10e3,
+      rFb = 100e3,
+      vref = 2.5;
     const s = make({
       stage: { kind: "schmitt-noninverting", rInput: rIn, rFeedback: rFb, reference: vref },
       source: { sensor: { kind: "divider", rTop, rBottom } },
@@ -99,14 +112,17 @@ describe("divider source into a current-drawing input", () => {
 
 describe("reference divider", () => {
   it("comparator: an unloaded divider equals its open-circuit voltage (Thevenin's theorem)", () => {
-    const div = make({ stage: { kind: "comparator", referenceDivider: { rTop: 30e3, rBottom: 20e3 } }, input: sweep(0, 5) });
+    const div = make({
+      stage: { kind: "comparator", referenceDivider: { rTop: 30e3, rBottom: 20e3 } },
+      input: sweep(0, 5),
+    });
     // 5 V · 20k/(30k + 20k) = 2 V
     const { r } = run(div);
     expect(r.metrics.upperThreshold!).toBeCloseTo(2, 3);
     expect(r.metrics.lowerThreshold!).toBeCloseTo(2, 3);
   });
 
-  it("schmitt-inverting: three-resistor network R1 = R2 = R3 switches at Vcc·2/3 and Vcc/3 (REFERENCES.md, derived)", () => {
+  it("schmitt-inverting: three-resistor network R1 = R2 = R3 switches at Vcc·2/3 and Vcc/3 (tests/REFERENCES.md, derived)", () => {
     const s = make({
       stage: { kind: "schmitt-inverting", rFeedback: 100e3, referenceDivider: { rTop: 100e3, rBottom: 100e3 } },
       input: sweep(0, 5),
@@ -120,14 +136,19 @@ describe("reference divider", () => {
   it("non-inverting amplifier: rGround returns through the divider's Thevenin resistance", () => {
     const s = make({
       supply: { positive: 5, negative: -5 },
-      stage: { kind: "noninverting-amplifier", rGround: 10e3, rFeedback: 90e3, referenceDivider: { rTop: 10e3, rBottom: 10e3, top: "positive", bottom: "negative" } },
+      stage: {
+        kind: "noninverting-amplifier",
+        rGround: 10e3,
+        rFeedback: 90e3,
+        referenceDivider: { rTop: 10e3, rBottom: 10e3, top: "positive", bottom: "negative" },
+      },
       input: { components: [{ kind: "dc", level: 0.1 }] },
       run: { duration: 1e-3, points: 101 },
     });
     const low = lowerCircuit(s);
     if (low.scenario.stage.kind !== "noninverting-amplifier") throw new Error("kind");
     // Reference node at 0 V (±5 V through equal halves), Thevenin 5 kΩ in series with rGround:
-    // gain 1 + 90k/15k = 7 (non-inverting gain 1 + rF/rG, REFERENCES.md; Thevenin's theorem)
+    // gain 1 + 90k/15k = 7 (non-inverting gain 1 + rF/rG, tests/REFERENCES.md; Thevenin's theorem)
     expect(low.scenario.stage.rGround).toBeCloseTo(15e3, 6);
     const r = simulate(low.scenario);
     expect(r.output[r.output.length - 1]).toBeCloseTo(0.7, 3);
@@ -138,14 +159,28 @@ describe("NTC source", () => {
   // Water-alarm style: 10 kΩ / B 3977 K NTC at the bottom of a 15 kΩ divider from 5 V, feeding a
   // schmitt-inverting stage whose reference is a divider.
   const betaTemp = (v: number) => {
-    // Beta model inverse (REFERENCES.md): R = Rf·V/(S − V); 1/T = 1/T25 + ln(R/R25)/B
+    // Beta model inverse (tests/REFERENCES.md): R = Rf·V/(S − V); 1/T = 1/T25 + ln(R/R25)/B
     const rt = (15e3 * v) / (5 - v);
     return 1 / (1 / 298.15 + Math.log(rt / 10e3) / 3977) - 273.15;
   };
   const s = make({
     stage: { kind: "schmitt-inverting", rFeedback: 200e3, referenceDivider: { rTop: 7.5e3, rBottom: 6.8e3 } },
-    source: { quantity: "water temperature", sensor: { kind: "ntc", model: { beta: 3977, r25: 10e3 }, rFixed: 15e3, position: "bottom" } },
-    input: { components: [{ kind: "pwl", points: [[0, 14], [1800, 22], [3600, 14]] }] },
+    source: {
+      quantity: "water temperature",
+      sensor: { kind: "ntc", model: { beta: 3977, r25: 10e3 }, rFixed: 15e3, position: "bottom" },
+    },
+    input: {
+      components: [
+        {
+          kind: "pwl",
+          points: [
+            [0, 14],
+            [1800, 22],
+            [3600, 14],
+          ],
+        },
+      ],
+    },
     run: { duration: 3600, points: 3601, initialOutput: "low" },
   });
 
@@ -165,7 +200,7 @@ describe("NTC source", () => {
       const [t0, v0] = c.points[j];
       const [t1, v1] = c.points[Math.min(j + 1, c.points.length - 1)];
       const pwl = t1 > t0 ? v0 + ((v1 - v0) * (t[i] - t0)) / (t1 - t0) : v1;
-      // Exact divider voltage from the Beta model (REFERENCES.md): V = S·R/(Rf + R)
+      // Exact divider voltage from the Beta model (tests/REFERENCES.md): V = S·R/(Rf + R)
       const r = 10e3 * Math.exp(3977 * (1 / (x[i] + 273.15) - 1 / 298.15));
       worst = Math.max(worst, Math.abs(pwl - (5 * r) / (15e3 + r)));
     }
@@ -189,10 +224,17 @@ describe("NTC source", () => {
   });
 
   it("Steinhart–Hart model: the source trace reads back the °C waveform through the S–H round trip", () => {
-    // Coefficients of REFERENCES.md (10 kΩ curve through 0, 25, 50 °C); R(25 °C) = 10 000 Ω
+    // Coefficients of tests/REFERENCES.md (10 kΩ curve through 0, 25, 50 °C); R(25 °C) = 10 000 Ω
     const sh = make({
       stage: { kind: "comparator", reference: 2.5, inputAt: "inverting" },
-      source: { sensor: { kind: "ntc", model: { a: 1.13451e-3, b: 2.33024e-4, c: 9.37746e-8 }, rFixed: 10e3, position: "bottom" } },
+      source: {
+        sensor: {
+          kind: "ntc",
+          model: { a: 1.13451e-3, b: 2.33024e-4, c: 9.37746e-8 },
+          rFixed: 10e3,
+          position: "bottom",
+        },
+      },
       input: { components: [{ kind: "ramp", from: 0, to: 50, start: 0, duration: 1 }] },
       run: { duration: 1, points: 1001 },
     });
@@ -212,7 +254,10 @@ describe("not yet simulated parts fail clearly", () => {
     const o = make({ output: { kind: "open-drain", pullUp: 10e3 } });
     expect(() => lowerCircuit(o)).toThrow(/^output:/);
     // Allowed by a solver that has them: the source resistance joins the filter resistor.
-    const g = make({ filter: { r: 10e3, c: 1e-6 }, source: { sensor: { kind: "divider", rTop: 30e3, rBottom: 30e3 } } });
+    const g = make({
+      filter: { r: 10e3, c: 1e-6 },
+      source: { sensor: { kind: "divider", rTop: 30e3, rBottom: 30e3 } },
+    });
     expect(lowerCircuit(g, { allowFilter: true }).filter).toEqual({ r: 25e3, c: 1e-6, rVaries: false });
   });
 });

@@ -8,7 +8,14 @@ import { simulate } from "@/lib/sim";
 import { lowerCircuit, sourceReadings } from "@/lib/sim/circuit";
 import { parseScenario } from "@/lib/schemas/scenario";
 
-const CMOS = { openLoopGain: 2e5, gainBandwidth: 1e6, slewRate: 1e6, outputHeadroomHigh: 0.02, outputHeadroomLow: 0.02, inputOffset: 0 };
+const CMOS = {
+  openLoopGain: 2e5,
+  gainBandwidth: 1e6,
+  slewRate: 1e6,
+  outputHeadroomHigh: 0.02,
+  outputHeadroomLow: 0.02,
+  inputOffset: 0,
+};
 
 const batterySpec = {
   schema: "railwise.design-spec/1",
@@ -33,7 +40,17 @@ describe("design output as built", () => {
     expect(roles).toEqual(expect.arrayContaining(["rTop", "rBottom", "rFeedback", "sourceTop", "sourceBottom"]));
     expect(roles).not.toContain("rReference");
     // Every part of the parts list is a standard value (IEC 60063), nothing flagged
-    const bom = billOfMaterials(parseScenario({ schema: "railwise.scenario/1", supply: batterySpec.supply, opamp: CMOS, stage: d.stage, source: d.source, input: { components: [{ kind: "dc", level: 12 }] }, run: { duration: 1, points: 2 } }));
+    const bom = billOfMaterials(
+      parseScenario({
+        schema: "railwise.scenario/1",
+        supply: batterySpec.supply,
+        opamp: CMOS,
+        stage: d.stage,
+        source: d.source,
+        input: { components: [{ kind: "dc", level: 12 }] },
+        run: { duration: 1, points: 2 },
+      }),
+    );
     expect(bom.warnings).toEqual([]);
     expect(bom.lines).toHaveLength(5);
   });
@@ -82,7 +99,18 @@ describe("design output as built", () => {
       opamp: CMOS,
       stage: dn.stage,
       source: dn.source,
-      input: { components: [{ kind: "pwl", points: [[0, 15], [1800, 21], [3600, 15]] }] },
+      input: {
+        components: [
+          {
+            kind: "pwl",
+            points: [
+              [0, 15],
+              [1800, 21],
+              [3600, 15],
+            ],
+          },
+        ],
+      },
       run: { duration: 3600, points: 3601, initialOutput: "low" },
     });
     const low = lowerCircuit(scenario);
@@ -96,7 +124,12 @@ describe("design output as built", () => {
 
   it("refuses an NTC on a current-drawing input, naming the sensor", () => {
     expect(() =>
-      design({ ...batterySpec, kind: "schmitt-noninverting", target: { upperThreshold: 19, lowerThreshold: 17.5 }, sensor: { kind: "ntc", model: { beta: 3977, r25: 10e3 }, rFixed: 15e3, position: "top" } }),
+      design({
+        ...batterySpec,
+        kind: "schmitt-noninverting",
+        target: { upperThreshold: 19, lowerThreshold: 17.5 },
+        sensor: { kind: "ntc", model: { beta: 3977, r25: 10e3 }, rFixed: 15e3, position: "top" },
+      }),
     ).toThrow(/^sensor: an NTC cannot feed the schmitt-noninverting input/);
   });
 });
@@ -122,7 +155,7 @@ describe("open-drain output in the spec", () => {
     if (st.kind !== "schmitt-inverting") throw new Error("kind");
     // Released pin: 5 V through 10 k into rReference + rFeedback to the reference (the divider's
     // Thevenin form, filled by the parse); the
-    // inverting Schmitt closed form with that high level (REFERENCES.md; nodal analysis, common
+    // inverting Schmitt closed form with that high level (tests/REFERENCES.md; nodal analysis, common
     // practice, no source). Low level Vol = 0.02 V (the part's headroom).
     expect(st.referenceDivider).toBeDefined();
     const vref = st.reference;
@@ -139,7 +172,16 @@ describe("open-drain output in the spec", () => {
   });
 
   it("refuses an open-drain output on an amplifier, naming the field", () => {
-    expect(() => design({ ...batterySpec, kind: "noninverting-amplifier", target: { gain: 10 }, reference: 0, sensor: undefined, output: { kind: "open-drain" } })).toThrow(/output: an open-drain output applies to threshold stages only/);
+    expect(() =>
+      design({
+        ...batterySpec,
+        kind: "noninverting-amplifier",
+        target: { gain: 10 },
+        reference: 0,
+        sensor: undefined,
+        output: { kind: "open-drain" },
+      }),
+    ).toThrow(/output: an open-drain output applies to threshold stages only/);
   });
 });
 
@@ -164,12 +206,28 @@ describe("filter suggestion from a bounce time", () => {
     expect(Math.abs(t - 0.01) / 0.01).toBeLessThan(0.05);
     expect(d.parts.map((p) => p.role)).toEqual(expect.arrayContaining(["filterR", "filterC"]));
     // The suggested filter drops into a scenario
-    expect(() => parseScenario({ schema: "railwise.scenario/1", supply: { positive: 5, negative: 0 }, opamp: CMOS, stage: d.stage, filter: d.filter, input: { components: [{ kind: "dc", level: 0 }] }, run: { duration: 1, points: 2 } })).not.toThrow();
+    expect(() =>
+      parseScenario({
+        schema: "railwise.scenario/1",
+        supply: { positive: 5, negative: 0 },
+        opamp: CMOS,
+        stage: d.stage,
+        filter: d.filter,
+        input: { components: [{ kind: "dc", level: 0 }] },
+        run: { duration: 1, points: 2 },
+      }),
+    ).not.toThrow();
   });
 
   it("refuses a step that never reaches the switching point, naming filter", () => {
     expect(() =>
-      design({ ...batterySpec, sensor: undefined, target: { upperThreshold: 3.3, lowerThreshold: 1.7 }, reference: "auto", filter: { bounceTime: 0.01, step: 2 } }),
+      design({
+        ...batterySpec,
+        sensor: undefined,
+        target: { upperThreshold: 3.3, lowerThreshold: 1.7 },
+        reference: "auto",
+        filter: { bounceTime: 0.01, step: 2 },
+      }),
     ).toThrow(/^filter: filter\.step \(2 V\) must be above the upper switching point/);
   });
 });

@@ -1,10 +1,17 @@
 // Parts list derived from a scenario: every resistor and capacitor of source, filter, stage,
-// reference divider and output, with IEC 60062 RKM codes and IEC 60063 series (REFERENCES.md).
+// reference divider and output, with IEC 60062 RKM codes and IEC 60063 series (tests/REFERENCES.md).
 import { describe, expect, it } from "vitest";
 import { billOfMaterials, bomToCsv, seriesOf } from "@/lib/design/bom";
 import { parseScenario } from "@/lib/schemas/scenario";
 
-const opamp = { openLoopGain: 2e5, gainBandwidth: 1e6, slewRate: 1e6, outputHeadroomHigh: 0, outputHeadroomLow: 0, inputOffset: 0 };
+const opamp = {
+  openLoopGain: 2e5,
+  gainBandwidth: 1e6,
+  slewRate: 1e6,
+  outputHeadroomHigh: 0,
+  outputHeadroomLow: 0,
+  inputOffset: 0,
+};
 
 describe("seriesOf (IEC 60063)", () => {
   it("finds the coarsest series holding a value", () => {
@@ -13,7 +20,7 @@ describe("seriesOf (IEC 60063)", () => {
     expect(seriesOf(18e3)).toBe("E12");
     expect(seriesOf(7.5e3)).toBe("E24");
     expect(seriesOf(6.8e3)).toBe("E6");
-    // E96 has 1.02 (round(10^(1/96), 3 s.f.), REFERENCES.md); E192 i = 185 is 9.20
+    // E96 has 1.02 (round(10^(1/96), 3 s.f.), tests/REFERENCES.md); E192 i = 185 is 9.20
     expect(seriesOf(10.2e3)).toBe("E96");
     expect(seriesOf(920)).toBe("E192");
     expect(seriesOf(21.31e3)).toBeNull();
@@ -37,7 +44,7 @@ describe("billOfMaterials", () => {
     });
     const bom = billOfMaterials(s);
     const rows = bom.lines.map((l) => [l.ref, l.field, l.code, l.series]);
-    // RKM codes per IEC 60062: 68K, 18K, 10K, 680K, 33K (REFERENCES.md); 100 nF in engineering notation
+    // RKM codes per IEC 60062: 68K, 18K, 10K, 680K, 33K (tests/REFERENCES.md); 100 nF in engineering notation
     expect(rows).toEqual([
       ["R1", "source.sensor.rTop", "68K", "E6"],
       ["R2", "source.sensor.rBottom", "18K", "E12"],
@@ -51,7 +58,7 @@ describe("billOfMaterials", () => {
     // The Thevenin stand-in (rReference 16.5 kΩ filled by the parse) is not a part to buy.
     expect(bom.lines.some((l) => l.field === "stage.rReference")).toBe(false);
     expect(bom.lines.find((l) => l.ref === "R1")!.tolerance).toBe(0.01);
-    // Capacitor tolerance default 0.05 (DESIGN.md tolerances defaults)
+    // Capacitor tolerance default 0.05 (lib/schemas/README.md § The circuit as built, tolerances)
     expect(bom.lines.find((l) => l.ref === "C1")!.tolerance).toBe(0.05);
     expect(bom.warnings).toEqual([]);
     expect(bomToCsv(bom).split("\n")[1]).toMatch(/^R1,resistor,source,source\.sensor\.rTop,/);

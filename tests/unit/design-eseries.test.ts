@@ -1,19 +1,23 @@
 import { describe, expect, it } from "vitest";
 import { SERIES_TOLERANCE, seriesInRange, seriesValues, snapToSeries } from "@/lib/design/eseries";
 
-// Source for the literal tables: IEC 60063:2015 as quoted in REFERENCES.md [published].
+// Source for the literal tables: IEC 60063:2015 as quoted in tests/REFERENCES.md [published].
 const E6 = [1.0, 1.5, 2.2, 3.3, 4.7, 6.8];
 const E12 = [1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2];
-const E24 = [1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2, 9.1];
+const E24 = [
+  1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2,
+  9.1,
+];
 // E96 as printed in the IEC 60063 table (from memory, three significant figures ×100).
 const E96_TABLE = [
-  100, 102, 105, 107, 110, 113, 115, 118, 121, 124, 127, 130, 133, 137, 140, 143, 147, 150, 154, 158, 162, 165, 169, 174,
-  178, 182, 187, 191, 196, 200, 205, 210, 215, 221, 226, 232, 237, 243, 249, 255, 261, 267, 274, 280, 287, 294, 301, 309,
-  316, 324, 332, 340, 348, 357, 365, 374, 383, 392, 402, 412, 422, 432, 442, 453, 464, 475, 487, 499, 511, 523, 536, 549,
-  562, 576, 590, 604, 619, 634, 649, 665, 681, 698, 715, 732, 750, 768, 787, 806, 825, 845, 866, 887, 909, 931, 953, 976,
+  100, 102, 105, 107, 110, 113, 115, 118, 121, 124, 127, 130, 133, 137, 140, 143, 147, 150, 154, 158, 162, 165, 169,
+  174, 178, 182, 187, 191, 196, 200, 205, 210, 215, 221, 226, 232, 237, 243, 249, 255, 261, 267, 274, 280, 287, 294,
+  301, 309, 316, 324, 332, 340, 348, 357, 365, 374, 383, 392, 402, 412, 422, 432, 442, 453, 464, 475, 487, 499, 511,
+  523, 536, 549, 562, 576, 590, 604, 619, 634, 649, 665, 681, 698, 715, 732, 750, 768, 787, 806, 825, 845, 866, 887,
+  909, 931, 953, 976,
 ];
 
-// Independent closed form for E48–E192: round 10^(i/N) to 3 significant figures [derived, REFERENCES.md].
+// Independent closed form for E48–E192: round 10^(i/N) to 3 significant figures [derived, tests/REFERENCES.md].
 const plainRounding = (n: number) => Array.from({ length: n }, (_, i) => Math.round(100 * 10 ** (i / n)) / 100);
 
 describe("IEC 60063 series values", () => {
@@ -25,7 +29,7 @@ describe("IEC 60063 series values", () => {
   });
 
   it("E24 departs from plain rounding exactly at the eight published exceptions", () => {
-    // IEC 60063 / REFERENCES.md: rounding 10^(i/24) gives 2.6 2.9 3.2 3.5 3.8 4.2 4.6 8.3 where the
+    // IEC 60063 / tests/REFERENCES.md: rounding 10^(i/24) gives 2.6 2.9 3.2 3.5 3.8 4.2 4.6 8.3 where the
     // standard prints 2.7 3.0 3.3 3.6 3.9 4.3 4.7 8.2.
     const rounded = Array.from({ length: 24 }, (_, i) => Math.round(10 * 10 ** (i / 24)) / 10);
     const diffs = E24.map((v, i) => [v, rounded[i]] as const).filter(([a, b]) => a !== b);
@@ -43,7 +47,7 @@ describe("IEC 60063 series values", () => {
   });
 
   it("E48, E96, E192 are the rounded geometric series with E192 i = 185 printed as 9.20", () => {
-    // REFERENCES.md [derived, matches the published tables]
+    // tests/REFERENCES.md [derived, matches the published tables]
     const e192 = plainRounding(192);
     expect(e192[185]).toBe(9.19);
     e192[185] = 9.2;
@@ -57,14 +61,14 @@ describe("IEC 60063 series values", () => {
     expect(seriesValues("E192").length).toBe(192);
   });
 
-  it("lists the usual tolerances (IEC 60063 usage, REFERENCES.md)", () => {
+  it("lists the usual tolerances (IEC 60063 usage, tests/REFERENCES.md)", () => {
     expect(SERIES_TOLERANCE).toEqual({ E6: 0.2, E12: 0.1, E24: 0.05, E48: 0.02, E96: 0.01, E192: 0.005 });
   });
 });
 
 describe("snapping by ratio", () => {
   it("1.097 snaps to 1.2 in E12 (nearer 1.0 by difference, nearer 1.2 by ratio)", () => {
-    // REFERENCES.md [derived]: ln 1.097 = 0.0926 > ln(1.2/1.097) = 0.0897
+    // tests/REFERENCES.md [derived]: ln 1.097 = 0.0926 > ln(1.2/1.097) = 0.0897
     expect(Math.log(1.097)).toBeCloseTo(0.0926, 4);
     expect(Math.log(1.2 / 1.097)).toBeCloseTo(0.0897, 4);
     expect(snapToSeries(1.097, "E12")).toBe(1.2);

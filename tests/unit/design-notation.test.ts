@@ -3,7 +3,7 @@ import { formatQuantity, formatRkm, formatTicks, parseQuantity, quantityProblem 
 
 describe("RKM codes (IEC 60062)", () => {
   it("parses the published examples", () => {
-    // IEC 60062 via REFERENCES.md [published]: 4K7 = 4.7 kΩ, 2R2 = 2.2 Ω, 1M0 = 1 MΩ, 470R = 470 Ω
+    // IEC 60062 via tests/REFERENCES.md [published]: 4K7 = 4.7 kΩ, 2R2 = 2.2 Ω, 1M0 = 1 MΩ, 470R = 470 Ω
     expect(parseQuantity("4K7")).toBe(4700);
     expect(parseQuantity("2R2")).toBe(2.2);
     expect(parseQuantity("1M0")).toBe(1e6);

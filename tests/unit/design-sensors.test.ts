@@ -23,20 +23,20 @@ import {
   type NtcDivider,
 } from "@/lib/design/sensors";
 
-// REFERENCES.md, NTC thermistor: three-point Steinhart–Hart fit of a 10 kΩ / B≈3977 K curve
+// tests/REFERENCES.md, NTC thermistor: three-point Steinhart–Hart fit of a 10 kΩ / B≈3977 K curve
 // through 0, 25, 50 °C [derived from a published curve] (Steinhart & Hart, Deep-Sea Research 15, 1968).
 const SH = { kind: "steinhart-hart" as const, a: 1.13451e-3, b: 2.33024e-4, c: 9.37746e-8 };
 const BETA = { kind: "beta" as const, r0: 10_000, beta: 3977 };
 
 describe("NTC Beta model", () => {
   it("R(0 °C) = 33 900 Ω for B = 3977 K, R25 = 10 kΩ", () => {
-    // REFERENCES.md [derived]: R = R25·exp(B(1/T − 1/T25))
+    // tests/REFERENCES.md [derived]: R = R25·exp(B(1/T − 1/T25))
     expect(betaResistance(celsiusToKelvin(0), BETA)).toBeCloseTo(33_900, -1);
     expect(betaResistance(298.15, BETA)).toBeCloseTo(10_000, 9);
   });
 
   it("fits B from two points and round-trips R ↔ T to 0.01 K", () => {
-    // B = ln(R1/R2)/(1/T1 − 1/T2) [published formula, REFERENCES.md]
+    // B = ln(R1/R2)/(1/T1 − 1/T2) [published formula, tests/REFERENCES.md]
     const r0 = betaResistance(celsiusToKelvin(0), BETA);
     const r50 = betaResistance(celsiusToKelvin(50), BETA);
     expect(fitBeta([celsiusToKelvin(0), r0], [celsiusToKelvin(50), r50])).toBeCloseTo(3977, 9);
@@ -47,7 +47,7 @@ describe("NTC Beta model", () => {
   });
 
   it("the Beta model is 4 % above the Steinhart–Hart curve at 0 °C", () => {
-    // REFERENCES.md [derived]: 33 900 vs ≈ 32 555 Ω
+    // tests/REFERENCES.md [derived]: 33 900 vs ≈ 32 555 Ω
     const beta = betaResistance(celsiusToKelvin(0), BETA);
     const sh = steinhartHartResistance(celsiusToKelvin(0), SH);
     expect(beta / sh - 1).toBeGreaterThan(0.035);
@@ -57,14 +57,14 @@ describe("NTC Beta model", () => {
 
 describe("NTC Steinhart–Hart", () => {
   it("gives R(25 °C) = 10 000 Ω, R(0 °C) ≈ 32 555 Ω, R(50 °C) ≈ 3 605 Ω", () => {
-    // REFERENCES.md values (coefficients rounded to 6 digits there, hence the 0.01 % tolerance)
+    // tests/REFERENCES.md values (coefficients rounded to 6 digits there, hence the 0.01 % tolerance)
     expect(steinhartHartResistance(celsiusToKelvin(25), SH) / 10_000 - 1).toBeLessThan(1e-4);
     expect(Math.abs(steinhartHartResistance(celsiusToKelvin(0), SH) / 32_555 - 1)).toBeLessThan(1e-4);
     expect(Math.abs(steinhartHartResistance(celsiusToKelvin(50), SH) / 3_605 - 1)).toBeLessThan(2e-4);
   });
 
   it("round-trips T → R → T to 0.01 K from −40 to 125 °C", () => {
-    // REFERENCES.md: check round trips to 0.01 K
+    // tests/REFERENCES.md: check round trips to 0.01 K
     for (let c = -40; c <= 125; c += 2.5) {
       const t = celsiusToKelvin(c);
       const r = steinhartHartResistance(t, SH);
@@ -74,8 +74,10 @@ describe("NTC Steinhart–Hart", () => {
   });
 
   it("fits the three coefficients back from three points", () => {
-    // Three points taken from the REFERENCES.md curve; the fit must reproduce A, B, C and the curve.
-    const pts = [0, 25, 50].map((c) => [celsiusToKelvin(c), steinhartHartResistance(celsiusToKelvin(c), SH)] as [number, number]);
+    // Three points taken from the tests/REFERENCES.md curve; the fit must reproduce A, B, C and the curve.
+    const pts = [0, 25, 50].map(
+      (c) => [celsiusToKelvin(c), steinhartHartResistance(celsiusToKelvin(c), SH)] as [number, number],
+    );
     const fit = fitSteinhartHart(pts as [[number, number], [number, number], [number, number]]);
     expect(fit.a).toBeCloseTo(SH.a, 10);
     expect(fit.b / SH.b).toBeCloseTo(1, 8);
@@ -97,21 +99,24 @@ describe("NTC divider", () => {
   const divider: NtcDivider = { model: BETA, rFixed: 10_000, supply: 5, position: "bottom" };
 
   it("10 kΩ NTC under 10 kΩ from 5 V at 25 °C: 2.500 V and 0.625 mW", () => {
-    // REFERENCES.md, self-heating [common practice]
+    // tests/REFERENCES.md, self-heating [common practice]
     expect(ntcDividerVoltage(divider, 298.15)).toBeCloseTo(2.5, 12);
     const sh = ntcSelfHeating(divider, 298.15, { dissipationConstant: 1.5e-3, accuracy: 0.5 });
     expect(sh.power).toBeCloseTo(0.625e-3, 12);
     expect(sh.ntcVoltage).toBeCloseTo(2.5, 12);
-    // rise = P/δ = 0.625 mW / 1.5 mW/K = 0.4167 K > ¼ of 0.5 K → warning (REFERENCES.md ¼–1/10 rule)
+    // rise = P/δ = 0.625 mW / 1.5 mW/K = 0.4167 K > ¼ of 0.5 K → warning (tests/REFERENCES.md ¼–1/10 rule)
     expect(sh.temperatureRise).toBeCloseTo(0.41667, 4);
     expect(sh.warning).toMatch(/self-heating/);
-    const cool = ntcSelfHeating({ ...divider, rFixed: 100_000 }, 298.15, { dissipationConstant: 1.5e-3, accuracy: 0.5 });
+    const cool = ntcSelfHeating({ ...divider, rFixed: 100_000 }, 298.15, {
+      dissipationConstant: 1.5e-3,
+      accuracy: 0.5,
+    });
     expect(cool.power).toBeCloseTo((5 / 110_000) ** 2 * 10_000, 15); // I²R [published: Joule's law]
     expect(cool.warning).toBeNull();
   });
 
   it("maps temperature thresholds to voltages and back (NTC at the bottom inverts)", () => {
-    // The water-temperature alarm of DESIGN.md: above 19 °C, clears below 17.5 °C.
+    // The water-temperature alarm of the demo data (DEVELOPERS.md § Demo data): above 19 °C, clears below 17.5 °C.
     const v = temperatureToVoltageThresholds(divider, { upper: celsiusToKelvin(19), lower: celsiusToKelvin(17.5) });
     expect(v.inverted).toBe(true);
     expect(v.upperThreshold).toBeGreaterThan(v.lowerThreshold);
@@ -130,7 +135,11 @@ describe("linear sensor and battery divider", () => {
     const s = { voltsPerUnit: 0.01, offset: 0.5 };
     expect(linearSensorVolts(s, 25)).toBeCloseTo(0.75, 12);
     expect(linearSensorValue(s, 0.75)).toBeCloseTo(25, 12);
-    expect(linearSensorThresholds(s, { upper: 30, lower: 20 })).toEqual({ upperThreshold: 0.8, lowerThreshold: 0.7, inverted: false });
+    expect(linearSensorThresholds(s, { upper: 30, lower: 20 })).toEqual({
+      upperThreshold: 0.8,
+      lowerThreshold: 0.7,
+      inverted: false,
+    });
   });
 
   it("battery divider: 12.5 V / 11.4 V through 100 kΩ : 33 kΩ (voltage divider rule)", () => {
@@ -139,7 +148,7 @@ describe("linear sensor and battery divider", () => {
     const t = batteryThresholds(d, { upper: 12.5, lower: 11.4 });
     expect(t.upperThreshold).toBeCloseTo((12.5 * 33) / 133, 12);
     expect(t.lowerThreshold).toBeCloseTo((11.4 * 33) / 133, 12);
-    expect(t.sourceResistance).toBeCloseTo((100 * 33) / 133 * 1000, 6);
+    expect(t.sourceResistance).toBeCloseTo(((100 * 33) / 133) * 1000, 6);
     expect(dividerInput(d, t.upperThreshold)).toBeCloseTo(12.5, 12);
   });
 });

@@ -5,7 +5,14 @@ import { circuitFigures, circuitMonteCarlo, circuitWorstCase, spreadVariables } 
 import { stageFigures } from "@/lib/design/analysis";
 import { parseScenario, type Scenario } from "@/lib/schemas/scenario";
 
-const CMOS = { openLoopGain: 2e5, gainBandwidth: 1e6, slewRate: 1e6, outputHeadroomHigh: 0.02, outputHeadroomLow: 0.02, inputOffset: 0.001 };
+const CMOS = {
+  openLoopGain: 2e5,
+  gainBandwidth: 1e6,
+  slewRate: 1e6,
+  outputHeadroomHigh: 0.02,
+  outputHeadroomLow: 0.02,
+  inputOffset: 0.001,
+};
 
 const make = (partial: Record<string, unknown>): Scenario =>
   parseScenario({
@@ -28,8 +35,11 @@ const battery = make({
 describe("circuitFigures", () => {
   it("a reference divider equals its Thevenin form (Thevenin's theorem)", () => {
     const f = circuitFigures(battery);
-    // Thevenin of 33k/33k from 5 V: 2.5 V behind 16.5 kΩ; inverting Schmitt closed form (REFERENCES.md)
-    const th = stageFigures({ kind: "schmitt-inverting", rReference: 16.5e3, rFeedback: 680e3, reference: 2.5 }, { high: 4.98, low: 0.02, offset: 0.001, openLoopGain: 2e5 });
+    // Thevenin of 33k/33k from 5 V: 2.5 V behind 16.5 kΩ; inverting Schmitt closed form (tests/REFERENCES.md)
+    const th = stageFigures(
+      { kind: "schmitt-inverting", rReference: 16.5e3, rFeedback: 680e3, reference: 2.5 },
+      { high: 4.98, low: 0.02, offset: 0.001, openLoopGain: 2e5 },
+    );
     expect(f.upperThreshold!).toBeCloseTo(th.upperThreshold!, 12);
     expect(f.lowerThreshold!).toBeCloseTo(th.lowerThreshold!, 12);
     // In battery volts: divide by 18/86 (voltage divider rule, common practice, no source)
@@ -94,7 +104,7 @@ describe("circuitWorstCase", () => {
     expect(names).toContain("source.sensor.model.r25");
     expect(names).toContain("source.sensor.model.beta");
     const wc = circuitWorstCase(ntc);
-    // Nominal: Beta inverse of the volt thresholds (REFERENCES.md Beta model), bottom NTC inverts
+    // Nominal: Beta inverse of the volt thresholds (tests/REFERENCES.md Beta model), bottom NTC inverts
     const nom = wc.nominal;
     const betaC = (v: number) => 1 / (1 / 298.15 + Math.log((15e3 * v) / (5 - v) / 10e3) / 3977) - 273.15;
     expect(nom.sourceUpperThreshold!).toBeCloseTo(betaC(nom.lowerThreshold!), 9);
@@ -122,13 +132,25 @@ describe("one worst case: design panel, summary and tolerance spread agree", () 
       sensor: { kind: "divider", rTop: 68e3, rBottom: 18e3 },
       monteCarlo: false,
     });
-    const scenario = make({ supply: { positive: 5, negative: 0, tolerance: 0.02 }, stage: d.stage, source: d.source, tolerances: { resistor: 0.01 } });
+    const scenario = make({
+      supply: { positive: 5, negative: 0, tolerance: 0.02 },
+      stage: d.stage,
+      source: d.source,
+      tolerances: { resistor: 0.01 },
+    });
     // The summary's figure
     const summary = circuitWorstCase(scenario);
     // The study's corners (its own resistor tolerance, offset and headroom settings)
     const config = toleranceSpreadConfigSchema.parse({
-      kind: "tolerance-spread", seed: 1, draws: 10, resistorTolerance: 0.01, offsetTolerance: Math.abs(CMOS.inputOffset), headroomSpread: 0.2,
-      distribution: "uniform", probe: { kind: "scenario" }, measures: ["upperThreshold", "lowerThreshold"],
+      kind: "tolerance-spread",
+      seed: 1,
+      draws: 10,
+      resistorTolerance: 0.01,
+      offsetTolerance: Math.abs(CMOS.inputOffset),
+      headroomSpread: 0.2,
+      distribution: "uniform",
+      probe: { kind: "scenario" },
+      measures: ["upperThreshold", "lowerThreshold"],
     });
     const study = studyCorners(scenario, config);
     for (const n of ["upperThreshold", "lowerThreshold"] as const) {

@@ -15,7 +15,11 @@ const opamp = {
 
 describe("partProfileBodySchema", () => {
   it("accepts the canonical, stored and flat shapes alike", () => {
-    for (const body of [{ name: "general-purpose", opamp }, { name: "general-purpose", params: opamp }, { name: "general-purpose", ...opamp }]) {
+    for (const body of [
+      { name: "general-purpose", opamp },
+      { name: "general-purpose", params: opamp },
+      { name: "general-purpose", ...opamp },
+    ]) {
       const r = partProfileBodySchema.safeParse(body);
       expect(r.success).toBe(true);
       if (r.success) expect(r.data.opamp).toEqual(opamp);
@@ -43,10 +47,22 @@ describe("partProfileBodySchema", () => {
 
 describe("parsePartsCsv", () => {
   it("imports rows with engineering notation", () => {
-    const r = parsePartsCsv("name,openLoopGain,gainBandwidth,slewRate,outputHeadroomHigh,outputHeadroomLow,inputOffset\nrail-to-rail CMOS,100k,1M,1.0e6,0.05,0.05,1m\n");
+    const r = parsePartsCsv(
+      "name,openLoopGain,gainBandwidth,slewRate,outputHeadroomHigh,outputHeadroomLow,inputOffset\nrail-to-rail CMOS,100k,1M,1.0e6,0.05,0.05,1m\n",
+    );
     expect(r.errors).toEqual([]);
     expect(r.parts).toEqual([
-      { name: "rail-to-rail CMOS", opamp: { openLoopGain: 1e5, gainBandwidth: 1e6, slewRate: 1e6, outputHeadroomHigh: 0.05, outputHeadroomLow: 0.05, inputOffset: 1e-3 } },
+      {
+        name: "rail-to-rail CMOS",
+        opamp: {
+          openLoopGain: 1e5,
+          gainBandwidth: 1e6,
+          slewRate: 1e6,
+          outputHeadroomHigh: 0.05,
+          outputHeadroomLow: 0.05,
+          inputOffset: 1e-3,
+        },
+      },
     ]);
   });
 
@@ -56,7 +72,9 @@ describe("parsePartsCsv", () => {
   });
 
   it("stores nothing and names row and field when any row is bad", () => {
-    const r = parsePartsCsv("name,openLoopGain,gainBandwidth,slewRate,outputHeadroomHigh,outputHeadroomLow,inputOffset\nok,1e5,1e6,1e6,0,0,0\nbad,1e5,abc,1e6,0,0,0\nworse,1e5,1e6,-3,0,0,0\n");
+    const r = parsePartsCsv(
+      "name,openLoopGain,gainBandwidth,slewRate,outputHeadroomHigh,outputHeadroomLow,inputOffset\nok,1e5,1e6,1e6,0,0,0\nbad,1e5,abc,1e6,0,0,0\nworse,1e5,1e6,-3,0,0,0\n",
+    );
     expect(r.parts).toEqual([]);
     expect(r.errors[0]).toBe('Row 3, gainBandwidth: "abc" is not a number.');
     expect(r.errors[1]).toMatch(/^Row 4, slewRate/);
@@ -66,7 +84,8 @@ describe("parsePartsCsv", () => {
     expect(parsePartsCsv("name,colour\nx,red\n").errors[0]).toMatch(/Unknown column\(s\): colour/);
     expect(parsePartsCsv("openLoopGain\n1\n").errors[0]).toMatch(/"name" column/);
     expect(parsePartsCsv("").errors[0]).toMatch(/empty/);
-    const dup = "name,openLoopGain,gainBandwidth,slewRate,outputHeadroomHigh,outputHeadroomLow,inputOffset\nA,1e5,1e6,1e6,0,0,0\na,1e5,1e6,1e6,0,0,0\n";
+    const dup =
+      "name,openLoopGain,gainBandwidth,slewRate,outputHeadroomHigh,outputHeadroomLow,inputOffset\nA,1e5,1e6,1e6,0,0,0\na,1e5,1e6,1e6,0,0,0\n";
     expect(parsePartsCsv(dup).errors[0]).toMatch(/Row 3, name: "a" appears twice/);
   });
 });

@@ -1,10 +1,18 @@
 // The railwise.scenario/1 contract: the demo scenarios parse; malformed ones are refused with
-// a message that names the field (DESIGN.md "Scenario JSON").
+// a message that names the field (lib/schemas/README.md § Scenario JSON).
 import { describe, expect, it } from "vitest";
 import { DEMO_SCENARIOS, HARROW_SCENARIOS, ntcResistance } from "@/lib/demo/scenarios";
-import { describeIssues, parseScenario, scenarioSchema, ScenarioError, type ScenarioInput } from "@/lib/schemas/scenario";
+import {
+  describeIssues,
+  parseScenario,
+  scenarioSchema,
+  ScenarioError,
+  type ScenarioInput,
+} from "@/lib/schemas/scenario";
 
-const battery = () => structuredClone(DEMO_SCENARIOS.find((s) => s.key === "battery-cutoff")!.scenario) as ScenarioInput & Record<string, unknown>;
+const battery = () =>
+  structuredClone(DEMO_SCENARIOS.find((s) => s.key === "battery-cutoff")!.scenario) as ScenarioInput &
+    Record<string, unknown>;
 
 function issuesOf(value: unknown): string[] {
   const r = scenarioSchema.safeParse(value);
@@ -13,7 +21,7 @@ function issuesOf(value: unknown): string[] {
 }
 
 describe("demo scenarios", () => {
-  it("holds the five board scenarios of DESIGN.md and the open-drain flag of issue #11", () => {
+  it("holds the five board scenarios of DEVELOPERS.md § Demo data and the open-drain flag of issue #11", () => {
     expect(DEMO_SCENARIOS.map((s) => s.key)).toEqual([
       "battery-cutoff",
       "hydrophone-preamp",
@@ -24,11 +32,14 @@ describe("demo scenarios", () => {
     ]);
   });
 
-  it.each([...DEMO_SCENARIOS, ...HARROW_SCENARIOS].map((s) => [s.key, s] as const))("%s is a valid railwise.scenario/1", (_key, demo) => {
-    const parsed = parseScenario(demo.scenario);
-    expect(parsed.schema).toBe("railwise.scenario/1");
-    expect(parsed.name).toBe(demo.name);
-  });
+  it.each([...DEMO_SCENARIOS, ...HARROW_SCENARIOS].map((s) => [s.key, s] as const))(
+    "%s is a valid railwise.scenario/1",
+    (_key, demo) => {
+      const parsed = parseScenario(demo.scenario);
+      expect(parsed.schema).toBe("railwise.scenario/1");
+      expect(parsed.name).toBe(demo.name);
+    },
+  );
 
   it("uses the stage kinds the use cases call for", () => {
     const kind = (key: string) => parseScenario(DEMO_SCENARIOS.find((s) => s.key === key)!.scenario).stage.kind;
@@ -45,11 +56,12 @@ describe("demo scenarios", () => {
     expect(capture?.kind).toBe("capture");
     if (capture?.kind !== "capture") return;
     expect(capture.samples.length).toBeGreaterThan(1000);
-    for (let i = 1; i < capture.samples.length; i++) expect(capture.samples[i][0]).toBeGreaterThan(capture.samples[i - 1][0]);
+    for (let i = 1; i < capture.samples.length; i++)
+      expect(capture.samples[i][0]).toBeGreaterThan(capture.samples[i - 1][0]);
   });
 
   it("NTC helper follows the Beta model", () => {
-    // REFERENCES.md [derived]: B = 3977 K, R25 = 10 kΩ → R(0 °C) = 33 900 Ω (±0.5 %).
+    // tests/REFERENCES.md [derived]: B = 3977 K, R25 = 10 kΩ → R(0 °C) = 33 900 Ω (±0.5 %).
     expect(ntcResistance(25)).toBeCloseTo(10_000, 6);
     expect(Math.abs(ntcResistance(0) - 33_900) / 33_900).toBeLessThan(0.005);
   });
@@ -95,7 +107,9 @@ describe("schema refusals name the field", () => {
   it("headroom as large as the supply span → opamp.outputHeadroomHigh", () => {
     const s = battery();
     s.opamp = { ...s.opamp, outputHeadroomHigh: 3, outputHeadroomLow: 2 };
-    expect(issuesOf(s).some((l) => l.startsWith("opamp.outputHeadroomHigh:") && l.includes("smaller than the supply span"))).toBe(true);
+    expect(
+      issuesOf(s).some((l) => l.startsWith("opamp.outputHeadroomHigh:") && l.includes("smaller than the supply span")),
+    ).toBe(true);
   });
 
   it("supplies the wrong way round → supply.positive", () => {
@@ -112,7 +126,18 @@ describe("schema refusals name the field", () => {
 
   it("capture time going backwards → input.components.0.samples.<i>.0", () => {
     const s = battery();
-    s.input = { components: [{ kind: "capture", samples: [[0, 1], [0.1, 2], [0.05, 3]] }] };
+    s.input = {
+      components: [
+        {
+          kind: "capture",
+          samples: [
+            [0, 1],
+            [0.1, 2],
+            [0.05, 3],
+          ],
+        },
+      ],
+    };
     expect(issuesOf(s).some((l) => /^input\.components\.0\.samples\.2\.0: .*strictly increasing/.test(l))).toBe(true);
   });
 

@@ -17,7 +17,7 @@ function harmonic(x: Float64Array, cycles: number, h: number): number {
 }
 
 describe("clipped sine (saturation describing function)", () => {
-  // REFERENCES.md "Clipped sine" [derived]: θc = asin(Vr/a); clipped share 1 − 2θc/π;
+  // tests/REFERENCES.md "Clipped sine" [derived]: θc = asin(Vr/a); clipped share 1 − 2θc/π;
   // b1 = (2a/π)(θc + (Vr/a)·cos θc) (Gelb & Vander Velde 1968); a = 2, Vr = 1:
   // clipped 66.67 %, b1 = 1.217996, b3 = 0.275664.
   const N = 4096;
@@ -60,12 +60,19 @@ describe("slew rate", () => {
   const follower = { kind: "noninverting-amplifier", rGround: 1e12, rFeedback: 1, reference: 0 };
 
   it("a fully slew-limited sine becomes a triangle of slope ±SR and peak SR/(4f)", () => {
-    // REFERENCES.md "Slew rate" [derived]: 0.5 V/µs at 100 kHz → 1.25 V peak.
+    // tests/REFERENCES.md "Slew rate" [derived]: 0.5 V/µs at 100 kHz → 1.25 V peak.
     const f = 1e5;
     const r = simulate(
       scenario({
         supply: { positive: 15, negative: -15 },
-        opamp: { openLoopGain: 2e5, gainBandwidth: 10e6, slewRate: 0.5e6, outputHeadroomHigh: 0, outputHeadroomLow: 0, inputOffset: 0 },
+        opamp: {
+          openLoopGain: 2e5,
+          gainBandwidth: 10e6,
+          slewRate: 0.5e6,
+          outputHeadroomHigh: 0,
+          outputHeadroomLow: 0,
+          inputOffset: 0,
+        },
         stage: follower,
         input: { components: [{ kind: "sine", amplitude: 10, frequency: f }] },
         run: { duration: 100 / f, points: 100 * 1024 + 1 },
@@ -89,7 +96,14 @@ describe("slew rate", () => {
       simulate(
         scenario({
           supply: { positive: 15, negative: -15 },
-          opamp: { openLoopGain: 2e5, gainBandwidth: 100e6, slewRate: 2e6, outputHeadroomHigh: 0, outputHeadroomLow: 0, inputOffset: 0 },
+          opamp: {
+            openLoopGain: 2e5,
+            gainBandwidth: 100e6,
+            slewRate: 2e6,
+            outputHeadroomHigh: 0,
+            outputHeadroomLow: 0,
+            inputOffset: 0,
+          },
           stage: follower,
           input: { components: [{ kind: "sine", amplitude: 12, frequency: f }] },
           run: { duration: 20 / f, points: 2001, initialOutput: "low" },
@@ -102,10 +116,18 @@ describe("slew rate", () => {
   });
 
   it("a separate falling slew rate is honoured", () => {
-    // DESIGN.md model: dvo/dt clamped to [−SRfall, +SR].
+    // DEVELOPERS.md § Behavioural op-amp model: dvo/dt clamped to [−SRfall, +SR].
     const r = simulate(
       scenario({
-        opamp: { openLoopGain: 2e5, gainBandwidth: 1e9, slewRate: 1e6, slewRateFall: 4e6, outputHeadroomHigh: 0, outputHeadroomLow: 0, inputOffset: 0 },
+        opamp: {
+          openLoopGain: 2e5,
+          gainBandwidth: 1e9,
+          slewRate: 1e6,
+          slewRateFall: 4e6,
+          outputHeadroomHigh: 0,
+          outputHeadroomLow: 0,
+          inputOffset: 0,
+        },
         stage: { kind: "comparator", reference: 0, inputAt: "noninverting" },
         input: { components: [{ kind: "pulse", low: -1, high: 1, period: 1e-3, duty: 0.5 }] },
         run: { duration: 2e-3, points: 2001 },
@@ -131,9 +153,9 @@ describe("slew rate", () => {
 
 describe("single-pole closed loop", () => {
   it("step response time constant and finite-gain error A/(1+Aβ)", () => {
-    // REFERENCES.md "Single-pole op-amp": τ = noise gain/(2π·GBW) [derived]; closed-loop gain
+    // tests/REFERENCES.md "Single-pole op-amp": τ = noise gain/(2π·GBW) [derived]; closed-loop gain
     // with finite A is A/(1 + Aβ): A = 1e5, β = 0.01 → 99.900 [published form].
-    // With the DESIGN.md pole (dvo/dt = ωp(A0·vd − vo), ωp = 2π·GBW/A0) the exact closed-loop
+    // With the pole of DEVELOPERS.md's op-amp model (dvo/dt = ωp(A0·vd − vo), ωp = 2π·GBW/A0) the exact closed-loop
     // rate is ωp(1 + A0β); the pole formula above is its large-A0 limit.
     const A = 1e5;
     const gbw = 1e6;
@@ -143,7 +165,14 @@ describe("single-pole closed loop", () => {
     const r = simulate(
       scenario({
         supply: { positive: 15, negative: -15 },
-        opamp: { openLoopGain: A, gainBandwidth: gbw, slewRate: 1e9, outputHeadroomHigh: 0, outputHeadroomLow: 0, inputOffset: 0 },
+        opamp: {
+          openLoopGain: A,
+          gainBandwidth: gbw,
+          slewRate: 1e9,
+          outputHeadroomHigh: 0,
+          outputHeadroomLow: 0,
+          inputOffset: 0,
+        },
         stage: { kind: "noninverting-amplifier", rGround: 1e3, rFeedback: 99e3, reference: 0 },
         input: { components: [{ kind: "pulse", low: 0, high: step, period: 1, duty: 0.5, delay: t0 }] },
         run: { duration: 1.2e-3, points: 12001, initialOutput: "high" },
@@ -168,13 +197,20 @@ describe("single-pole closed loop", () => {
   });
 
   it("inverting stage: gain −rF/rI, noise gain 1 + rF/rI sets τ", () => {
-    // Noise gain 1 + rFb/rIn (REFERENCES.md, from memory); ideal gain −rF/rI.
+    // Noise gain 1 + rFb/rIn (tests/REFERENCES.md, from memory); ideal gain −rF/rI.
     const gbw = 1e6;
     const A = 2e5;
     const r = simulate(
       scenario({
         supply: { positive: 15, negative: -15 },
-        opamp: { openLoopGain: A, gainBandwidth: gbw, slewRate: 1e9, outputHeadroomHigh: 0, outputHeadroomLow: 0, inputOffset: 0 },
+        opamp: {
+          openLoopGain: A,
+          gainBandwidth: gbw,
+          slewRate: 1e9,
+          outputHeadroomHigh: 0,
+          outputHeadroomLow: 0,
+          inputOffset: 0,
+        },
         stage: { kind: "inverting-amplifier", rInput: 1e3, rFeedback: 9e3, reference: 0 },
         input: { components: [{ kind: "pulse", low: 0, high: 0.1, period: 1, duty: 0.5, delay: 5e-5 }] },
         run: { duration: 1e-4, points: 1001, initialOutput: "high" },

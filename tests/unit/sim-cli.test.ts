@@ -50,7 +50,7 @@ describe("simulate CLI", { timeout: 120_000 }, () => {
     const out = JSON.parse(r.stdout);
     expect(out.schema).toBe("railwise.result/1");
     expect(out.samples.t).toHaveLength(101);
-    // thresholds Vcc/3 and 2Vcc/3 for the three-equal-resistor network (REFERENCES.md [derived])
+    // thresholds Vcc/3 and 2Vcc/3 for the three-equal-resistor network (tests/REFERENCES.md [derived])
     expect(out.metrics.upperThreshold).toBeCloseTo(10 / 3, 2);
     expect(out.metrics.lowerThreshold).toBeCloseTo(5 / 3, 2);
     const lines = readFileSync(csv, "utf8").trim().split("\n");
@@ -121,7 +121,7 @@ describe("simulate CLI", { timeout: 120_000 }, () => {
     });
     expect(ok.status, ok.stderr).toBe(0);
     const out = JSON.parse(ok.stdout);
-    // thresholds Vcc/3 and 2Vcc/3 for the three-equal-resistor network (REFERENCES.md [derived])
+    // thresholds Vcc/3 and 2Vcc/3 for the three-equal-resistor network (tests/REFERENCES.md [derived])
     expect(out.metrics.upperThreshold).toBeCloseTo(10 / 3, 2);
     const bad = spawnSync("npm", ["run", "-s", "simulate", "--", "-"], {
       cwd: root,

@@ -4,7 +4,16 @@ import { describe, expect, it } from "vitest";
 import { Basis, SLOT_E1, SLOT_ONE, SLOT_SINES, SLOT_TAU, solveScalar } from "@/lib/sim/exact/basis";
 import { bracketRoot, ulp } from "@/lib/sim/exact/bracket";
 import { PieceModel } from "@/lib/sim/exact/pieces";
-import { EXITS, LINEAR, RAIL_HIGH, RAIL_LOW, SLEW_DOWN, SLEW_UP, enterRegime, levelValues } from "@/lib/sim/exact/regimes";
+import {
+  EXITS,
+  LINEAR,
+  RAIL_HIGH,
+  RAIL_LOW,
+  SLEW_DOWN,
+  SLEW_UP,
+  enterRegime,
+  levelValues,
+} from "@/lib/sim/exact/regimes";
 import type { Network } from "@/lib/sim/network";
 
 describe("bracketRoot", () => {
@@ -54,7 +63,8 @@ describe("Basis", () => {
     const b = new Basis(Float64Array.of(3));
     b.setRealPair(-2, -5);
     const c = Float64Array.of(0.5, 1.5, 2, -1, 0.25, -0.75);
-    const f = (t: number) => 0.5 + 1.5 * t + 2 * Math.exp(-2 * t) - Math.exp(-5 * t) + 0.25 * Math.sin(3 * t) - 0.75 * Math.cos(3 * t);
+    const f = (t: number) =>
+      0.5 + 1.5 * t + 2 * Math.exp(-2 * t) - Math.exp(-5 * t) + 0.25 * Math.sin(3 * t) - 0.75 * Math.cos(3 * t);
     for (const t of [0, 0.1, 0.7, 2]) expect(b.valueAt(c, t)).toBeCloseTo(f(t), 14);
     expect(b.valueAtStart(c)).toBeCloseTo(f(0), 15);
     const h = 1e-6;
@@ -98,7 +108,10 @@ describe("PieceModel", () => {
 
   it("a linear piece with a capacitor state satisfies both state equations (real and complex pairs)", () => {
     // vo' = ωp·(A0·vd − vo), x' = kappaU·u + kappaX·x + kappaO·vo + kappa0: residual check.
-    for (const [gamma, complex] of [[-5, true], [-0.02, false]] as const) {
+    for (const [gamma, complex] of [
+      [-5, true],
+      [-0.02, false],
+    ] as const) {
       const net: Network = {
         alpha: 0.3,
         beta: -0.2,
@@ -130,7 +143,9 @@ describe("PieceModel", () => {
         const vd = 0.3 * u(t) - 0.2 * vo + gamma * x + 0.01;
         expect(Math.abs(dvo - wp * (1e3 * vd - vo))).toBeLessThan(1e-5 * Math.max(1, Math.abs(dvo)));
         expect(Math.abs(dx - (50 * u(t) - 80 * x + 30 * vo + 2))).toBeLessThan(1e-5 * Math.max(1, Math.abs(dx)));
-        expect(Math.abs(b.valueAt(model.DRIVE, t) - wp * (1e3 * vd - vo))).toBeLessThan(1e-9 * Math.max(1, Math.abs(dvo)));
+        expect(Math.abs(b.valueAt(model.DRIVE, t) - wp * (1e3 * vd - vo))).toBeLessThan(
+          1e-9 * Math.max(1, Math.abs(dvo)),
+        );
       }
     }
   });
@@ -139,7 +154,7 @@ describe("PieceModel", () => {
 describe("regime table", () => {
   const levels = levelValues(10, 8, 4, -4);
   it("enters rails only when the drive pushes into them, slews beyond the slew limits", () => {
-    // The behavioural model of DESIGN.md: clamp of dvo/dt to [−SRfall, SR] and of vo to [Vol, Voh].
+    // The behavioural model of DEVELOPERS.md: clamp of dvo/dt to [−SRfall, SR] and of vo to [Vol, Voh].
     expect(enterRegime(4, 0.5, levels)).toBe(RAIL_HIGH);
     expect(enterRegime(4, -0.5, levels)).toBe(LINEAR);
     expect(enterRegime(-4, -20, levels)).toBe(RAIL_LOW);
@@ -148,7 +163,7 @@ describe("regime table", () => {
     expect(enterRegime(0, 10, levels)).toBe(LINEAR);
   });
   it("slew regimes are left across the boundary they were entered by; rails are left on the drive", () => {
-    // The behavioural model of DESIGN.md: a slew ends where the drive returns inside the slew
+    // The behavioural model of DEVELOPERS.md: a slew ends where the drive returns inside the slew
     // limit; a rail is reached by the output and left when the drive turns away from it.
     for (const slew of [SLEW_UP, SLEW_DOWN]) {
       const into = EXITS[LINEAR].find((e) => e.to === slew)!;

@@ -1,4 +1,4 @@
-// RC low-pass filter node before the stage input (DESIGN.md "The circuit as built": filter).
+// RC low-pass filter node before the stage input (lib/schemas/README.md § The circuit as built: filter).
 import { describe, expect, it } from "vitest";
 import { simulate } from "@/lib/sim";
 import { FAST_OPAMP, scenario } from "./sim-fixtures";

@@ -14,7 +14,14 @@ export function rng(seed: number): () => number {
   };
 }
 
-const KINDS = ["noninverting-amplifier", "inverting-amplifier", "comparator", "schmitt-noninverting", "schmitt-inverting", "relaxation-oscillator"] as const;
+const KINDS = [
+  "noninverting-amplifier",
+  "inverting-amplifier",
+  "comparator",
+  "schmitt-noninverting",
+  "schmitt-inverting",
+  "relaxation-oscillator",
+] as const;
 const INPUTS = ["dc", "sine", "triangle", "ramp", "pulse", "pwl", "capture"] as const;
 
 /** The scenario of one fuzz seed: raw JSON (what a user could send) and its parsed form. */
@@ -66,11 +73,21 @@ export function fuzzScenario(seed: number): { raw: Record<string, unknown>; scen
       stage = { kind, rReference: R(), rFeedback: R() * 3, reference: ref };
       break;
     case "relaxation-oscillator":
-      stage = { kind, rReference: R(), rFeedback: R(), rTiming: log(1e3, 1e6), cTiming: log(1e-10, 1e-6), reference: ref };
+      stage = {
+        kind,
+        rReference: R(),
+        rFeedback: R(),
+        rTiming: log(1e3, 1e6),
+        cTiming: log(1e-10, 1e-6),
+        reference: ref,
+      };
       break;
   }
   // Duration: the oscillator runs a few RC; the others a few input periods.
-  const duration = kind === "relaxation-oscillator" ? u(2, 30) * (stage.rTiming as number) * (stage.cTiming as number) : log(1e-4, 0.5);
+  const duration =
+    kind === "relaxation-oscillator"
+      ? u(2, 30) * (stage.rTiming as number) * (stage.cTiming as number)
+      : log(1e-4, 0.5);
   const level = () => u(supply.negative - 0.2 * span, supply.positive + 0.2 * span);
   const amp = () => log(1e-3, 0.8) * span;
   const freq = () => u(0.5, 12) / duration;
@@ -83,13 +100,25 @@ export function fuzzScenario(seed: number): { raw: Record<string, unknown>; scen
         components.push({ kind: "dc", level: level() });
         break;
       case "sine":
-        components.push({ kind: "sine", amplitude: amp(), frequency: freq(), offset: i === 0 ? level() : 0, ...(chance(0.3) ? { phase: u(0, 360) } : {}) });
+        components.push({
+          kind: "sine",
+          amplitude: amp(),
+          frequency: freq(),
+          offset: i === 0 ? level() : 0,
+          ...(chance(0.3) ? { phase: u(0, 360) } : {}),
+        });
         break;
       case "triangle":
         components.push({ kind: "triangle", amplitude: amp(), frequency: freq(), offset: i === 0 ? level() : 0 });
         break;
       case "ramp":
-        components.push({ kind: "ramp", from: level(), to: level(), start: u(0, 0.5) * duration, duration: u(0.01, 1) * duration });
+        components.push({
+          kind: "ramp",
+          from: level(),
+          to: level(),
+          start: u(0, 0.5) * duration,
+          duration: u(0.01, 1) * duration,
+        });
         break;
       case "pulse": {
         const period = duration / u(0.8, 10);
@@ -120,7 +149,12 @@ export function fuzzScenario(seed: number): { raw: Record<string, unknown>; scen
     }
   }
   const input: Record<string, unknown> = { components };
-  if (chance(0.3)) input.noise = { rms: log(1e-3, 0.05) * span, bandwidth: log(50, 20000) / (2 * duration), seed: Math.floor(r() * 1e6) };
+  if (chance(0.3))
+    input.noise = {
+      rms: log(1e-3, 0.05) * span,
+      bandwidth: log(50, 20000) / (2 * duration),
+      seed: Math.floor(r() * 1e6),
+    };
   const run: Record<string, unknown> = { duration, points: 101 + Math.floor(r() * 1900) };
   if (chance(0.4)) run.initialOutput = pick(["low", "high", "settled"]);
   const raw: Record<string, unknown> = { schema: "railwise.scenario/1", supply, opamp, stage, input, run };
@@ -130,7 +164,12 @@ export function fuzzScenario(seed: number): { raw: Record<string, unknown>; scen
   if (switching && od() < 0.25) {
     const pullUp = Math.exp(Math.log(1e3) + (Math.log(1e5) - Math.log(1e3)) * od());
     const pullUpTo = od() < 0.5 ? "positive" : supply.positive * (0.5 + 0.5 * od());
-    raw.output = { kind: "open-drain", pullUp, pullUpTo, ...(od() < 0.5 ? { load: { r: pullUp * (10 + 90 * od()) } } : {}) };
+    raw.output = {
+      kind: "open-drain",
+      pullUp,
+      pullUpTo,
+      ...(od() < 0.5 ? { load: { r: pullUp * (10 + 90 * od()) } } : {}),
+    };
   }
   return { raw, scenario: parseScenario(raw) };
 }

@@ -23,7 +23,8 @@ describe("differential fuzz", () => {
         const r = simulate(scenario, { maxSteps: BUDGET });
         const bad = r.output.findIndex((v) => !Number.isFinite(v));
         if (bad >= 0) failures.push(`seed ${seed}: non-finite output at sample ${bad}`);
-        if (r.capacitor && r.capacitor.some((v) => !Number.isFinite(v))) failures.push(`seed ${seed}: non-finite capacitor`);
+        if (r.capacitor && r.capacitor.some((v) => !Number.isFinite(v)))
+          failures.push(`seed ${seed}: non-finite capacitor`);
       } catch (e) {
         failures.push(`seed ${seed} (${scenario.stage.kind}): ${(e as Error).message}`);
       }
@@ -52,7 +53,8 @@ describe("differential fuzz", () => {
       // odex samples each step at 4 points: on an amplifier's noisy mid-level grazes it can miss
       // a pair of crossings, so amplifiers are compared on clipping (their readings) only.
       if (!amplifier) {
-        if (a.events.length !== b.events.length) mismatches.push(`seed ${seed}: ${a.events.length} events vs odex ${b.events.length}`);
+        if (a.events.length !== b.events.length)
+          mismatches.push(`seed ${seed}: ${a.events.length} events vs odex ${b.events.length}`);
         else
           for (let i = 0; i < a.events.length; i++)
             if (a.events[i].edge !== b.events[i].edge || Math.abs(a.events[i].time - b.events[i].time) > 1e-6 * T) {
@@ -62,7 +64,8 @@ describe("differential fuzz", () => {
         for (const k of ["upperThreshold", "lowerThreshold"] as const) {
           const x = a.metrics[k];
           const y = b.metrics[k];
-          if ((x === null) !== (y === null) || (x !== null && Math.abs(x - y!) > 1e-5 * span)) mismatches.push(`seed ${seed}: ${k} ${x} vs odex ${y}`);
+          if ((x === null) !== (y === null) || (x !== null && Math.abs(x - y!) > 1e-5 * span))
+            mismatches.push(`seed ${seed}: ${k} ${x} vs odex ${y}`);
         }
       }
       if (Math.abs(a.metrics.clippedFraction - b.metrics.clippedFraction) > 1e-5)

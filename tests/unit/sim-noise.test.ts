@@ -28,7 +28,7 @@ describe("seeded Gaussian noise generator", () => {
       d = Math.max(d, Math.abs(cdf - i / n), Math.abs(cdf - (i + 1) / n));
     }
     expect(d).toBeLessThan(1.63 / Math.sqrt(n));
-    // Share outside ±3.3σ (a 6.6σ peak-to-peak window): erfc(6.6/(2√2)) = 0.097 % (REFERENCES.md).
+    // Share outside ±3.3σ (a 6.6σ peak-to-peak window): erfc(6.6/(2√2)) = 0.097 % (tests/REFERENCES.md).
     const outside = xs.filter((x) => Math.abs(x) > 3.3).length / n;
     expect(outside).toBeGreaterThan(0.0005);
     expect(outside).toBeLessThan(0.0015);
@@ -44,7 +44,8 @@ describe("seeded Gaussian noise generator", () => {
     expect(normalQuantile(0.9999)).toBeCloseTo(3.719016, 6);
     expect(normalQuantile(0.5)).toBe(0);
     // Round trip through Φ(x) = (1 + erf(x/√2))/2 (simple-statistics' erf, accurate to ~1e-7).
-    for (const p of [0.01, 0.02425, 0.2, 0.6, 0.93]) expect(0.5 * (1 + errorFunction(normalQuantile(p) / Math.SQRT2))).toBeCloseTo(p, 6);
+    for (const p of [0.01, 0.02425, 0.2, 0.6, 0.93])
+      expect(0.5 * (1 + errorFunction(normalQuantile(p) / Math.SQRT2))).toBeCloseTo(p, 6);
   });
 
   it("its portable logarithm agrees with Math.log to a few ulp", () => {
@@ -65,7 +66,7 @@ describe("seeded Gaussian noise generator", () => {
   });
 });
 
-const GOLDEN_SEED_42 = [-1.8103848289372257,-0.5110788283674769,-0.7095197728607138];
+const GOLDEN_SEED_42 = [-1.8103848289372257, -0.5110788283674769, -0.7095197728607138];
 
 describe("noise in the input signal", () => {
   const s = scenario({
@@ -81,7 +82,10 @@ describe("noise in the input signal", () => {
     expect(v[1]).toBeCloseTo((v[0] + v[2]) / 2, 14);
     expect(v[3]).toBeCloseTo(0.75 * v[0] + 0.25 * v[2], 14);
     // rms of the knots equals noise.rms (within sampling error) around the dc level
-    const knots = evaluateInput(s, Float64Array.from({ length: 1999 }, (_, i) => i * dt));
+    const knots = evaluateInput(
+      s,
+      Float64Array.from({ length: 1999 }, (_, i) => i * dt),
+    );
     const dev = Array.from(knots, (x) => x - 1);
     expect(Math.abs(standardDeviation(dev) / 0.01 - 1)).toBeLessThan(4 / Math.sqrt(2 * 1999));
   });
@@ -89,7 +93,10 @@ describe("noise in the input signal", () => {
   it("the same scenario gives the same run bit for bit; another seed gives another run", () => {
     const noisy = scenario({
       stage: { kind: "schmitt-noninverting", rInput: 10e3, rFeedback: 100e3, reference: 0 },
-      input: { components: [{ kind: "triangle", amplitude: 1, frequency: 100 }], noise: { rms: 0.2, bandwidth: 1e5, seed: 5 } },
+      input: {
+        components: [{ kind: "triangle", amplitude: 1, frequency: 100 }],
+        noise: { rms: 0.2, bandwidth: 1e5, seed: 5 },
+      },
       run: { duration: 0.02, points: 2001 },
     });
     const a = simulate(noisy);

@@ -1,4 +1,4 @@
-// Open-drain output (DESIGN.md "The circuit as built": open-drain): low at Vol while the op-amp
+// Open-drain output (lib/schemas/README.md § The circuit as built: open-drain): low at Vol while the op-amp
 // drives low; with the output transistor off the pin sits where the pull-up, the load and the
 // feedback network put it.
 import { describe, expect, it } from "vitest";

@@ -6,14 +6,21 @@ import { scenario } from "./sim-fixtures";
 // Relaxation oscillator (Schmitt trigger with an RC on v−).
 describe("relaxation oscillator period", () => {
   it("dual supply: T = 2RC·ln((1+β)/(1−β)); β = 0.5 → 2.197 RC", () => {
-    // REFERENCES.md "Relaxation oscillator" [published]: Sedra & Smith; Wikipedia
+    // tests/REFERENCES.md "Relaxation oscillator" [published]: Sedra & Smith; Wikipedia
     // "Relaxation oscillator".
     const R = 100e3;
     const C = 10e-9;
     const r = simulate(
       scenario({
         supply: { positive: 5, negative: -5 },
-        stage: { kind: "relaxation-oscillator", rReference: 10e3, rFeedback: 10e3, rTiming: R, cTiming: C, reference: 0 },
+        stage: {
+          kind: "relaxation-oscillator",
+          rReference: 10e3,
+          rFeedback: 10e3,
+          rTiming: R,
+          cTiming: C,
+          reference: 0,
+        },
         run: { duration: 0.03, points: 3001 },
       }),
     );
@@ -24,18 +31,25 @@ describe("relaxation oscillator period", () => {
     expect(r.metrics.dutyCycle!).toBeCloseTo(0.5, 4);
     // The capacitor starts at 0 V, so the first half period is shorter; the rest are periodic.
     expect(r.metrics.transitions).toBeGreaterThan(20);
-    // No input reaches the stage, so there are no input-referred thresholds (DESIGN.md).
+    // No input reaches the stage, so there are no input-referred thresholds (lib/schemas/README.md § Result JSON).
     expect(r.metrics.upperThreshold).toBeNull();
     expect(r.metrics.hysteresis).toBeNull();
   });
 
   it("single 5 V supply, thresholds Vcc/3 and 2Vcc/3: f = 1/(2RC·ln 2) = 9.618 kHz", () => {
-    // REFERENCES.md [derived]: R = 100 kΩ, C = 750 pF, rail-to-rail → 9.618 kHz. The
+    // tests/REFERENCES.md [derived]: R = 100 kΩ, C = 750 pF, rail-to-rail → 9.618 kHz. The
     // three-equal-resistor divider is entered as its Thevenin form (Vcc/2 through R/2).
     const r = simulate(
       scenario({
         supply: { positive: 5, negative: 0 },
-        stage: { kind: "relaxation-oscillator", rReference: 50e3, rFeedback: 100e3, rTiming: 100e3, cTiming: 750e-12, reference: 2.5 },
+        stage: {
+          kind: "relaxation-oscillator",
+          rReference: 50e3,
+          rFeedback: 100e3,
+          rTiming: 100e3,
+          cTiming: 750e-12,
+          reference: 2.5,
+        },
         run: { duration: 2e-3, points: 2001 },
       }),
     );
@@ -44,7 +58,7 @@ describe("relaxation oscillator period", () => {
   });
 
   it("asymmetric limits follow t_high = RC·ln((Voh − VL)/(Voh − VH)), t_low = RC·ln((VH − Vol)/(VL − Vol))", () => {
-    // REFERENCES.md [derived]: general half-period formulas.
+    // tests/REFERENCES.md [derived]: general half-period formulas.
     const R = 47e3;
     const C = 22e-9;
     const voh = 12 - 1.5;
@@ -57,8 +71,22 @@ describe("relaxation oscillator period", () => {
     const r = simulate(
       scenario({
         supply: { positive: 12, negative: -12 },
-        opamp: { openLoopGain: 2e5, gainBandwidth: 1e9, slewRate: 1e10, outputHeadroomHigh: 1.5, outputHeadroomLow: 0.5, inputOffset: 0 },
-        stage: { kind: "relaxation-oscillator", rReference: rRef, rFeedback: rFb, rTiming: R, cTiming: C, reference: vref },
+        opamp: {
+          openLoopGain: 2e5,
+          gainBandwidth: 1e9,
+          slewRate: 1e10,
+          outputHeadroomHigh: 1.5,
+          outputHeadroomLow: 0.5,
+          inputOffset: 0,
+        },
+        stage: {
+          kind: "relaxation-oscillator",
+          rReference: rRef,
+          rFeedback: rFb,
+          rTiming: R,
+          cTiming: C,
+          reference: vref,
+        },
         run: { duration: 0.05, points: 5001 },
       }),
     );
@@ -73,7 +101,14 @@ describe("relaxation oscillator period", () => {
 // threshold, and later leaves it on a grazing crossing (vd turns round just as the rail is held).
 // The exact solver used to drop that rail exit and hold the output for the rest of the run.
 describe("off-centre relaxation oscillators: exact agrees with odex and keeps switching", () => {
-  const PART = { openLoopGain: 1e5, gainBandwidth: 10e6, slewRate: 20e6, outputHeadroomHigh: 0.2, outputHeadroomLow: 0.2, inputOffset: 0.002 };
+  const PART = {
+    openLoopGain: 1e5,
+    gainBandwidth: 10e6,
+    slewRate: 20e6,
+    outputHeadroomHigh: 0.2,
+    outputHeadroomLow: 0.2,
+    inputOffset: 0.002,
+  };
 
   function check(s: Scenario, minEdges: number) {
     const st = s.stage;
@@ -90,7 +125,7 @@ describe("off-centre relaxation oscillators: exact agrees with odex and keeps sw
     // Still switching at the end of the run: the last edge is within one period of the end.
     expect(s.run.duration - exact.events.at(-1)!.time).toBeLessThan(period);
 
-    // Outside check — REFERENCES.md "Relaxation oscillator", general form [derived]:
+    // Outside check — tests/REFERENCES.md "Relaxation oscillator", general form [derived]:
     // t_high = RC·ln((Voh − VL)/(Voh − VH)), t_low = RC·ln((VH − Vol)/(VL − Vol)) for an ideal
     // op-amp; the thresholds VH, VL are v+ at each output level plus the input offset (the
     // output switches when vc = v+ + Vos). Slew (≈ 0.5 µs per edge here) and GBW add a switching
@@ -139,7 +174,14 @@ describe("off-centre relaxation oscillators: exact agrees with odex and keeps sw
       scenario({
         supply: { positive: 5, negative: 0 },
         opamp: PART,
-        stage: { kind: "relaxation-oscillator", rReference: 37476.707796, rFeedback: 47e3, reference: 1.5, rTiming: 10e3, cTiming: 100e-9 },
+        stage: {
+          kind: "relaxation-oscillator",
+          rReference: 37476.707796,
+          rFeedback: 47e3,
+          reference: 1.5,
+          rTiming: 10e3,
+          cTiming: 100e-9,
+        },
         run: { duration: 0.01, points: 1001, initialOutput: "low" },
       }),
       6,

@@ -1,17 +1,31 @@
 // Scenarios that once hung the exact solver or gave wrong results, each checked against its
-// closed form (REFERENCES.md) and, where it can run, against odex.
+// closed form (tests/REFERENCES.md) and, where it can run, against odex.
 import { describe, expect, it } from "vitest";
 import { parseScenario } from "@/lib/schemas/scenario";
 import { SimFailed, simulate } from "@/lib/sim";
 
-const PART = { openLoopGain: 200000, gainBandwidth: 1000000, slewRate: 10000000, outputHeadroomHigh: 0.05, outputHeadroomLow: 0.05, inputOffset: 0 };
+const PART = {
+  openLoopGain: 200000,
+  gainBandwidth: 1000000,
+  slewRate: 10000000,
+  outputHeadroomHigh: 0.05,
+  outputHeadroomLow: 0.05,
+  inputOffset: 0,
+};
 
 /** Relaxation oscillator that crept forward by one ulp per piece at t ≈ 1.2e-7 s (start-up edge). */
 const OSCILLATOR = {
   schema: "railwise.scenario/1",
   supply: { positive: 5, negative: 0 },
   opamp: PART,
-  stage: { kind: "relaxation-oscillator", rReference: 10000, rFeedback: 10000, rTiming: 100000, cTiming: 1e-8, reference: 2.15 },
+  stage: {
+    kind: "relaxation-oscillator",
+    rReference: 10000,
+    rFeedback: 10000,
+    rTiming: 100000,
+    cTiming: 1e-8,
+    reference: 2.15,
+  },
   input: { components: [{ kind: "dc", level: 0 }] },
   run: { duration: 0.02, points: 2001 },
 };
@@ -32,8 +46,8 @@ const BUDGET = { maxSteps: 20_000 };
 describe("issue scenarios finish, with their closed forms", () => {
   it("relaxation oscillator: period from t_high + t_low, and odex agrees", () => {
     const r = simulate(parseScenario(OSCILLATOR), BUDGET);
-    // t_high = RC·ln((Voh − VL)/(Voh − VH)), t_low = RC·ln((VH − Vol)/(VL − Vol)) [REFERENCES.md,
-    // relaxation oscillator, derived]; VH/VL from the inverting Schmitt thresholds (REFERENCES.md).
+    // t_high = RC·ln((Voh − VL)/(Voh − VH)), t_low = RC·ln((VH − Vol)/(VL − Vol)) [tests/REFERENCES.md,
+    // relaxation oscillator, derived]; VH/VL from the inverting Schmitt thresholds (tests/REFERENCES.md).
     const Voh = 4.95;
     const Vol = 0.05;
     const VH = (2.15 * 10000 + Voh * 10000) / 20000;
@@ -65,7 +79,7 @@ describe("issue scenarios finish, with their closed forms", () => {
     it(`clipping amplifier (start ${initialOutput}): clipped share from the clipped-sine formula`, () => {
       const s = parseScenario({ ...CLIPPING_AMPLIFIER, run: { ...CLIPPING_AMPLIFIER.run, initialOutput } });
       const r = simulate(s, BUDGET);
-      // Clipped share = 1 − 2θc/π, θc = asin(Vr/a), a = |G|·A [REFERENCES.md, clipped sine, derived];
+      // Clipped share = 1 − 2θc/π, θc = asin(Vr/a), a = |G|·A [tests/REFERENCES.md, clipped sine, derived];
       // G = −rF/rI with the finite-gain correction A0·α/(1 − A0·β) (common practice, no source).
       const A0 = 200000;
       const G = (A0 * (10 / 11)) / (1 + A0 / 11);
@@ -106,7 +120,8 @@ describe("fuzz finds (tests/unit/sim-fuzz-gen.ts seeds)", () => {
     const b = simulate(scenario, { solver: "odex" });
     // odex (independent integrator) as the reference, 1e-6 of the run on event times
     expect(a.events.length).toBe(b.events.length);
-    for (let i = 0; i < a.events.length; i++) expect(Math.abs(a.events[i].time - b.events[i].time)).toBeLessThan(1e-6 * scenario.run.duration);
+    for (let i = 0; i < a.events.length; i++)
+      expect(Math.abs(a.events[i].time - b.events[i].time)).toBeLessThan(1e-6 * scenario.run.duration);
     expect(Math.abs(a.metrics.clippedFraction - b.metrics.clippedFraction)).toBeLessThan(1e-5);
   });
 

@@ -3,7 +3,7 @@ import { simulate } from "@/lib/sim";
 import { scenario } from "./sim-fixtures";
 
 // Thresholds of comparators with positive feedback (Schmitt triggers).
-// Source: REFERENCES.md "Comparator with positive feedback" — textbook bistable-multivibrator
+// Source: tests/REFERENCES.md "Comparator with positive feedback" — textbook bistable-multivibrator
 // formulas (e.g. Sedra & Smith, Microelectronic Circuits) [derived; textbook standard].
 // The measured threshold is the input when the output crosses mid-level; with a slow triangle
 // (≤ 200 V/s) and a nanosecond part the switching lag moves it by far less than 1 mV.
@@ -19,7 +19,14 @@ describe("Schmitt trigger thresholds", () => {
     const vref = 0.8;
     const s = scenario({
       supply: { positive: 12, negative: -12 },
-      opamp: { openLoopGain: 2e5, gainBandwidth: 1e9, slewRate: 1e10, outputHeadroomHigh: 1.5, outputHeadroomLow: 1.2, inputOffset: 0 },
+      opamp: {
+        openLoopGain: 2e5,
+        gainBandwidth: 1e9,
+        slewRate: 1e10,
+        outputHeadroomHigh: 1.5,
+        outputHeadroomLow: 1.2,
+        inputOffset: 0,
+      },
       stage: { kind: "schmitt-noninverting", rInput: rIn, rFeedback: rFb, reference: vref },
       input: slowTriangle(5, 0.5),
       run: { duration: 0.3, points: 2001 },
@@ -45,7 +52,14 @@ describe("Schmitt trigger thresholds", () => {
     const vref = -1;
     const s = scenario({
       supply: { positive: 15, negative: -15 },
-      opamp: { openLoopGain: 2e5, gainBandwidth: 1e9, slewRate: 1e10, outputHeadroomHigh: 1, outputHeadroomLow: 1, inputOffset: 0 },
+      opamp: {
+        openLoopGain: 2e5,
+        gainBandwidth: 1e9,
+        slewRate: 1e10,
+        outputHeadroomHigh: 1,
+        outputHeadroomLow: 1,
+        inputOffset: 0,
+      },
       stage: { kind: "schmitt-inverting", rReference: rRef, rFeedback: rFb, reference: vref },
       input: slowTriangle(6, 0),
       run: { duration: 0.3, points: 2001 },
@@ -64,7 +78,7 @@ describe("Schmitt trigger thresholds", () => {
 
   it("single 5 V supply three-resistor network gives Vcc/3 and 2Vcc/3", () => {
     // R1 Vcc→node, R2 node→0 V, R3 out→node, R1 = R2 = R3, rail-to-rail: thresholds 2Vcc/3, Vcc/3
-    // (REFERENCES.md [derived]). In the stage form the R1/R2 divider is its Thevenin equivalent:
+    // (tests/REFERENCES.md [derived]). In the stage form the R1/R2 divider is its Thevenin equivalent:
     // reference = Vcc/2 through rReference = R/2.
     const R = 100e3;
     const s = scenario({
@@ -83,7 +97,7 @@ describe("Schmitt trigger thresholds", () => {
     // stage sees 3.8 V and 4.1667 V. Closed form as above with Vol = 0, Voh = 5 V.
     const rIn = 10e3;
     const rFb = (5 * rIn) / (12.5 / 3 - 11.4 / 3); // hysteresis (Voh − Vol)·rIn/rFb = 0.3667 V
-    const vref = (12.5 / 3) / (1 + rIn / rFb); // upper = Vref(1 + rIn/rFb) with Vol = 0
+    const vref = 12.5 / 3 / (1 + rIn / rFb); // upper = Vref(1 + rIn/rFb) with Vol = 0
     const s = scenario({
       supply: { positive: 5, negative: 0 },
       stage: { kind: "schmitt-noninverting", rInput: rIn, rFeedback: rFb, reference: vref },
@@ -109,10 +123,17 @@ describe("Schmitt trigger thresholds", () => {
   });
 
   it("comparator thresholds equal the reference plus offset, both input pins", () => {
-    // An open-loop comparator switches where vd = v+ − v− + Vos crosses 0 (DESIGN.md model).
+    // An open-loop comparator switches where vd = v+ − v− + Vos crosses 0 (DEVELOPERS.md § Behavioural op-amp model).
     for (const inputAt of ["noninverting", "inverting"] as const) {
       const s = scenario({
-        opamp: { openLoopGain: 2e5, gainBandwidth: 1e9, slewRate: 1e10, outputHeadroomHigh: 0, outputHeadroomLow: 0, inputOffset: 2e-3 },
+        opamp: {
+          openLoopGain: 2e5,
+          gainBandwidth: 1e9,
+          slewRate: 1e10,
+          outputHeadroomHigh: 0,
+          outputHeadroomLow: 0,
+          inputOffset: 2e-3,
+        },
         stage: { kind: "comparator", reference: 1.25, inputAt },
         input: slowTriangle(2, 1),
         run: { duration: 0.3, points: 601 },

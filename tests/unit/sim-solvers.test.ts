@@ -4,9 +4,16 @@ import type { Scenario } from "@/lib/schemas/scenario";
 import { maxAbsDiff, scenario } from "./sim-fixtures";
 
 // The exact piecewise solver against odex (Hairer & Wanner's GBS extrapolation code, an
-// independent general-purpose integrator from npm, REFERENCES.md "General-purpose npm
+// independent general-purpose integrator from npm, tests/REFERENCES.md "General-purpose npm
 // references"), on runs that are not stiff so odex can follow them.
-const SLOW_PART = { openLoopGain: 2e5, gainBandwidth: 1e6, slewRate: 1e6, outputHeadroomHigh: 0.2, outputHeadroomLow: 0.3, inputOffset: 1e-3 };
+const SLOW_PART = {
+  openLoopGain: 2e5,
+  gainBandwidth: 1e6,
+  slewRate: 1e6,
+  outputHeadroomHigh: 0.2,
+  outputHeadroomLow: 0.3,
+  inputOffset: 1e-3,
+};
 
 const cases: Record<string, Scenario> = {
   "Schmitt, triangle": scenario({
@@ -23,7 +30,14 @@ const cases: Record<string, Scenario> = {
   }),
   "relaxation oscillator": scenario({
     opamp: SLOW_PART,
-    stage: { kind: "relaxation-oscillator", rReference: 10e3, rFeedback: 20e3, rTiming: 100e3, cTiming: 10e-9, reference: 0 },
+    stage: {
+      kind: "relaxation-oscillator",
+      rReference: 10e3,
+      rFeedback: 20e3,
+      rTiming: 100e3,
+      cTiming: 10e-9,
+      reference: 0,
+    },
     run: { duration: 0.006, points: 601 },
   }),
   "slew-limited follower": scenario({
@@ -36,14 +50,22 @@ const cases: Record<string, Scenario> = {
   "clipping inverting amplifier, slow part": scenario({
     opamp: { ...SLOW_PART, gainBandwidth: 1e4 },
     stage: { kind: "inverting-amplifier", rInput: 10e3, rFeedback: 22e3, reference: 0.1 },
-    input: { components: [{ kind: "sine", amplitude: 3, frequency: 100 }, { kind: "dc", level: 0.2 }] },
+    input: {
+      components: [
+        { kind: "sine", amplitude: 3, frequency: 100 },
+        { kind: "dc", level: 0.2 },
+      ],
+    },
     run: { duration: 0.02, points: 1001 },
   }),
   "noisy Schmitt trigger, single supply": scenario({
     supply: { positive: 5, negative: 0 },
     opamp: SLOW_PART,
     stage: { kind: "schmitt-noninverting", rInput: 10e3, rFeedback: 100e3, reference: 2.5 },
-    input: { components: [{ kind: "triangle", amplitude: 1, frequency: 100, offset: 2.5 }], noise: { rms: 0.05, bandwidth: 1e4, seed: 11 } },
+    input: {
+      components: [{ kind: "triangle", amplitude: 1, frequency: 100, offset: 2.5 }],
+      noise: { rms: 0.05, bandwidth: 1e4, seed: 11 },
+    },
     run: { duration: 0.02, points: 1001 },
   }),
   "noisy comparator, pwl + pulse": scenario({
@@ -51,7 +73,15 @@ const cases: Record<string, Scenario> = {
     stage: { kind: "comparator", reference: 0, inputAt: "noninverting" },
     input: {
       components: [
-        { kind: "pwl", points: [[0, -1], [0.002, 1], [0.002, 0.5], [0.004, -1]] },
+        {
+          kind: "pwl",
+          points: [
+            [0, -1],
+            [0.002, 1],
+            [0.002, 0.5],
+            [0.004, -1],
+          ],
+        },
         { kind: "pulse", low: 0, high: 0.3, period: 0.001, duty: 0.3, rise: 1e-5, fall: 2e-5, delay: 1e-4 },
       ],
       noise: { rms: 0.05, bandwidth: 2e4, seed: 3 },

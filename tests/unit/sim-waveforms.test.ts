@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { evaluateInput } from "@/lib/sim";
 import { scenario } from "./sim-fixtures";
 
-// Waveform conventions of DESIGN.md "Scenario JSON": sine and triangle equal `offset` at t = 0
+// Waveform conventions of lib/schemas/README.md § Scenario JSON: sine and triangle equal `offset` at t = 0
 // and rise first (phase shifts both); ramp holds `from` before `start` and `to` after
 // `start + duration`; pulse starts low and rises after `delay`; pwl and capture interpolate
 // linearly and hold their end values. Closed forms below are the textbook definitions.
@@ -22,7 +22,10 @@ describe("input waveform conventions", () => {
     const [p0] = at([{ kind: "sine", amplitude: 2, frequency: 50, phase: 90, offset: 1 }], [0]);
     expect(p0).toBeCloseTo(3, 12);
     const t = 0.0123;
-    expect(at([{ kind: "sine", amplitude: 2, frequency: 50, phase: 30 }], [t])[0]).toBeCloseTo(2 * Math.sin(2 * Math.PI * 50 * t + Math.PI / 6), 12);
+    expect(at([{ kind: "sine", amplitude: 2, frequency: 50, phase: 30 }], [t])[0]).toBeCloseTo(
+      2 * Math.sin(2 * Math.PI * 50 * t + Math.PI / 6),
+      12,
+    );
   });
 
   it("triangle: offset at t = 0, rising first, peaks at T/4, vertices linear between", () => {
@@ -57,12 +60,29 @@ describe("input waveform conventions", () => {
   });
 
   it("pwl: linear between points, holds its ends, steps at repeated times", () => {
-    const c = { kind: "pwl", points: [[0.1, 1], [0.2, 3], [0.2, -1], [0.4, 0]] };
-    expect(at([c], [0, 0.15, 0.1999999, 0.2, 0.3, 1])).toEqual([1, 2, expect.closeTo(3, 5), -1, -0.5, 0].map((x) => (typeof x === "number" ? expect.closeTo(x, 12) : x)));
+    const c = {
+      kind: "pwl",
+      points: [
+        [0.1, 1],
+        [0.2, 3],
+        [0.2, -1],
+        [0.4, 0],
+      ],
+    };
+    expect(at([c], [0, 0.15, 0.1999999, 0.2, 0.3, 1])).toEqual(
+      [1, 2, expect.closeTo(3, 5), -1, -0.5, 0].map((x) => (typeof x === "number" ? expect.closeTo(x, 12) : x)),
+    );
   });
 
   it("capture: linear between samples, holds its ends", () => {
-    const c = { kind: "capture", samples: [[0, 0], [1e-3, 2], [2e-3, 1]] };
+    const c = {
+      kind: "capture",
+      samples: [
+        [0, 0],
+        [1e-3, 2],
+        [2e-3, 1],
+      ],
+    };
     expect(at([c], [0.5e-3, 1.5e-3, 5e-3])).toEqual([1, 1.5, 1].map((x) => expect.closeTo(x, 12)));
   });
 

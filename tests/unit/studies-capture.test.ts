@@ -16,9 +16,19 @@ function synthesise(rms: number, bandwidth: number, duration: number, rate: numb
   const scenario = parseScenario({
     schema: "railwise.scenario/1",
     supply: { positive: 5, negative: -5 },
-    opamp: { openLoopGain: 1e5, gainBandwidth: 1e6, slewRate: 1e6, outputHeadroomHigh: 1, outputHeadroomLow: 1, inputOffset: 0 },
+    opamp: {
+      openLoopGain: 1e5,
+      gainBandwidth: 1e6,
+      slewRate: 1e6,
+      outputHeadroomHigh: 1,
+      outputHeadroomLow: 1,
+      inputOffset: 0,
+    },
     stage: { kind: "comparator", reference: 0 },
-    input: { components: [{ kind: "sine", amplitude: 0.5, frequency: 0.2, offset: 1 }], noise: { rms, bandwidth, seed: 4242 } },
+    input: {
+      components: [{ kind: "sine", amplitude: 0.5, frequency: 0.2, offset: 1 }],
+      noise: { rms, bandwidth, seed: 4242 },
+    },
     run: { duration, points: 100 },
   });
   const n = Math.round(duration * rate) + 1;
@@ -29,7 +39,8 @@ function synthesise(rms: number, bandwidth: number, duration: number, rate: numb
 
 describe("capture noise estimate", () => {
   it("recovers rms and bandwidth of the contract's noise model [derived]", () => {
-    const sigma = 0.02, B = 200;
+    const sigma = 0.02,
+      B = 200;
     const est = estimateCaptureNoise(synthesise(sigma, B, 10, 4000), 0.05);
     expect(est.bandwidth / B - 1).toBeGreaterThan(-0.08);
     expect(est.bandwidth / B - 1).toBeLessThan(0.08);
@@ -39,7 +50,8 @@ describe("capture noise estimate", () => {
   });
 
   it("finds a workable detrend window by itself", () => {
-    const sigma = 0.02, B = 200;
+    const sigma = 0.02,
+      B = 200;
     const est = estimateCaptureNoise(synthesise(sigma, B, 10, 4000));
     expect(Math.abs(est.bandwidth / B - 1)).toBeLessThan(0.1);
     expect(Math.abs(est.modelRms / sigma - 1)).toBeLessThan(0.08);
@@ -63,6 +75,11 @@ describe("capture noise estimate", () => {
   });
 
   it("refuses a capture too short to tell", () => {
-    expect(() => estimateCaptureNoise([[0, 1], [1, 2]])).toThrow(/at least 16 samples/);
+    expect(() =>
+      estimateCaptureNoise([
+        [0, 1],
+        [1, 2],
+      ]),
+    ).toThrow(/at least 16 samples/);
   });
 });

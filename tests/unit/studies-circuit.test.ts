@@ -9,7 +9,14 @@ import { drawPerturbation, summarizeToleranceSpread } from "@/lib/studies/tolera
 import { runStudyInProcess } from "@/lib/studies/study";
 import { studyCorners } from "@/lib/studies/corners";
 
-const CMOS = { openLoopGain: 2e5, gainBandwidth: 1e6, slewRate: 1e6, outputHeadroomHigh: 0.02, outputHeadroomLow: 0.02, inputOffset: 0 };
+const CMOS = {
+  openLoopGain: 2e5,
+  gainBandwidth: 1e6,
+  slewRate: 1e6,
+  outputHeadroomHigh: 0.02,
+  outputHeadroomLow: 0.02,
+  inputOffset: 0,
+};
 
 const battery = parseScenario({
   schema: "railwise.scenario/1",
@@ -23,8 +30,15 @@ const battery = parseScenario({
 
 describe("tolerance spread of the circuit as built", () => {
   const config = toleranceSpreadConfigSchema.parse({
-    kind: "tolerance-spread", seed: 9, draws: 200, resistorTolerance: 0.01, offsetTolerance: 0.001, headroomSpread: 0.2,
-    distribution: "uniform", probe: { kind: "triangle", low: 2.2, high: 2.8 }, measures: ["upperThreshold", "lowerThreshold"],
+    kind: "tolerance-spread",
+    seed: 9,
+    draws: 200,
+    resistorTolerance: 0.01,
+    offsetTolerance: 0.001,
+    headroomSpread: 0.2,
+    distribution: "uniform",
+    probe: { kind: "triangle", low: 2.2, high: 2.8 },
+    measures: ["upperThreshold", "lowerThreshold"],
   });
 
   it("draws every resistor, the supply and the offset", () => {

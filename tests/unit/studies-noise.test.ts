@@ -2,7 +2,7 @@
 //
 // Case [derived]: a comparator without hysteresis (input on v+, reference 0 V) sits at a DC
 // input −d with Gaussian noise of rms σ added. The scenario contract's noise is independent
-// N(0, σ²) values every Δ = 1/(2B), linearly interpolated (DESIGN.md). A piecewise-linear
+// N(0, σ²) values every Δ = 1/(2B), linearly interpolated (lib/schemas/README.md § Input signal). A piecewise-linear
 // function peaks at a knot, so the input reaches the reference during the run iff one of the
 // M knots in [0, T] exceeds d. An ideal comparator then leaves its low state: the noise-free
 // run has no transition, so that seed chatters. Per seed:
@@ -27,7 +27,14 @@ const M = 2 * B * T + 1;
 const scenario = parseScenario({
   schema: "railwise.scenario/1",
   supply: { positive: 5, negative: -5 },
-  opamp: { openLoopGain: 1e9, gainBandwidth: 1e10, slewRate: 1e10, outputHeadroomHigh: 0.5, outputHeadroomLow: 0.5, inputOffset: 0 },
+  opamp: {
+    openLoopGain: 1e9,
+    gainBandwidth: 1e10,
+    slewRate: 1e10,
+    outputHeadroomHigh: 0.5,
+    outputHeadroomLow: 0.5,
+    inputOffset: 0,
+  },
   stage: { kind: "comparator", reference: 0, inputAt: "noninverting" },
   input: { components: [{ kind: "dc", level: -d }] },
   run: { duration: T, points: 2001, initialOutput: "low" },
@@ -38,7 +45,10 @@ const Phi = (x: number) => 0.5 * (1 + errorFunction(x / Math.SQRT2)); // simple-
 /** Two-sided acceptance region of Binomial(n, p) holding all but `alpha` of the mass. */
 function acceptance(n: number, p: number, alpha: number): [number, number] {
   const pmf = binomialDistribution(n, p) as number[];
-  let lo = 0, hi = n, tailLo = 0, tailHi = 0;
+  let lo = 0,
+    hi = n,
+    tailLo = 0,
+    tailHi = 0;
   while (lo < n && tailLo + (pmf[lo] ?? 0) <= alpha / 2) tailLo += pmf[lo++] ?? 0;
   while (hi > 0 && tailHi + (pmf[hi] ?? 0) <= alpha / 2) tailHi += pmf[hi--] ?? 0;
   return [lo, hi];
@@ -77,7 +87,9 @@ describe("noise margin study", () => {
       expect(r.k, `rms ${r.rms}: ${r.k}/200 vs p = ${r.p.toFixed(4)}`).toBeLessThanOrEqual(r.hi);
     }
     // Pooled check: Σ (k − np)² / (np(1−p)) is about χ²(levels); far beyond 20 means a bias.
-    const chi2 = rows.filter((r) => r.p > 1e-3 && r.p < 1 - 1e-3).reduce((s, r) => s + (r.k - 200 * r.p) ** 2 / (200 * r.p * (1 - r.p)), 0);
+    const chi2 = rows
+      .filter((r) => r.p > 1e-3 && r.p < 1 - 1e-3)
+      .reduce((s, r) => s + (r.k - 200 * r.p) ** 2 / (200 * r.p * (1 - r.p)), 0);
     expect(chi2).toBeLessThan(20);
   });
 

@@ -24,7 +24,16 @@ describe("results do not depend on the number of workers", () => {
   it("noise margin study", () => {
     const request: StudyRequest = {
       scenario: { ...battery, run: { ...battery.run, points: 1000 } },
-      config: noiseMarginConfigSchema.parse({ kind: "noise-margin", seed: 7, rmsFrom: 0.01, rmsTo: 0.06, levels: 3, seedsPerLevel: 6, bandwidth: 50, limit: 0.01 }),
+      config: noiseMarginConfigSchema.parse({
+        kind: "noise-margin",
+        seed: 7,
+        rmsFrom: 0.01,
+        rmsTo: 0.06,
+        levels: 3,
+        seedsPerLevel: 6,
+        bandwidth: 50,
+        limit: 0.01,
+      }),
     };
     const one = runSplit(request, 1);
     expect(one).toHaveLength(19);
@@ -35,8 +44,15 @@ describe("results do not depend on the number of workers", () => {
     const request: StudyRequest = {
       scenario: { ...bilge, run: { ...bilge.run, points: 1000 } },
       config: toleranceSpreadConfigSchema.parse({
-        kind: "tolerance-spread", seed: 99, draws: 24, resistorTolerance: 0.05, offsetTolerance: 0.002, headroomSpread: 0.2,
-        distribution: "normal", probe: { kind: "triangle", low: 1, high: 4 }, measures: ["upperThreshold", "lowerThreshold"],
+        kind: "tolerance-spread",
+        seed: 99,
+        draws: 24,
+        resistorTolerance: 0.05,
+        offsetTolerance: 0.002,
+        headroomSpread: 0.2,
+        distribution: "normal",
+        probe: { kind: "triangle", low: 1, high: 4 },
+        measures: ["upperThreshold", "lowerThreshold"],
       }),
     };
     const one = runSplit(request, 1);
@@ -49,14 +65,30 @@ describe("results do not depend on the number of workers", () => {
 
 describe("study tasks sample a coarse output grid", () => {
   // Their figures come from located events, which must not depend on the output grid
-  // (DESIGN.md); check that on the tasks themselves against the scenario's own grid.
+  // (DEVELOPERS.md § Behavioural op-amp model); check that on the tasks themselves against the scenario's own grid.
   it("gives the same transitions and thresholds as the full grid", async () => {
     const { noiseTaskScenario } = await import("@/lib/studies/noise-margin");
     const { toleranceTaskScenario } = await import("@/lib/studies/tolerance-spread");
-    const noise = noiseMarginConfigSchema.parse({ kind: "noise-margin", seed: 3, rmsFrom: 0.02, rmsTo: 0.2, levels: 2, seedsPerLevel: 3, bandwidth: 500, limit: 0.01 });
+    const noise = noiseMarginConfigSchema.parse({
+      kind: "noise-margin",
+      seed: 3,
+      rmsFrom: 0.02,
+      rmsTo: 0.2,
+      levels: 2,
+      seedsPerLevel: 3,
+      bandwidth: 500,
+      limit: 0.01,
+    });
     const tol = toleranceSpreadConfigSchema.parse({
-      kind: "tolerance-spread", seed: 4, draws: 3, resistorTolerance: 0.05, offsetTolerance: 0.002, headroomSpread: 0.2,
-      distribution: "uniform", probe: { kind: "scenario" }, measures: ["upperThreshold", "lowerThreshold"],
+      kind: "tolerance-spread",
+      seed: 4,
+      draws: 3,
+      resistorTolerance: 0.05,
+      offsetTolerance: 0.002,
+      headroomSpread: 0.2,
+      distribution: "uniform",
+      probe: { kind: "scenario" },
+      measures: ["upperThreshold", "lowerThreshold"],
     });
     for (let i = 0; i < 7; i++) {
       const coarse = noiseTaskScenario(bilge, noise, i);

@@ -23,7 +23,12 @@ describe("Wilson score interval", () => {
   it("is the set of p the score test does not reject (Wilson 1927 definition) [derived]", () => {
     // Our z is Φ⁻¹(0.975): check it with simple-statistics' error function, Φ(x) = ½(1 + erf(x/√2)).
     expect(0.5 * (1 + errorFunction(Z95 / Math.SQRT2))).toBeCloseTo(0.975, 6);
-    for (const [k, n] of [[3, 50], [25, 50], [49, 50], [7, 1000]]) {
+    for (const [k, n] of [
+      [3, 50],
+      [25, 50],
+      [49, 50],
+      [7, 1000],
+    ]) {
       const ci = wilsonInterval(k, n);
       const phat = k / n;
       const score = (p: number) => Math.abs(phat - p) / Math.sqrt((p * (1 - p)) / n);

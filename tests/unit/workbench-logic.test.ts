@@ -1,7 +1,13 @@
 // Pure workbench logic in lib/workbench: the readings of an amplifier, the "no extra
 // transitions" check of a switching stage, CSV sample times and the order of invalid fields.
 import { describe, expect, it } from "vitest";
-import { amplifierReadings, buildChecks, capacitorOf, isAmplifierKind, type MetricsIn } from "@/lib/workbench/readings-logic";
+import {
+  amplifierReadings,
+  buildChecks,
+  capacitorOf,
+  isAmplifierKind,
+  type MetricsIn,
+} from "@/lib/workbench/readings-logic";
 import { formatTime, smallestStep, timeDecimals } from "@/lib/workbench/sample-times";
 import { describeFieldProblems, listFieldProblems } from "@/lib/workbench/field-problems";
 import { scenario } from "./sim-fixtures";
@@ -64,9 +70,11 @@ describe("no extra transitions", () => {
   const schmitt = scenario({ stage: { kind: "schmitt-noninverting", rInput: 10e3, rFeedback: 100e3, reference: 0 } });
 
   it("fails a switching stage that chatters and passes one that does not", () => {
-    // DESIGN.md: chatter counts edges within the hold-off of the previous one; a switching
+    // lib/schemas/README.md: chatter counts edges within the hold-off of the previous one; a switching
     // stage should add none (common practice, no source).
-    const failing = buildChecks(schmitt, { ...baseMetrics, chatter: 11 }, null).find((c) => c.label === "No extra transitions");
+    const failing = buildChecks(schmitt, { ...baseMetrics, chatter: 11 }, null).find(
+      (c) => c.label === "No extra transitions",
+    );
     expect(failing).toBeDefined();
     expect(failing!.pass).toBe(false);
     expect(failing!.measured).toBe(11);
@@ -75,7 +83,9 @@ describe("no extra transitions", () => {
   });
 
   it("accepts chatter up to the limit the user sets", () => {
-    const c = buildChecks(schmitt, { ...baseMetrics, chatter: 2 }, null, { chatterLimit: 2 }).find((x) => x.label === "No extra transitions");
+    const c = buildChecks(schmitt, { ...baseMetrics, chatter: 2 }, null, { chatterLimit: 2 }).find(
+      (x) => x.label === "No extra transitions",
+    );
     expect(c!.designed).toBe(2);
     expect(c!.pass).toBe(true);
   });
@@ -121,7 +131,9 @@ describe("fields at fault", () => {
 describe("study messages in the form's words", () => {
   it("replaces config keys with the labels on the screen", async () => {
     const { studyIssueText } = await import("@/lib/workbench/study-suggest");
-    expect(studyIssueText([{ message: "seedsPerLevel must be at most 10000" }])).toBe("“seeds per level” must be at most 10000");
+    expect(studyIssueText([{ message: "seedsPerLevel must be at most 10000" }])).toBe(
+      "“seeds per level” must be at most 10000",
+    );
     expect(studyIssueText([{ message: "rmsTo must be above rmsFrom" }])).toBe("“rms to” must be above “rms from”");
   });
 });
@@ -129,9 +141,13 @@ describe("study messages in the form's words", () => {
 describe("design warnings in the panel's words", () => {
   it("names the figure by its label and says where the window came from", async () => {
     const { designWarningText } = await import("@/lib/workbench/design-words");
-    const t = designWarningText("lowerThreshold: the worst case [1.957, 2.04] leaves the ±2.0 % window [1.96, 2.04]; tighter tolerance would help");
+    const t = designWarningText(
+      "lowerThreshold: the worst case [1.957, 2.04] leaves the ±2.0 % window [1.96, 2.04]; tighter tolerance would help",
+    );
     expect(t).toMatch(/^Lower switching point: /);
     expect(t).toMatch(/±2\.0 % window \(the default allowed error of a design\)/);
-    expect(designWarningText("gain: the best E24 combination is 3.10 % off the target (maxError 2.00 %); a finer series")).toMatch(/^Gain: .*\(the default allowed error is 2\.00 %\)/);
+    expect(
+      designWarningText("gain: the best E24 combination is 3.10 % off the target (maxError 2.00 %); a finer series"),
+    ).toMatch(/^Gain: .*\(the default allowed error is 2\.00 %\)/);
   });
 });

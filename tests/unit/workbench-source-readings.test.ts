@@ -6,7 +6,13 @@ import { scenarioSchema, type Scenario } from "@/lib/schemas/scenario";
 import { DEMO_SCENARIOS } from "@/lib/demo/scenarios";
 import { simulate } from "@/lib/sim";
 import { buildChecks } from "@/lib/workbench/readings-logic";
-import { extraSampleColumns, formatSource, sourceRows, sourceSentence, sourceTerms } from "@/lib/workbench/source-readings";
+import {
+  extraSampleColumns,
+  formatSource,
+  sourceRows,
+  sourceSentence,
+  sourceTerms,
+} from "@/lib/workbench/source-readings";
 import { specSeed } from "@/lib/workbench/spec-seed";
 import { samplesCsv } from "@/components/plots/export";
 
@@ -31,15 +37,25 @@ describe("readings in the sensor's units", () => {
   it("formats source values before pin volts", () => {
     expect(formatSource(11.4, { unit: "V", quantity: "battery" })).toBe("11.40 V battery");
     expect(formatSource(1.09, { unit: "V", quantity: "battery" }, true)).toBe("1.090 V");
-    const rows = sourceRows({ unit: "V", upperThreshold: 12.49, lowerThreshold: 11.4, hysteresis: 1.09 }, { upperThreshold: 2.615, lowerThreshold: 2.385, hysteresis: 0.23 }, { quantity: "battery", inverted: false });
+    const rows = sourceRows(
+      { unit: "V", upperThreshold: 12.49, lowerThreshold: 11.4, hysteresis: 1.09 },
+      { upperThreshold: 2.615, lowerThreshold: 2.385, hysteresis: 0.23 },
+      { quantity: "battery", inverted: false },
+    );
     expect(rows.map((r) => [r.label, r.value, r.pin])).toEqual([
       ["Upper switching point", "12.49 V", "2.615 V at the pin"],
       ["Lower switching point", "11.40 V", "2.385 V at the pin"],
       ["Deadband", "1.090 V", "0.2300 V at the pin"],
     ]);
     // An inverted sensor: the source's upper point is the pin's lower threshold.
-    const inv = sourceSentence({ unit: "°C", upperThreshold: 19, lowerThreshold: 17.5, hysteresis: 1.5 }, { upperThreshold: 2.4, lowerThreshold: 2.3 }, { quantity: "water temperature", inverted: true });
-    expect(inv).toBe("Switches at 19.00 °C water temperature rising and 17.50 °C water temperature falling (deadband 1.500 °C); at the pin 2.300 V and 2.400 V.");
+    const inv = sourceSentence(
+      { unit: "°C", upperThreshold: 19, lowerThreshold: 17.5, hysteresis: 1.5 },
+      { upperThreshold: 2.4, lowerThreshold: 2.3 },
+      { quantity: "water temperature", inverted: true },
+    );
+    expect(inv).toBe(
+      "Switches at 19.00 °C water temperature rising and 17.50 °C water temperature falling (deadband 1.500 °C); at the pin 2.300 V and 2.400 V.",
+    );
   });
 
   it("gives the battery run's checks in battery volts, pass/fail on pin volts", () => {
@@ -87,7 +103,9 @@ describe("readings in the sensor's units", () => {
     const parsed = Papa.parse<string[]>(csv.trim()).data;
     expect(parsed[0]).toEqual(["time_s", "input_V", "output_V", "battery_V", "filter_node_V"]);
     expect(parsed[2]).toEqual(["0.5", "2.6", "5", "12", "2.5"]);
-    expect(extraSampleColumns(demo("water-temperature-alarm"), { source: [20] })[0].name).toBe("water_temperature_degC");
+    expect(extraSampleColumns(demo("water-temperature-alarm"), { source: [20] })[0].name).toBe(
+      "water_temperature_degC",
+    );
   });
 });
 

@@ -9,5 +9,10 @@ export const dynamic = "force-dynamic";
 // Members (everyone reads); role changes, removals, invitations and the audit log for the owner.
 export default async function TeamPage() {
   const user = await requirePageUser();
-  return <TeamView me={{ id: user.id, role: user.role, teamName: user.teamName }} mailboxHref={mailboxVisible() ? "/dev/mail" : null} />;
+  return (
+    <TeamView
+      me={{ id: user.id, role: user.role, teamName: user.teamName }}
+      mailboxHref={mailboxVisible() ? "/dev/mail" : null}
+    />
+  );
 }

@@ -3,16 +3,31 @@ import { AppError, badRequest, errorResponse, tooLarge } from "@/lib/server/erro
 import { formText, readLimitedForm } from "@/lib/server/request";
 import { CAN, requireMember, requireRole } from "@/lib/server/session";
 import { createCapture, listCaptures } from "@/lib/server/captures";
-import { CAPTURE_MAX_BYTES, CaptureError, inspectCsv, parseCapture, TIME_UNIT_SCALE, type TimeUnit } from "@/lib/captures/parse";
+import {
+  CAPTURE_MAX_BYTES,
+  CaptureError,
+  inspectCsv,
+  parseCapture,
+  TIME_UNIT_SCALE,
+  type TimeUnit,
+} from "@/lib/captures/parse";
 
 // The multipart envelope (boundaries, the other fields) on top of the file itself.
 const ENVELOPE_BYTES = 64 * 1024;
 
 const fieldsSchema = z.object({
   name: z.string().trim().max(120, { message: "name must be at most 120 characters" }).optional(),
-  timeColumn: z.string({ error: "timeColumn is required (a header name or a column number)" }).trim().min(1, { message: "timeColumn is required" }),
-  voltsColumn: z.string({ error: "voltsColumn is required (a header name or a column number)" }).trim().min(1, { message: "voltsColumn is required" }),
-  timeUnit: z.enum(Object.keys(TIME_UNIT_SCALE) as [TimeUnit, ...TimeUnit[]], { error: "timeUnit must be one of s, ms, us, ns" }).default("s"),
+  timeColumn: z
+    .string({ error: "timeColumn is required (a header name or a column number)" })
+    .trim()
+    .min(1, { message: "timeColumn is required" }),
+  voltsColumn: z
+    .string({ error: "voltsColumn is required (a header name or a column number)" })
+    .trim()
+    .min(1, { message: "voltsColumn is required" }),
+  timeUnit: z
+    .enum(Object.keys(TIME_UNIT_SCALE) as [TimeUnit, ...TimeUnit[]], { error: "timeUnit must be one of s, ms, us, ns" })
+    .default("s"),
   hasHeader: z.enum(["true", "false"], { error: 'hasHeader must be "true" or "false"' }).optional(),
 });
 
@@ -43,8 +58,10 @@ export async function POST(request: Request) {
     requireRole(member, CAN.edit);
     const form = await readLimitedForm(request, CAPTURE_MAX_BYTES + ENVELOPE_BYTES);
     const file = form.get("file");
-    if (!file || typeof file === "string") throw badRequest('Attach the CSV as the form field "file".', [{ path: ["file"], message: "required" }]);
-    if (file.size > CAPTURE_MAX_BYTES) throw tooLarge(`The file is larger than ${CAPTURE_MAX_BYTES / (1024 * 1024)} MB.`);
+    if (!file || typeof file === "string")
+      throw badRequest('Attach the CSV as the form field "file".', [{ path: ["file"], message: "required" }]);
+    if (file.size > CAPTURE_MAX_BYTES)
+      throw tooLarge(`The file is larger than ${CAPTURE_MAX_BYTES / (1024 * 1024)} MB.`);
     // Without a choice, the first column is time and the second volts (the usual scope export).
     const fields = fieldsSchema.parse({
       name: formText(form, "name"),
@@ -67,13 +84,21 @@ export async function POST(request: Request) {
     } catch (err) {
       if (err instanceof CaptureError) {
         const status = /larger than|data rows; at most/.test(err.message) ? 413 : 400;
-        throw new AppError(status, status === 413 ? "too_large" : "invalid_input", err.message, [{ path: [err.field], message: err.message }]);
+        throw new AppError(status, status === 413 ? "too_large" : "invalid_input", err.message, [
+          { path: [err.field], message: err.message },
+        ]);
       }
       throw err;
     }
     const filename = file.name && file.name !== "blob" ? file.name.slice(0, 200) : null;
     const name = fields.name || (filename ? filename.replace(/\.[^.]+$/, "") : "capture");
-    const capture = await createCapture({ teamId: member.teamId, actorId: member.userId, name, sourceFilename: filename, parsed });
+    const capture = await createCapture({
+      teamId: member.teamId,
+      actorId: member.userId,
+      name,
+      sourceFilename: filename,
+      parsed,
+    });
     const { samples: _samples, ...summary } = capture;
     return Response.json(summary, { status: 201 });
   } catch (err) {

@@ -11,7 +11,10 @@ export async function GET(request: Request) {
   try {
     const member = await requireMember(request);
     const scenarioId = new URL(request.url).searchParams.get("scenarioId");
-    if (!scenarioId) throw badRequest("scenarioId is required (?scenarioId=…)", [{ path: ["scenarioId"], message: "scenarioId is required" }]);
+    if (!scenarioId)
+      throw badRequest("scenarioId is required (?scenarioId=…)", [
+        { path: ["scenarioId"], message: "scenarioId is required" },
+      ]);
     return Response.json({ items: await listRuns({ scenarioId, teamId: member.teamId }) });
   } catch (err) {
     return errorResponse(err);
@@ -23,7 +26,12 @@ export async function POST(request: Request) {
   try {
     const member = requireRole(await requireMember(request), CAN.edit);
     const input = runCreateSchema.parse(await readJson(request));
-    const run = await createRun({ scenarioId: input.scenarioId, teamId: member.teamId, actorId: member.userId, label: input.label });
+    const run = await createRun({
+      scenarioId: input.scenarioId,
+      teamId: member.teamId,
+      actorId: member.userId,
+      label: input.label,
+    });
     return Response.json(run, { status: 201 });
   } catch (err) {
     return errorResponse(err);

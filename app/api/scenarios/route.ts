@@ -8,7 +8,8 @@ export async function GET(request: Request) {
   try {
     const member = await requireMember(request);
     const boardId = new URL(request.url).searchParams.get("boardId");
-    if (!boardId) throw badRequest("boardId is required (?boardId=…)", [{ path: ["boardId"], message: "boardId is required" }]);
+    if (!boardId)
+      throw badRequest("boardId is required (?boardId=…)", [{ path: ["boardId"], message: "boardId is required" }]);
     return Response.json({ items: await listScenarios({ boardId, teamId: member.teamId }) });
   } catch (err) {
     return errorResponse(err);

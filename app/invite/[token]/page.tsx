@@ -32,10 +32,17 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
               <h1 className="text-lg font-semibold text-ink">{`Join ${invitation.teamName}`}</h1>
               <p className="mt-1 text-[13px] text-ink-soft">
                 You are invited as <RoleBadge role={invitation.role} />. The link works once and expires{" "}
-                <span className="font-mono whitespace-nowrap">{new Date(invitation.expiresAt).toISOString().replace("T", " ").slice(0, 16)} UTC</span>.
+                <span className="font-mono whitespace-nowrap">
+                  {new Date(invitation.expiresAt).toISOString().replace("T", " ").slice(0, 16)} UTC
+                </span>
+                .
               </p>
               <div className="mt-5">
-                <AcceptInvitationForm token={token} email={invitation.email} existingAccount={invitation.existingAccount} />
+                <AcceptInvitationForm
+                  token={token}
+                  email={invitation.email}
+                  existingAccount={invitation.existingAccount}
+                />
               </div>
             </>
           ) : (

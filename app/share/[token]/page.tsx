@@ -60,7 +60,10 @@ export default async function SharedRunPage({ params }: { params: Promise<{ toke
                 Open this run in your team space to review
               </Link>
             ) : signedIn ? null : (
-              <Link href={`/signin?callbackUrl=${encodeURIComponent(`/runs/${run.id}`)}`} className="font-medium text-copper hover:underline">
+              <Link
+                href={`/signin?callbackUrl=${encodeURIComponent(`/runs/${run.id}`)}`}
+                className="font-medium text-copper hover:underline"
+              >
                 Team member? Sign in to review
               </Link>
             )}

@@ -13,7 +13,15 @@ export const ulp = (x: number): number => Math.max(Math.abs(x) * 2.2204460492503
  * (side = value ≥ 0). Narrows the bracket until it is two time resolutions wide at the absolute
  * time t0 + b and returns its far end: the first point found on b's side of the crossing.
  */
-export function bracketRoot(f: Evaluator, c: Float64Array, a: number, b: number, ga: number, gb: number, t0: number): number {
+export function bracketRoot(
+  f: Evaluator,
+  c: Float64Array,
+  a: number,
+  b: number,
+  ga: number,
+  gb: number,
+  t0: number,
+): number {
   const sideB = gb >= 0;
   let stuck = 0; // +1: a moved last, −1: b moved last
   for (let it = 0; it < 200; it++) {

@@ -14,7 +14,15 @@ import type { ExactSolver } from "./solver";
 const RESEED = 4096;
 
 /** Both ends of the affine vd on the held side of the rail (and of 0 when tracked), with `margin` to spare. */
-function holds(a: number, b: number, margin: number, high: boolean, threshold: number, trackVd: boolean, vdSide: boolean): boolean {
+function holds(
+  a: number,
+  b: number,
+  margin: number,
+  high: boolean,
+  threshold: number,
+  trackVd: boolean,
+  vdSide: boolean,
+): boolean {
   const lo = Math.min(a, b) - margin;
   const hi = Math.max(a, b) + margin;
   if (high ? lo < threshold : hi > threshold) return false;

@@ -23,7 +23,12 @@ export const LEVEL_SLEW_FALL = 1; // −SRfall
 export const LEVEL_HIGH = 2; // Voh
 export const LEVEL_LOW = 3; // Vol
 export const LEVEL_ZERO = 4; // 0
-export type Level = typeof LEVEL_SLEW_RISE | typeof LEVEL_SLEW_FALL | typeof LEVEL_HIGH | typeof LEVEL_LOW | typeof LEVEL_ZERO;
+export type Level =
+  | typeof LEVEL_SLEW_RISE
+  | typeof LEVEL_SLEW_FALL
+  | typeof LEVEL_HIGH
+  | typeof LEVEL_LOW
+  | typeof LEVEL_ZERO;
 
 export function levelValues(slewRate: number, slewRateFall: number, high: number, low: number): Float64Array {
   return Float64Array.of(slewRate, -slewRateFall, high, low, 0);

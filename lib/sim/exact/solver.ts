@@ -1,4 +1,4 @@
-// The default solver: exact piecewise solution of the behavioural op-amp model (DESIGN.md).
+// The default solver: exact piecewise solution of the behavioural op-amp model (DEVELOPERS.md).
 //
 // Between input breakpoints the input is affine in time plus sines, and in each regime
 // (regimes.ts) the model is a linear ODE with a closed-form solution (pieces.ts) on a small
@@ -15,7 +15,21 @@ import { SimCancelled, SimFailed } from "../errors";
 import { SLOT_ONE, SLOT_SINES, SLOT_TAU, type Basis } from "./basis";
 import { ulp } from "./bracket";
 import { PieceModel } from "./pieces";
-import { DRIVE, EXITS, LEVEL_HIGH, LINEAR, OUTPUT, RAIL_HIGH, RAIL_LOW, SLEW_DOWN, SLEW_UP, enterRegime, isRail, levelValues, type Regime } from "./regimes";
+import {
+  DRIVE,
+  EXITS,
+  LEVEL_HIGH,
+  LINEAR,
+  OUTPUT,
+  RAIL_HIGH,
+  RAIL_LOW,
+  SLEW_DOWN,
+  SLEW_UP,
+  enterRegime,
+  isRail,
+  levelValues,
+  type Regime,
+} from "./regimes";
 import { Scanner } from "./scan";
 import { holdAtRail } from "./rail-hold";
 
@@ -285,7 +299,8 @@ export class ExactSolver {
           this.sides[lv] = this.scan.crossings(G, lv, this.sides[lv] === 1, tx, t, rec) ? 1 : 0;
         }
       }
-      if (p.trackVd) this.sides[MONITOR_VD] = this.scan.crossings(VD, MONITOR_VD, this.sides[MONITOR_VD] === 1, tx, t, rec) ? 1 : 0;
+      if (p.trackVd)
+        this.sides[MONITOR_VD] = this.scan.crossings(VD, MONITOR_VD, this.sides[MONITOR_VD] === 1, tx, t, rec) ? 1 : 0;
       if (rec.startupEnd === Infinity) this.startupCheck(regime, t, tx);
       rec.flush();
 
@@ -303,7 +318,11 @@ export class ExactSolver {
       else if (t + tx > rec.startupEnd) {
         if (regime === SLEW_UP) rec.maxSlew = Math.max(rec.maxSlew, p.slewRate);
         else if (regime === SLEW_DOWN) rec.maxSlew = Math.max(rec.maxSlew, p.slewRateFall);
-        else rec.maxSlew = Math.max(rec.maxSlew, this.scan.maxAbs(F, this.scratch, Math.max(0, rec.startupEnd - t), tx, t));
+        else
+          rec.maxSlew = Math.max(
+            rec.maxSlew,
+            this.scan.maxAbs(F, this.scratch, Math.max(0, rec.startupEnd - t), tx, t),
+          );
       }
 
       // Advance
@@ -315,7 +334,9 @@ export class ExactSolver {
       } else if (next === RAIL_HIGH || voNext > Voh || regime === RAIL_HIGH) voNext = Voh;
       if (next === RAIL_LOW || voNext < Vol || regime === RAIL_LOW) voNext = Vol;
       if (!Number.isFinite(voNext) || !Number.isFinite(xNext))
-        throw new SimFailed(`the exact solver reached a non-finite state at t = ${t.toPrecision(6)} s (a degenerate stage: check the resistor and capacitor values)`);
+        throw new SimFailed(
+          `the exact solver reached a non-finite state at t = ${t.toPrecision(6)} s (a degenerate stage: check the resistor and capacitor values)`,
+        );
       const settledLinear = regime === LINEAR && next < 0;
       if (settledLinear && previousSettledLinear && !p.trackVd && t >= rec.startupEnd) {
         // Amplifier gain from the solution: output against input increments over linear pieces
@@ -373,4 +394,3 @@ export class ExactSolver {
     if (tau === tau) rec.startupEnd = t0 + tau;
   }
 }
-

@@ -43,8 +43,9 @@ export default async function MailboxPage() {
         title="Mailbox"
         description={
           <>
-            {everything ? "Mail to you and your team's outgoing mail" : "Mail to you"} caught by the local sink ({smtpUrl().replace(/\/\/[^@]*@/, "//")}), stored in{" "}
-            <span className="font-mono">{mailDir()}</span>. Not shown once real SMTP is configured in production.
+            {everything ? "Mail to you and your team's outgoing mail" : "Mail to you"} caught by the local sink (
+            {smtpUrl().replace(/\/\/[^@]*@/, "//")}), stored in <span className="font-mono">{mailDir()}</span>. Not
+            shown once real SMTP is configured in production.
           </>
         }
       />
@@ -59,7 +60,9 @@ export default async function MailboxPage() {
               <li key={m.id}>
                 <details className="group px-4 py-2.5">
                   <summary className="flex cursor-pointer list-none flex-wrap items-baseline gap-x-4 gap-y-0.5">
-                    <span className="font-mono text-[12px] text-ink-mute">{m.receivedAt.replace("T", " ").slice(0, 19)} UTC</span>
+                    <span className="font-mono text-[12px] text-ink-mute">
+                      {m.receivedAt.replace("T", " ").slice(0, 19)} UTC
+                    </span>
                     <span className="min-w-0 flex-1 truncate font-medium text-ink">{m.subject || "(no subject)"}</span>
                     <span className="truncate text-[12px] text-ink-mute">to {m.to.join(", ")}</span>
                   </summary>

@@ -6,7 +6,14 @@ import { EmptyState } from "@/components/ui/empty-state";
 export default function ScenarioNotFound() {
   return (
     <div className="rounded-lg border border-paper-line bg-paper-card">
-      <EmptyState title="Scenario not found" action={<Link className="text-copper hover:underline" href="/boards">Back to boards</Link>}>
+      <EmptyState
+        title="Scenario not found"
+        action={
+          <Link className="text-copper hover:underline" href="/boards">
+            Back to boards
+          </Link>
+        }
+      >
         It may have been deleted, or it belongs to another team.
       </EmptyState>
     </div>

@@ -25,7 +25,16 @@ const isCredentialsCallback = (request: Request) => new URL(request.url).pathnam
 // The endpoints next-auth serves for a credentials-only set-up; any other path under /api/auth
 // is a 404 here (next-auth itself throws on unknown actions, which would be a 500).
 const KNOWN = {
-  GET: new Set(["csrf", "session", "providers", "signin", "signout", "error", "callback/credentials", "signin/credentials"]),
+  GET: new Set([
+    "csrf",
+    "session",
+    "providers",
+    "signin",
+    "signout",
+    "error",
+    "callback/credentials",
+    "signin/credentials",
+  ]),
   POST: new Set(["signin/credentials", "callback/credentials", "signout", "session", "_log"]),
 };
 
@@ -41,8 +50,14 @@ async function delegate(request: Request, ctx: Ctx): Promise<Response> {
   try {
     return await handler(request, ctx);
   } catch (err) {
-    console.error("[railwise] sign-in endpoint refused a malformed request:", err instanceof Error ? err.message : String(err));
-    return Response.json({ error: "invalid_input", message: "The sign-in request could not be read." }, { status: 400 });
+    console.error(
+      "[railwise] sign-in endpoint refused a malformed request:",
+      err instanceof Error ? err.message : String(err),
+    );
+    return Response.json(
+      { error: "invalid_input", message: "The sign-in request could not be read." },
+      { status: 400 },
+    );
   }
 }
 
@@ -54,7 +69,10 @@ function limited(seconds: number): Response {
 
 export async function GET(request: Request, ctx: Ctx) {
   if (isCredentialsCallback(request)) {
-    return Response.json({ error: "method_not_allowed", message: "Sign in with a POST from the sign-in page." }, { status: 405, headers: { Allow: "POST" } });
+    return Response.json(
+      { error: "method_not_allowed", message: "Sign in with a POST from the sign-in page." },
+      { status: 405, headers: { Allow: "POST" } },
+    );
   }
   if (!known(request, "GET")) return notFoundHere();
   return delegate(request, ctx);

@@ -23,7 +23,10 @@ export async function POST(request: Request) {
     }
     const { parts, errors } = parsePartsCsv(text);
     if (errors.length) {
-      throw badRequest(`The CSV was refused (${errors.length} problem${errors.length > 1 ? "s" : ""}); nothing was imported.`, errors.slice(0, 50).map((message) => ({ path: ["file"], message })));
+      throw badRequest(
+        `The CSV was refused (${errors.length} problem${errors.length > 1 ? "s" : ""}); nothing was imported.`,
+        errors.slice(0, 50).map((message) => ({ path: ["file"], message })),
+      );
     }
     const items = await importParts({ teamId: member.teamId, actorId: member.userId, parts });
     return Response.json({ items }, { status: 201 });

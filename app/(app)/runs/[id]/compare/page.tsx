@@ -6,7 +6,13 @@ import { requirePageUser } from "@/lib/page-session";
 export const metadata: Metadata = { title: "Compare runs" };
 
 // Two runs overlaid: this one and ?with= (default: the previous run of the same scenario).
-export default async function CompareRunsPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ with?: string | string[] }> }) {
+export default async function CompareRunsPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ id: string }>;
+  searchParams: Promise<{ with?: string | string[] }>;
+}) {
   const { id } = await params;
   await requireTeamItemOr404("run", id, (await requirePageUser()).teamId);
   const sp = await searchParams;

@@ -1,5 +1,12 @@
 import { AppError, errorResponse, readJson } from "@/lib/server/errors";
-import { clientAddress, guardRequest, INVITE_ADDRESS, lockedFor, recordFailure, tooManyRequests } from "@/lib/server/session";
+import {
+  clientAddress,
+  guardRequest,
+  INVITE_ADDRESS,
+  lockedFor,
+  recordFailure,
+  tooManyRequests,
+} from "@/lib/server/session";
 import { acceptInvitation } from "@/lib/server/team";
 import { invitationAcceptSchema } from "@/lib/schemas/team";
 
@@ -21,7 +28,8 @@ export async function POST(request: Request, { params }: { params: Promise<{ tok
       const joined = await acceptInvitation({ token, name, password });
       return Response.json(joined, { status: 201 });
     } catch (err) {
-      if (err instanceof AppError && [400, 401, 403, 404, 410].includes(err.status)) await recordFailure(addressKey, INVITE_ADDRESS);
+      if (err instanceof AppError && [400, 401, 403, 404, 410].includes(err.status))
+        await recordFailure(addressKey, INVITE_ADDRESS);
       throw err;
     }
   } catch (err) {

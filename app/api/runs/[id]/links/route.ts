@@ -34,7 +34,14 @@ export async function POST(request: Request, { params }: Ctx) {
       : body.expiresInDays !== undefined
         ? new Date(Date.now() + body.expiresInDays * 86_400_000)
         : null;
-    const link = await createRunLink({ runId: id, teamId: member.teamId, actorId: member.userId, expiresAt, label: label || null, request });
+    const link = await createRunLink({
+      runId: id,
+      teamId: member.teamId,
+      actorId: member.userId,
+      expiresAt,
+      label: label || null,
+      request,
+    });
     return Response.json(link, { status: 201 });
   } catch (err) {
     return errorResponse(err);

@@ -9,7 +9,9 @@ export async function DELETE(request: Request, { params }: { params: Promise<{ i
     const member = await requireMember(request);
     requireRole(member, CAN.signOff);
     const { id, signoffId } = await routeIds(params, { id: "run", signoffId: "sign-off" });
-    return Response.json(await withdrawSignoff({ runId: id, signoffId, teamId: member.teamId, actorId: member.userId }));
+    return Response.json(
+      await withdrawSignoff({ runId: id, signoffId, teamId: member.teamId, actorId: member.userId }),
+    );
   } catch (err) {
     return errorResponse(err);
   }

@@ -11,7 +11,9 @@ export async function GET(request: Request, { params }: Ctx) {
   try {
     const member = await requireMember(request);
     const { id, version } = { ...(await params), ...(await routeIds(params, { id: "scenario" })) };
-    return Response.json(await getScenarioVersionOrThrow({ id, teamId: member.teamId, version: versionNumber(version) }));
+    return Response.json(
+      await getScenarioVersionOrThrow({ id, teamId: member.teamId, version: versionNumber(version) }),
+    );
   } catch (err) {
     return errorResponse(err);
   }

@@ -11,7 +11,12 @@ export async function POST(request: Request, { params }: Ctx) {
   try {
     const member = requireRole(await requireMember(request), CAN.edit);
     const { id, version } = { ...(await params), ...(await routeIds(params, { id: "scenario" })) };
-    const scenario = await restoreScenarioVersion({ id, teamId: member.teamId, actorId: member.userId, version: versionNumber(version) });
+    const scenario = await restoreScenarioVersion({
+      id,
+      teamId: member.teamId,
+      actorId: member.userId,
+      version: versionNumber(version),
+    });
     return Response.json(scenario);
   } catch (err) {
     return errorResponse(err);
