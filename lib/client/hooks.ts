@@ -1,4 +1,4 @@
-// One SWR hook per resource (STYLE.md). Keys are the API URLs, so after a write
+// One SWR hook per resource (DEVELOPERS.md, API conventions). Keys are the API URLs, so after a write
 // `mutate(url)` (exact key, swr#746) or the hook's bound `mutate` refreshes the view.
 import useSWR, { type SWRConfiguration } from "swr";
 import type { Scenario } from "@/lib/schemas/scenario";

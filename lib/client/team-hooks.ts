@@ -1,4 +1,4 @@
-// SWR hooks for the team side (one per resource; keys are the API URLs, STYLE.md).
+// SWR hooks for the team side (one per resource; keys are the API URLs, DEVELOPERS.md).
 import useSWR from "swr";
 import { fetchJson } from "./fetcher";
 import type { CommentJson, InvitationJson, MemberJson, RunLinkJson, SignoffJson } from "@/lib/schemas/team";
