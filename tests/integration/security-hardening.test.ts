@@ -371,8 +371,21 @@ describe("rate limits hold across a restart (item 5)", () => {
     const email = EMAILS.owner;
     for (let i = 0; i < 5; i++) await postCredentials(email, `wrong-${i}`, { "x-forwarded-for": `10.4.0.${i}` });
     expect((await postCredentials(email, DEMO_PASSWORD, { "x-forwarded-for": "10.4.0.50" })).status).toBe(429);
-    // Keep a copy of the database file (stop() removes the server's temp folder), then start a
-    // new server process on the copy.
+    if (server.dialect === "postgres") {
+      // PostgreSQL: a second server process on the same database (stop() of the first would
+      // drop it); the lock is read from the shared table, not from the first process.
+      const first = server;
+      server = await startServer({ env: { DATABASE_URL: first.databaseUrl } });
+      try {
+        expect((await postCredentials(email, DEMO_PASSWORD, { "x-forwarded-for": "10.4.0.51" })).status).toBe(429);
+      } finally {
+        await server.stop();
+        server = first;
+      }
+      return;
+    }
+    // SQLite: keep a copy of the database file (stop() removes the server's temp folder), then
+    // start a new server process on the copy.
     const keep = fs.mkdtempSync(path.join(os.tmpdir(), "railwise-sec-restart-"));
     const copy = path.join(keep, "railwise.sqlite");
     for (const suffix of ["", "-wal"])
