@@ -22,7 +22,7 @@ import {
 } from "@/components/workbench/readings-logic";
 import { KIND_INFO } from "@/components/workbench/stage-kinds";
 import { billOfMaterials } from "@/lib/design/bom";
-import { worstCase, type WorstCase } from "@/lib/design/analysis";
+import { type CircuitWorstCase, circuitWorstCase } from "@/lib/design/spread";
 import { formatQuantity } from "@/lib/design/notation";
 import { personName, useRun, useScenario, type RunRecord } from "@/lib/client/hooks";
 import { useComments, useRunLinks } from "@/lib/client/team-hooks";
@@ -92,7 +92,11 @@ function SmallTable({ head, rows, label }: { head: string[]; rows: ReactNode[][]
   );
 }
 
-function range(w: WorstCase | null, key: keyof Omit<WorstCase, "corners" | "varied">, unit: string): string {
+function range(
+  w: CircuitWorstCase | null,
+  key: keyof Omit<CircuitWorstCase, "corners" | "varied" | "nominal">,
+  unit: string,
+): string {
   const r = w?.[key];
   return r ? `${v(r[0], unit)} … ${v(r[1], unit)}` : "—";
 }
@@ -140,9 +144,11 @@ export function ReportView({ runId }: { runId: string }) {
     const [inputMin, inputMax] = minMax(input);
     const switching = KIND_INFO[scenario.stage.kind].switching;
     const gain = switching ? null : measuredGain(input, output, result.rails);
-    let wc: WorstCase | null = null;
+    // The same worst case as the summary, the design panel and the tolerance spread study:
+    // every part of the circuit as built, the supply and NTC tolerances (lib/design/spread).
+    let wc: CircuitWorstCase | null = null;
     try {
-      wc = worstCase(scenario.stage, scenario.opamp, scenario.supply, scenario.tolerances?.resistor ?? 0.01);
+      wc = circuitWorstCase(scenario);
     } catch {
       wc = null;
     }
