@@ -8,7 +8,7 @@ import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { EmptyState } from "@/components/ui/empty-state";
 import { formatDate, formatRelative } from "@/components/ui/format";
-import { LoadError, LoadingRows } from "@/components/ui/load-state";
+import { LoadError, LoadingRows, NotFoundCard } from "@/components/ui/load-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { Table, TBody, TD, TH, THead, TR } from "@/components/ui/table";
 import { useToast } from "@/components/ui/toast";
@@ -51,22 +51,7 @@ export function BoardView({ boardId, canEdit }: BoardViewProps) {
   const [renaming, setRenaming] = useState<ScenarioRecord | null>(null);
   const [deleting, setDeleting] = useState<ScenarioRecord | null>(null);
 
-  if (board.error instanceof HttpError && board.error.status === 404) {
-    return (
-      <Card>
-        <EmptyState
-          title="Board not found"
-          action={
-            <Link className="text-copper hover:underline" href="/boards">
-              Back to boards
-            </Link>
-          }
-        >
-          It may have been deleted, or it belongs to another team.
-        </EmptyState>
-      </Card>
-    );
-  }
+  if (board.error instanceof HttpError && board.error.status === 404) return <NotFoundCard title="Board not found" />;
 
   const scenarios = list.data?.items ?? [];
 

@@ -49,23 +49,29 @@ export interface LoadGateProps<T> {
  * Loading → placeholder, 404 → "not found" card with a way back, other errors → message with
  * retry, data → children(data). One place for the states every resource page has.
  */
+/**
+ * The "not found" card with a way back: a malformed id, a deleted item and another team's id
+ * all look the same (404). Shared by LoadGate, the routes' not-found pages and the run views.
+ */
+export function NotFoundCard({ title, children }: { title: string; children?: ReactNode }) {
+  return (
+    <div className="rounded-lg border border-paper-line bg-paper-card">
+      <EmptyState
+        title={title}
+        action={
+          <Link className="text-copper hover:underline" href="/boards">
+            Back to boards
+          </Link>
+        }
+      >
+        {children ?? "It may have been deleted, or it belongs to another team."}
+      </EmptyState>
+    </div>
+  );
+}
+
 export function LoadGate<T>({ data, error, onRetry, notFoundTitle, rows = 6, children }: LoadGateProps<T>) {
-  if (error instanceof HttpError && error.status === 404) {
-    return (
-      <div className="rounded-lg border border-paper-line bg-paper-card">
-        <EmptyState
-          title={notFoundTitle}
-          action={
-            <Link className="text-copper hover:underline" href="/boards">
-              Back to boards
-            </Link>
-          }
-        >
-          It may have been deleted, or it belongs to another team.
-        </EmptyState>
-      </div>
-    );
-  }
+  if (error instanceof HttpError && error.status === 404) return <NotFoundCard title={notFoundTitle} />;
   if (error) return <LoadError message={errorMessage(error)} onRetry={onRetry} />;
   if (data === undefined) {
     return (
