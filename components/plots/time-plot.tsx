@@ -1,11 +1,12 @@
 "use client";
 // "Trace": input (indigo) and output (copper) against time, with the output limits, the
-// designed switching points and the measured output edges marked. uPlot decimates the
-// Float64Array columns itself; we never thin them.
+// designed switching points and the measured output edges marked. Runs longer than
+// DISPLAY_LIMIT samples are drawn through the shared min/max thinner (lib/plot/min-max.ts).
 import { useEffect, useMemo, useRef, useState } from "react";
 import type uPlot from "uplot";
 import type { SimEvent } from "@/lib/sim/types";
 import { PlotToolbar, Readout, cursorItems, type LegendItem } from "./plot-chrome";
+import { MinMaxThinner, pickAt } from "@/lib/plot/min-max";
 import { exportPlotPng } from "./export";
 import { PLOT_COLORS, axis, hLine, siTicks, tagRight, useUPlot, wheelPan } from "./use-uplot";
 
@@ -254,9 +255,7 @@ export function TimePlot(props: TimePlotProps) {
 function thinned(col: Float64Array | null, view: Columns | null, n: number): Float64Array | null {
   if (!col || !view || col.length !== n) return null;
   if (!view.index) return col;
-  const out = new Float64Array(view.index.length);
-  for (let j = 0; j < out.length; j++) out[j] = col[view.index[j]];
-  return out;
+  return pickAt(col, view.index);
 }
 
 /** Source-axis tick: plain decimals, as many as the tick spacing needs (no SI prefix on °C). */
@@ -302,79 +301,20 @@ function useDisplayColumns(t: Float64Array, input: Float64Array, output: Float64
     if (small) return;
     let cancelled = false;
     let timer = 0;
-    const n = t.length;
-    const keep = new Int32Array(BUCKETS * 4 + 2);
-    let k = 0;
-    keep[k++] = 0;
-    let b = 0;
-    const perSlice = Math.max(1, Math.floor((BUCKETS * 32_768) / n));
+    const thinner = new MinMaxThinner([input, output], BUCKETS);
+    // About 32k samples per slice, so the page never stalls on a million-point run.
+    const perSlice = Math.max(1, Math.floor((BUCKETS * 32_768) / t.length));
     const step = () => {
       if (cancelled) return;
-      const end = Math.min(BUCKETS, b + perSlice);
-      for (; b < end; b++) {
-        const from = 1 + Math.floor((b * (n - 2)) / BUCKETS);
-        const to = 1 + Math.floor(((b + 1) * (n - 2)) / BUCKETS);
-        if (to <= from) continue;
-        let iMin = from,
-          iMax = from,
-          oMin = from,
-          oMax = from;
-        for (let i = from + 1; i < to; i++) {
-          const x = input[i];
-          const y = output[i];
-          if (x < input[iMin]) iMin = i;
-          else if (x > input[iMax]) iMax = i;
-          if (y < output[oMin]) oMin = i;
-          else if (y > output[oMax]) oMax = i;
-        }
-        // Four indices in time order, duplicates dropped (a tiny insertion sort, no allocation).
-        let a0 = iMin,
-          a1 = iMax,
-          a2 = oMin,
-          a3 = oMax,
-          tmp = 0;
-        if (a0 > a1) {
-          tmp = a0;
-          a0 = a1;
-          a1 = tmp;
-        }
-        if (a2 > a3) {
-          tmp = a2;
-          a2 = a3;
-          a3 = tmp;
-        }
-        if (a0 > a2) {
-          tmp = a0;
-          a0 = a2;
-          a2 = tmp;
-        }
-        if (a1 > a3) {
-          tmp = a1;
-          a1 = a3;
-          a3 = tmp;
-        }
-        if (a1 > a2) {
-          tmp = a1;
-          a1 = a2;
-          a2 = tmp;
-        }
-        keep[k++] = a0;
-        if (a1 !== a0) keep[k++] = a1;
-        if (a2 !== a1) keep[k++] = a2;
-        if (a3 !== a2) keep[k++] = a3;
-      }
-      if (b < BUCKETS) {
+      if (!thinner.advance(perSlice)) {
         timer = window.setTimeout(step, 0);
         return;
       }
-      keep[k++] = n - 1;
-      const index = keep.slice(0, k);
-      const pick = (src: Float64Array) => {
-        const out = new Float64Array(k);
-        for (let j = 0; j < k; j++) out[j] = src[index[j]];
-        return out;
-      };
-      setState({ src: t, cols: { t: pick(t), input: pick(input), output: pick(output), index } });
+      const index = thinner.finish();
+      setState({
+        src: t,
+        cols: { t: pickAt(t, index), input: pickAt(input, index), output: pickAt(output, index), index },
+      });
     };
     step();
     return () => {

@@ -11,7 +11,7 @@ import { isId, iso, person, type PersonJson } from "./ids";
 import { getScenarioDataOrThrow } from "./scenarios";
 import { runBudgetMs, runInPool, type StoredResultJson } from "./sim-pool";
 
-export { decimationIndices, MAX_STORED_POINTS } from "./sim-worker";
+export { MAX_STORED_POINTS } from "./sim-worker";
 export type { StoredResultJson };
 
 export interface RunJson {

@@ -20,6 +20,7 @@ import {
   type StudyUpload,
 } from "@/lib/studies";
 import { studyCorners } from "@/lib/studies/corners";
+import { minMaxIndices, pickAt } from "@/lib/plot/min-max";
 
 // The simulation threads run at a lower priority than the event loop of the main thread, so a
 // request that waits on no simulation (health, lists) is served first. On Linux this applies
@@ -52,38 +53,12 @@ export type SimAnswer =
   | { ok: true; kind: "study"; study: SavedStudy; elapsedMs: number; tasksRun: number }
   | { ok: false; status: number; code: string; message: string; issues?: IssueJson[] };
 
-/**
- * Indices to keep: both ends, then in each of ⌊(max − 2)/2⌋ equal buckets the samples where the
- * output is lowest and highest (in time order), so narrow pulses and chatter stay visible.
- */
-export function decimationIndices(output: ArrayLike<number>, max = MAX_STORED_POINTS): number[] {
-  const n = output.length;
-  if (n <= max) return Array.from({ length: n }, (_, i) => i);
-  const keep: number[] = [0];
-  const buckets = Math.floor((max - 2) / 2);
-  const inner = n - 2;
-  for (let b = 0; b < buckets; b++) {
-    const from = 1 + Math.floor((b * inner) / buckets);
-    const to = 1 + Math.floor(((b + 1) * inner) / buckets);
-    if (to <= from) continue;
-    let lo = from;
-    let hi = from;
-    for (let i = from + 1; i < to; i++) {
-      if (output[i] < output[lo]) lo = i;
-      if (output[i] > output[hi]) hi = i;
-    }
-    if (lo === hi) keep.push(lo);
-    else keep.push(Math.min(lo, hi), Math.max(lo, hi));
-  }
-  keep.push(n - 1);
-  return keep;
-}
-
 export function storedResult(result: SimResult): StoredResultJson {
   const n = result.t.length;
   if (n <= MAX_STORED_POINTS) return toResultJson(result);
-  const idx = decimationIndices(result.output);
-  const pick = (a: Float64Array) => Float64Array.from(idx, (i) => a[i]);
+  // Input and output extremes both survive (lib/plot/min-max.ts, the thinner the plots use).
+  const idx = minMaxIndices([result.input, result.output], MAX_STORED_POINTS);
+  const pick = (a: Float64Array) => pickAt(a, idx);
   // Optional columns (capacitor, filter node, source units) are picked at the same indices.
   const opt = (a: Float64Array | undefined) => (a && a.length === n ? pick(a) : undefined);
   const thinned: SimResult = {
