@@ -152,12 +152,12 @@ export function LoopPlot(props: LoopPlotProps) {
     m.style.top = `${y}px`;
   }
 
+  // biome-ignore lint/correctness/useExhaustiveDependencies: the marker follows the cursor only; the plot instance is read through its ref
   useEffect(() => {
     const u = plot.current;
     if (!u || cursorIdx === emitted.current) return;
     emitted.current = cursorIdx;
     placeMarker(u, cursorIdx);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [cursorIdx, plot]);
 
   const reset = () => plot.current?.setScale("x", { min: xr.current[0], max: xr.current[1] });

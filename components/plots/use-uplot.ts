@@ -51,7 +51,7 @@ export function useUPlot(
       u?.destroy();
       plot.current = null;
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // biome-ignore lint/correctness/useExhaustiveDependencies: the caller passes the dependency list that rebuilds the plot (deps)
   }, deps);
   return plot;
 }

@@ -184,7 +184,7 @@ export function PlotImage({
   return (
     <figure className="flex flex-col gap-1.5">
       {src ? (
-        // eslint-disable-next-line @next/next/no-img-element -- a generated data URL, nothing to optimise
+        // biome-ignore lint/performance/noImgElement: a generated data URL, nothing for next/image to optimise
         <img
           src={src}
           alt={alt}

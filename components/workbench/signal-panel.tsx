@@ -470,6 +470,7 @@ function InputPreview() {
   const supply = useWb((s) => s.draft.supply);
   const stage = useWb((s) => s.draft.stage);
   const draft = useWb((s) => s.draft);
+  // biome-ignore lint/correctness/useExhaustiveDependencies: only the input and the duration shape the preview; other edits must not re-evaluate it
   const preview = useMemo(() => {
     const t = new Float64Array(PREVIEW_POINTS);
     for (let i = 0; i < PREVIEW_POINTS; i++) t[i] = (run.duration * i) / (PREVIEW_POINTS - 1);
@@ -488,7 +489,6 @@ function InputPreview() {
       return { t, v: null, band: 0, error: e instanceof Error ? e.message : String(e) };
     }
     // Only the input and the duration shape the preview; other edits must not re-evaluate it.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [input, run.duration]);
 
   const W = 400;

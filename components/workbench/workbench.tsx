@@ -45,6 +45,7 @@ export function ScenarioWorkbench({ scenarioId }: { scenarioId: string }) {
 }
 
 function LoadedWorkbench({ record }: { record: ScenarioRecord }) {
+  // biome-ignore lint/correctness/useExhaustiveDependencies: the store is created once per mount; later SWR refreshes must not reset the editor
   const init = useMemo(() => {
     const parsed = scenarioSchema.safeParse(record.scenario);
     return {
@@ -53,7 +54,6 @@ function LoadedWorkbench({ record }: { record: ScenarioRecord }) {
       scenario: parsed.success ? parsed.data : (record.scenario as Scenario),
     };
     // The store is created once per mount; later SWR refreshes must not reset the editor.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [record.id]);
   return (
     <WorkbenchProvider init={init}>

@@ -41,11 +41,8 @@ export function defaultPoolSize(): number {
   return Math.min(MAX_POOL_SIZE, Math.max(1, Math.floor(hc || 1)));
 }
 
-/** Workers alive right now across all studies in this page (for the UI and for tests). */
+/** Workers alive right now across all studies in this page. */
 const live = new Set<Worker>();
-export function liveStudyWorkers(): number {
-  return live.size;
-}
 
 function spawn(): { worker: Worker; api: Comlink.Remote<StudyWorkerApi> } {
   const worker = new Worker(new URL("../../workers/study.worker.ts", import.meta.url), {

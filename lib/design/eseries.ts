@@ -1,6 +1,3 @@
-// IEC 60063:2015 preferred number series and snapping by ratio (log distance).
-import { formatRkm } from "./notation";
-
 export type SeriesName = "E6" | "E12" | "E24" | "E48" | "E96" | "E192";
 
 export const SERIES_NAMES: SeriesName[] = ["E6", "E12", "E24", "E48", "E96", "E192"];
@@ -104,9 +101,4 @@ export function seriesInRange(name: SeriesName, min: number, max: number): numbe
     }
   }
   return out;
-}
-
-/** "4K7 (E24)" — a label for a part list. */
-export function partLabel(ohms: number, name: SeriesName): string {
-  return `${formatRkm(ohms)} (${name})`;
 }

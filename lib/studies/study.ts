@@ -6,7 +6,6 @@ import type { SimulateFn } from "@/lib/sim/types";
 import type { DrawOutput, StudyConfig } from "./schema";
 import { noiseTaskCount, runNoiseTask, type NoiseTaskOutput } from "./noise-margin";
 import { runToleranceTask, toleranceTaskCount } from "./tolerance-spread";
-import { fingerprint } from "./stats";
 
 export interface StudyRequest {
   scenario: Scenario;
@@ -56,9 +55,4 @@ export function runStudyInProcess(request: StudyRequest, simulate: SimulateFn, b
   for (const [a, b] of splitTasks(studyTaskCount(request.config), batch))
     out.push(...runStudyTasks(request, a, b, simulate));
   return out;
-}
-
-/** Fingerprint of a scenario snapshot, to tell a study computed on another scenario. */
-export function scenarioFingerprint(scenario: Scenario): string {
-  return fingerprint(JSON.stringify(scenario));
 }

@@ -323,15 +323,4 @@ export function buildWarnings({ scenario: s, metrics: m, inputMin, inputMax }: W
 
 export { extent as minMax } from "./extent";
 
-/** The edges the input causes when it rises (rising output for non-inverting stages). */
-export function isInvertingStage(s: Scenario): boolean {
-  const k = s.stage.kind;
-  return (
-    k === "inverting-amplifier" ||
-    k === "schmitt-inverting" ||
-    k === "relaxation-oscillator" ||
-    (k === "comparator" && s.stage.inputAt === "inverting")
-  );
-}
-
 export type { SimEvent };
