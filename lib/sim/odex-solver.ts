@@ -124,7 +124,23 @@ export function runOdex(p: OdexParams): OdexStats {
     out[sample++] = p.vo0;
   }
 
-  const nextBreak = (t: number) => (!inputConnected ? Infinity : t < td ? td : sig.nextBreak(t - td) + td);
+  /**
+   * The first input breakpoint strictly after t on the solver's axis. With a transport delay a
+   * breakpoint b of the input lands at b + td, and t − td can round to just below b again: the
+   * same b would come back as "next" and the restart loop would stand still at t. So a
+   * breakpoint that does not lie past t is stepped over (the input's own nextBreak is strictly
+   * increasing, so this ends).
+   */
+  const nextBreak = (t: number): number => {
+    if (!inputConnected) return Infinity;
+    if (t < td) return td;
+    let s = t - td;
+    for (;;) {
+      const b = sig.nextBreak(s);
+      if (b === Infinity || b + td > t) return b + td;
+      s = b;
+    }
+  };
 
   let dense: ((c: number, x: number) => number) | undefined;
   const voAt = (x: number) => dense!(0, x);
@@ -211,6 +227,7 @@ export function runOdex(p: OdexParams): OdexStats {
   let t = 0;
   while (t < T) {
     const tEnd = Math.min(T, nextBreak(t));
+    if (!(tEnd > t)) throw new SimFailed(`odex could not advance past t = ${t.toPrecision(4)} s of ${T} s`);
     solver.maxSteps = Math.max(1, budget - steps);
     solver.maxStepSize = Math.min(tEnd - t, hMaxSine, T / 100);
     solver.initialStepSize = Math.min(1e-4, (tEnd - t) / 8);

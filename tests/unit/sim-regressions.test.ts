@@ -134,4 +134,16 @@ describe("fuzz finds (tests/unit/sim-fuzz-gen.ts seeds)", () => {
     expect(Math.abs(a.metrics.clippedFraction - b.metrics.clippedFraction)).toBeLessThan(1e-5);
     expect(Math.abs(a.output[a.output.length - 1] - b.output[b.output.length - 1])).toBeLessThan(1e-6);
   });
+
+  it("seed 164: odex ends on a delayed input whose breakpoint rounds back onto the restart time", async () => {
+    const { fuzzScenario } = await import("./sim-fuzz-gen");
+    const { scenario } = fuzzScenario(164);
+    // Before the fix odex restarted at the same t forever (t − delay rounded below the capture's
+    // breakpoint, which came back as the next one). Now it ends, within its step budget.
+    const t0 = performance.now();
+    const b = simulate(scenario, { solver: "odex", maxSteps: 20_000 });
+    expect(performance.now() - t0).toBeLessThan(5000);
+    expect(b.output.every((v) => Number.isFinite(v))).toBe(true);
+    expect(b.solver.steps).toBeGreaterThan(0);
+  });
 });
