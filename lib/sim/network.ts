@@ -62,17 +62,33 @@ export function settledState(
 ): { vo: number; x: number } {
   const A0 = openLoopGain;
   const s = net.state;
-  let vo: number;
-  if (s === null) vo = (A0 * (net.alpha * u + net.delta)) / (1 - A0 * net.beta);
-  else {
-    // x = −(kappaU·u + kappaO·vo + kappa0)/kappaX substituted into vo = A0·vd
+  // vd = driveU + loopBeta·vo at DC (x at its steady value for vo when the stage has a state)
+  let driveU = net.alpha * u + net.delta;
+  let loopBeta = net.beta;
+  if (s !== null) {
+    // x = −(kappaU·u + kappaO·vo + kappa0)/kappaX substituted into vd
     const xu = -s.kappaU / s.kappaX;
     const xo = -s.kappaO / s.kappaX;
     const x0 = -s.kappa0 / s.kappaX;
-    vo = (A0 * (net.alpha * u + net.gamma * (xu * u + x0) + net.delta)) / (1 - A0 * (net.beta + net.gamma * xo));
+    driveU += net.gamma * (xu * u + x0);
+    loopBeta += net.gamma * xo;
   }
-  if (!(vo < rails.high)) vo = rails.high;
-  if (!(vo > rails.low)) vo = rails.low;
+  let vo: number;
+  if (1 - A0 * loopBeta > 0) {
+    // Degenerative (or open) loop: vo = A0·vd has one solution, and it is stable.
+    vo = (A0 * driveU) / (1 - A0 * loopBeta);
+    if (!(vo < rails.high)) vo = rails.high;
+    if (!(vo > rails.low)) vo = rails.low;
+  } else {
+    // Regenerative loop (positive feedback, A0·loopBeta ≥ 1): the mid-level solution of
+    // vo = A0·vd is an unstable balance that any disturbance leaves, not an operating point.
+    // The operating points are the limits whose drive holds the output there (common practice,
+    // no source). When both hold (input inside the hysteresis band) the stage starts low, as
+    // the switching kinds do by default (defaultInitialOutput above).
+    const holdsHigh = A0 * (driveU + loopBeta * rails.high) - rails.high >= 0;
+    const holdsLow = A0 * (driveU + loopBeta * rails.low) - rails.low <= 0;
+    vo = holdsLow || !holdsHigh ? rails.low : rails.high;
+  }
   return { vo, x: s === null ? 0 : initialCapacitor(net, u, vo) };
 }
 

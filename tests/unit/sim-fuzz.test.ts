@@ -9,9 +9,14 @@ import { checkRunBounds, simulate } from "@/lib/sim";
 import { fuzzScenario } from "./sim-fuzz-gen";
 
 const SEEDS = 3000;
-// odex itself does not return on seed 164 (a cross-check limitation, not the exact solver):
-// the odex comparison covers the eligible seeds below it.
-const ODEX_SEEDS = 164;
+// Seeds where exact and odex still disagree, not yet explained (open work, see issue #10):
+// mostly the clipped share by 1e-5..2e-3 on stages with jump inputs (pulse, pwl, capture) and
+// often a transport delay or an open drain; seed 1946 (comparator, pulse, delay) misses the
+// first rising edge in the exact solver. The test asserts this list exactly, so a new
+// disagreement fails and a fixed seed must be removed from it. They are not counted as passes.
+const OPEN_DISAGREEMENTS = [
+  164, 272, 633, 716, 842, 878, 902, 1052, 1208, 1678, 1946, 1970, 2121, 2156, 2366, 2624, 2738,
+];
 const BUDGET = 100_000; // pieces; the worst healthy seed needs a few thousand
 
 describe("differential fuzz", () => {
@@ -35,7 +40,7 @@ describe("differential fuzz", () => {
   it("exact agrees with odex on events, thresholds and clipping where odex runs cheaply", () => {
     const mismatches: string[] = [];
     let compared = 0;
-    for (let seed = 0; seed < ODEX_SEEDS; seed++) {
+    for (let seed = 0; seed < SEEDS; seed++) {
       const { scenario } = fuzzScenario(seed);
       const asOdex = { ...scenario, run: { ...scenario.run, solver: "odex" as const } };
       if (checkRunBounds(asOdex, { maxOdexStiffness: 3000, maxOdexSegments: 300 }).length > 0) continue;
@@ -71,7 +76,8 @@ describe("differential fuzz", () => {
       if (Math.abs(a.metrics.clippedFraction - b.metrics.clippedFraction) > 1e-5)
         mismatches.push(`seed ${seed}: clipped ${a.metrics.clippedFraction} vs odex ${b.metrics.clippedFraction}`);
     }
-    expect(compared).toBeGreaterThanOrEqual(20);
-    expect(mismatches).toEqual([]);
+    expect(compared).toBeGreaterThanOrEqual(400);
+    const disagreeing = [...new Set(mismatches.map((m) => Number(/^seed (\d+)/.exec(m)![1])))];
+    expect(disagreeing).toEqual(OPEN_DISAGREEMENTS);
   }, 120_000);
 });
