@@ -148,13 +148,20 @@ export class ExactSolver {
     const U = this.model.U;
     const sig = this.p.signal;
     if (!this.model.inputConnected) return Infinity;
-    const ts = t - this.delay;
+    let ts = t - this.delay;
     if (ts < 0) {
       U.fill(0);
       U[SLOT_ONE] = sig.valueAt(0);
       return this.delay;
     }
     sig.piece(ts);
+    // t − delay can round to just before an input breakpoint that lies at t on the solver's
+    // axis: that piece is over here, so take the one after it (otherwise a one-ulp piece would
+    // carry the old piece's slope, whose closed form can cancel to volts of rounding).
+    while (this.delay !== 0 && sig.pieceEnd !== Infinity && !(sig.pieceEnd + this.delay > t)) {
+      ts = sig.pieceEnd;
+      sig.piece(ts);
+    }
     U[SLOT_ONE] = sig.pieceValue;
     U[SLOT_TAU] = sig.pieceSlope;
     const omega = this.basis.omega;
