@@ -4,9 +4,9 @@
 // engine, so the tails use a logarithm built from +, −, ×, ÷ and bit operations only (IEEE 754
 // rounds those exactly): the same seed gives the same samples bit for bit in Node, every
 // browser and every worker.
-import { xoroshiro128plusFromState } from "pure-rand/generator/xoroshiro128plus";
 import { uniformFloat64 } from "pure-rand/distribution/uniformFloat64";
 import type { Noise } from "@/lib/schemas/scenario";
+import { seededGenerator } from "./seeded";
 
 const SQRT_HALF = 0.7071067811865476;
 const LN2 = 0.6931471805599453;
@@ -128,30 +128,6 @@ export function normalQuantile(p: number): number {
     ((((((A[0] * r + A[1]) * r + A[2]) * r + A[3]) * r + A[4]) * r + A[5]) * q) /
     (((((B[0] * r + B[1]) * r + B[2]) * r + B[3]) * r + B[4]) * r + 1)
   );
-}
-
-/** MurmurHash3's 32-bit finaliser (Appleby): a well-known avalanche mix of an integer. */
-function fmix32(x: number): number {
-  let h = x | 0;
-  h ^= h >>> 16;
-  h = Math.imul(h, 0x85ebca6b);
-  h ^= h >>> 13;
-  h = Math.imul(h, 0xc2b2ae35);
-  h ^= h >>> 16;
-  return h | 0;
-}
-
-/**
- * xoroshiro128+ seeded from a 32-bit seed. pure-rand's own `xoroshiro128plus(seed)` puts the
- * seed into the state almost as is, so its first outputs are nearly the same for every seed
- * (the first uniform is ≈ 1.0, a 5σ sample): the four state words are hashed from the seed
- * instead, and a few outputs are dropped.
- */
-function seededGenerator(seed: number) {
-  const s = seed >>> 0;
-  const rng = xoroshiro128plusFromState([1, 2, 3, 4].map((k) => fmix32(s + Math.imul(k, 0x9e3779b9))));
-  for (let i = 0; i < 8; i++) rng.next();
-  return rng;
 }
 
 /**

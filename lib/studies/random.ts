@@ -1,24 +1,14 @@
 // Seeded streams for studies. Every task draws from its own generator whose seed is a pure
 // function of (study seed, task index): the numbers a task sees never depend on which worker
 // ran it or how the tasks were split, so a study is identical for any pool size.
-import { xoroshiro128plus } from "pure-rand/generator/xoroshiro128plus";
 import { uniformFloat64 } from "pure-rand/distribution/uniformFloat64";
 import { portableLn } from "@/lib/sim/noise";
-
-/** 32-bit finaliser of MurmurHash3 (Appleby, public domain): spreads nearby inputs apart. */
-function fmix32(h: number): number {
-  h ^= h >>> 16;
-  h = Math.imul(h, 0x85ebca6b);
-  h ^= h >>> 13;
-  h = Math.imul(h, 0xc2b2ae35);
-  h ^= h >>> 16;
-  return h >>> 0;
-}
+import { fmix32, seededGenerator } from "@/lib/sim/seeded";
 
 /** Seed of task `index` of a study seeded with `studySeed` (both whole numbers ≥ 0). */
 export function taskSeed(studySeed: number, index: number): number {
   // Mix the two words separately so (s, i) and (s', i') rarely collide for small values.
-  return fmix32((fmix32(studySeed >>> 0) ^ Math.imul((index >>> 0) + 1, 0x9e3779b9)) >>> 0);
+  return fmix32(fmix32(studySeed >>> 0) ^ Math.imul((index >>> 0) + 1, 0x9e3779b9)) >>> 0;
 }
 
 export interface Stream {
@@ -31,7 +21,7 @@ export interface Stream {
 }
 
 export function createStream(seed: number): Stream {
-  const rng = xoroshiro128plus(seed >>> 0);
+  const rng = seededGenerator(seed);
   const uniform = () => uniformFloat64(rng);
   return {
     uniform,

@@ -48,6 +48,16 @@ describe("task seeds and deviation draws", () => {
     expect(taskSeed(42, 7)).toBe(taskSeed(42, 7));
   });
 
+  it("starts every stream afresh: the first draws of 1,000 small seeds are uniform, not all near 1", () => {
+    // pure-rand's own xoroshiro128plus(seed) gives a first uniform ≈ 1.0 for small seeds; the
+    // hashed seeding (lib/sim/seeded.ts) must not. Mean of n uniforms: 0.5 ± 1/√(12n) (σ ≈ 0.009
+    // for n = 1000), so ± 0.05 is over 5σ (common practice, no source).
+    const first = Array.from({ length: 1000 }, (_, seed) => createStream(seed).uniform());
+    const mean = first.reduce((a, b) => a + b, 0) / first.length;
+    expect(Math.abs(mean - 0.5)).toBeLessThan(0.05);
+    expect(first.filter((u) => u > 0.99).length).toBeLessThan(50); // ~10 expected
+  });
+
   it("draws uniform and truncated-normal deviations with the stated spread (common practice: tolerance = 3σ)", () => {
     for (const spread of ["uniform", "normal"] as const) {
       const s = createStream(123);
