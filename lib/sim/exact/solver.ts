@@ -60,6 +60,8 @@ export interface ExactParams {
 
 /** Relative size below which a condition at the start of a piece is "at the boundary". */
 const AT_BOUNDARY = 1e-12;
+/** Units of rounding allowed for evaluating a closed form's sum at a piece start. */
+const ROUNDING_ULPS = 8;
 
 export class ExactSolver {
   readonly model: PieceModel;
@@ -199,7 +201,13 @@ export class ExactSolver {
       const H = this.model.HIGH;
       for (let i = 0; i < G.length; i++) G[i] -= e.sign * H[i];
     } else G[SLOT_ONE] -= e.sign * this.levels[e.level];
-    this.tol = AT_BOUNDARY * this.basis.magnitudeAtStart(G);
+    // AT_BOUNDARY of the sizes that meet in the comparison (the quantity and the level), plus a
+    // few units of rounding of the sum the closed form evaluates. A steep input piece on a slow
+    // pole has coefficients many orders above the value they cancel to: AT_BOUNDARY of those
+    // would call a state volts away from a limit "on" it.
+    const magnitude = this.basis.magnitudeAtStart(G);
+    const size = Math.abs(this.basis.valueAtStart(q)) + Math.abs(this.levels[e.level]);
+    this.tol = AT_BOUNDARY * Math.min(magnitude, size) + ROUNDING_ULPS * Number.EPSILON * magnitude;
     G[SLOT_ONE] -= this.tol;
     return G;
   }
