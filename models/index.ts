@@ -8,6 +8,7 @@ import {
   type InferAttributes,
   type InferCreationAttributes,
   type ModelStatic,
+  type NonAttribute,
   type Sequelize,
 } from "sequelize";
 import { getSequelize } from "./db";
@@ -38,6 +39,9 @@ export interface TeamRow extends Model<Attrs<TeamRow>, Creation<TeamRow>> {
 }
 
 export interface MembershipRow extends Model<Attrs<MembershipRow>, Creation<MembershipRow>> {
+  /** Joined by `include` (as: "user" / "team"); absent otherwise. */
+  user?: NonAttribute<Pick<UserRow, "id" | "name" | "email">>;
+  team?: NonAttribute<Pick<TeamRow, "name">>;
   id: CreationOptional<string>;
   userId: ForeignKey<string>;
   teamId: ForeignKey<string>;
@@ -57,6 +61,8 @@ export interface BoardRow extends Model<Attrs<BoardRow>, Creation<BoardRow>> {
 }
 
 export interface ScenarioRow extends Model<Attrs<ScenarioRow>, Creation<ScenarioRow>> {
+  /** Joined by `include` (as: "updater"); absent otherwise. */
+  updater?: NonAttribute<Pick<UserRow, "name"> | null>;
   id: CreationOptional<string>;
   teamId: ForeignKey<string>;
   boardId: ForeignKey<string>;
@@ -70,6 +76,8 @@ export interface ScenarioRow extends Model<Attrs<ScenarioRow>, Creation<Scenario
 }
 
 export interface ScenarioVersionRow extends Model<Attrs<ScenarioVersionRow>, Creation<ScenarioVersionRow>> {
+  /** Joined by `include` (as: "author"); absent otherwise. */
+  author?: NonAttribute<Pick<UserRow, "name"> | null>;
   id: CreationOptional<string>;
   scenarioId: ForeignKey<string>;
   version: number;
@@ -81,6 +89,8 @@ export interface ScenarioVersionRow extends Model<Attrs<ScenarioVersionRow>, Cre
 }
 
 export interface RunRow extends Model<Attrs<RunRow>, Creation<RunRow>> {
+  /** Joined by `include` (as: "author"); absent otherwise. */
+  author?: NonAttribute<Pick<UserRow, "name"> | null>;
   id: CreationOptional<string>;
   teamId: ForeignKey<string>;
   scenarioId: ForeignKey<string>;
@@ -113,6 +123,8 @@ export interface RunLinkRow extends Model<Attrs<RunLinkRow>, Creation<RunLinkRow
 }
 
 export interface CommentRow extends Model<Attrs<CommentRow>, Creation<CommentRow>> {
+  /** Joined by `include` (as: "author"); absent otherwise. */
+  author?: NonAttribute<Pick<UserRow, "id" | "name"> | null>;
   id: CreationOptional<string>;
   teamId: ForeignKey<string>;
   runId: ForeignKey<string>;
@@ -182,6 +194,8 @@ export interface InvitationRow extends Model<Attrs<InvitationRow>, Creation<Invi
 }
 
 export interface AuditRow extends Model<Attrs<AuditRow>, Creation<AuditRow>> {
+  /** Joined by `include` (as: "actor"); absent otherwise. */
+  actor?: NonAttribute<Pick<UserRow, "name"> | null>;
   id: CreationOptional<string>;
   teamId: ForeignKey<string | null>;
   actorId: ForeignKey<string | null>;

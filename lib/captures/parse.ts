@@ -38,10 +38,14 @@ export interface ParsedCapture {
   max: number;
 }
 
+/** Why a capture was refused: the file is too big ("too_large") or not a usable capture ("invalid"). */
+export type CaptureErrorCode = "invalid" | "too_large";
+
 export class CaptureError extends Error {
   constructor(
     message: string,
     readonly field: string = "file",
+    readonly code: CaptureErrorCode = "invalid",
   ) {
     super(message);
     this.name = "CaptureError";
@@ -156,7 +160,7 @@ export function inspectCsv(
 
 export function parseCapture(text: string, options: CaptureParseOptions): ParsedCapture {
   if (text.length > CAPTURE_MAX_BYTES) {
-    throw new CaptureError(`The file is larger than ${CAPTURE_MAX_BYTES / (1024 * 1024)} MB.`);
+    throw new CaptureError(`The file is larger than ${CAPTURE_MAX_BYTES / (1024 * 1024)} MB.`, "file", "too_large");
   }
   const { rows, delimiter } = readRows(text);
   const decimalComma = usesDecimalComma(rows, delimiter);
@@ -183,6 +187,8 @@ export function parseCapture(text: string, options: CaptureParseOptions): Parsed
   if (count > maxRows) {
     throw new CaptureError(
       `The file has ${count.toLocaleString("en")} data rows; at most ${maxRows.toLocaleString("en")} are accepted.`,
+      "file",
+      "too_large",
     );
   }
 

@@ -53,14 +53,14 @@ export async function findMembership({
       { model: User, as: "user", attributes: ["name", "email"] },
     ],
   });
-  if (!row) return null;
-  const joined = row as unknown as { team: { name: string }; user: { name: string; email: string } };
+  // Both joins are inner (the foreign keys are NOT NULL), so a found row carries them.
+  if (!row?.team || !row.user) return null;
   return {
     userId,
     teamId: row.teamId as string,
-    teamName: joined.team.name,
+    teamName: row.team.name,
     role: row.role,
-    name: joined.user.name,
-    email: joined.user.email,
+    name: row.user.name,
+    email: row.user.email,
   };
 }

@@ -50,7 +50,7 @@ export async function listAudit({ teamId, limit = 200 }: { teamId: string; limit
   });
   const names = await targetNames(teamId, rows);
   return rows.map((r) => {
-    const actor = (r as unknown as { actor?: { name: string } | null }).actor;
+    const actor = r.actor;
     return {
       id: r.id,
       action: r.action,

@@ -1,6 +1,5 @@
 import "server-only";
 // Boards: a team's design folders. Every lookup is scoped by teamId (another team's id → 404).
-import { fn, col } from "sequelize";
 import { getModels, getSequelize } from "@/models";
 import { byText } from "@/models/transactions";
 import type { BoardCreate, BoardPatch } from "@/lib/schemas/api";
@@ -33,13 +32,9 @@ function boardJson(row: BoardRowLike, scenarioCount: number): BoardJson {
 async function countScenarios(boardIds: string[]): Promise<Map<string, number>> {
   const { Scenario } = getModels();
   if (boardIds.length === 0) return new Map();
-  const rows = (await Scenario.findAll({
-    where: { boardId: boardIds },
-    attributes: ["boardId", [fn("COUNT", col("id")), "n"]],
-    group: ["boardId"],
-    raw: true,
-  })) as unknown as { boardId: string; n: number | string }[];
-  return new Map(rows.map((r) => [r.boardId, Number(r.n)]));
+  // A grouped count answers one { boardId, count } item per board.
+  const rows = await Scenario.count({ where: { boardId: boardIds }, group: ["boardId"] });
+  return new Map(rows.map((r) => [String(r.boardId), Number(r.count)]));
 }
 
 export async function listBoards({ teamId }: { teamId: string }): Promise<BoardJson[]> {

@@ -5,6 +5,7 @@ import { ZodError } from "zod";
 import { describeIssues } from "@/lib/schemas/scenario";
 import { maskSecrets } from "@/models/db";
 import { stripNul } from "@/models/text";
+import { ERROR_STATUS, type ErrorCode } from "./error-codes";
 
 export interface IssueJson {
   path: (string | number)[];
@@ -12,26 +13,29 @@ export interface IssueJson {
   code?: string;
 }
 
+export { ERROR_STATUS, type ErrorCode };
+
+/** A user-facing refusal: its HTTP status follows from its code (ERROR_STATUS, one table). */
 export class AppError extends Error {
+  readonly status: number;
   constructor(
-    readonly status: number,
-    readonly code: string,
+    readonly code: ErrorCode,
     message: string,
     readonly details?: unknown,
   ) {
     super(message);
     this.name = "AppError";
+    this.status = ERROR_STATUS[code];
   }
 }
 
-export const badRequest = (message: string, issues?: IssueJson[]) =>
-  new AppError(400, "invalid_input", message, issues);
-export const unauthorized = (message = "Sign in to continue.") => new AppError(401, "unauthorized", message);
-export const forbidden = (message = "Your role does not allow this.") => new AppError(403, "forbidden", message);
-export const notFound = (message = "Not found.") => new AppError(404, "not_found", message);
-export const conflict = (message: string) => new AppError(409, "conflict", message);
-export const gone = (message: string) => new AppError(410, "gone", message);
-export const tooLarge = (message: string) => new AppError(413, "too_large", message);
+export const badRequest = (message: string, issues?: IssueJson[]) => new AppError("invalid_input", message, issues);
+export const unauthorized = (message = "Sign in to continue.") => new AppError("unauthorized", message);
+export const forbidden = (message = "Your role does not allow this.") => new AppError("forbidden", message);
+export const notFound = (message = "Not found.") => new AppError("not_found", message);
+export const conflict = (message: string) => new AppError("conflict", message);
+export const gone = (message: string) => new AppError("gone", message);
+export const tooLarge = (message: string) => new AppError("too_large", message);
 
 function zodIssues(err: ZodError): IssueJson[] {
   return err.issues.map((i) => ({

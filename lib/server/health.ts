@@ -9,7 +9,7 @@ export async function checkDatabase(): Promise<{ dialect: string; ok: true }> {
     await sequelize.query("SELECT 1");
   } catch (err) {
     console.error("[railwise] health: database check failed:", err);
-    throw new AppError(503, "unavailable", "The database does not answer.");
+    throw new AppError("unavailable", "The database does not answer.");
   }
   return { dialect: sequelize.getDialect(), ok: true };
 }

@@ -16,7 +16,11 @@ export interface MailOutcome {
   error?: string;
 }
 
-const globalForMail = globalThis as unknown as { railwiseMailer?: { url: string; transport: Transporter } };
+declare global {
+  /** One SMTP transport per process, kept across hot reloads in development. */
+  var railwiseMailer: { url: string; transport: Transporter } | undefined;
+}
+const globalForMail = globalThis;
 
 export function smtpUrl(): string {
   return process.env.SMTP_URL || `smtp://127.0.0.1:${process.env.SMTP_SINK_PORT || "2525"}`;

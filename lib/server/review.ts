@@ -204,7 +204,7 @@ export async function listComments({ runId, teamId }: { runId: string; teamId: s
     ],
   });
   return rows.map((c) => {
-    const author = (c as unknown as { author?: Named }).author;
+    const author = c.author;
     return {
       id: c.id,
       runId,

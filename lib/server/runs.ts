@@ -41,8 +41,6 @@ export async function runOnServer(data: unknown): Promise<{ scenario: Scenario; 
   return { scenario: answer.scenario, result: answer.result };
 }
 
-type Named = { name: string } | null | undefined;
-
 function runJson(row: RunRow): RunJson {
   return {
     id: row.id,
@@ -50,7 +48,7 @@ function runJson(row: RunRow): RunJson {
     scenarioVersion: row.scenarioVersion ?? null,
     label: row.label,
     createdAt: iso(row.createdAt)!,
-    createdBy: person(row.createdBy, (row as unknown as { author?: Named }).author),
+    createdBy: person(row.createdBy, row.author),
     scenario: row.scenario as Scenario,
     result: row.result as StoredResultJson,
     study: row.study ?? null,

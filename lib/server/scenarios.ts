@@ -33,10 +33,8 @@ export interface ScenarioVersionJson {
   scenario?: Scenario;
 }
 
-type Named = { name: string } | null | undefined;
-
 function scenarioJson(row: import("@/models").ScenarioRow, latest: LatestDecisionJson | null): ScenarioJson {
-  const updater = (row as unknown as { updater?: Named }).updater;
+  const updater = row.updater;
   return {
     id: row.id,
     boardId: row.boardId as string,
@@ -177,7 +175,7 @@ async function saveVersion({
     return { row, updater };
   });
   const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: [written.row.id] });
-  (written.row as unknown as { updater?: Named }).updater = written.updater;
+  written.row.updater = written.updater;
   return scenarioJson(written.row, decisions.get(written.row.id) ?? null);
 }
 
@@ -249,7 +247,7 @@ export async function listScenarioVersions({
     name: v.name,
     note: v.note ?? null,
     createdAt: iso(v.createdAt)!,
-    author: person(v.authorId, (v as unknown as { author?: Named }).author),
+    author: person(v.authorId, v.author),
   }));
 }
 
@@ -274,7 +272,7 @@ export async function getScenarioVersionOrThrow({
     name: v.name,
     note: v.note ?? null,
     createdAt: iso(v.createdAt)!,
-    author: person(v.authorId, (v as unknown as { author?: Named }).author),
+    author: person(v.authorId, v.author),
     scenario: v.data as Scenario,
   };
 }

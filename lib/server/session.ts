@@ -9,7 +9,7 @@ import { getServerSession } from "next-auth";
 import { QueryTypes } from "sequelize";
 import { authOptions } from "@/lib/auth";
 import type { Role } from "@/lib/schemas/roles";
-import { notFound } from "next/navigation";
+import { notFound, redirect } from "next/navigation";
 import { getModels, getSequelize } from "@/models";
 import { isId } from "./ids";
 import { AppError, forbidden, unauthorized } from "./errors";
@@ -66,21 +66,13 @@ export function checkSameOrigin(request: Request): void {
   const origin = request.headers.get("origin");
   if (origin !== null) {
     if (!ownOrigins(request).has(origin)) {
-      throw new AppError(
-        403,
-        "cross_origin",
-        `Requests from another site are refused (Origin ${origin.slice(0, 100)}).`,
-      );
+      throw new AppError("cross_origin", `Requests from another site are refused (Origin ${origin.slice(0, 100)}).`);
     }
     return;
   }
   const site = request.headers.get("sec-fetch-site");
   if (site !== null && site !== "same-origin" && site !== "none") {
-    throw new AppError(
-      403,
-      "cross_origin",
-      `Requests from another site are refused (Sec-Fetch-Site ${site.slice(0, 40)}).`,
-    );
+    throw new AppError("cross_origin", `Requests from another site are refused (Sec-Fetch-Site ${site.slice(0, 40)}).`);
   }
 }
 
@@ -105,7 +97,6 @@ export function checkBodyType(request: Request, { multipart = false }: { multipa
   if (type === "application/json" || (multipart && (type === "multipart/form-data" || type === "text/csv"))) return;
   const want = multipart ? "application/json, multipart/form-data or text/csv" : "application/json";
   throw new AppError(
-    403,
     "unsupported_content_type",
     `Send the body as ${want} (content-type was ${type ? `"${type.slice(0, 80)}"` : "missing"}).`,
   );
@@ -165,12 +156,7 @@ export const SIGN_IN_ADDRESS: RateRule = { maxFailures: 20, windowMs: 15 * 60_00
 export const INVITE_ADDRESS: RateRule = { maxFailures: 20, windowMs: 15 * 60_000, lockMs: 15 * 60_000 };
 
 export const tooManyRequests = (retryAfterS: number) =>
-  new AppError(
-    429,
-    "rate_limited",
-    `Too many failed attempts; try again in ${Math.ceil(retryAfterS / 60)} min.`,
-    undefined,
-  );
+  new AppError("rate_limited", `Too many failed attempts; try again in ${Math.ceil(retryAfterS / 60)} min.`, undefined);
 
 /** Seconds until `key` may try again, or 0 when it is not locked. */
 export async function lockedFor(key: string, now = Date.now()): Promise<number> {
@@ -243,4 +229,42 @@ export async function requireTeamItemOr404(
         ? await Scenario.findOne(where)
         : await Run.findOne(where);
   if (!row) notFound();
+}
+
+// Server pages: who is signed in. Pages only decide what to show; route handlers enforce.
+
+export interface PageUser {
+  id: string;
+  name: string | null;
+  email: string | null;
+  role: Role;
+  teamId: string;
+  teamName: string;
+}
+
+/** May create, edit and delete scenarios, runs, captures and part profiles: the role table's `edit` row (CAN above, DEVELOPERS.md § Roles). */
+export function canEdit(role: Role): boolean {
+  return (CAN.edit as readonly Role[]).includes(role);
+}
+
+/** The signed-in member for a server page, or null. Pages only decide what to show; route handlers enforce. */
+export async function getPageUser(): Promise<PageUser | null> {
+  const session = await getServerSession(authOptions);
+  const u = session?.user;
+  if (!u?.id || !u.role) return null;
+  return {
+    id: u.id,
+    name: u.name ?? null,
+    email: u.email ?? null,
+    role: u.role,
+    teamId: u.teamId,
+    teamName: u.teamName,
+  };
+}
+
+/** Same, but sends anyone without a session to the sign-in page. */
+export async function requirePageUser(): Promise<PageUser> {
+  const user = await getPageUser();
+  if (!user) redirect("/signin");
+  return user;
 }

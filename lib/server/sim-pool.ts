@@ -39,7 +39,11 @@ interface PoolLike {
   destroy(): Promise<void>;
 }
 
-const globalForPool = globalThis as unknown as { railwiseSimPool?: Promise<PoolLike> };
+declare global {
+  /** One pool per server process, kept across hot reloads in development. */
+  var railwiseSimPool: Promise<PoolLike> | undefined;
+}
+const globalForPool = globalThis;
 
 function projectRoot(): string {
   return process.env.RAILWISE_ROOT || process.cwd();
@@ -86,7 +90,14 @@ async function createPool(): Promise<PoolLike> {
     idleTimeout: 60_000,
     resourceLimits: { maxOldGenerationSizeMb: workerMemoryMb(), maxYoungGenerationSizeMb: 64 },
   });
-  return pool as unknown as PoolLike;
+  // Piscina answers `any`; the worker (sim-worker.ts) answers a SimAnswer.
+  return {
+    run: (task, options) => pool.run(task, options) as Promise<SimAnswer>,
+    get queueSize() {
+      return pool.queueSize;
+    },
+    destroy: () => pool.destroy(),
+  };
 }
 
 function pool(): Promise<PoolLike> {
@@ -105,7 +116,7 @@ export function warmSimPool(): void {
 }
 
 function failure(answer: Extract<SimAnswer, { ok: false }>): AppError {
-  return new AppError(answer.status, answer.code, answer.message, answer.issues);
+  return new AppError(answer.code, answer.message, answer.issues);
 }
 
 /**
@@ -118,7 +129,7 @@ export async function runInPool<K extends SimTask["kind"]>(
 ): Promise<Extract<SimAnswer, { ok: true; kind: K }>> {
   const p = await pool();
   if (p.queueSize >= MAX_QUEUE) {
-    throw new AppError(503, "busy", "The server is running too many simulations; try again in a minute.");
+    throw new AppError("busy", "The server is running too many simulations; try again in a minute.");
   }
   const hardStop = AbortSignal.timeout(task.budgetMs * 1.5 + 2_000 + QUEUE_ALLOWANCE_MS);
   let answer: SimAnswer;
@@ -129,20 +140,15 @@ export async function runInPool<K extends SimTask["kind"]>(
     const message = err instanceof Error ? err.message : String(err);
     if (code === "ERR_WORKER_OUT_OF_MEMORY" || /out of memory/i.test(message)) {
       throw new AppError(
-        422,
         "over_memory",
         `This simulation needed more than the server's ${workerMemoryMb()} MB per run and was stopped; shorten the run or lower run.points.`,
       );
     }
     if (hardStop.aborted || (err instanceof Error && err.name === "AbortError")) {
-      throw new AppError(
-        422,
-        "over_budget",
-        `This simulation did not finish within the server's budget and was stopped.`,
-      );
+      throw new AppError("over_budget", `This simulation did not finish within the server's budget and was stopped.`);
     }
     if (/queue is at limit/i.test(message))
-      throw new AppError(503, "busy", "The server is running too many simulations; try again in a minute.");
+      throw new AppError("busy", "The server is running too many simulations; try again in a minute.");
     throw err;
   }
   if (!answer.ok) throw failure(answer);

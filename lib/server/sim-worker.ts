@@ -21,6 +21,7 @@ import {
 } from "@/lib/studies";
 import { studyCorners } from "@/lib/studies/corners";
 import { minMaxIndices, pickAt } from "@/lib/plot/min-max";
+import type { ErrorCode } from "./error-codes";
 
 // The simulation threads run at a lower priority than the event loop of the main thread, so a
 // request that waits on no simulation (health, lists) is served first. On Linux this applies
@@ -51,7 +52,7 @@ export type SimTask =
 export type SimAnswer =
   | { ok: true; kind: "run"; scenario: Scenario; result: StoredResultJson; elapsedMs: number }
   | { ok: true; kind: "study"; study: SavedStudy; elapsedMs: number; tasksRun: number }
-  | { ok: false; status: number; code: string; message: string; issues?: IssueJson[] };
+  | { ok: false; code: ErrorCode; message: string; issues?: IssueJson[] };
 
 export function storedResult(result: SimResult): StoredResultJson {
   const n = result.t.length;
@@ -96,7 +97,6 @@ function parse(data: unknown): Scenario | SimAnswer {
   if (parsed.success) return parsed.data;
   return {
     ok: false,
-    status: 400,
     code: "invalid_input",
     message: `The stored scenario is not valid: ${describeIssues(parsed.error).join("; ")}`,
     issues: parsed.error.issues.map((i) => ({ path: ["scenario", ...i.path.map(String)], message: i.message })),
@@ -106,7 +106,6 @@ function parse(data: unknown): Scenario | SimAnswer {
 function pastBounds(reasons: string[], path: (string | number)[], what: string): SimAnswer {
   return {
     ok: false,
-    status: 400,
     code: "invalid_input",
     message: `${what} is too large for the server: ${reasons.join("; ")}`,
     issues: reasons.map((message) => ({ path, message })),
@@ -116,7 +115,6 @@ function pastBounds(reasons: string[], path: (string | number)[], what: string):
 function overBudget(budgetMs: number, what: string): SimAnswer {
   return {
     ok: false,
-    status: 422,
     code: "over_budget",
     message: `${what} took longer than the server's budget of ${seconds(budgetMs)} per simulation and was stopped; shorten the run, lower run.points or the noise bandwidth.`,
   };
@@ -151,7 +149,6 @@ function runTask(task: Extract<SimTask, { kind: "run" }>): SimAnswer {
     if (name === "SimFailed")
       return {
         ok: false,
-        status: 400,
         code: "invalid_input",
         message: `The simulation could not finish: ${(err as Error).message}`,
       };
@@ -237,7 +234,6 @@ function studyTask(task: Extract<SimTask, { kind: "study" }>): SimAnswer {
     if (err instanceof StudyMismatch) {
       return {
         ok: false,
-        status: 400,
         code: "invalid_input",
         message: `${err.message}. Run the study again on this run's scenario before saving.`,
         issues: [{ path: err.field.split("."), message: err.message }],
@@ -248,7 +244,6 @@ function studyTask(task: Extract<SimTask, { kind: "study" }>): SimAnswer {
     if (name === "SimFailed")
       return {
         ok: false,
-        status: 400,
         code: "invalid_input",
         message: `A study task could not finish: ${(err as Error).message}`,
       };

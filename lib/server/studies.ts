@@ -45,7 +45,7 @@ export async function saveRunStudy({
     parseScenario(run.scenario);
   } catch (err) {
     if (err instanceof ScenarioError)
-      throw new AppError(409, "conflict", "This run's scenario snapshot no longer parses; re-run the scenario first.");
+      throw new AppError("conflict", "This run's scenario snapshot no longer parses; re-run the scenario first.");
     throw err;
   }
   const { study: saved } = await runInPool({

@@ -22,8 +22,6 @@ import {
 
 const iso = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString() : null);
 
-type WithUser = { user?: { id: string; name: string; email: string } | null };
-
 export async function listMembers({ teamId }: { teamId: string }): Promise<MemberJson[]> {
   const { Membership, User } = getModels();
   const rows = await Membership.findAll({
@@ -35,7 +33,7 @@ export async function listMembers({ teamId }: { teamId: string }): Promise<Membe
     ],
   });
   return rows.map((m) => {
-    const user = (m as unknown as WithUser).user;
+    const user = m.user;
     return {
       id: m.userId as string,
       membershipId: m.id,

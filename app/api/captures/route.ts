@@ -83,8 +83,7 @@ export async function POST(request: Request) {
       });
     } catch (err) {
       if (err instanceof CaptureError) {
-        const status = /larger than|data rows; at most/.test(err.message) ? 413 : 400;
-        throw new AppError(status, status === 413 ? "too_large" : "invalid_input", err.message, [
+        throw new AppError(err.code === "too_large" ? "too_large" : "invalid_input", err.message, [
           { path: [err.field], message: err.message },
         ]);
       }

@@ -2,7 +2,7 @@ import { errorResponse } from "@/lib/server/errors";
 import { readLimitedBody } from "@/lib/server/request";
 import { requireMember, requireRole, CAN } from "@/lib/server/session";
 import { getRunStudyOrThrow, saveRunStudy } from "@/lib/server/studies";
-import { studyUploadSchema } from "@/lib/studies/schema";
+import { studyUploadSchema } from "@/lib/schemas/study";
 import { AppError } from "@/lib/server/errors";
 import { routeIds } from "@/lib/server/ids";
 
@@ -33,7 +33,7 @@ export async function PUT(request: Request, { params }: Ctx) {
     try {
       body = JSON.parse(new TextDecoder().decode(bytes));
     } catch {
-      throw new AppError(400, "invalid_json", "The request body must be JSON.");
+      throw new AppError("invalid_json", "The request body must be JSON.");
     }
     const upload = studyUploadSchema.parse(body);
     const study = await saveRunStudy({ runId: id, teamId: member.teamId, actorId: member.userId, upload });
