@@ -12,11 +12,11 @@ import { parseScenario, type Scenario } from "@/lib/schemas/scenario";
 import { simulate } from "@/lib/sim";
 import type { SimulateFn } from "@/lib/sim/types";
 import { DEMO_SCENARIOS } from "@/lib/demo/scenarios";
-import { noiseMarginConfigSchema, toleranceSpreadConfigSchema } from "@/lib/studies/schema";
+import { noiseMarginConfigSchema, toleranceSpreadConfigSchema } from "@/lib/schemas/study";
 import { runStudyTasks, splitTasks, studyTaskCount, type StudyRequest, type TaskOutput } from "@/lib/studies/study";
 import { summarizeNoiseMargin, type NoiseTaskOutput } from "@/lib/studies/noise-margin";
 import { summarizeToleranceSpread } from "@/lib/studies/tolerance-spread";
-import type { DrawOutput } from "@/lib/studies/schema";
+import type { DrawOutput } from "@/lib/schemas/study";
 import { STUDY_OUTPUT_POINTS } from "@/lib/studies/grid";
 
 const THIS_FILE = __filename;

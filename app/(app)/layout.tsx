@@ -1,5 +1,5 @@
 import { AppHeader } from "@/components/layout/app-header";
-import { requirePageUser } from "@/lib/page-session";
+import { requirePageUser } from "@/lib/server/session";
 
 // Every signed-in page: reads the session on the server and redirects to /signin without one.
 // Route handlers check roles themselves; this only guards what is rendered.

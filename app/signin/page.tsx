@@ -4,7 +4,7 @@ import { SignInForm } from "@/components/auth/sign-in-form";
 import { LoopFigure } from "@/components/auth/loop-figure";
 import { Wordmark } from "@/components/layout/brand-mark";
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from "@/lib/demo/accounts";
-import { getPageUser } from "@/lib/page-session";
+import { getPageUser } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Sign in" };
 // Read the demo-account switch at request time, not at build time.

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { SignOutPanel } from "@/components/auth/sign-out-panel";
 import { Wordmark } from "@/components/layout/brand-mark";
-import { getPageUser } from "@/lib/page-session";
+import { getPageUser } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Sign out" };
 export const dynamic = "force-dynamic";

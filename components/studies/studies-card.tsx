@@ -22,7 +22,7 @@ import {
   type NoiseMarginConfig,
   type StudyUpload,
   type ToleranceSpreadConfig,
-} from "@/lib/studies/schema";
+} from "@/lib/schemas/study";
 import { summarizeToleranceSpread, type ToleranceSpreadSummary } from "@/lib/studies/tolerance-spread";
 import { MEASURE_LABEL, MEASURE_UNIT } from "./study-plots";
 import { inputRange, studyIssueText, suggestNoise, suggestTolerance } from "@/lib/workbench/study-suggest";

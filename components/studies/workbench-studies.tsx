@@ -7,7 +7,7 @@ import { useSWRConfig } from "swr";
 import { sendJson } from "@/lib/client/fetcher";
 import { runsKey, type RunRecord } from "@/lib/client/hooks";
 import { scenarioSchema } from "@/lib/schemas/scenario";
-import type { StudyUpload } from "@/lib/studies/schema";
+import type { StudyUpload } from "@/lib/schemas/study";
 import { useWb, useWbApi } from "@/components/workbench/store";
 import { refuseIfInvalid } from "@/components/workbench/field-problems";
 import { StudiesCard } from "./studies-card";

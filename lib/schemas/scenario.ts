@@ -1,29 +1,12 @@
 // The `railwise.scenario/1` contract (lib/schemas/README.md). All values in SI base units.
 // Shared by the API, the simulator, the CLIs and the workbench form.
 import { z } from "zod";
-
-const MAX_ABS_VOLTS = 1000;
-
-const finite = (what: string) =>
-  z.number({ error: `${what} must be a number` }).refine(Number.isFinite, { message: `${what} must be finite` });
-
-const volts = (what: string) =>
-  finite(what).refine((v) => Math.abs(v) <= MAX_ABS_VOLTS, { message: `${what} must be within ±${MAX_ABS_VOLTS} V` });
+import { finite, MAX_ABS_VOLTS, nonNegative, positive, volts } from "./units";
 
 const ohms = (what: string) =>
   finite(what)
     .refine((v) => v > 0, { message: `${what} must be a positive resistance in Ω` })
     .refine((v) => v <= 1e12, { message: `${what} must be at most 1 TΩ` });
-
-const positive = (what: string, max = Number.MAX_VALUE) =>
-  finite(what)
-    .refine((v) => v > 0, { message: `${what} must be greater than 0` })
-    .refine((v) => v <= max, { message: `${what} must be at most ${max}` });
-
-const nonNegative = (what: string, max = Number.MAX_VALUE) =>
-  finite(what)
-    .refine((v) => v >= 0, { message: `${what} must not be negative` })
-    .refine((v) => v <= max, { message: `${what} must be at most ${max}` });
 
 const fraction = (what: string, max: number) =>
   finite(what).refine((v) => v >= 0 && v <= max, {
@@ -284,7 +267,6 @@ export const designTargetSchema = z.strictObject({
     .optional(),
 });
 
-const pos = (what: string) => finite(what).refine((v) => v > 0, { message: `${what} must be greater than 0` });
 const celsius = (what: string) =>
   finite(what).refine((v) => v > -273.15 && v < 1000, { message: `${what} must be a temperature in °C above −273.15` });
 
@@ -292,20 +274,23 @@ const celsius = (what: string) =>
 export const ntcModelSchema = z.union(
   [
     z.strictObject({
-      beta: pos("sensor.model.beta (K)"),
-      r25: pos("sensor.model.r25 (Ω)"),
+      beta: positive("sensor.model.beta (K)"),
+      r25: positive("sensor.model.r25 (Ω)"),
       t0: celsius("sensor.model.t0 (°C)").optional(),
     }),
     z.strictObject({
       a: finite("sensor.model.a"),
-      b: pos("sensor.model.b"),
+      b: positive("sensor.model.b"),
       c: finite("sensor.model.c").refine((v) => v >= 0, { message: "sensor.model.c must not be negative" }),
     }),
     z.strictObject({
       points: z
-        .array(z.tuple([celsius("sensor.model.points temperature (°C)"), pos("sensor.model.points resistance (Ω)")]), {
-          error: "sensor.model.points must be three [°C, Ω] pairs",
-        })
+        .array(
+          z.tuple([celsius("sensor.model.points temperature (°C)"), positive("sensor.model.points resistance (Ω)")]),
+          {
+            error: "sensor.model.points must be three [°C, Ω] pairs",
+          },
+        )
         .length(3, { message: "sensor.model.points must hold exactly three [°C, Ω] pairs" }),
     }),
   ],
@@ -322,14 +307,14 @@ export const sensorSchema = z.discriminatedUnion(
     z.strictObject({
       kind: z.literal("ntc"),
       model: ntcModelSchema,
-      rFixed: pos("sensor.rFixed (Ω)"),
+      rFixed: positive("sensor.rFixed (Ω)"),
       position: z.enum(["top", "bottom"], { error: 'sensor.position must be "top" or "bottom" (where the NTC sits)' }),
       /** Divider supply (V); default supply.positive. */
-      supplyVoltage: pos("sensor.supplyVoltage (V)").optional(),
+      supplyVoltage: positive("sensor.supplyVoltage (V)").optional(),
       /** Dissipation constant δ (W/K) for the self-heating check. */
-      dissipationConstant: pos("sensor.dissipationConstant (W/K)").optional(),
+      dissipationConstant: positive("sensor.dissipationConstant (W/K)").optional(),
       /** Accuracy wanted (K); self-heating above a quarter of it is flagged. Default 0.5 K. */
-      accuracy: pos("sensor.accuracy (K)").optional(),
+      accuracy: positive("sensor.accuracy (K)").optional(),
     }),
     z.strictObject({
       kind: z.literal("linear"),
@@ -339,7 +324,11 @@ export const sensorSchema = z.discriminatedUnion(
       offset: volts("sensor.offset"),
       unit: z.string().max(20, { message: "sensor.unit must be at most 20 characters" }).optional(),
     }),
-    z.strictObject({ kind: z.literal("divider"), rTop: pos("sensor.rTop (Ω)"), rBottom: pos("sensor.rBottom (Ω)") }),
+    z.strictObject({
+      kind: z.literal("divider"),
+      rTop: positive("sensor.rTop (Ω)"),
+      rBottom: positive("sensor.rBottom (Ω)"),
+    }),
   ],
   { error: 'sensor.kind must be "ntc", "linear" or "divider"' },
 );
@@ -380,7 +369,7 @@ export const designSpecSchema = z
     /** RC filter suggestion: the input must not reach the switching point within `bounceTime` of a step of `step` volts at the stage input (default the positive supply). */
     filter: z
       .strictObject({
-        bounceTime: pos("filter.bounceTime (s)").refine((v) => v <= 100, {
+        bounceTime: positive("filter.bounceTime (s)").refine((v) => v <= 100, {
           message: "filter.bounceTime must be at most 100 s",
         }),
         step: volts("filter.step").optional(),
@@ -390,13 +379,13 @@ export const designSpecSchema = z
     output: z
       .strictObject({
         kind: z.literal("open-drain", { error: 'output.kind must be "open-drain" (push-pull is the default)' }),
-        pullUp: pos("output.pullUp (Ω)").optional(),
+        pullUp: positive("output.pullUp (Ω)").optional(),
         pullUpTo: z
           .union([z.literal("positive"), volts("output.pullUpTo")], {
             error: 'output.pullUpTo must be "positive" or a voltage',
           })
           .optional(),
-        load: z.strictObject({ r: pos("output.load.r (Ω)"), to: volts("output.load.to").optional() }).optional(),
+        load: z.strictObject({ r: positive("output.load.r (Ω)"), to: volts("output.load.to").optional() }).optional(),
       })
       .optional(),
     monteCarlo: z

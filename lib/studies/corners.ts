@@ -2,7 +2,7 @@
 // figures (and units) the Monte Carlo measures by simulation.
 import type { Scenario } from "@/lib/schemas/scenario";
 import { circuitWorstCase } from "@/lib/design/spread";
-import type { ToleranceSpreadConfig } from "./schema";
+import type { ToleranceSpreadConfig } from "@/lib/schemas/study";
 import { studyScenario, studySpreadOptions, type Corners } from "./tolerance-spread";
 
 /** The corners of the same model the draws sample (lib/design/spread): every part, the supply and the NTC. */

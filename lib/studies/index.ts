@@ -1,5 +1,5 @@
 // Studies: noise margin and tolerance spread (pure TypeScript; no React, Next or database).
-export * from "./schema";
+export * from "@/lib/schemas/study";
 export * from "./random";
 export * from "./stats";
 export * from "./noise-margin";

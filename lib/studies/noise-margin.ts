@@ -8,7 +8,7 @@
 // The chatter probability of a level is k/n over its n seeds, with a 95 % Wilson interval.
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { SimulateFn } from "@/lib/sim/types";
-import type { NoiseMarginConfig } from "./schema";
+import type { NoiseMarginConfig } from "@/lib/schemas/study";
 import { taskSeed } from "./random";
 import { wilsonInterval } from "./stats";
 import { studyRunSettings } from "./grid";

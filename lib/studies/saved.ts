@@ -2,7 +2,7 @@
 // recomputed here — on the server — so a saved figure is never one the client made up.
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { SimulateFn } from "@/lib/sim/types";
-import type { DrawOutput, StudyUpload } from "./schema";
+import type { DrawOutput, StudyUpload } from "@/lib/schemas/study";
 import {
   noiseTaskCount,
   runNoiseTask,

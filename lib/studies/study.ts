@@ -3,7 +3,7 @@
 // task order. Splitting the list differently never changes a single output.
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { SimulateFn } from "@/lib/sim/types";
-import type { DrawOutput, StudyConfig } from "./schema";
+import type { DrawOutput, StudyConfig } from "@/lib/schemas/study";
 import { noiseTaskCount, runNoiseTask, type NoiseTaskOutput } from "./noise-margin";
 import { runToleranceTask, toleranceTaskCount } from "./tolerance-spread";
 

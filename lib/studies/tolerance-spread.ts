@@ -4,7 +4,7 @@
 // figures a bench engineer would: switching points, gain, or period.
 import type { Scenario, Stage } from "@/lib/schemas/scenario";
 import type { SimResult, SimulateFn } from "@/lib/sim/types";
-import type { DrawOutput, Measure, ToleranceSpreadConfig } from "./schema";
+import type { DrawOutput, Measure, ToleranceSpreadConfig } from "@/lib/schemas/study";
 import { createStream, drawDeviation, taskSeed } from "./random";
 import { studyRunSettings } from "./grid";
 import { histogram, summarize, wilsonInterval, type Histogram, type Summary } from "./stats";

@@ -4,7 +4,7 @@
 import { conditionsOf, stageFigures } from "@/lib/design";
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { CaptureNoiseEstimate } from "@/lib/studies/capture-noise";
-import type { Measure } from "@/lib/studies/schema";
+import type { Measure } from "@/lib/schemas/study";
 import { defaultMeasures } from "@/lib/studies/tolerance-spread";
 
 /** Two significant figures, so suggested values read like ones an engineer would type. */

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORD } from "@/lib/demo/accounts";
 import { parseScenario, type Scenario } from "@/lib/schemas/scenario";
 import { simulate } from "@/lib/sim";
-import { noiseMarginConfigSchema, toleranceSpreadConfigSchema, type StudyUpload } from "@/lib/studies/schema";
+import { noiseMarginConfigSchema, toleranceSpreadConfigSchema, type StudyUpload } from "@/lib/schemas/study";
 import { runStudyInProcess } from "@/lib/studies/study";
 import { summarizeNoiseMargin, type NoiseTaskOutput } from "@/lib/studies/noise-margin";
 import { signIn, startServer, type SignedIn, type TestServer } from "../helpers/server";

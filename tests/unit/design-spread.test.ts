@@ -119,7 +119,7 @@ describe("one worst case: design panel, summary and tolerance spread agree", () 
   it("gives the same corners for a designed battery cut-off with an auto reference", async () => {
     const { design } = await import("@/lib/design");
     const { studyCorners } = await import("@/lib/studies/corners");
-    const { toleranceSpreadConfigSchema } = await import("@/lib/studies/schema");
+    const { toleranceSpreadConfigSchema } = await import("@/lib/schemas/study");
     const d = design({
       schema: "railwise.design-spec/1",
       kind: "schmitt-inverting",

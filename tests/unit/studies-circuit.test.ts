@@ -4,7 +4,7 @@
 import { describe, expect, it } from "vitest";
 import { parseScenario } from "@/lib/schemas/scenario";
 import { simulate } from "@/lib/sim";
-import { toleranceSpreadConfigSchema, type DrawOutput } from "@/lib/studies/schema";
+import { toleranceSpreadConfigSchema, type DrawOutput } from "@/lib/schemas/study";
 import { drawPerturbation, summarizeToleranceSpread } from "@/lib/studies/tolerance-spread";
 import { runStudyInProcess } from "@/lib/studies/study";
 import { studyCorners } from "@/lib/studies/corners";

@@ -14,7 +14,7 @@ import { describe, expect, it } from "vitest";
 import { binomialDistribution, errorFunction } from "simple-statistics";
 import { parseScenario } from "@/lib/schemas/scenario";
 import { simulate } from "@/lib/sim";
-import { noiseMarginConfigSchema } from "@/lib/studies/schema";
+import { noiseMarginConfigSchema } from "@/lib/schemas/study";
 import { noiseLevels, summarizeNoiseMargin, RULE_OF_THUMB_FACTOR } from "@/lib/studies/noise-margin";
 import { runStudyInProcess } from "@/lib/studies/study";
 import type { NoiseTaskOutput } from "@/lib/studies/noise-margin";

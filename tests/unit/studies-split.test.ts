@@ -5,7 +5,7 @@ import { describe, expect, it } from "vitest";
 import { parseScenario } from "@/lib/schemas/scenario";
 import { simulate } from "@/lib/sim";
 import { DEMO_SCENARIOS } from "@/lib/demo/scenarios";
-import { noiseMarginConfigSchema, toleranceSpreadConfigSchema } from "@/lib/studies/schema";
+import { noiseMarginConfigSchema, toleranceSpreadConfigSchema } from "@/lib/schemas/study";
 import { runStudyTasks, splitTasks, studyTaskCount, type StudyRequest, type TaskOutput } from "@/lib/studies/study";
 
 function runSplit(request: StudyRequest, workers: number): TaskOutput[] {

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { BoardsView } from "@/components/boards/boards-view";
-import { requirePageUser } from "@/lib/page-session";
+import { requirePageUser } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Boards" };
 

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { CapturesView } from "@/components/captures/captures-view";
-import { canEdit, requirePageUser } from "@/lib/page-session";
+import { canEdit, requirePageUser } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Captures" };
 

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { PartsView } from "@/components/parts/parts-view";
-import { canEdit, requirePageUser } from "@/lib/page-session";
+import { canEdit, requirePageUser } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Part library" };
 

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { ReviewQueueView } from "@/components/review/review-queue";
-import { requirePageUser } from "@/lib/page-session";
+import { requirePageUser } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Review queue" };
 

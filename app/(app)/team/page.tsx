@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { TeamView } from "@/components/team/team-view";
-import { requirePageUser } from "@/lib/page-session";
+import { requirePageUser } from "@/lib/server/session";
 import { mailboxVisible } from "@/lib/server/mailbox";
 
 export const metadata: Metadata = { title: "Team" };

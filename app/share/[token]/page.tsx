@@ -6,7 +6,7 @@ import { SharedRun } from "@/components/review/shared-run";
 import { AppError } from "@/lib/server/errors";
 import { runForLinkToken } from "@/lib/server/review";
 import type { RunRecord } from "@/lib/client/hooks";
-import { getPageUser } from "@/lib/page-session";
+import { getPageUser } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Shared run", robots: { index: false, follow: false } };
 // Checked on every request: a revoked or expired link stops working at once.

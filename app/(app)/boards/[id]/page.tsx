@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { BoardView } from "@/components/boards/board-view";
-import { canEdit, requirePageUser } from "@/lib/page-session";
+import { canEdit, requirePageUser } from "@/lib/server/session";
 import { requireTeamItemOr404 } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Board" };

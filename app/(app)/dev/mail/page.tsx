@@ -5,7 +5,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { listMailboxFor, mailboxVisible, mailDir } from "@/lib/server/mailbox";
 import { smtpUrl } from "@/lib/server/mail";
-import { requirePageUser } from "@/lib/page-session";
+import { requirePageUser } from "@/lib/server/session";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Mailbox" };

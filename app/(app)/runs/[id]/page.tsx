@@ -3,7 +3,7 @@ import { RunScreen } from "@/components/run/run-screen";
 import { ReviewPanel } from "@/components/review/review-panel";
 import { RunReviewState } from "@/components/review/run-review-state";
 import { ButtonLink } from "@/components/ui/button";
-import { requirePageUser } from "@/lib/page-session";
+import { requirePageUser } from "@/lib/server/session";
 import { RunStudies } from "@/components/studies/run-studies";
 import { requireTeamItemOr404 } from "@/lib/server/session";
 

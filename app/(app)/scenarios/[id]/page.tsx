@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { ScenarioWorkbench } from "@/components/workbench/workbench";
 import { ScenarioReadOnly } from "@/components/workbench/scenario-readonly";
-import { canEdit, requirePageUser } from "@/lib/page-session";
+import { canEdit, requirePageUser } from "@/lib/server/session";
 import { requireTeamItemOr404 } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Scenario" };

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { ReportView } from "@/components/review/report-view";
 import { requireTeamItemOr404 } from "@/lib/server/session";
-import { requirePageUser } from "@/lib/page-session";
+import { requirePageUser } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Design review report" };
 

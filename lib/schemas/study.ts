@@ -1,9 +1,8 @@
 // zod shapes of the studies (`railwise.study/1`): configurations sent to the workers and the
 // saved study stored with a run. All values in SI units (V, Hz, s); tolerances as fractions.
 import { z } from "zod";
+import { finite } from "./units";
 
-const finite = (what: string) =>
-  z.number({ error: `${what} must be a number` }).refine(Number.isFinite, { message: `${what} must be finite` });
 const seed = z
   .number({ error: "seed must be a whole number" })
   .int({ message: "seed must be a whole number" })
