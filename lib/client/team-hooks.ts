@@ -2,47 +2,14 @@
 import useSWR from "swr";
 import { fetchJson } from "./fetcher";
 import type { CommentJson, InvitationJson, MemberJson, RunLinkJson, SignoffJson } from "@/lib/schemas/team";
-import type { OpAmp } from "@/lib/schemas/scenario";
+import type { AuditJson, CaptureJson, CaptureSummaryJson, ListOf, PartProfileJson } from "@/lib/schemas/responses";
 
-export interface ListOf<T> {
-  items: T[];
-}
-
-export interface AuditEntryJson {
-  id: string;
-  action: string;
-  actorId: string | null;
-  actorName: string | null;
-  targetType: string | null;
-  targetId: string | null;
-  details: unknown;
-  createdAt: string;
-}
-
-export interface PartProfileRecord {
-  id: string;
-  name: string;
-  opamp: OpAmp;
-  createdAt: string;
-  updatedAt: string;
-}
-
-export interface CaptureSummary {
-  id: string;
-  name: string;
-  sourceFilename: string | null;
-  columns: { time: string; value: string };
-  points: number;
-  start: number;
-  duration: number;
-  min: number;
-  max: number;
-  createdAt: string;
-}
-
-export interface CaptureRecord extends CaptureSummary {
-  samples: [number, number][];
-}
+// Response types come from the schemas (lib/schemas/responses.ts); the old names stay as aliases.
+export type { ListOf };
+export type AuditEntryJson = AuditJson;
+export type PartProfileRecord = PartProfileJson;
+export type CaptureSummary = CaptureSummaryJson;
+export type CaptureRecord = CaptureJson;
 
 const get = <T>(url: string) => fetchJson<T>(url);
 const quiet = { revalidateOnFocus: false };
