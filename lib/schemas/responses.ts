@@ -45,7 +45,7 @@ export const auditEntrySchema = z.strictObject({
 });
 
 /** GET /api/parts items, GET/PUT /api/parts/:id, POST /api/parts: a named op-amp parameter set. */
-export const partProfileSchema = z.strictObject({
+export const partProfileJsonSchema = z.strictObject({
   id,
   name: z.string(),
   opamp: opampSchema,
@@ -58,4 +58,4 @@ export type ListOf<T> = { items: T[] };
 export type CaptureSummaryJson = z.infer<typeof captureSummarySchema>;
 export type CaptureJson = z.infer<typeof captureSchema>;
 export type AuditJson = z.infer<typeof auditEntrySchema>;
-export type PartProfileJson = z.infer<typeof partProfileSchema>;
+export type PartProfileJson = z.infer<typeof partProfileJsonSchema>;
