@@ -5,6 +5,7 @@ import "server-only";
 //   without a second query, and a signed-out or demoted cookie is already empty here;
 // - cross-site request forgery: state-changing requests must come from our own origin and carry
 //   a JSON (or multipart upload) body, or they are refused with 403 before anything is read.
+import { createHash } from "node:crypto";
 import { getServerSession } from "next-auth";
 import { QueryTypes } from "sequelize";
 import { authOptions } from "@/lib/auth";
@@ -158,8 +159,19 @@ export const INVITE_ADDRESS: RateRule = { maxFailures: 20, windowMs: 15 * 60_000
 export const tooManyRequests = (retryAfterS: number) =>
   new AppError("rate_limited", `Too many failed attempts; try again in ${Math.ceil(retryAfterS / 60)} min.`, undefined);
 
+/**
+ * The stored form of a rate-limit key: its kind ("signin:account:") and a SHA-256 of the rest,
+ * so a key of any length (a 320-character email) fits the column (varchar(255) on PostgreSQL)
+ * and the table holds no email addresses.
+ */
+export function rateKey(key: string): string {
+  const cut = key.lastIndexOf(":") + 1;
+  return `${key.slice(0, cut)}${createHash("sha256").update(key.slice(cut)).digest("hex")}`;
+}
+
 /** Seconds until `key` may try again, or 0 when it is not locked. */
-export async function lockedFor(key: string, now = Date.now()): Promise<number> {
+export async function lockedFor(rawKey: string, now = Date.now()): Promise<number> {
+  const key = rateKey(rawKey);
   const rows = await getSequelize().query<{ lockedUntil: number | string }>(
     `SELECT "lockedUntil" FROM "rate_limits" WHERE "key" = :key`,
     {
@@ -172,7 +184,8 @@ export async function lockedFor(key: string, now = Date.now()): Promise<number> 
 }
 
 /** Counts one failure against `key`; locks it once the rule's count is reached in its window. */
-export async function recordFailure(key: string, rule: RateRule, now = Date.now()): Promise<void> {
+export async function recordFailure(rawKey: string, rule: RateRule, now = Date.now()): Promise<void> {
+  const key = rateKey(rawKey);
   const sequelize = getSequelize();
   await sequelize.transaction(async (transaction) => {
     const rows = await sequelize.query<{ failures: number | string; windowStart: number | string }>(
@@ -194,8 +207,10 @@ export async function recordFailure(key: string, rule: RateRule, now = Date.now(
 }
 
 /** A success clears the key (the account's count, not the address's). */
-export async function clearFailures(key: string): Promise<void> {
-  await getSequelize().query(`DELETE FROM "rate_limits" WHERE "key" = :key`, { replacements: { key } });
+export async function clearFailures(rawKey: string): Promise<void> {
+  await getSequelize().query(`DELETE FROM "rate_limits" WHERE "key" = :key`, {
+    replacements: { key: rateKey(rawKey) },
+  });
 }
 
 /**
