@@ -3,6 +3,8 @@ import "server-only";
 import type { Transaction } from "sequelize";
 import { Op } from "sequelize";
 import { getModels } from "@/models";
+import type { AuditJson } from "@/lib/schemas/responses";
+export type { AuditJson };
 
 export interface AuditEntry {
   teamId: string | null;
@@ -25,19 +27,6 @@ export async function recordAudit(entry: AuditEntry, transaction?: Transaction):
     },
     { transaction },
   );
-}
-
-export interface AuditJson {
-  id: string;
-  action: string;
-  actorId: string | null;
-  actorName: string | null;
-  targetType: string | null;
-  targetId: string | null;
-  /** What the entry is about, in words: the member's name, or the run's label and scenario. */
-  targetName: string | null;
-  details: unknown;
-  createdAt: string;
 }
 
 export async function listAudit({ teamId, limit = 200 }: { teamId: string; limit?: number }): Promise<AuditJson[]> {

@@ -4,26 +4,10 @@ import { notFound } from "@/lib/server/errors";
 import { isId } from "@/lib/server/ids";
 import { recordAudit } from "@/lib/server/audit";
 import type { ParsedCapture } from "@/lib/captures/parse";
+import type { CaptureJson, CaptureSummaryJson } from "@/lib/schemas/responses";
+export type { CaptureJson, CaptureSummaryJson };
 
 // Measured waveforms uploaded as CSV, kept as [[t, v], ...] (s, V) for `capture` input components.
-
-export interface CaptureSummaryJson {
-  id: string;
-  name: string;
-  sourceFilename: string | null;
-  columns: { time: string; value: string };
-  points: number;
-  start: number;
-  duration: number;
-  min: number;
-  max: number;
-  createdBy: string | null;
-  createdAt: string;
-}
-
-export interface CaptureJson extends CaptureSummaryJson {
-  samples: [number, number][];
-}
 
 type CaptureRow = {
   id: string;

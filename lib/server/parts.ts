@@ -9,17 +9,10 @@ import { conflict, notFound } from "@/lib/server/errors";
 import { recordAudit } from "@/lib/server/audit";
 import type { PartProfileInput } from "@/lib/schemas/part";
 import type { OpAmp } from "@/lib/schemas/scenario";
+import type { PartProfileJson } from "@/lib/schemas/responses";
+export type { PartProfileJson };
 
 // Team part library: named op-amp parameter sets (the scenario's `opamp` object).
-
-export interface PartProfileJson {
-  id: string;
-  name: string;
-  opamp: OpAmp;
-  createdBy: string | null;
-  createdAt: string;
-  updatedAt: string;
-}
 
 type PartRow = { id: string; name: string; params: unknown; createdBy: unknown; createdAt: Date; updatedAt: Date };
 
