@@ -13,8 +13,6 @@ export interface IssueJson {
   code?: string;
 }
 
-export { ERROR_STATUS, type ErrorCode };
-
 /** A user-facing refusal: its HTTP status follows from its code (ERROR_STATUS, one table). */
 export class AppError extends Error {
   readonly status: number;
@@ -61,7 +59,7 @@ export function errorResponse(err: unknown): Response {
     const lines = describeIssues(err);
     return Response.json(
       { error: "invalid_input", message: `Invalid input: ${lines.join("; ")}`, issues: zodIssues(err) },
-      { status: 400 },
+      { status: ERROR_STATUS.invalid_input },
     );
   }
   const name = err instanceof Error ? err.name : "";
@@ -76,21 +74,27 @@ export function errorResponse(err: unknown): Response {
         error: "conflict",
         message: `That already exists${what}; it may have been saved at the same moment by another request.`,
       },
-      { status: 409 },
+      { status: ERROR_STATUS.conflict },
     );
   }
   if (name === "SequelizeForeignKeyConstraintError") {
-    return Response.json({ error: "conflict", message: "A referenced item no longer exists." }, { status: 409 });
+    return Response.json(
+      { error: "conflict", message: "A referenced item no longer exists." },
+      { status: ERROR_STATUS.conflict },
+    );
   }
   if (name === "SequelizeTimeoutError" || (err instanceof Error && /SQLITE_BUSY/.test(err.message))) {
     console.error("[railwise] database busy:", logText(err));
     return Response.json(
       { error: "busy", message: "The database is busy; try again." },
-      { status: 503, headers: { "Retry-After": "1" } },
+      { status: ERROR_STATUS.busy, headers: { "Retry-After": "1" } },
     );
   }
   console.error("[railwise] unexpected error:", logText(err));
-  return Response.json({ error: "internal", message: "Something went wrong on the server." }, { status: 500 });
+  return Response.json(
+    { error: "internal", message: "Something went wrong on the server." },
+    { status: ERROR_STATUS.internal },
+  );
 }
 
 /** Largest JSON body accepted (a scenario with a long capture fits well inside). */

@@ -20,7 +20,6 @@ declare global {
   /** One SMTP transport per process, kept across hot reloads in development. */
   var railwiseMailer: { url: string; transport: Transporter } | undefined;
 }
-const globalForMail = globalThis;
 
 export function smtpUrl(): string {
   return process.env.SMTP_URL || `smtp://127.0.0.1:${process.env.SMTP_SINK_PORT || "2525"}`;
@@ -28,14 +27,14 @@ export function smtpUrl(): string {
 
 function transport(): Transporter {
   const url = smtpUrl();
-  const cached = globalForMail.railwiseMailer;
+  const cached = globalThis.railwiseMailer;
   if (cached && cached.url === url) return cached.transport;
   const created = nodemailer.createTransport(url, {
     connectionTimeout: 5_000,
     greetingTimeout: 5_000,
     socketTimeout: 10_000,
   });
-  globalForMail.railwiseMailer = { url, transport: created };
+  globalThis.railwiseMailer = { url, transport: created };
   return created;
 }
 

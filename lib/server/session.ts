@@ -157,7 +157,7 @@ export const SIGN_IN_ADDRESS: RateRule = { maxFailures: 20, windowMs: 15 * 60_00
 export const INVITE_ADDRESS: RateRule = { maxFailures: 20, windowMs: 15 * 60_000, lockMs: 15 * 60_000 };
 
 export const tooManyRequests = (retryAfterS: number) =>
-  new AppError("rate_limited", `Too many failed attempts; try again in ${Math.ceil(retryAfterS / 60)} min.`, undefined);
+  new AppError("rate_limited", `Too many failed attempts; try again in ${Math.ceil(retryAfterS / 60)} min.`);
 
 /**
  * The stored form of a rate-limit key: its kind ("signin:account:") and a SHA-256 of the rest,

@@ -43,7 +43,6 @@ declare global {
   /** One pool per server process, kept across hot reloads in development. */
   var railwiseSimPool: Promise<PoolLike> | undefined;
 }
-const globalForPool = globalThis;
 
 function projectRoot(): string {
   return process.env.RAILWISE_ROOT || process.cwd();
@@ -101,13 +100,13 @@ async function createPool(): Promise<PoolLike> {
 }
 
 function pool(): Promise<PoolLike> {
-  if (!globalForPool.railwiseSimPool) {
-    globalForPool.railwiseSimPool = createPool().catch((err) => {
-      globalForPool.railwiseSimPool = undefined;
+  if (!globalThis.railwiseSimPool) {
+    globalThis.railwiseSimPool = createPool().catch((err) => {
+      globalThis.railwiseSimPool = undefined;
       throw err;
     });
   }
-  return globalForPool.railwiseSimPool;
+  return globalThis.railwiseSimPool;
 }
 
 /** Starts the pool (and bundles the worker) ahead of the first run; failures surface on use. */

@@ -2,7 +2,7 @@
 // closed form (tests/REFERENCES.md) and, where it can run, against odex.
 import { describe, expect, it } from "vitest";
 import { parseScenario } from "@/lib/schemas/scenario";
-import { SimFailed, simulate } from "@/lib/sim";
+import { SimFailed, simulate, type SimResult } from "@/lib/sim";
 
 const PART = {
   openLoopGain: 200000,
@@ -113,16 +113,25 @@ describe("every run is bounded", () => {
 });
 
 describe("fuzz finds (tests/unit/sim-fuzz-gen.ts seeds)", () => {
+  /**
+   * odex (independent integrator) as the reference: the same number of output events, each
+   * within 1e-6 of the run (and of the same edge with `edges`), and the clipped share within 1e-5.
+   */
+  const expectAgreesWithOdex = (a: SimResult, b: SimResult, duration: number, { edges = false } = {}) => {
+    expect(Math.abs(a.metrics.clippedFraction - b.metrics.clippedFraction)).toBeLessThan(1e-5);
+    expect(a.events.length).toBe(b.events.length);
+    for (let i = 0; i < a.events.length; i++) {
+      if (edges) expect(a.events[i].edge).toBe(b.events[i].edge);
+      expect(Math.abs(a.events[i].time - b.events[i].time)).toBeLessThan(1e-6 * duration);
+    }
+  };
+
   it("seed 77: oscillator whose linear edge is a growing complex pair reaches the rail (was missed inside one scan chunk)", async () => {
     const { fuzzScenario } = await import("./sim-fuzz-gen");
     const { scenario } = fuzzScenario(77);
     const a = simulate(scenario, BUDGET);
     const b = simulate(scenario, { solver: "odex" });
-    // odex (independent integrator) as the reference, 1e-6 of the run on event times
-    expect(a.events.length).toBe(b.events.length);
-    for (let i = 0; i < a.events.length; i++)
-      expect(Math.abs(a.events[i].time - b.events[i].time)).toBeLessThan(1e-6 * scenario.run.duration);
-    expect(Math.abs(a.metrics.clippedFraction - b.metrics.clippedFraction)).toBeLessThan(1e-5);
+    expectAgreesWithOdex(a, b, scenario.run.duration);
   });
 
   it("seed 2483: output on the rail with a near-zero drive no longer creeps by one ulp per piece", async () => {
@@ -155,11 +164,7 @@ describe("fuzz finds (tests/unit/sim-fuzz-gen.ts seeds)", () => {
     // Positive feedback: the mid-level solution of vo = A0·vd is a balance any disturbance leaves
     // (common practice, no source); odex left it by rounding, the exact solver sat on it.
     expect([a.rails.low, a.rails.high]).toContain(a.output[0]);
-    // odex (independent integrator) as the reference, 1e-6 of the run on event times
-    expect(a.events.length).toBe(b.events.length);
-    for (let i = 0; i < a.events.length; i++)
-      expect(Math.abs(a.events[i].time - b.events[i].time)).toBeLessThan(1e-6 * scenario.run.duration);
-    expect(Math.abs(a.metrics.clippedFraction - b.metrics.clippedFraction)).toBeLessThan(1e-5);
+    expectAgreesWithOdex(a, b, scenario.run.duration);
   });
 
   it("seed 1946: a delayed pulse's edges are not lost to a one-ulp piece or a volts-wide boundary margin", async () => {
@@ -167,14 +172,8 @@ describe("fuzz finds (tests/unit/sim-fuzz-gen.ts seeds)", () => {
     const { scenario } = fuzzScenario(1946);
     const a = simulate(scenario, BUDGET);
     const b = simulate(scenario, { solver: "odex", maxSteps: 20_000 });
-    // odex (independent integrator) as the reference, 1e-6 of the run on event times, and the
-    // clipped share (the later edges once went wrong on the pulse's steep fall, where the
-    // closed form's large coefficients made the boundary margin volts wide)
-    expect(Math.abs(a.metrics.clippedFraction - b.metrics.clippedFraction)).toBeLessThan(1e-5);
-    expect(a.events.length).toBe(b.events.length);
-    for (let i = 0; i < a.events.length; i++) {
-      expect(a.events[i].edge).toBe(b.events[i].edge);
-      expect(Math.abs(a.events[i].time - b.events[i].time)).toBeLessThan(1e-6 * scenario.run.duration);
-    }
+    // Every edge, not only the first two: the later ones once went wrong on the pulse's steep
+    // fall, where the closed form's large coefficients made the boundary margin volts wide.
+    expectAgreesWithOdex(a, b, scenario.run.duration, { edges: true });
   });
 });
