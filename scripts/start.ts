@@ -13,6 +13,8 @@ import { startMailSink, type MailSink } from "./mail-sink";
 
 const root = ROOT;
 const nextBin = path.join(root, "node_modules", "next", "dist", "bin", "next");
+// Replaces client-written forwarding headers with the socket's address (scripts/peer-address.cjs).
+const peerAddress = path.join(root, "scripts", "peer-address.cjs");
 const distDir = process.env.NEXT_DIST_DIR || ".next";
 const port = Number(process.env.PORT || 3000);
 const host = process.env.HOST || "0.0.0.0";
@@ -84,7 +86,7 @@ async function main() {
   }
 
   const sink = await startSink();
-  const server = spawn(process.execPath, [nextBin, "start", "-p", String(port), "-H", host], {
+  const server = spawn(process.execPath, ["--require", peerAddress, nextBin, "start", "-p", String(port), "-H", host], {
     cwd: root,
     stdio: "inherit",
     env: { ...process.env, NEXT_DIST_DIR: distDir, NODE_ENV: "production" },

@@ -165,8 +165,9 @@ export const tooManyRequests = (retryAfterS: number) =>
  * and the table holds no email addresses.
  */
 export function rateKey(key: string): string {
-  const cut = key.lastIndexOf(":") + 1;
-  return `${key.slice(0, cut)}${createHash("sha256").update(key.slice(cut)).digest("hex")}`;
+  // The kind is the first two segments: an email or an IPv6 address may hold colons itself.
+  const kind = /^[a-z]+:[a-z]+:/.exec(key)?.[0] ?? "";
+  return `${kind}${createHash("sha256").update(key.slice(kind.length)).digest("hex")}`;
 }
 
 /** Seconds until `key` may try again, or 0 when it is not locked. */
@@ -214,13 +215,14 @@ export async function clearFailures(rawKey: string): Promise<void> {
 }
 
 /**
- * The caller's network address as the server saw it. Next's server puts the socket address in
- * x-forwarded-for (first entry) when no proxy set one; a trusted reverse proxy sets it too.
+ * The caller's network address. The server process (scripts/peer-address.cjs) sets
+ * x-forwarded-for to the socket's peer address, or keeps the one a trusted reverse proxy
+ * (RAILWISE_TRUSTED_PROXIES) wrote; the first entry is the client.
  */
 export function clientAddress(request: Request): string {
   const forwarded = request.headers.get("x-forwarded-for");
   const first = forwarded?.split(",")[0]?.trim();
-  return (first || request.headers.get("x-real-ip") || "unknown").slice(0, 64);
+  return (first || "unknown").slice(0, 64);
 }
 
 // ---- Pages for one item ----

@@ -146,7 +146,16 @@ export async function startServer({ env = {} }: { env?: Record<string, string> }
   // `next start` wrapper and the next-server child together.
   const child = spawn(
     process.execPath,
-    [path.join(ROOT, "node_modules/next/dist/bin/next"), "start", "-p", String(port), "-H", "127.0.0.1"],
+    [
+      "--require",
+      path.join(ROOT, "scripts/peer-address.cjs"),
+      path.join(ROOT, "node_modules/next/dist/bin/next"),
+      "start",
+      "-p",
+      String(port),
+      "-H",
+      "127.0.0.1",
+    ],
     {
       cwd: ROOT,
       detached: true,

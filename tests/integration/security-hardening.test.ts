@@ -4,6 +4,7 @@
 // sign-out / role-change revocation of a copied cookie, a GET on the credentials callback, a
 // chunked body cut off at the limit, malformed page paths, other teams' pages and the headers.
 import fs from "node:fs";
+import http from "node:http";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -17,8 +18,12 @@ import { EMAILS, setupTeam, waitForMail, type TeamFixture } from "@/tests/helper
 let server: TestServer;
 let fx: TeamFixture;
 
+// The test client on 127.0.0.1 stands in for a trusted reverse proxy: its x-forwarded-for
+// names the client (scripts/peer-address.cjs). Any other peer's own header is ignored.
+const AS_PROXY = { RAILWISE_TRUSTED_PROXIES: "127.0.0.1" };
+
 beforeAll(async () => {
-  server = await startServer();
+  server = await startServer({ env: AS_PROXY });
   fx = await setupTeam(server);
 });
 afterAll(async () => {
@@ -192,7 +197,71 @@ async function postCredentials(email: string, password: string, headers: Record<
   });
 }
 
+/** One request over a socket bound to `localAddress` (another loopback address than 127.0.0.1). */
+function requestFrom(
+  localAddress: string,
+  url: string,
+  { method = "GET", headers = {}, body }: { method?: string; headers?: Record<string, string>; body?: string },
+): Promise<{ status: number; setCookies: string[]; text: string }> {
+  return new Promise((resolve, reject) => {
+    const req = http.request(url, { method, headers, localAddress }, (res) => {
+      let text = "";
+      res.setEncoding("utf8");
+      res.on("data", (d: string) => (text += d));
+      res.on("end", () => resolve({ status: res.statusCode ?? 0, setCookies: res.headers["set-cookie"] ?? [], text }));
+    });
+    req.on("error", reject);
+    req.end(body);
+  });
+}
+
+/** A credentials sign-in sent from `localAddress`, an untrusted peer. */
+async function postCredentialsFrom(
+  localAddress: string,
+  email: string,
+  password: string,
+  headers: Record<string, string>,
+) {
+  const csrf = await requestFrom(localAddress, `${server.url}/api/auth/csrf`, {});
+  const cookie = csrf.setCookies.map((c) => c.split(";")[0]).join("; ");
+  const { csrfToken } = JSON.parse(csrf.text) as { csrfToken: string };
+  return requestFrom(localAddress, `${server.url}/api/auth/callback/credentials`, {
+    method: "POST",
+    headers: { "content-type": "application/x-www-form-urlencoded", cookie, ...headers },
+    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${server.url}/`, json: "true" }).toString(),
+  });
+}
+
 describe("sign-in rate limits (item 5)", () => {
+  it("an untrusted client's own x-forwarded-for is ignored: its failures count under its socket address", async () => {
+    // Without scripts/peer-address.cjs every attempt would name a fresh address and never lock.
+    for (let i = 0; i < 20; i++) {
+      const res = await postCredentialsFrom("127.0.0.2", `spoof${i}@nowhere.example`, "wrong", {
+        "x-forwarded-for": `10.9.${i}.1`,
+        "x-real-ip": `10.8.${i}.1`,
+      });
+      expect(res.status).not.toBe(429);
+    }
+    const locked = await postCredentialsFrom("127.0.0.2", EMAILS.designer, DEMO_PASSWORD, {
+      "x-forwarded-for": "10.9.99.1",
+    });
+    expect(locked.status).toBe(429);
+    expect(locked.setCookies.some((c) => /session-token=[^;]+/.test(c))).toBe(false);
+  });
+
+  it("a 320-character email is counted and locked like any other (its key is stored hashed)", async () => {
+    // RFC 5321 § 4.5.3.1: local part ≤ 64 and domain ≤ 255 octets, so 320 with the "@".
+    const email = `${"l".repeat(64)}@${"d".repeat(250)}.test`;
+    expect(email).toHaveLength(320);
+    for (let i = 0; i < 5; i++) {
+      const res = await postCredentials(email, "wrong", { "x-forwarded-for": `10.6.0.${i}` });
+      expect(res.status).toBeLessThan(500);
+      expect(res.status).not.toBe(429);
+    }
+    const locked = await postCredentials(email, "wrong", { "x-forwarded-for": "10.6.0.99" });
+    expect(locked.status).toBe(429);
+  });
+
   it("5 wrong passwords lock the account: 429 with Retry-After, even with the right password", async () => {
     const email = EMAILS.reviewer;
     for (let i = 0; i < 5; i++) {
@@ -375,7 +444,7 @@ describe("rate limits hold across a restart (item 5)", () => {
       // PostgreSQL: a second server process on the same database (stop() of the first would
       // drop it); the lock is read from the shared table, not from the first process.
       const first = server;
-      server = await startServer({ env: { DATABASE_URL: first.databaseUrl } });
+      server = await startServer({ env: { ...AS_PROXY, DATABASE_URL: first.databaseUrl } });
       try {
         expect((await postCredentials(email, DEMO_PASSWORD, { "x-forwarded-for": "10.4.0.51" })).status).toBe(429);
       } finally {
@@ -391,7 +460,7 @@ describe("rate limits hold across a restart (item 5)", () => {
     for (const suffix of ["", "-wal"])
       if (fs.existsSync(server.dbPath + suffix)) fs.copyFileSync(server.dbPath + suffix, copy + suffix);
     await server.stop();
-    server = await startServer({ env: { DATABASE_URL: `sqlite:${copy}` } });
+    server = await startServer({ env: { ...AS_PROXY, DATABASE_URL: `sqlite:${copy}` } });
     expect((await postCredentials(email, DEMO_PASSWORD, { "x-forwarded-for": "10.4.0.51" })).status).toBe(429);
   });
 });
