@@ -15,6 +15,7 @@ import {
   type TimeUnit,
 } from "@/lib/captures/parse";
 import { CaptureSparkline } from "./capture-sparkline";
+import { contentKeys } from "@/lib/workbench/row-ids";
 
 interface Loaded {
   file: File;
@@ -120,6 +121,10 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
     }
   }
 
+  // The file's columns and first rows are only shown, never reordered: they key on their content.
+  const columnKeys = useMemo(() => contentKeys(loaded?.columns ?? []), [loaded]);
+  const rowKeys = useMemo(() => contentKeys(loaded?.preview ?? [], (r) => r.join("\t")), [loaded]);
+
   return (
     <form onSubmit={submit} className="flex flex-col gap-3" aria-label="Upload a capture">
       <Field
@@ -146,7 +151,7 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
             <Field label="Time column" htmlFor="capture-time">
               <Select id="capture-time" value={timeColumn} onChange={(e) => setTimeColumn(Number(e.target.value))}>
                 {loaded.columns.map((c, i) => (
-                  <option key={i} value={i}>
+                  <option key={columnKeys[i]} value={i}>
                     {c}
                   </option>
                 ))}
@@ -164,7 +169,7 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
             <Field label="Volts column" htmlFor="capture-volts">
               <Select id="capture-volts" value={voltsColumn} onChange={(e) => setVoltsColumn(Number(e.target.value))}>
                 {loaded.columns.map((c, i) => (
-                  <option key={i} value={i}>
+                  <option key={columnKeys[i]} value={i}>
                     {c}
                   </option>
                 ))}
@@ -178,7 +183,7 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
                 <TR>
                   {loaded.columns.map((c, i) => (
                     <TH
-                      key={i}
+                      key={columnKeys[i]}
                       numeric
                       className={i === timeColumn ? "text-indigo" : i === voltsColumn ? "text-copper" : undefined}
                     >
@@ -189,10 +194,10 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
               </THead>
               <TBody>
                 {loaded.preview.map((row, r) => (
-                  <TR key={r}>
+                  <TR key={rowKeys[r]}>
                     {loaded.columns.map((_, i) => (
                       <TD
-                        key={i}
+                        key={columnKeys[i]}
                         numeric
                         className={i === timeColumn || i === voltsColumn ? "text-ink" : "text-ink-faint"}
                       >

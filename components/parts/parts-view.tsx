@@ -13,6 +13,7 @@ import { HttpError, errorMessage, sendJson } from "@/lib/client/fetcher";
 import { partsKey, useParts, type PartProfileRecord } from "@/lib/client/team-hooks";
 import { formatQuantity, parseQuantity } from "@/lib/design/notation";
 import { OPAMP_PARAMS, OPAMP_PARAM_INFO, partProfileSchema, partsToCsv, type OpampParam } from "@/lib/schemas/part";
+import { contentKeys } from "@/lib/workbench/row-ids";
 
 // Slew rates are typed and shown in V/µs (the unit every datasheet-reader thinks in); data stays SI.
 const UI_SCALE: Partial<Record<OpampParam, { unit: string; factor: number }>> = {
@@ -348,8 +349,8 @@ function ImportDialog({ onClose, onImported }: { onClose: () => void; onImported
       />
       {problems.length > 0 && (
         <ul role="alert" className="mt-3 list-disc pl-5 text-[13px] text-alert">
-          {problems.map((p, i) => (
-            <li key={i}>{p}</li>
+          {contentKeys(problems).map((key, i) => (
+            <li key={key}>{problems[i]}</li>
           ))}
         </ul>
       )}

@@ -19,8 +19,8 @@ import {
   designedMarks,
   measuredGain,
   minMax,
-} from "@/components/workbench/readings-logic";
-import { KIND_INFO } from "@/components/workbench/stage-kinds";
+} from "@/lib/workbench/readings-logic";
+import { KIND_INFO } from "@/lib/workbench/stage-kinds";
 import { billOfMaterials } from "@/lib/design/bom";
 import { type CircuitWorstCase, circuitWorstCase } from "@/lib/design/spread";
 import { formatQuantity } from "@/lib/design/notation";
@@ -31,6 +31,7 @@ import { DECISION_LABEL } from "@/lib/schemas/team";
 import type { SavedStudy } from "@/lib/studies/saved";
 import { NotFoundNote } from "./not-found-note";
 import { PlotImage, type PlotSpec } from "./plot-image";
+import { contentKeys } from "@/lib/workbench/row-ids";
 
 type Versioned = RunRecord & { scenarioVersion?: number | null };
 
@@ -60,13 +61,16 @@ function Section({ title, children, className = "" }: { title: string; children:
 }
 
 function SmallTable({ head, rows, label }: { head: string[]; rows: ReactNode[][]; label: string }) {
+  // A static table: the header names key the columns, the first cell keys a row.
+  const colKeys = contentKeys(head);
+  const rowKeys = contentKeys(rows, (r) => (typeof r[0] === "string" ? r[0] : "row"));
   return (
     <table className="w-full border-collapse text-[12px]" aria-label={label}>
       <thead>
         <tr>
           {head.map((h, i) => (
             <th
-              key={i}
+              key={colKeys[i]}
               className={`border-b border-paper-line px-1.5 py-1 font-medium text-ink-soft ${i === 0 ? "text-left" : "text-right"}`}
             >
               {h}
@@ -76,10 +80,10 @@ function SmallTable({ head, rows, label }: { head: string[]; rows: ReactNode[][]
       </thead>
       <tbody>
         {rows.map((r, i) => (
-          <tr key={i} className="align-top">
+          <tr key={rowKeys[i]} className="align-top">
             {r.map((c, j) => (
               <td
-                key={j}
+                key={colKeys[j] ?? `extra${j}`}
                 className={`border-b border-paper-line/60 px-1.5 py-1 ${j === 0 ? "text-left" : "text-right font-mono whitespace-nowrap"}`}
               >
                 {c}

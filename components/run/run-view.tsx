@@ -15,11 +15,11 @@ import { TimePlot } from "@/components/plots/time-plot";
 import { LoopPlot } from "@/components/plots/loop-plot";
 import { StageDiagram } from "@/components/workbench/stage-diagram";
 import { ReadingsTable } from "@/components/workbench/readings-table";
-import { buildChecks, buildWarnings, designedMarks, measuredGain, minMax } from "@/components/workbench/readings-logic";
-import { KIND_INFO } from "@/components/workbench/stage-kinds";
+import { buildChecks, buildWarnings, designedMarks, measuredGain, minMax } from "@/lib/workbench/readings-logic";
+import { capacitorOf, designedFigures, isAmplifierKind } from "@/lib/workbench/readings-logic";
+import { KIND_INFO } from "@/lib/workbench/stage-kinds";
 import { slug, traceSource } from "@/components/workbench/result-panels";
 import { extraSampleColumns } from "@/lib/workbench/source-readings";
-import { capacitorOf, designedFigures, isAmplifierKind } from "@/lib/workbench/readings-logic";
 import { personName, type RunRecord } from "@/lib/client/hooks";
 
 export interface RunViewProps {

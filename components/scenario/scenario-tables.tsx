@@ -17,6 +17,7 @@ import {
   roleWhere,
   type StageRole,
 } from "./stage-labels";
+import { contentKeys } from "@/lib/workbench/row-ids";
 
 const q = (v: number, unit: string, digits = 4) => formatQuantity(v, unit, digits);
 const volts = (v: number) => q(v, "V");
@@ -181,6 +182,9 @@ export function RunTable({ scenario }: ScenarioTablesProps) {
 
 export function InputTable({ scenario }: ScenarioTablesProps) {
   const { components, noise } = scenario.input;
+  // Read-only rows: each keys on its kind and parameters.
+  const params = components.map((c) => componentParams(c as InputComponent));
+  const keys = contentKeys(components, (c, k) => `${c.kind}:${JSON.stringify(params[k])}`);
   return (
     <Card title="Input signal" description="Sum of the components below, plus noise" padded={false}>
       <Table>
@@ -193,11 +197,11 @@ export function InputTable({ scenario }: ScenarioTablesProps) {
         </THead>
         <TBody>
           {components.map((c, i) => (
-            <TR key={i}>
+            <TR key={keys[i]}>
               <TD className="font-mono text-ink-mute">{i + 1}</TD>
               <TD className="font-medium">{COMPONENT_LABEL[c.kind]}</TD>
               <TD>
-                <ParamList items={componentParams(c as InputComponent)} />
+                <ParamList items={params[i]} />
               </TD>
             </TR>
           ))}

@@ -3,7 +3,7 @@
 // worker pool (one worker per core, progress over the whole study, Cancel stops every worker),
 // the answer as a chart and a number, and "Save with a new run" so reviewers can open it by link.
 import Link from "next/link";
-import { memo, useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore } from "react";
+import { memo, useCallback, useEffect, useMemo, useReducer, useRef, useState, useSyncExternalStore } from "react";
 import { Card } from "@/components/ui/card";
 import { Button } from "@/components/ui/button";
 import { Section, SelectRow, Tabs } from "@/components/workbench/controls";
@@ -13,7 +13,7 @@ import { runStudyInPool, StudyCancelled, defaultPoolSize } from "@/lib/client/st
 import type { Scenario } from "@/lib/schemas/scenario";
 import { estimateCaptureNoise, type CaptureNoiseEstimate } from "@/lib/studies/capture-noise";
 import { studyCorners } from "@/lib/studies/corners";
-import { summarizeNoiseMargin, type NoiseMarginSummary, type NoiseTaskOutput } from "@/lib/studies/noise-margin";
+import { summarizeNoiseMargin, type NoiseTaskOutput } from "@/lib/studies/noise-margin";
 import {
   noiseMarginConfigSchema,
   toleranceSpreadConfigSchema,
@@ -23,28 +23,23 @@ import {
   type StudyUpload,
   type ToleranceSpreadConfig,
 } from "@/lib/schemas/study";
-import { summarizeToleranceSpread, type ToleranceSpreadSummary } from "@/lib/studies/tolerance-spread";
+import { summarizeToleranceSpread } from "@/lib/studies/tolerance-spread";
+import {
+  initialStudiesState,
+  studiesReducer,
+  studiesStale,
+  studySaveBlocked,
+  type StudyTab,
+} from "@/lib/workbench/studies-state";
 import { MEASURE_LABEL, MEASURE_UNIT } from "./study-plots";
 import { inputRange, studyIssueText, suggestNoise, suggestTolerance } from "@/lib/workbench/study-suggest";
 import { NoiseMarginResult, ToleranceSpreadResult, fmtV } from "./study-readouts";
 
-type StudyTab = "noise" | "tolerance";
-
-interface Done<C, T, S> {
-  /** JSON of the scenario the study ran on, to tell when the editor has moved on. */
-  on: string;
-  config: C;
-  tasks: T[];
-  summary: S;
-  wallMs: number;
-  workers: number;
-}
-type NoiseDone = Done<NoiseMarginConfig, NoiseTaskOutput, NoiseMarginSummary>;
-type ToleranceDone = Done<ToleranceSpreadConfig, DrawOutput, ToleranceSpreadSummary>;
-
 export interface StudiesCardProps {
   /** The scenario to study (already parsed); null while the editor holds an invalid draft. */
   scenario: Scenario | null;
+  /** Changes whenever the scenario does (the workbench's draft revision): a study of an older one is out of date. */
+  revision: number;
   /** Why saving is not possible right now (unsaved edits, role), or null. */
   saveBlocked: string | null;
   /** Create a run of the saved scenario and store the study with it; resolves to the run id. */
@@ -104,15 +99,10 @@ function StudyProgress({ store, onCancel }: { store: ProgressStore; onCancel: ()
 const NoiseResultMemo = memo(NoiseMarginResult);
 const ToleranceResultMemo = memo(ToleranceSpreadResult);
 
-export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: StudiesCardProps) {
-  const [tab, setTab] = useState<StudyTab>("noise");
-  const [noise, setNoise] = useState<NoiseDone | null>(null);
-  const [tolerance, setTolerance] = useState<ToleranceDone | null>(null);
-  const [running, setRunning] = useState<StudyTab | null>(null);
+export function StudiesCard({ scenario, revision, saveBlocked, onSave, beforeRun }: StudiesCardProps) {
+  const [state, dispatch] = useReducer(studiesReducer, initialStudiesState);
+  const { tab, noise, tolerance, running, error, saved, saving } = state;
   const [progress] = useState(createProgress);
-  const [error, setError] = useState<string | null>(null);
-  const [saved, setSaved] = useState<{ runId: string } | null>(null);
-  const [saving, setSaving] = useState(false);
   const abort = useRef<AbortController | null>(null);
   const started = useRef(0);
 
@@ -139,14 +129,12 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
   async function run(which: StudyTab, config: NoiseMarginConfig | ToleranceSpreadConfig) {
     if (!scenario) return;
     if (beforeRun && !beforeRun()) return;
-    setError(null);
-    setSaved(null);
-    setRunning(which);
+    dispatch({ type: "started", which });
     progress.set({ done: 0, total: 0 });
     const ac = new AbortController();
     abort.current = ac;
     started.current = performance.now();
-    const on = JSON.stringify(scenario);
+    const on = revision;
     try {
       // Progress repaints at most ~8 times a second: the main thread stays free for the user.
       let last = 0;
@@ -159,33 +147,41 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
       const out = await runStudyInPool({ scenario, config }, { signal: ac.signal, onProgress });
       if (config.kind === "noise-margin") {
         const tasks = out.tasks as NoiseTaskOutput[];
-        setNoise({
-          on,
-          config,
-          tasks,
-          summary: summarizeNoiseMargin(config, tasks),
-          wallMs: out.wallMs,
-          workers: out.workers,
+        dispatch({
+          type: "noiseDone",
+          done: {
+            on,
+            config,
+            tasks,
+            summary: summarizeNoiseMargin(config, tasks),
+            wallMs: out.wallMs,
+            workers: out.workers,
+          },
         });
       } else {
         const tasks = out.tasks as DrawOutput[];
-        setTolerance({
-          on,
-          config,
-          tasks,
-          summary: summarizeToleranceSpread(config, tasks, studyCorners(scenario, config)),
-          wallMs: out.wallMs,
-          workers: out.workers,
+        dispatch({
+          type: "toleranceDone",
+          done: {
+            on,
+            config,
+            tasks,
+            summary: summarizeToleranceSpread(config, tasks, studyCorners(scenario, config)),
+            wallMs: out.wallMs,
+            workers: out.workers,
+          },
         });
       }
     } catch (e) {
-      setError(
-        e instanceof StudyCancelled
-          ? "Study cancelled; every worker was stopped."
-          : `Study failed — ${errorMessage(e)}`,
-      );
+      dispatch({
+        type: "failed",
+        message:
+          e instanceof StudyCancelled
+            ? "Study cancelled; every worker was stopped."
+            : `Study failed — ${errorMessage(e)}`,
+      });
     } finally {
-      setRunning(null);
+      dispatch({ type: "stopped" });
       abort.current = null;
     }
   }
@@ -203,20 +199,16 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
         wallMs: tolerance.wallMs,
         workers: tolerance.workers,
       };
-    setSaving(true);
-    setError(null);
+    dispatch({ type: "saveStarted" });
     try {
-      setSaved({ runId: await onSave(upload) });
+      dispatch({ type: "saved", runId: await onSave(upload) });
     } catch (e) {
-      setError(`Not saved — ${errorMessage(e)}`);
-    } finally {
-      setSaving(false);
+      dispatch({ type: "saveFailed", message: `Not saved — ${errorMessage(e)}` });
     }
   };
 
-  const current = useMemo(() => (scenario ? JSON.stringify(scenario) : ""), [scenario]);
-  const stale = (noise && noise.on !== current) || (tolerance && tolerance.on !== current);
-  const blocked = stale ? "The scenario changed since these studies ran: run them again." : saveBlocked;
+  const blocked = studySaveBlocked(state, revision, saveBlocked);
+  const none = !(noise || tolerance);
   return (
     <Card
       title="Studies"
@@ -225,19 +217,19 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
       className="min-w-0"
       actions={
         <span className="flex items-center gap-2">
-          {blocked && (noise || tolerance) ? (
-            <span className="text-[12px] text-caution" data-testid="study-save-blocked">
+          {blocked ? (
+            <span
+              className={`text-[12px] ${none || running ? "text-ink-mute" : "text-caution"}`}
+              data-testid="study-save-blocked"
+              data-stale={studiesStale(state, revision) || undefined}
+            >
               {blocked}
-            </span>
-          ) : !(noise || tolerance) ? (
-            <span className="text-[12px] text-ink-mute" data-testid="study-save-blocked">
-              Run a study first; then save it with a new run.
             </span>
           ) : null}
           <Button
             size="sm"
             variant="primary"
-            disabled={!(noise || tolerance) || !!blocked || saving || !!running}
+            disabled={!!blocked || saving}
             onClick={() => void save()}
             data-testid="save-study-button"
           >
@@ -250,7 +242,7 @@ export function StudiesCard({ scenario, saveBlocked, onSave, beforeRun }: Studie
         <Tabs<StudyTab>
           label="Studies"
           value={tab}
-          onChange={setTab}
+          onChange={(t) => dispatch({ type: "tab", tab: t })}
           tabs={[
             { id: "noise", label: "Noise margin study" },
             { id: "tolerance", label: "Tolerance spread" },

@@ -21,6 +21,7 @@ export function WorkbenchStudies() {
     const r = scenarioSchema.safeParse(draft);
     return r.success ? r.data : null;
   }, [draft]);
+  const revision = useWb((s) => s.revision);
   const dirty = useWb((s) => s.revision !== s.savedRevision);
   const onSave = async (upload: StudyUpload) => {
     const run = await sendJson<RunRecord>("/api/runs", "POST", { scenarioId, label: "with studies" });
@@ -31,6 +32,7 @@ export function WorkbenchStudies() {
   return (
     <StudiesCard
       scenario={scenario}
+      revision={revision}
       beforeRun={() => !refuseIfInvalid(api, ["scenario", "study"], "Study run")}
       saveBlocked={dirty ? "Save the scenario first: the run is made from the saved version." : null}
       onSave={onSave}

@@ -8,8 +8,8 @@ import { cx } from "./cx";
 export function LoadingRows({ rows = 3, className }: { rows?: number; className?: string }) {
   return (
     <div aria-busy="true" aria-label="Loading" className={cx("flex flex-col gap-2 p-4", className)}>
-      {Array.from({ length: rows }, (_, i) => (
-        <div key={i} className="h-5 animate-pulse rounded bg-paper-sunk" style={{ width: `${90 - i * 12}%` }} />
+      {Array.from({ length: rows }, (_, k) => 90 - k * 12).map((width) => (
+        <div key={width} className="h-5 animate-pulse rounded bg-paper-sunk" style={{ width: `${width}%` }} />
       ))}
     </div>
   );

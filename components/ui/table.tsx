@@ -1,5 +1,6 @@
 import type { ComponentProps, ReactNode } from "react";
 import { cx } from "./cx";
+import { contentKeys } from "@/lib/workbench/row-ids";
 
 /** Scrolls sideways on narrow screens instead of squeezing columns. */
 export function Table({ className, children, ...rest }: ComponentProps<"table">) {
@@ -53,12 +54,13 @@ export interface KeyValueRow {
 
 /** Two-column "label | value" table for reading parameters. */
 export function KeyValueTable({ rows, caption }: { rows: KeyValueRow[]; caption?: string }) {
+  const keys = contentKeys(rows, (r) => (typeof r.label === "string" ? r.label : "row"));
   return (
     <table className="w-full border-collapse text-[13px]">
       {caption && <caption className="sr-only">{caption}</caption>}
       <tbody className="divide-y divide-paper-line">
         {rows.map((r, i) => (
-          <tr key={i}>
+          <tr key={keys[i]}>
             <th scope="row" className="w-[45%] py-1.5 pr-3 text-left font-normal text-ink-mute">
               {r.label}
             </th>

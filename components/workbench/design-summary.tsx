@@ -20,8 +20,8 @@ import { formatQuantity } from "@/lib/design/notation";
 import { scenarioSchema, type Scenario } from "@/lib/schemas/scenario";
 import { StageDiagram } from "./stage-diagram";
 import { ReadingsTable } from "./readings-table";
-import { buildChecks, buildWarnings, measuredGain, minMax } from "./readings-logic";
-import { KIND_INFO } from "./stage-kinds";
+import { buildChecks, buildWarnings, measuredGain, minMax } from "@/lib/workbench/readings-logic";
+import { KIND_INFO } from "@/lib/workbench/stage-kinds";
 
 const FIGURE_LABEL: Record<FigureName, { label: string; unit: string }> = {
   upperThreshold: { label: "Upper switching point", unit: "V" },

@@ -14,6 +14,7 @@ import {
   type Rails,
   type Warning,
 } from "@/lib/workbench/readings-logic";
+import { contentKeys } from "@/lib/workbench/row-ids";
 
 const fmt = (v: number | null | undefined, unit: string, digits = 4) =>
   v == null || !Number.isFinite(v) ? "—" : formatQuantity(v, unit, digits);
@@ -124,6 +125,7 @@ export function ReadingsTable({
   amplifier?: AmplifierReadings;
 }) {
   const amp = scenario && isAmplifierKind(scenario.stage.kind);
+  const warningKeys = contentKeys(warnings, (w) => w.text);
   const rows: Row[] = amp
     ? amplifierRows(
         metrics,
@@ -221,7 +223,7 @@ export function ReadingsTable({
         <ul className="mb-3 space-y-1.5" data-testid="warnings">
           {warnings.map((w, i) => (
             <li
-              key={i}
+              key={warningKeys[i]}
               className={cx(
                 "rounded border-l-[3px] px-2 py-1 text-[12.5px] leading-snug",
                 w.level === "alert" && "border-alert bg-alert-soft/60 text-ink",

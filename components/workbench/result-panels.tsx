@@ -16,7 +16,7 @@ import {
   measuredGain,
 } from "@/lib/workbench/readings-logic";
 import { ReadingsTable } from "./readings-table";
-import { KIND_INFO } from "./stage-kinds";
+import { KIND_INFO } from "@/lib/workbench/stage-kinds";
 import { sourceTerms } from "@/lib/workbench/source-readings";
 import type { Scenario } from "@/lib/schemas/scenario";
 import { markFirstPlot } from "./use-runner";

@@ -1,13 +1,13 @@
 "use client";
 // "Signal": the input as a list of waveform components (added, removed, reordered, edited),
 // optional seeded noise, the run settings, and a small preview of the summed input.
-import { useMemo, useRef, useState } from "react";
+import { useMemo, useState } from "react";
 import type { InputComponent, Scenario } from "@/lib/schemas/scenario";
 import { InputSignal, evaluateInputSignal } from "@/lib/sim/signals";
 import { formatQuantity } from "@/lib/design/notation";
 import { QuantityField } from "./quantity-field";
 import { MiniButton, Section, SelectRow } from "./controls";
-import { useWb } from "./store";
+import { useWb, useWbApi } from "./store";
 import { CapturePicker } from "@/components/captures/capture-picker";
 
 type Kind = InputComponent["kind"];
@@ -60,13 +60,14 @@ const ADDABLE: Kind[] = ["dc", "sine", "triangle", "ramp", "pulse", "pwl"];
 
 export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
   const components = useWb((s) => s.draft.input.components);
-  const edit = useWb((s) => s.edit);
+  const api = useWbApi();
+  const addInput = useWb((s) => s.addInput);
+  const removeInput = useWb((s) => s.removeInput);
+  const moveInput = useWb((s) => s.moveInput);
+  // Stable React keys per component (kept in the store): they follow a component when it moves
+  // or a neighbour is removed, so its fields keep their own text.
+  const ids = useWb((s) => s.inputIds.ids);
   const [adding, setAdding] = useState<Kind>("sine");
-  // Stable React keys per component: they follow a component when it moves or a neighbour is
-  // removed, so its fields keep their own text. A change of length from outside starts afresh.
-  const ids = useRef<number[]>([]);
-  const nextId = useRef(1);
-  if (ids.current.length !== components.length) ids.current = components.map(() => nextId.current++);
 
   return (
     <div data-testid="signal-panel">
@@ -90,12 +91,7 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
               </select>
               <MiniButton
                 disabled={components.length >= 64}
-                onClick={() => {
-                  ids.current = [...ids.current, nextId.current++];
-                  edit((d) => {
-                    d.input.components.push(freshComponent(adding, d as Scenario));
-                  });
-                }}
+                onClick={() => addInput(freshComponent(adding, api.getState().draft))}
               >
                 Add
               </MiniButton>
@@ -105,7 +101,7 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
       >
         <ol className="space-y-2">
           {components.map((c, i) => (
-            <li key={ids.current[i]} className="rounded border border-paper-line bg-paper/60 px-2 py-1.5">
+            <li key={ids[i]} data-row-id={ids[i]} className="rounded border border-paper-line bg-paper/60 px-2 py-1.5">
               <div className="mb-1 flex items-center justify-between gap-2">
                 <span className="text-[12.5px] font-medium text-ink">
                   <span className="mr-1.5 font-mono text-ink-faint">{i + 1}</span>
@@ -116,28 +112,14 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
                     <MiniButton
                       aria-label={`Move component ${i + 1} up`}
                       disabled={i === 0}
-                      onClick={() => {
-                        const k = ids.current;
-                        [k[i - 1], k[i]] = [k[i], k[i - 1]];
-                        edit((d) => {
-                          const a = d.input.components;
-                          [a[i - 1], a[i]] = [a[i], a[i - 1]];
-                        });
-                      }}
+                      onClick={() => moveInput(i, i - 1)}
                     >
                       ↑
                     </MiniButton>
                     <MiniButton
                       aria-label={`Move component ${i + 1} down`}
                       disabled={i === components.length - 1}
-                      onClick={() => {
-                        const k = ids.current;
-                        [k[i + 1], k[i]] = [k[i], k[i + 1]];
-                        edit((d) => {
-                          const a = d.input.components;
-                          [a[i + 1], a[i]] = [a[i], a[i + 1]];
-                        });
-                      }}
+                      onClick={() => moveInput(i, i + 1)}
                     >
                       ↓
                     </MiniButton>
@@ -145,12 +127,7 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
                       aria-label={`Remove component ${i + 1}`}
                       disabled={components.length <= 1}
                       title={components.length <= 1 ? "The input needs at least one component" : undefined}
-                      onClick={() => {
-                        ids.current = ids.current.filter((_, j) => j !== i);
-                        edit((d) => {
-                          d.input.components.splice(i, 1);
-                        });
-                      }}
+                      onClick={() => removeInput(i)}
                     >
                       Remove
                     </MiniButton>
@@ -164,13 +141,7 @@ export function SignalPanel({ readOnly = false }: { readOnly?: boolean }) {
         {readOnly || components.length >= 64 ? null : (
           <div className="mt-2 border-t border-paper-line pt-2">
             <p className="mb-1 text-[12px] text-ink-soft">Add a measured capture (team captures page)</p>
-            <CapturePicker
-              onPick={(component) =>
-                edit((d) => {
-                  d.input.components.push(component);
-                })
-              }
-            />
+            <CapturePicker onPick={addInput} />
           </div>
         )}
       </Section>

@@ -11,7 +11,7 @@ import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL } from "@/components/scenario/stage-
 import { QuantityField } from "./quantity-field";
 import { Section, SelectRow, MiniButton } from "./controls";
 import { StageDiagram } from "./stage-diagram";
-import { KIND_INFO, roleValue, stageRoles, switchStageKind, type ResistorRole } from "./stage-kinds";
+import { KIND_INFO, roleValue, stageRoles, switchStageKind, type ResistorRole } from "@/lib/workbench/stage-kinds";
 import { useWb, useWbShallow } from "./store";
 import { CircuitSections, ReferenceSection, syncReferenceDivider } from "@/components/circuit/circuit-sections";
 

@@ -6,7 +6,8 @@ import { createContext, useContext, useRef, type ReactNode } from "react";
 import { createStore, useStore, type StoreApi } from "zustand";
 import { immer } from "zustand/middleware/immer";
 import { useShallow } from "zustand/react/shallow";
-import type { Scenario } from "@/lib/schemas/scenario";
+import type { InputComponent, Scenario } from "@/lib/schemas/scenario";
+import { addRowId, fitRowIds, removeRowId, seedRowIds, swapRowIds, type RowIds } from "@/lib/workbench/row-ids";
 import type { SimEvent, SimMetrics, SimResult, SolverStats } from "@/lib/sim/types";
 
 export type RunStatus = "idle" | "running" | "done" | "error" | "cancelled" | "refused";
@@ -62,12 +63,22 @@ export interface WorkbenchState {
   resultRevision: number;
   /** Fields that are invalid right now, by a per-field key. */
   fieldProblems: Record<string, FieldProblem>;
+  /** Stable React keys of the draft's input components, one per component. */
+  inputIds: RowIds;
 
   setFieldProblem: (key: string, problem: FieldProblem | null) => void;
 
   edit: (recipe: (d: Scenario) => void) => void;
+  /** Input components added, removed or moved with their ids, so every other row keeps its key. */
+  addInput: (c: InputComponent) => void;
+  removeInput: (index: number) => void;
+  moveInput: (index: number, to: number) => void;
   replaceDraft: (s: Scenario) => void;
-  markSaved: (s: Scenario, version: number) => void;
+  /**
+   * The server holds `s` as `version`. `fromRevision`: the draft revision that was sent; when the
+   * draft moved on while the save was under way, those later edits stay in the draft (still unsaved).
+   */
+  markSaved: (s: Scenario, version: number, fromRevision?: number) => void;
   setPartName: (name: string | null) => void;
   runStarted: () => void;
   runProgress: (p: number) => void;
@@ -107,6 +118,7 @@ export function createWorkbenchStore(init: WorkbenchInit) {
       savedRevision: 0,
       resultRevision: -1,
       fieldProblems: {},
+      inputIds: seedRowIds(init.scenario.input.components.length),
 
       setFieldProblem: (key, problem) =>
         set((s) => {
@@ -116,17 +128,47 @@ export function createWorkbenchStore(init: WorkbenchInit) {
       edit: (recipe) =>
         set((s) => {
           recipe(s.draft as Scenario);
+          s.inputIds = fitRowIds(s.inputIds, s.draft.input.components.length);
+          s.revision++;
+        }),
+      addInput: (c) =>
+        set((s) => {
+          s.draft.input.components.push(c);
+          s.inputIds = addRowId(s.inputIds);
+          s.revision++;
+        }),
+      removeInput: (index) =>
+        set((s) => {
+          const list = s.draft.input.components;
+          if (index < 0 || index >= list.length || list.length <= 1) return;
+          list.splice(index, 1);
+          s.inputIds = removeRowId(s.inputIds, index);
+          s.revision++;
+        }),
+      moveInput: (index, to) =>
+        set((s) => {
+          const a = s.draft.input.components;
+          if (to < 0 || to >= a.length || index < 0 || index >= a.length) return;
+          [a[index], a[to]] = [a[to], a[index]];
+          s.inputIds = swapRowIds(s.inputIds, index, to);
           s.revision++;
         }),
       replaceDraft: (sc) =>
         set((s) => {
           s.draft = sc;
+          s.inputIds = fitRowIds(s.inputIds, sc.input.components.length);
           s.revision++;
         }),
-      markSaved: (sc, version) =>
+      markSaved: (sc, version, fromRevision) =>
         set((s) => {
           s.saved = sc;
+          s.version = version;
+          if (fromRevision !== undefined && fromRevision !== s.revision) {
+            s.savedRevision = fromRevision;
+            return;
+          }
           s.draft = sc;
+          s.inputIds = fitRowIds(s.inputIds, sc.input.components.length);
           s.version = version;
           s.savedRevision = s.revision;
         }),

@@ -6,7 +6,7 @@ import { useCallback, useEffect, useRef } from "react";
 import { scenarioSchema, describeIssues } from "@/lib/schemas/scenario";
 import type { SimResult } from "@/lib/sim/types";
 import type { SimWorkerClient } from "@/lib/client/sim-client";
-import { minMax } from "./readings-logic";
+import { minMax } from "@/lib/workbench/readings-logic";
 import { useBank, useWbApi } from "./store";
 import { refuseIfInvalid } from "./field-problems";
 

@@ -281,6 +281,7 @@ function useSave() {
     const st = api.getState();
     if (refuseIfInvalid(api, ["scenario"], "Save")) return false;
     const changeNote = note?.trim() || undefined;
+    const fromRevision = st.revision;
     const parsed = scenarioSchema.safeParse(st.draft);
     if (!parsed.success) {
       st.setNotice({ tone: "error", text: `Not saved — ${describeIssues(parsed.error).join("; ")}` });
@@ -292,7 +293,7 @@ function useSave() {
         baseVersion: st.version,
         ...(changeNote ? { note: changeNote } : {}),
       });
-      api.getState().markSaved(parseScenario(rec.scenario), rec.version);
+      api.getState().markSaved(parseScenario(rec.scenario), rec.version, fromRevision);
       await Promise.all([mutate(scenarioKey(st.scenarioId)), mutate(versionsKey(st.scenarioId))]);
       api.getState().setNotice({
         tone: "ok",
@@ -408,7 +409,9 @@ function RunBar() {
         </span>
       </div>
       <span className="mx-1 h-5 w-px bg-paper-line" aria-hidden />
-      {dirty ? <Badge tone="caution">unsaved edits</Badge> : <Badge tone="moss">saved</Badge>}
+      <span data-testid="save-state">
+        {dirty ? <Badge tone="caution">unsaved edits</Badge> : <Badge tone="moss">saved</Badge>}
+      </span>
       {dirty ? (
         <input
           aria-label="Change note (optional)"

@@ -6,6 +6,7 @@ import { PageHeader } from "@/components/ui/page-header";
 import { listMailboxFor, mailboxVisible, mailDir } from "@/lib/server/mailbox";
 import { smtpUrl } from "@/lib/server/mail";
 import { requirePageUser } from "@/lib/server/session";
+import { contentKeys } from "@/lib/workbench/row-ids";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Mailbox" };
@@ -13,15 +14,16 @@ export const metadata: Metadata = { title: "Mailbox" };
 /** Turn the URLs of a plain-text mail into links (invitation and run links are the point of most mails). */
 function Linkified({ text }: { text: string }) {
   const parts = text.split(/(https?:\/\/[^\s]+)/g);
+  const keys = contentKeys(parts);
   return (
     <>
       {parts.map((part, i) =>
         /^https?:\/\//.test(part) ? (
-          <a key={i} href={part} className="break-all text-indigo underline underline-offset-2">
+          <a key={keys[i]} href={part} className="break-all text-indigo underline underline-offset-2">
             {part}
           </a>
         ) : (
-          <span key={i}>{part}</span>
+          <span key={keys[i]}>{part}</span>
         ),
       )}
     </>
