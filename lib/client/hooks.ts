@@ -1,55 +1,32 @@
 // One SWR hook per resource (DEVELOPERS.md, API conventions). Keys are the API URLs, so after a write
 // `mutate(url)` (exact key, swr#746) or the hook's bound `mutate` refreshes the view.
 import useSWR, { type SWRConfiguration } from "swr";
-import type { Scenario } from "@/lib/schemas/scenario";
-import type { ResultJson } from "@/lib/sim/types";
+import type {
+  BoardJson,
+  LatestDecisionJson,
+  ListOf,
+  PersonJson,
+  RunJson,
+  RunSummaryJson,
+  ScenarioJson,
+  ScenarioSummaryJson,
+} from "@/lib/schemas/responses";
 import { fetchJson } from "./fetcher";
 
-/** A user as the API may return it: an id, or an object with a name. */
-export type PersonRef = string | { id: string; name?: string | null; email?: string | null } | null;
-
-export interface Board {
-  id: string;
-  name: string;
-  description?: string;
-  createdAt?: string;
-  updatedAt?: string;
-  scenarioCount?: number;
-}
-
-/** Latest review decision on any run of a scenario (added by the team side). */
-export interface LatestDecision {
-  decision: "approved" | "changes-requested" | "changes_requested" | string;
-  at?: string;
-  by?: PersonRef;
-  runId?: string;
-}
-
-export interface ScenarioRecord {
-  id: string;
-  boardId: string;
-  name: string;
-  version: number;
-  scenario: Scenario;
-  updatedAt: string;
-  updatedBy: PersonRef;
-  latestDecision?: LatestDecision | null;
-}
-
-export interface RunRecord {
-  id: string;
-  scenarioId: string;
-  label?: string | null;
-  createdAt: string;
-  createdBy: PersonRef;
-  scenario: Scenario;
-  result: ResultJson;
-  study?: unknown;
-}
-
-export interface ListResponse<T> {
-  items: T[];
-}
+// Response types come from the schemas (lib/schemas/responses.ts); the names the UI knows stay as aliases.
+export type { ListOf };
+/** A user named on a stored object, or null. */
+export type PersonRef = PersonJson;
+export type Board = BoardJson;
+/** Latest review decision on any run of a scenario. */
+export type LatestDecision = LatestDecisionJson;
+export type ScenarioRecord = ScenarioJson;
+/** A scenario list item: waveform arrays left out (`lean: true`). */
+export type ScenarioSummary = ScenarioSummaryJson;
+export type RunRecord = RunJson;
+/** A run list item: no snapshot, samples or events. */
+export type RunSummary = RunSummaryJson;
+export type ListResponse<T> = ListOf<T>;
 
 const fetcher = <T>(url: string) => fetchJson<T>(url);
 
@@ -64,7 +41,7 @@ export const runsKey = (scenarioId: string) => `/api/runs?scenarioId=${encodeURI
 export const runKey = (id: string) => `/api/runs/${encodeURIComponent(id)}`;
 
 export function useBoards() {
-  return useSWR<ListResponse<Board>>(boardsKey, fetcher, listConfig);
+  return useSWR<ListOf<Board>>(boardsKey, fetcher, listConfig);
 }
 
 export function useBoard(id: string | null | undefined) {
@@ -72,7 +49,7 @@ export function useBoard(id: string | null | undefined) {
 }
 
 export function useScenarios(boardId: string | null | undefined) {
-  return useSWR<ListResponse<ScenarioRecord>>(boardId ? scenariosKey(boardId) : null, fetcher, listConfig);
+  return useSWR<ListOf<ScenarioSummary>>(boardId ? scenariosKey(boardId) : null, fetcher, listConfig);
 }
 
 export function useScenario(id: string | null | undefined) {
@@ -80,7 +57,7 @@ export function useScenario(id: string | null | undefined) {
 }
 
 export function useRuns(scenarioId: string | null | undefined) {
-  return useSWR<ListResponse<RunRecord>>(scenarioId ? runsKey(scenarioId) : null, fetcher, listConfig);
+  return useSWR<ListOf<RunSummary>>(scenarioId ? runsKey(scenarioId) : null, fetcher, listConfig);
 }
 
 export function useRun(id: string | null | undefined) {
@@ -90,6 +67,5 @@ export function useRun(id: string | null | undefined) {
 /** Display name of a PersonRef ("—" when unknown). */
 export function personName(p: PersonRef | undefined): string {
   if (!p) return "—";
-  if (typeof p === "string") return p;
-  return p.name || p.email || p.id;
+  return p.name || p.id;
 }

@@ -1,8 +1,8 @@
-// Request bodies and answers of the review side: deliberate sign-offs, review requests, the
-// review queue and labelled run links. Shared by the route handlers and the client.
+// Request bodies of the review side: deliberate sign-offs, review requests and labelled run
+// links. Shared by the route handlers and the client.
 import { z } from "zod";
-import { DECISIONS, type Decision } from "./roles";
-import { NOTE_MAX, type SignoffJson } from "./team";
+import { DECISIONS } from "./roles";
+import { NOTE_MAX } from "./team";
 
 export const REVIEW_NOTE_MAX = NOTE_MAX;
 export const LINK_LABEL_MAX = 120;
@@ -67,56 +67,12 @@ export const linkLabelSchema = z.object({
 export type SignoffDecision = z.infer<typeof signoffDecisionSchema>;
 export type ReviewRequestCreate = z.infer<typeof reviewRequestCreateSchema>;
 
-// ---- Answers ----
-export interface PersonRef {
-  id: string | null;
-  name: string;
-}
-
-/** A sign-off with the scenario version it applies to; withdrawn ones carry `withdrawnAt`. */
-export interface SignoffRecord extends SignoffJson {
-  scenarioVersion: number | null;
-  withdrawnAt: string | null;
-}
-
-/** GET /api/runs/:id/signoffs: `items` are the standing decisions (newest first; the first is the run's state). */
-export interface SignoffList {
-  items: SignoffRecord[];
-  withdrawn: SignoffRecord[];
-}
-
-export interface ReviewRequestJson {
-  id: string;
-  runId: string;
-  reviewer: PersonRef;
-  requestedBy: PersonRef;
-  note: string;
-  createdAt: string;
-  /** The reviewer's standing decision on the run, if any. */
-  decision: Decision | null;
-  decidedAt: string | null;
-}
-
-export interface QueueRunRef {
-  id: string;
-  label: string;
-  createdAt: string;
-  scenarioVersion: number | null;
-  scenario: { id: string; name: string; version: number; boardId: string; boardName: string };
-}
-
-export interface QueueItem {
-  run: QueueRunRef;
-  requests: ReviewRequestJson[];
-  /** The run's standing decision (latest non-withdrawn sign-off), if any. */
-  decision: SignoffRecord | null;
-  /** The decision applies to an older scenario version than the scenario's current one. */
-  outOfDate: boolean;
-}
-
-/** GET /api/review/queue */
-export interface ReviewQueue {
-  waitingOnMe: QueueItem[];
-  requestedByMe: QueueItem[];
-  decided: QueueItem[];
-}
+// The answers are declared once, as zod schemas in ./responses; re-exported here under the
+// names the UI uses.
+export type {
+  QueueItemJson as QueueItem,
+  ReviewQueueJson as ReviewQueue,
+  ReviewRequestJson,
+  SignoffJson as SignoffRecord,
+  SignoffListJson as SignoffList,
+} from "./responses";

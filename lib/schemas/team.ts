@@ -1,6 +1,7 @@
-// Request bodies of the team side (members, invitations, run links, comments, sign-offs) and
-// the JSON shapes the routes answer. Shared by the route handlers and the client forms.
+// Request bodies of the team side (members, invitations, run links, comments, sign-offs).
+// Shared by the route handlers and the client forms.
 import { z } from "zod";
+import type { RunLinkJson as ListedRunLinkJson, RunLinkCreatedJson } from "./responses";
 import { DECISIONS, ROLES, roleSchema, type Decision, type Role } from "./roles";
 
 export { roleSchema };
@@ -100,63 +101,16 @@ export const linkCreateSchema = z
     path: ["expiresAt"],
   });
 
-// ---- Response shapes ----
-export interface MemberJson {
-  id: string; // the member's user id
-  membershipId: string;
-  name: string;
-  email: string;
-  role: RoleName;
-  joinedAt: string;
-}
+// The answers (members, invitations, run links, comments, sign-offs) are declared once, as zod
+// schemas in ./responses; their types are re-exported here under the names the UI uses.
+export type { CommentJson, InvitationJson, InvitationPreviewJson, MemberJson, SignoffJson } from "./responses";
 
-export interface InvitationJson {
-  id: string;
-  email: string;
-  role: RoleName;
-  expiresAt: string;
-  createdAt: string;
-  invitedBy: string | null;
-  mailSent?: boolean;
-}
-
-export interface InvitationPreviewJson {
-  email: string;
-  role: RoleName;
-  teamName: string;
-  expiresAt: string;
-  existingAccount: boolean;
-}
-
-export interface RunLinkJson {
-  id: string;
-  runId: string;
-  expiresAt: string | null;
-  revokedAt: string | null;
-  createdAt: string;
-  createdBy: string | null;
-  state: "active" | "expired" | "revoked";
-  /** Only in the answer to the create: the token is stored hashed and never shown again. */
-  token?: string;
-  url?: string;
-}
-
-export interface CommentJson {
-  id: string;
-  runId: string;
-  body: string;
-  author: { id: string | null; name: string };
-  createdAt: string;
-}
-
-export interface SignoffJson {
-  id: string;
-  runId: string;
-  decision: DecisionName;
-  note: string;
-  reviewer: { id: string | null; name: string };
-  createdAt: string;
-}
+/**
+ * A listed run link, or the answer to its create with `token` and `url` (shown once). Kept for
+ * the links panel, which holds both in one state; the exact shapes are `RunLinkJson` and
+ * `RunLinkCreatedJson` of ./responses.
+ */
+export type RunLinkJson = ListedRunLinkJson & Partial<Pick<RunLinkCreatedJson, "token" | "url">>;
 
 export const DECISION_LABEL: Record<DecisionName, string> = {
   approved: "Approved",

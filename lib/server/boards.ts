@@ -3,18 +3,12 @@ import "server-only";
 import { getModels, getSequelize } from "@/models";
 import { byText } from "@/models/transactions";
 import type { BoardCreate, BoardPatch } from "@/lib/schemas/api";
+import type { BoardJson } from "@/lib/schemas/responses";
 import { recordAudit } from "./audit";
 import { notFound } from "./errors";
 import { isId, iso } from "./ids";
 
-export interface BoardJson {
-  id: string;
-  name: string;
-  description: string;
-  scenarioCount: number;
-  createdAt: string;
-  updatedAt: string;
-}
+export type { BoardJson };
 
 type BoardRowLike = { id: string; name: string; description: string; createdAt: Date; updatedAt: Date };
 

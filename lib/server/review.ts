@@ -7,8 +7,24 @@ import { isId } from "@/lib/server/ids";
 import { recordAudit } from "@/lib/server/audit";
 import { appBaseUrl, sendMail } from "@/lib/server/mail";
 import { hashToken, newToken, plausibleToken } from "@/lib/server/tokens";
-import type { CommentJson, DecisionName, RunLinkJson } from "@/lib/schemas/team";
-import type { QueueItem, ReviewQueue, ReviewRequestJson, SignoffList, SignoffRecord } from "@/lib/schemas/review";
+import type { DecisionName } from "@/lib/schemas/team";
+import type {
+  CommentJson,
+  LatestDecisionJson,
+  QueueItemJson as QueueItem,
+  ReviewQueueJson as ReviewQueue,
+  ReviewRequestJson,
+  RunLinkCreatedJson,
+  RunLinkJson,
+  SavedStudyJson,
+  SharedRunJson,
+  SignoffListJson as SignoffList,
+  SignoffJson as SignoffRecord,
+  StoredResultJson,
+} from "@/lib/schemas/responses";
+import type { Scenario } from "@/lib/schemas/scenario";
+
+export type { LatestDecisionJson };
 
 // Review of runs: run links, comments and sign-offs. Every lookup is scoped by teamId.
 
@@ -56,7 +72,8 @@ type LinkRowish = {
   useCount?: number;
 };
 
-export type RunLinkRecord = RunLinkJson & { label: string | null; lastUsedAt: string | null; useCount: number };
+/** The name the routes know a run link by. */
+export type RunLinkRecord = RunLinkJson;
 
 function linkJson(row: LinkRowish): RunLinkRecord {
   return {
@@ -93,7 +110,7 @@ export async function createRunLink({
   expiresAt: Date | null;
   label?: string | null;
   request: Request;
-}): Promise<RunLinkRecord> {
+}): Promise<RunLinkCreatedJson> {
   await runInTeamOrThrow({ runId, teamId });
   const { token, tokenHash } = newToken();
   const row = await getSequelize().transaction(async (transaction) => {
@@ -161,7 +178,7 @@ export async function revokeRunLink({
  * board, author or other runs). Unknown tokens are 404; revoked or expired links are 410,
  * checked on every request so revocation takes effect at once.
  */
-export async function runForLinkToken({ token }: { token: string }) {
+export async function runForLinkToken({ token }: { token: string }): Promise<SharedRunJson & { teamId: string }> {
   if (!plausibleToken(token)) throw notFound("This link is not valid.");
   const { RunLink, Run } = getModels();
   const link = await RunLink.findOne({ where: { tokenHash: hashToken(token) } });
@@ -181,9 +198,9 @@ export async function runForLinkToken({ token }: { token: string }) {
     id: run.id,
     label: run.label,
     createdAt: iso(run.createdAt)!,
-    scenario: run.scenario,
-    result: run.result,
-    study: run.study ?? null,
+    scenario: run.scenario as Scenario,
+    result: run.result as StoredResultJson,
+    study: (run.study as SavedStudyJson | null) ?? null,
     link: { expiresAt: iso(link.expiresAt) },
   };
 }
@@ -458,18 +475,6 @@ export async function withdrawSignoff({
     const reviewer = await getModels().User.findByPk(actorId, { attributes: ["name"], transaction });
     return signoffJson(row, reviewer?.name);
   });
-}
-
-export interface LatestDecisionJson {
-  decision: DecisionName;
-  at: string;
-  by: { id: string | null; name: string };
-  runId: string;
-  note: string;
-  /** The scenario version the decision applies to (the run's), null for runs from before versions were kept. */
-  scenarioVersion: number | null;
-  /** The scenario was saved again after the decided version: the approval no longer covers it. */
-  outOfDate: boolean;
 }
 
 /**

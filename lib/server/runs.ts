@@ -7,30 +7,13 @@ import type { Scenario } from "@/lib/schemas/scenario";
 import { getModels, getSequelize, type RunRow } from "@/models";
 import { recordAudit } from "./audit";
 import { notFound } from "./errors";
-import { isId, iso, person, type PersonJson } from "./ids";
+import type { RunJson, RunSummaryJson, SavedStudyJson, StoredResultJson } from "@/lib/schemas/responses";
+import { isId, iso, person } from "./ids";
 import { getScenarioDataOrThrow } from "./scenarios";
-import { runBudgetMs, runInPool, type StoredResultJson } from "./sim-pool";
+import { runBudgetMs, runInPool } from "./sim-pool";
 
 export { MAX_STORED_POINTS } from "./sim-worker";
-export type { StoredResultJson };
-
-export interface RunJson {
-  id: string;
-  scenarioId: string;
-  scenarioVersion: number | null;
-  label: string;
-  createdAt: string;
-  createdBy: PersonJson;
-  scenario: Scenario;
-  result: StoredResultJson;
-  study: unknown | null;
-}
-
-/** List item: no scenario snapshot, samples or events (open the run for those). */
-export interface RunSummaryJson extends Omit<RunJson, "scenario" | "result"> {
-  scenarioName: string | null;
-  result: Omit<StoredResultJson, "samples" | "events"> & { eventCount: number };
-}
+export type { RunJson, RunSummaryJson, StoredResultJson };
 
 /**
  * Simulates a stored scenario in the worker pool, refusing (400) what is malformed or past the
@@ -51,7 +34,7 @@ function runJson(row: RunRow): RunJson {
     createdBy: person(row.createdBy, row.author),
     scenario: row.scenario as Scenario,
     result: row.result as StoredResultJson,
-    study: row.study ?? null,
+    study: (row.study as SavedStudyJson | null) ?? null,
   };
 }
 

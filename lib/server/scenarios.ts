@@ -9,29 +9,19 @@ import type { ScenarioCreate, ScenarioUpdate } from "@/lib/schemas/api";
 import { recordAudit } from "./audit";
 import { getBoardRowOrThrow } from "./boards";
 import { conflict, notFound } from "./errors";
-import { isId, iso, person, type PersonJson } from "./ids";
-import { latestDecisionsByScenario, type LatestDecisionJson } from "./review";
+import type {
+  LatestDecisionJson,
+  LeanComponent,
+  LeanScenario,
+  ScenarioJson,
+  ScenarioSummaryJson,
+  ScenarioVersionDocJson,
+  ScenarioVersionJson,
+} from "@/lib/schemas/responses";
+import { isId, iso, person } from "./ids";
+import { latestDecisionsByScenario } from "./review";
 
-export interface ScenarioJson {
-  id: string;
-  boardId: string;
-  name: string;
-  version: number;
-  scenario: Scenario;
-  createdAt: string;
-  updatedAt: string;
-  updatedBy: PersonJson;
-  latestDecision: LatestDecisionJson | null;
-}
-
-export interface ScenarioVersionJson {
-  version: number;
-  name: string;
-  note: string | null;
-  createdAt: string;
-  author: PersonJson;
-  scenario?: Scenario;
-}
+export type { ScenarioJson, ScenarioSummaryJson, ScenarioVersionDocJson, ScenarioVersionJson };
 
 function scenarioJson(row: import("@/models").ScenarioRow, latest: LatestDecisionJson | null): ScenarioJson {
   const updater = row.updater;
@@ -50,7 +40,13 @@ function scenarioJson(row: import("@/models").ScenarioRow, latest: LatestDecisio
 
 const withUpdater = () => [{ model: getModels().User, as: "updater", attributes: ["name"] }];
 
-export async function listScenarios({ boardId, teamId }: { boardId: string; teamId: string }): Promise<ScenarioJson[]> {
+export async function listScenarios({
+  boardId,
+  teamId,
+}: {
+  boardId: string;
+  teamId: string;
+}): Promise<ScenarioSummaryJson[]> {
   await getBoardRowOrThrow({ id: boardId, teamId });
   const rows = await getModels().Scenario.findAll({
     where: { boardId, teamId },
@@ -66,15 +62,15 @@ export async function listScenarios({ boardId, teamId }: { boardId: string; team
  * which can be megabytes; each such component keeps its kind and says how many points it has
  * (`pointCount`) and `lean: true` marks the item. GET /api/scenarios/:id has the whole document.
  */
-export function leanScenarioJson(item: ScenarioJson): ScenarioJson & { lean: true } {
+export function leanScenarioJson(item: ScenarioJson): ScenarioSummaryJson {
   const input = item.scenario.input;
-  const components = (input?.components ?? []).map((c) => {
-    const arrays = c as { points?: unknown[]; samples?: unknown[] };
-    if (Array.isArray(arrays.points)) return { ...c, points: [], pointCount: arrays.points.length };
-    if (Array.isArray(arrays.samples)) return { ...c, samples: [], pointCount: arrays.samples.length };
+  const components = (input?.components ?? []).map((c): LeanComponent => {
+    if (c.kind === "pwl") return { ...c, points: [], pointCount: c.points.length };
+    if (c.kind === "capture") return { ...c, samples: [], pointCount: c.samples.length };
     return c;
   });
-  return { ...item, scenario: { ...item.scenario, input: { ...input, components } } as Scenario, lean: true };
+  const scenario: LeanScenario = { ...item.scenario, input: { ...input, components } };
+  return { ...item, scenario, lean: true };
 }
 
 async function scenarioRowOrThrow({
@@ -259,7 +255,7 @@ export async function getScenarioVersionOrThrow({
   id: string;
   teamId: string;
   version: number;
-}): Promise<ScenarioVersionJson> {
+}): Promise<ScenarioVersionDocJson> {
   const row = await scenarioRowOrThrow({ id, teamId });
   const { ScenarioVersion, User } = getModels();
   const v = await ScenarioVersion.findOne({

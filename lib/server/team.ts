@@ -9,13 +9,14 @@ import { recordAudit } from "@/lib/server/audit";
 import { sendMail, appBaseUrl } from "@/lib/server/mail";
 import { bumpSessionGeneration } from "@/lib/auth";
 import { hashToken, newToken, plausibleToken } from "@/lib/server/tokens";
-import {
-  INVITATION_TTL_HOURS,
-  type InvitationJson,
-  type InvitationPreviewJson,
-  type MemberJson,
-  type RoleName,
-} from "@/lib/schemas/team";
+import { INVITATION_TTL_HOURS, type RoleName } from "@/lib/schemas/team";
+import type {
+  InvitationAcceptedJson,
+  InvitationCreatedJson,
+  InvitationJson,
+  InvitationPreviewJson,
+  MemberJson,
+} from "@/lib/schemas/responses";
 
 // Members, invitations and the audit log of one team. Every function takes the caller's
 // teamId and never touches another team's rows (another team's id is a 404).
@@ -189,7 +190,7 @@ export async function createInvitation({
   email: string;
   role: RoleName;
   request: Request;
-}): Promise<InvitationJson> {
+}): Promise<InvitationCreatedJson> {
   const { User, Membership, Invitation, Team } = getModels();
   const { token, tokenHash } = newToken();
   const teamName = (await Team.findByPk(teamId, { attributes: ["name"] }))?.name ?? "your team";
@@ -302,7 +303,15 @@ export async function previewInvitation({ token }: { token: string }): Promise<I
  * team with the invited role. Single use: the row is marked accepted in the same transaction,
  * so two concurrent accepts cannot both succeed.
  */
-export async function acceptInvitation({ token, name, password }: { token: string; name: string; password: string }) {
+export async function acceptInvitation({
+  token,
+  name,
+  password,
+}: {
+  token: string;
+  name: string;
+  password: string;
+}): Promise<InvitationAcceptedJson> {
   const { User, Membership } = getModels();
   // Refuse bad tokens before spending bcrypt time; hash outside the transaction (the SQLite
   // writer lock is shared by every request). The check is repeated inside for single use.

@@ -5,15 +5,45 @@ import type {
   CaptureSummaryJson as ServerCaptureSummary,
 } from "@/lib/server/captures";
 import type { PartProfileJson as ServerPartJson } from "@/lib/server/parts";
+import type { BoardJson as ServerBoardJson } from "@/lib/server/boards";
+import type { listScenarios, ScenarioJson as ServerScenarioJson } from "@/lib/server/scenarios";
+import type { RunJson as ServerRunJson, RunSummaryJson as ServerRunSummaryJson } from "@/lib/server/runs";
+import type { createRunLink, LatestDecisionJson as ServerLatestDecision, reviewQueue } from "@/lib/server/review";
+import type { listMembers } from "@/lib/server/team";
+import type { checkDatabase } from "@/lib/server/health";
+import type { PersonJson as IdsPersonJson } from "@/lib/server/ids";
+import type { StoredResultJson as SimStoredResult } from "@/lib/server/sim-worker";
+import type { ResultJson } from "@/lib/sim/types";
+import { GENERAL_PURPOSE_BIPOLAR } from "@/lib/demo/parts";
+import type { SavedStudy } from "@/lib/studies";
 import {
   type AuditJson,
   auditEntrySchema,
+  type BoardJson,
   type CaptureJson,
   type CaptureSummaryJson,
   captureSchema,
   captureSummarySchema,
+  type HealthJson,
+  type LatestDecisionJson,
   listOf,
+  type MemberJson,
   type PartProfileJson,
+  type PersonJson,
+  type ResultJsonShape,
+  type ReviewQueueJson,
+  type RunJson,
+  type RunLinkCreatedJson,
+  type RunSummaryJson,
+  runLinkCreatedSchema,
+  runLinkSchema,
+  type SavedStudyJson,
+  type ScenarioJson,
+  type ScenarioSummaryJson,
+  type StoredResultJson,
+  scenarioRecordSchema,
+  scenarioSummarySchema,
+  signoffSchema,
 } from "@/lib/schemas/responses";
 
 // Shapes follow the server mappers in lib/server (captures.ts, audit.ts, parts.ts); common practice, no source.
@@ -78,5 +108,130 @@ describe("response schemas", () => {
     expectTypeOf<ServerAuditJson>().toEqualTypeOf<AuditJson>();
     expectTypeOf<ServerPartJson>().toExtend<PartProfileJson>();
     expectTypeOf<PartProfileJson>().toExtend<ServerPartJson>();
+  });
+});
+
+describe("response schemas of the other resources", () => {
+  const t = "2026-12-03T08:00:00.000Z";
+  const uuid = "0b5c0f2e-8d7a-4b8e-9a51-3f1b2c4d5e6f";
+  // A minimal valid railwise.scenario/1 (lib/schemas/README.md § Scenario JSON); common practice, no source.
+  const scenario = {
+    schema: "railwise.scenario/1",
+    supply: { positive: 5, negative: 0 },
+    opamp: GENERAL_PURPOSE_BIPOLAR,
+    stage: { kind: "comparator", reference: 2.5 },
+    input: {
+      components: [
+        {
+          kind: "pwl",
+          points: [
+            [0, 0],
+            [1, 5],
+          ],
+        },
+      ],
+    },
+    run: { duration: 1, points: 11 },
+  };
+  const record = {
+    id: uuid,
+    boardId: uuid,
+    name: "Float switch",
+    version: 2,
+    scenario,
+    createdAt: t,
+    updatedAt: t,
+    updatedBy: { id: uuid, name: "Ada" },
+    latestDecision: null,
+  };
+
+  it("check a stored scenario against railwise.scenario/1 and name the bad field", () => {
+    expect(scenarioRecordSchema.safeParse(record).success).toBe(true);
+    const bad = scenarioRecordSchema.safeParse({
+      ...record,
+      scenario: { ...scenario, supply: { positive: 0, negative: 5 } },
+    });
+    expect(bad.success).toBe(false);
+    expect(bad.error?.issues[0].path.slice(0, 2)).toEqual(["scenario", "supply"]);
+  });
+
+  it("accept a lean list item only with empty arrays and a point count", () => {
+    const lean = {
+      ...record,
+      lean: true,
+      scenario: { ...scenario, input: { components: [{ kind: "pwl", points: [], pointCount: 2 }] } },
+    };
+    expect(scenarioSummarySchema.safeParse(lean).success).toBe(true);
+    const full = { ...lean, scenario };
+    expect(
+      scenarioSummarySchema.safeParse({
+        ...full,
+        scenario: { ...scenario, input: { components: [{ kind: "pwl", points: [[0, 0]], pointCount: 1 }] } },
+      }).success,
+    ).toBe(false);
+    expect(scenarioSummarySchema.safeParse({ ...record }).success).toBe(false); // no `lean`
+  });
+
+  it("keep a run link's token out of list items and require it on the create answer", () => {
+    const link = {
+      id: uuid,
+      runId: uuid,
+      label: null,
+      lastUsedAt: null,
+      useCount: 0,
+      expiresAt: null,
+      revokedAt: null,
+      createdAt: t,
+      createdBy: uuid,
+      state: "active",
+    };
+    expect(runLinkSchema.safeParse(link).success).toBe(true);
+    expect(runLinkSchema.safeParse({ ...link, token: "abc" }).success).toBe(false);
+    expect(runLinkCreatedSchema.safeParse(link).success).toBe(false);
+    expect(runLinkCreatedSchema.safeParse({ ...link, token: "abc", url: "http://localhost/share/abc" }).success).toBe(
+      true,
+    );
+  });
+
+  it("refuse a decision outside the two the API stores (the old client type allowed any string)", () => {
+    const signoff = {
+      id: uuid,
+      runId: uuid,
+      decision: "approved",
+      note: "",
+      reviewer: { id: null, name: "(removed account)" },
+      createdAt: t,
+      scenarioVersion: 1,
+      withdrawnAt: null,
+    };
+    expect(signoffSchema.safeParse(signoff).success).toBe(true);
+    expect(signoffSchema.safeParse({ ...signoff, decision: "changes-requested" }).success).toBe(false);
+    expect(signoffSchema.safeParse({ ...signoff, decision: "maybe" }).success).toBe(false);
+  });
+
+  it("match the server mappers' and the core's types", () => {
+    expectTypeOf<ServerBoardJson>().toEqualTypeOf<BoardJson>();
+    expectTypeOf<ServerScenarioJson>().toEqualTypeOf<ScenarioJson>();
+    expectTypeOf<ServerRunJson>().toEqualTypeOf<RunJson>();
+    expectTypeOf<ServerRunSummaryJson>().toEqualTypeOf<RunSummaryJson>();
+    expectTypeOf<ServerLatestDecision>().toEqualTypeOf<LatestDecisionJson>();
+    expectTypeOf<Awaited<ReturnType<typeof listScenarios>>>().toEqualTypeOf<ScenarioSummaryJson[]>();
+    expectTypeOf<Awaited<ReturnType<typeof listMembers>>>().toEqualTypeOf<MemberJson[]>();
+    expectTypeOf<Awaited<ReturnType<typeof createRunLink>>>().toEqualTypeOf<RunLinkCreatedJson>();
+    expectTypeOf<Awaited<ReturnType<typeof reviewQueue>>>().toEqualTypeOf<ReviewQueueJson>();
+    expectTypeOf<Awaited<ReturnType<typeof checkDatabase>>>().toEqualTypeOf<HealthJson["database"]>();
+    // The person shape lib/server/ids.ts builds, the result the simulator produces, the study lib/studies stores.
+    expectTypeOf<IdsPersonJson>().toEqualTypeOf<PersonJson>();
+    expectTypeOf<ResultJson>().toEqualTypeOf<ResultJsonShape>();
+    expectTypeOf<SimStoredResult>().toEqualTypeOf<StoredResultJson>();
+    // lib/studies types `summary.measured` as `config.measured | null`, which lets in undefined; the
+    // server stores `config.measured ?? null`, so the schema's `X | null` is the narrower truth.
+    expectTypeOf<SavedStudyJson>().toExtend<SavedStudy>();
+    type Loose = Omit<NonNullable<SavedStudy["noiseMargin"]>, "summary">;
+    expectTypeOf<Omit<NonNullable<SavedStudyJson["noiseMargin"]>, "summary">>().toEqualTypeOf<Loose>();
+    type Spread = NonNullable<SavedStudy["toleranceSpread"]>;
+    type SpreadJson = NonNullable<SavedStudyJson["toleranceSpread"]>;
+    expectTypeOf<Omit<SpreadJson, "summary">>().toEqualTypeOf<Omit<Spread, "summary">>();
+    expectTypeOf<SpreadJson["summary"]>().toEqualTypeOf<Spread["summary"]>();
   });
 });
