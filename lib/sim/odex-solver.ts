@@ -63,18 +63,26 @@ export function runOdex(p: OdexParams): OdexStats {
       d += sig.sineAmp[j] * sig.sineOmega[j] * Math.cos(sig.sineOmega[j] * ts + sig.sinePhase[j]);
     return d;
   };
+  /** dH/dt of the high level at x (0 for a push-pull output). */
+  const highSlope = (x: number, vc: number, u: number, H: number): number => {
+    if (!variableHigh) return 0;
+    const xDot = twoD ? kU * u + kX * vc + kO * H + k0 : 0;
+    return hU * slopeSeen(x) + hX * xDot;
+  };
+  // The output at its high level H is held there while the op-amp drives it up faster than H
+  // moves (drive ≥ dH/dt; for a push-pull output dH/dt = 0): it then follows H, so the state
+  // never climbs above a falling open-drain level. Below that it leaves H at its own rate, and
+  // never faster upward than H moves (the pin cannot rise above its pull-up level). The same
+  // condition as the exact solver's rail-high regime (lib/sim/exact/pieces.ts).
   const rate = (x: number, vo: number, vc: number, u: number): number => {
     const H = highOf(u, vc);
     const v = vo > H ? H : vo < Vol ? Vol : vo;
-    let f = wp * (A0 * (al * u + be * v + ga * vc + de) - v);
-    if (f > SR) f = SR;
-    else if (f < -SRf) f = -SRf;
-    if (vo >= H && f > 0) {
-      // Held at the high level: a push-pull output stands still, an open drain's level follows
-      // the input and the state.
-      if (!variableHigh) return 0;
-      const xDot = twoD ? kU * u + kX * vc + kO * H + k0 : 0;
-      return hU * slopeSeen(x) + hX * xDot;
+    const drive = wp * (A0 * (al * u + be * v + ga * vc + de) - v);
+    let f = drive > SR ? SR : drive < -SRf ? -SRf : drive;
+    if (vo >= H) {
+      const hDot = highSlope(x, vc, u, H);
+      if (drive >= hDot || f > hDot) return hDot;
+      return f;
     }
     if (vo <= Vol && f < 0) f = 0;
     return f;
@@ -88,7 +96,9 @@ export function runOdex(p: OdexParams): OdexStats {
     const H = highOf(u, vc);
     const v = vo > H ? H : vo < Vol ? Vol : vo;
     const fl = wp * (A0 * (al * u + be * v + ga * vc + de) - v);
-    const held = (vo >= H && fl >= 0) || (vo <= Vol && fl <= 0) ? 1 : 0;
+    // Clipped while the output is held at a limit (the rate rule above; at the low limit while
+    // the drive pushes down).
+    const held = (vo >= H && fl >= highSlope(x, vc, u, H)) || (vo <= Vol && fl <= 0) ? 1 : 0;
     const dv = rate(x, vo, vc, u);
     return twoD ? [dv, kU * u + kX * vc + kO * v + k0, held] : [dv, held];
   };

@@ -1,9 +1,11 @@
 // The exact solver's parts on their own: the root bracketer, the closed-form basis and the
 // closed form of a piece (lib/sim/exact/).
 import { describe, expect, it } from "vitest";
-import { Basis, SLOT_E1, SLOT_ONE, SLOT_SINES, SLOT_TAU, solveScalar } from "@/lib/sim/exact/basis";
+import { Basis, SLOT_E1, SLOT_E2, SLOT_ONE, SLOT_SINES, SLOT_TAU, solveScalar } from "@/lib/sim/exact/basis";
 import { bracketRoot, ulp } from "@/lib/sim/exact/bracket";
 import { PieceModel } from "@/lib/sim/exact/pieces";
+import { Scanner } from "@/lib/sim/exact/scan";
+import { Recorder } from "@/lib/sim/measure";
 import {
   EXITS,
   LINEAR,
@@ -54,6 +56,62 @@ describe("bracketRoot", () => {
     const root = bracketRoot(b, c, 0, 1, -1e-9, 1 - 1e-9, 1000);
     expect(root).toBeGreaterThanOrEqual(1e-9);
     expect(root - 1e-9).toBeLessThanOrEqual(4 * ulp(1001));
+  });
+});
+
+describe("Scanner (bounded walk)", () => {
+  // A narrow hump of a real exponential pair plus a sine, the shape of a linear piece on a steep
+  // input: c(τ) = 2e^{3m} + 0.005 − e^{3τ} − e^{6m}·e^{−3τ} + 0.02·sin(2πτ) (m = 0.515), whose
+  // top of a few mV near τ = m pokes above 0 for about 0.02, between ends 14 below it. Truth by brute force: the sign of c on a grid of
+  // 200,001 points (common practice, no source).
+  const hump = () => {
+    const b = new Basis(Float64Array.of(2 * Math.PI)); // one sine of period 1
+    b.setRealPair(3, -3);
+    const c = new Float64Array(b.size);
+    const m = 0.515;
+    c[SLOT_ONE] = 2 * Math.exp(3 * m) + 0.005;
+    c[SLOT_E1] = -1;
+    c[SLOT_E2] = -Math.exp(6 * m);
+    c[SLOT_SINES] = 0.02; // + 0.02·sin(2πτ)
+    return { b, c };
+  };
+  const bruteRoots = (b: Basis, c: Float64Array, tMax: number) => {
+    const roots: number[] = [];
+    let prev = b.valueAt(c, 0) >= 0;
+    for (let i = 1; i <= 200_000; i++) {
+      const tau = (tMax * i) / 200_000;
+      const side = b.valueAt(c, tau) >= 0;
+      if (side !== prev) roots.push(tau);
+      prev = side;
+    }
+    return roots;
+  };
+
+  it("finds a hump whose ends are both below the level (first exit and both crossings)", () => {
+    const { b, c } = hump();
+    const truth = bruteRoots(b, c, 1);
+    expect(truth.length).toBe(2); // the hump pokes above 0 between two points below it
+    expect(b.valueAt(c, 0)).toBeLessThan(0);
+    expect(b.valueAt(c, 1)).toBeLessThan(0);
+    const scan = new Scanner(b);
+    const exit = scan.firstExit(c, 1, 0);
+    expect(Math.abs(exit - truth[0])).toBeLessThan(1e-5);
+    const pushed: number[] = [];
+    const spy = new Recorder({ high: 1, low: 0 }, { valueAt: () => 0 } as never, 0);
+    spy.push = (time: number) => void pushed.push(time);
+    expect(scan.crossings(c, 0, false, 1, 0, spy)).toBe(false);
+    expect(pushed.length).toBe(2);
+    expect(Math.abs(pushed[0] - truth[0])).toBeLessThan(1e-5);
+    expect(Math.abs(pushed[1] - truth[1])).toBeLessThan(1e-5);
+  });
+
+  it("dismisses a piece far from the level in one evaluation", () => {
+    const { b, c } = hump();
+    c[SLOT_ONE] -= 10; // now more than 9.9 below 0 everywhere (the hump's top is a few mV)
+    const scan = new Scanner(b);
+    const before = b.evaluations;
+    expect(Number.isNaN(scan.firstExit(c, 0.01, 0))).toBe(true);
+    expect(b.evaluations - before).toBe(1);
   });
 });
 

@@ -126,6 +126,15 @@ describe("fuzz finds (tests/unit/sim-fuzz-gen.ts seeds)", () => {
     }
   };
 
+  /** A fuzz seed's scenario run by the exact solver and by odex. */
+  const bothSolvers = async (seed: number) => {
+    const { fuzzScenario } = await import("./sim-fuzz-gen");
+    const { scenario } = fuzzScenario(seed);
+    const a = simulate(scenario, BUDGET);
+    const b = simulate(scenario, { solver: "odex", maxSteps: 20_000 });
+    return { scenario, a, b };
+  };
+
   it("seed 77: oscillator whose linear edge is a growing complex pair reaches the rail (was missed inside one scan chunk)", async () => {
     const { fuzzScenario } = await import("./sim-fuzz-gen");
     const { scenario } = fuzzScenario(77);
@@ -157,10 +166,7 @@ describe("fuzz finds (tests/unit/sim-fuzz-gen.ts seeds)", () => {
   });
 
   it("seed 2866: a Schmitt trigger started 'settled' inside its band starts at a limit, not on the unstable mid-level balance", async () => {
-    const { fuzzScenario } = await import("./sim-fuzz-gen");
-    const { scenario } = fuzzScenario(2866);
-    const a = simulate(scenario, BUDGET);
-    const b = simulate(scenario, { solver: "odex", maxSteps: 20_000 });
+    const { scenario, a, b } = await bothSolvers(2866);
     // Positive feedback: the mid-level solution of vo = A0·vd is a balance any disturbance leaves
     // (common practice, no source); odex left it by rounding, the exact solver sat on it.
     expect([a.rails.low, a.rails.high]).toContain(a.output[0]);
@@ -168,12 +174,35 @@ describe("fuzz finds (tests/unit/sim-fuzz-gen.ts seeds)", () => {
   });
 
   it("seed 1946: a delayed pulse's edges are not lost to a one-ulp piece or a volts-wide boundary margin", async () => {
-    const { fuzzScenario } = await import("./sim-fuzz-gen");
-    const { scenario } = fuzzScenario(1946);
-    const a = simulate(scenario, BUDGET);
-    const b = simulate(scenario, { solver: "odex", maxSteps: 20_000 });
+    const { scenario, a, b } = await bothSolvers(1946);
     // Every edge, not only the first two: the later ones once went wrong on the pulse's steep
     // fall, where the closed form's large coefficients made the boundary margin volts wide.
     expectAgreesWithOdex(a, b, scenario.run.duration, { edges: true });
   });
+
+  it("seed 164: a comparator's rail entry inside a sine piece is not lost between two scan points", async () => {
+    const { scenario, a, b } = await bothSolvers(164);
+    // A steep capture segment on the comparator's slow pole carries the output over its high
+    // level and back inside one piece; the sine made the scan sample it every 1/32 period, and
+    // both samples lay below the level, so the output passed through the rail (an edge 0.18 µs
+    // late, clipped share 2e-3 off). A fine fixed-step RK4 of the same model agreed with odex.
+    expectAgreesWithOdex(a, b, scenario.run.duration, { edges: true });
+  });
+
+  it("seed 1678: a Schmitt trigger's rise to its high limit inside a sine piece reaches the rail", async () => {
+    const { scenario, a, b } = await bothSolvers(1678);
+    // The same miss on a growing exponential (positive feedback): the last edge came 56 ns late.
+    expectAgreesWithOdex(a, b, scenario.run.duration, { edges: true });
+  });
+
+  for (const seed of [633, 2121])
+    it(`seed ${seed}: odex holds an open drain on its falling high level while the drive exceeds the level's slope`, async () => {
+      const { scenario, a, b } = await bothSolvers(seed);
+      // odex let its output state rise above a falling pull-up level (the pin read the level,
+      // the state drifted) and counted the output clipped only while the drive was ≥ 0, not
+      // ≥ dH/dt as the exact solver's rail regime: clipped share 1e-4 and 6e-4 off, edges
+      // 0.3 ns late. A fine fixed-step RK4 of the model with the pin held at its level agreed
+      // with the exact solver (clipped 0.86131 and 0.99068).
+      expectAgreesWithOdex(a, b, scenario.run.duration, { edges: true });
+    });
 });

@@ -1,19 +1,45 @@
 // Finding where a combination of the basis changes sign inside a piece: the first regime exit
 // and every monitored crossing. Sine-free real pieces are split at their one analytic extremum
-// (so each part is monotone and needs one bracket); pieces with sines or a complex pair are
-// scanned in chunks short against their fastest oscillation.
-import { SLOT_E1, SLOT_E2, SLOT_TAU, type Basis } from "./basis";
-import { bracketRoot } from "./bracket";
+// (so each part is monotone and needs one bracket), and a sine-free complex pair steps from
+// extremum to extremum. Every other piece (sines, a complex pair with a slope, two exponentials
+// with a slope) is walked left to right on a bound of its curvature (`BoundedWalk` below): an
+// interval is dismissed when the bound keeps it on one side, bracketed when the bound makes it
+// monotone, and halved otherwise. No fixed chunk can miss a hump between two samples, and a
+// piece far from the level costs one evaluation.
+import { SLOT_E1, SLOT_E2, SLOT_SINES, SLOT_TAU, type Basis } from "./basis";
+import { bracketRoot, ulp } from "./bracket";
 import type { Recorder } from "../measure";
 
+/** Deepest halving of one interval in the bounded walk (2⁻⁶⁰ of a piece is below any time resolution). */
+const MAX_DEPTH = 60;
+/** Numbers per point of the walk: τ, value, slope, and the two exponential curvature envelopes. */
+const POINT = 5;
+
+const FIRST_EXIT = 0;
+const CROSSINGS = 1;
+const EXTREMA = 2;
+
 export class Scanner {
-  /** Chunk for pieces with sines: 1/32 of the shortest sine period. */
+  /** Chunk for rail-hold pieces with sines: 1/32 of the shortest sine period. */
   readonly chunkSine: number;
+  /** Derivative coefficients of the function being walked. */
+  private readonly slope: Float64Array;
+  /** Points of the walk: the left end at 0, pending right ends stacked above it (top = depth). */
+  private readonly points = new Float64Array(POINT * (MAX_DEPTH + 2));
+  private depth = 0;
+  /** |c''| factors: of E1 (a complex pair: of the pair), of E2, and of the sines together. */
+  private curvE1 = 0;
+  private curvE2 = 0;
+  private curvSines = 0;
+  /** Side at the end of the last CROSSINGS walk; largest |target| of the last EXTREMA walk. */
+  private walkSide = false;
+  private walkBest = 0;
 
   constructor(private readonly basis: Basis) {
     let wMax = 0;
     for (let j = 0; j < basis.sineCount; j++) wMax = Math.max(wMax, basis.omega[j]);
     this.chunkSine = wMax > 0 ? (2 * Math.PI) / wMax / 32 : Infinity;
+    this.slope = new Float64Array(basis.size);
   }
 
   valueAt(c: Float64Array, tau: number): number {
@@ -21,16 +47,15 @@ export class Scanner {
   }
 
   /**
-   * Scan step for c over (0, tMax): Infinity when one analytic split suffices, −1 when the
-   * scan steps from extremum to extremum of a complex pair (each step monotone).
+   * How c is searched over (0, tMax): Infinity when one analytic split suffices, −1 when the
+   * scan steps from extremum to extremum of a complex pair (each step monotone), 0 for the
+   * bounded walk.
    */
-  chunkFor(c: Float64Array, tMax: number): number {
+  private chunkFor(c: Float64Array, tMax: number): number {
     const basis = this.basis;
     if (this.periodicExtrema(c)) return -1;
-    let chunk = basis.sineCount > 0 ? this.chunkSine : Infinity;
-    if (basis.complex) chunk = Math.min(chunk, Math.PI / (4 * basis.nu));
-    if (chunk === Infinity && basis.extremum(c, tMax) === -1) chunk = tMax / 64;
-    return chunk;
+    if (basis.sineCount > 0 || basis.complex || basis.extremum(c, tMax) === -1) return 0;
+    return Infinity;
   }
 
   /**
@@ -57,7 +82,7 @@ export class Scanner {
 
   private nextPoint(c: Float64Array, a: number, chunk: number, extremum: number, tMax: number): number {
     if (chunk === -1) return Math.min(tMax, this.nextComplexExtremum(c, a));
-    let b = chunk === Infinity ? tMax : Math.min(tMax, a + chunk);
+    let b = tMax;
     if (extremum > a && extremum < b) b = extremum;
     return b;
   }
@@ -68,11 +93,15 @@ export class Scanner {
    */
   firstExit(c: Float64Array, tMax: number, t0: number): number {
     const chunk = this.chunkFor(c, tMax);
+    // At or just past the boundary by rounding, moving inward: count the start as inside.
+    let ga = Math.min(this.basis.valueAtStart(c), -Number.MIN_VALUE);
+    if (!(ga < 0)) ga = -Number.MIN_VALUE;
+    if (chunk === 0) {
+      this.startWalk(c, 0, ga);
+      return this.walk(c, tMax, t0, false, FIRST_EXIT, 0, null, null);
+    }
     const ext = chunk === Infinity ? this.basis.extremum(c, tMax) : NaN;
     let a = 0;
-    // At or just past the boundary by rounding, moving inward: count the start as inside.
-    let ga = Math.min(this.valueAt(c, 0), -Number.MIN_VALUE);
-    if (ga >= 0) ga = -Number.MIN_VALUE;
     while (a < tMax) {
       const b = this.nextPoint(c, a, chunk, ext, tMax);
       const gb = this.valueAt(c, b);
@@ -89,6 +118,13 @@ export class Scanner {
    */
   crossings(c: Float64Array, monitor: number, side: boolean, tEnd: number, t0: number, recorder: Recorder): boolean {
     const chunk = this.chunkFor(c, tEnd);
+    if (chunk === 0) {
+      // The start counts on its given side (a value across by rounding is not a crossing).
+      const g0 = this.basis.valueAtStart(c);
+      this.startWalk(c, 0, side ? (g0 >= 0 ? g0 : 0) : g0 < 0 ? g0 : -Number.MIN_VALUE);
+      this.walk(c, tEnd, t0, side, CROSSINGS, monitor, recorder, null);
+      return this.walkSide;
+    }
     const ext = chunk === Infinity ? this.basis.extremum(c, tEnd) : NaN;
     let a = 0;
     let ga = NaN;
@@ -117,22 +153,153 @@ export class Scanner {
       if (e > tMin) best = Math.max(best, Math.abs(this.valueAt(c, e)));
       if (e !== -1) return best;
     }
+    // The extrema are the sign changes of the derivative, found by the bounded walk.
     const D = scratch;
     basis.derivative(c, D);
-    const dChunk = this.chunkFor(D, tMax);
-    const chunk = Math.min(dChunk === -1 ? Math.PI / (4 * basis.nu) : dChunk, (tMax - tMin) / 4);
-    let a = tMin;
-    let da = this.valueAt(D, tMin);
-    while (a < tMax) {
-      const b = Math.min(tMax, a + chunk);
-      const db = this.valueAt(D, b);
-      if (db >= 0 !== da >= 0) {
-        const r = bracketRoot(this, D, a, b, da, db, t0);
-        best = Math.max(best, Math.abs(this.valueAt(c, r)));
-      }
-      a = b;
-      da = db;
+    this.startWalk(D, tMin, NaN);
+    this.walkBest = best;
+    this.walk(D, tMax, t0, this.points[1] >= 0, EXTREMA, 0, null, c);
+    return this.walkBest;
+  }
+
+  /**
+   * The bounded walk. On [a, b] with |c''| ≤ M, c lies within M·h²/8 of its chord and within
+   * M·s²/2 of its tangent at either end (Taylor's theorem with the remainder bounded), and its
+   * slope moves by at most M·h. So an interval whose ends are on one side is dismissed when one
+   * of those bounds keeps it there, an interval whose ends differ is bracketed when its slope
+   * cannot change sign (one crossing), and any other interval is halved; an interval at the
+   * time resolution is taken as it looks at its ends. M: the exponentials' |c_E·λ²·e^{λτ}| at
+   * the interval's larger end (a complex pair: |A + iB|·(μ² + ν²)·e^{μτ}) and the sines'
+   * |A_j|·ω_j², common practice, no source.
+   */
+  private startWalk(c: Float64Array, tau: number, value: number): void {
+    const basis = this.basis;
+    basis.derivative(c, this.slope);
+    if (basis.complex) {
+      this.curvE1 = Math.hypot(c[SLOT_E1], c[SLOT_E2]) * (basis.lambda1 * basis.lambda1 + basis.nu * basis.nu);
+      this.curvE2 = 0;
+    } else {
+      this.curvE1 = basis.useE1 ? Math.abs(c[SLOT_E1]) * basis.lambda1 * basis.lambda1 : 0;
+      this.curvE2 = basis.useE2 ? Math.abs(c[SLOT_E2]) * basis.lambda2 * basis.lambda2 : 0;
     }
-    return best;
+    let sines = 0;
+    for (let j = 0; j < basis.sineCount; j++) {
+      const w = basis.omega[j];
+      sines += Math.hypot(c[SLOT_SINES + 2 * j], c[SLOT_SINES + 1 + 2 * j]) * w * w;
+    }
+    this.curvSines = sines;
+    const P = this.points;
+    if (tau === 0) {
+      // τ = 0 needs no evaluation: every exponential is 1 there.
+      P[0] = 0;
+      P[1] = Number.isNaN(value) ? basis.valueAtStart(c) : value;
+      P[2] = basis.valueAtStart(this.slope);
+      P[3] = this.curvE1;
+      P[4] = this.curvE2;
+    } else {
+      this.setPoint(0, tau, c);
+      if (!Number.isNaN(value)) P[1] = value;
+    }
+  }
+
+  /** Evaluate c at τ into point k. */
+  private setPoint(k: number, tau: number, c: Float64Array): void {
+    const basis = this.basis;
+    basis.evaluate(tau);
+    const v = basis.values;
+    const P = this.points;
+    const o = POINT * k;
+    P[o] = tau;
+    P[o + 1] = basis.dot(c);
+    P[o + 2] = basis.dot(this.slope);
+    if (basis.complex) {
+      P[o + 3] = this.curvE1 * Math.hypot(v[SLOT_E1], v[SLOT_E2]);
+      P[o + 4] = 0;
+    } else {
+      P[o + 3] = this.curvE1 * v[SLOT_E1];
+      P[o + 4] = this.curvE2 * v[SLOT_E2];
+    }
+  }
+
+  /** 0: no sign change in (left, top]; 1: exactly one; 2: undecided (halve). */
+  private classify(sideLeft: boolean, t0: number): number {
+    const P = this.points;
+    const o = POINT * this.depth;
+    const a = P[0];
+    const ga = P[1];
+    const da = P[2];
+    const b = P[o];
+    const gb = P[o + 1];
+    const db = P[o + 2];
+    const h = b - a;
+    const last = h <= 2 * ulp(t0 + b) || this.depth >= MAX_DEPTH;
+    const sideRight = gb >= 0;
+    const M = (P[3] > P[o + 3] ? P[3] : P[o + 3]) + (P[4] > P[o + 4] ? P[4] : P[o + 4]) + this.curvSines;
+    if (sideLeft === sideRight) {
+      if (last) return 0;
+      const q = M * h * h;
+      if (sideLeft) {
+        // lowest c can reach: from the chord, or from the tangent at either end
+        const chord = (ga < gb ? ga : gb) - q / 8;
+        const fromA = Math.min(ga, ga + da * h - q / 2);
+        const fromB = Math.min(gb, gb - db * h - q / 2);
+        return Math.max(chord, fromA, fromB) >= 0 ? 0 : 2;
+      }
+      const chord = (ga > gb ? ga : gb) + q / 8;
+      const fromA = Math.max(ga, ga + da * h + q / 2);
+      const fromB = Math.max(gb, gb - db * h + q / 2);
+      return Math.min(chord, fromA, fromB) < 0 ? 0 : 2;
+    }
+    if (last) return 1;
+    const mh = M * h;
+    return (sideRight ? da > mh || db > mh : da < -mh || db < -mh) ? 1 : 2;
+  }
+
+  /**
+   * Walk (left, tEnd] from the left point set by startWalk, whose side is `side`. FIRST_EXIT
+   * returns the first crossing's τ (NaN if none); CROSSINGS pushes every crossing to the
+   * recorder and leaves the final side in walkSide; EXTREMA raises walkBest to |target| at each
+   * crossing (c being the target's derivative).
+   */
+  private walk(
+    c: Float64Array,
+    tEnd: number,
+    t0: number,
+    side: boolean,
+    mode: number,
+    monitor: number,
+    recorder: Recorder | null,
+    target: Float64Array | null,
+  ): number {
+    const P = this.points;
+    this.depth = 1;
+    this.setPoint(1, tEnd, c);
+    for (;;) {
+      const verdict = this.classify(side, t0);
+      const o = POINT * this.depth;
+      if (verdict === 2) {
+        const mid = 0.5 * (P[0] + P[o]);
+        this.depth++;
+        this.setPoint(this.depth, mid, c);
+        continue;
+      }
+      if (verdict === 1) {
+        const a = P[0];
+        const b = P[o];
+        const ga = P[1];
+        const gb = P[o + 1];
+        const sb = gb >= 0;
+        const root = ga >= 0 === sb ? a : bracketRoot(this, c, a, b, ga, gb, t0);
+        if (mode === FIRST_EXIT) return root;
+        if (mode === CROSSINGS) recorder!.push(t0 + root, monitor, sb);
+        else this.walkBest = Math.max(this.walkBest, Math.abs(this.valueAt(target!, root)));
+        side = sb;
+      }
+      // The right end becomes the left end.
+      P.copyWithin(0, o, o + POINT);
+      if (--this.depth === 0) break;
+    }
+    this.walkSide = side;
+    return NaN;
   }
 }
