@@ -1,14 +1,18 @@
 import "server-only";
-// Who is calling, for route handlers, plus the two request guards every handler goes through:
-// - the session: lib/auth.ts's jwt callback re-reads the member's generation and role from the
-//   database on every request (one indexed query), so this takes today's role from the session
-//   without a second query, and a signed-out or demoted cookie is already empty here;
+// Who is calling, for route handlers and pages, plus the two request guards every handler goes
+// through:
+// - the session: the cookie is decrypted here (lib/session-token.ts, a key derived once per
+//   secret) and the member's generation, role, name and team are re-read in one indexed query
+//   (lib/auth.ts readSessionState), so a signed-out or demoted cookie is refused at once.
+//   Nothing is re-encoded or re-sent: next-auth's getServerSession re-encrypted the token and set
+//   the cookie again on every answer. Sessions therefore last 12 h from sign-in;
 // - cross-site request forgery: state-changing requests must come from our own origin and carry
 //   a JSON (or multipart upload) body, or they are refused with 403 before anything is read.
 import { createHash } from "node:crypto";
-import { getServerSession } from "next-auth";
+import { cookies } from "next/headers";
 import { QueryTypes } from "sequelize";
-import { authOptions } from "@/lib/auth";
+import { authSecret, readSessionState, servedOverHttps } from "@/lib/auth";
+import { readSessionToken } from "@/lib/session-token";
 import type { Role } from "@/lib/schemas/roles";
 import { notFound, redirect } from "next/navigation";
 import { getModels, getSequelize } from "@/models";
@@ -121,17 +125,37 @@ function takesUpload(request: Request): boolean {
  */
 export async function requireMember(request?: Request): Promise<Member> {
   if (request) guardRequest(request, { multipart: takesUpload(request) });
-  const session = await getServerSession(authOptions);
-  const user = session?.user;
-  if (!user?.id || !user.teamId || !user.role) throw unauthorized();
-  return {
-    userId: user.id,
-    teamId: user.teamId,
-    teamName: user.teamName ?? "",
-    role: user.role,
-    name: user.name ?? "",
-    email: user.email ?? "",
-  };
+  const member = await sessionMember();
+  if (!member) throw unauthorized();
+  return member;
+}
+
+/** The session cookie's value; next-auth splits one past 4 kB into name.0, name.1, … */
+function sessionCookie(jar: Awaited<ReturnType<typeof cookies>>): string | null {
+  const name = `${servedOverHttps() ? "__Secure-" : ""}next-auth.session-token`;
+  const whole = jar.get(name)?.value;
+  if (whole) return whole;
+  const chunks = jar
+    .getAll()
+    .filter((c) => c.name.startsWith(`${name}.`))
+    .sort((a, b) => Number(a.name.slice(name.length + 1)) - Number(b.name.slice(name.length + 1)));
+  return chunks.length ? chunks.map((c) => c.value).join("") : null;
+}
+
+/**
+ * The member the request's session cookie names, or null: no cookie, a token that does not
+ * decrypt or has expired, or one whose generation or role the database no longer holds.
+ */
+async function sessionMember(): Promise<Member | null> {
+  const secret = authSecret();
+  const token = sessionCookie(await cookies());
+  if (!token || !secret) return null;
+  const claims = await readSessionToken(token, secret); // null: tampered, another secret, expired
+  const { sub, teamId, role, gen } = claims ?? {};
+  if (typeof sub !== "string" || typeof teamId !== "string" || typeof gen !== "number") return null;
+  const state = await readSessionState(sub, teamId);
+  if (!state || state.generation !== gen || state.role !== role) return null;
+  return { userId: sub, teamId, teamName: state.teamName, role: state.role, name: state.name, email: state.email };
 }
 
 /** Throws 403 unless the member's role is one of `roles`; returns the member for chaining. */
@@ -266,17 +290,9 @@ export function canEdit(role: Role): boolean {
 
 /** The signed-in member for a server page, or null. Pages only decide what to show; route handlers enforce. */
 export async function getPageUser(): Promise<PageUser | null> {
-  const session = await getServerSession(authOptions);
-  const u = session?.user;
-  if (!u?.id || !u.role) return null;
-  return {
-    id: u.id,
-    name: u.name ?? null,
-    email: u.email ?? null,
-    role: u.role,
-    teamId: u.teamId,
-    teamName: u.teamName,
-  };
+  const m = await sessionMember();
+  if (!m) return null;
+  return { id: m.userId, name: m.name, email: m.email, role: m.role, teamId: m.teamId, teamName: m.teamName };
 }
 
 /** Same, but sends anyone without a session to the sign-in page. */
