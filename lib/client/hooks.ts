@@ -23,9 +23,18 @@ export type LatestDecision = LatestDecisionJson;
 export type ScenarioRecord = ScenarioJson;
 /** A scenario list item: waveform arrays left out (`lean: true`). */
 export type ScenarioSummary = ScenarioSummaryJson;
-export type RunRecord = RunJson;
 /** A run list item: no snapshot, samples or events. */
 export type RunSummary = RunSummaryJson;
+// Transitional, until app/share/[token]/page.tsx builds a SharedRunJson-based view and
+// components/review/compare-view.tsx types its run lists with RunSummary (see lib/schemas/README.md
+// § Responses): the old names are looser than the schema, never different from it.
+/** A run as the views take it; the share page builds one without a scenario version. */
+export type RunRecord = Omit<RunJson, "scenarioVersion"> & Partial<Pick<RunJson, "scenarioVersion">>;
+/** A run list item with the summary-only fields optional, so a cast to RunRecord still compiles. */
+export type RunListItem = Omit<RunSummary, "scenarioName" | "result"> &
+  Partial<Pick<RunSummary, "scenarioName">> & {
+    result: Omit<RunSummary["result"], "eventCount"> & Partial<Pick<RunSummary["result"], "eventCount">>;
+  };
 export type ListResponse<T> = ListOf<T>;
 
 const fetcher = <T>(url: string) => fetchJson<T>(url);
@@ -57,11 +66,11 @@ export function useScenario(id: string | null | undefined) {
 }
 
 export function useRuns(scenarioId: string | null | undefined) {
-  return useSWR<ListOf<RunSummary>>(scenarioId ? runsKey(scenarioId) : null, fetcher, listConfig);
+  return useSWR<ListOf<RunListItem>>(scenarioId ? runsKey(scenarioId) : null, fetcher, listConfig);
 }
 
 export function useRun(id: string | null | undefined) {
-  return useSWR<RunRecord>(id ? runKey(id) : null, fetcher, { revalidateOnFocus: false });
+  return useSWR<RunJson>(id ? runKey(id) : null, fetcher, { revalidateOnFocus: false });
 }
 
 /** Display name of a PersonRef ("—" when unknown). */
