@@ -25,9 +25,11 @@ import type { ErrorCode } from "./error-codes";
 
 // The simulation threads run at a lower priority than the event loop of the main thread, so a
 // request that waits on no simulation (health, lists) is served first. On Linux this applies
-// to the calling thread only; elsewhere it may not be allowed, which is harmless.
+// to the calling thread only (setpriority(2): the nice value is per thread); elsewhere it may
+// not be allowed, which is harmless. 19, the lowest: a busy simulation thread then gets about
+// 1/70 of a core the request thread wants (the kernel's nice weights 1024 vs 15), not 1/10.
 try {
-  setPriority(10);
+  setPriority(19);
 } catch {
   // not permitted here
 }
