@@ -409,7 +409,7 @@ export const invitationAcceptedSchema = z.strictObject({ email: z.string(), role
 
 // ---- Captures, audit, part profiles ----
 
-/** GET /api/captures items: a measured waveform without its samples. */
+/** GET /api/captures items and POST /api/captures (201): a measured waveform without its samples. */
 export const captureSummarySchema = z.strictObject({
   id,
   name: z.string(),
@@ -424,7 +424,7 @@ export const captureSummarySchema = z.strictObject({
   createdAt: isoTime,
 });
 
-/** GET /api/captures/:id and POST /api/captures: the summary plus [[t, v], ...] in s and V. */
+/** GET /api/captures/:id: the summary plus [[t, v], ...] in s and V. */
 export const captureSchema = captureSummarySchema.extend({
   samples: z.array(z.tuple([finite("sample time"), finite("sample value")])),
 });
