@@ -106,28 +106,38 @@ const P_LOW = 0.02425;
 const P_HIGH = 1 - P_LOW;
 const TWO_POW_M54 = 5.551115123125783e-17; // stands in for p = 0 (uniformFloat64 is in [0, 1 − 2^-53])
 
+/**
+ * Φ⁻¹ of every entry of `values` (each in (0, 1)), in place. The quantile is written out in this
+ * one loop rather than called per sample: a call that returns a double boxes it on the heap
+ * (one allocation per sample, garbage collections during a run), a typed-array store does not.
+ */
+function quantilesInPlace(values: Float64Array): void {
+  for (let i = 0; i < values.length; i++) {
+    const p = values[i];
+    if (p < P_LOW || p > P_HIGH) {
+      const low = p < P_LOW;
+      const q = Math.sqrt(-2 * portableLn(low ? p : 1 - p));
+      const x =
+        (((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) /
+        ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1);
+      values[i] = low ? x : -x;
+    } else {
+      const q = p - 0.5;
+      const r = q * q;
+      values[i] =
+        ((((((A[0] * r + A[1]) * r + A[2]) * r + A[3]) * r + A[4]) * r + A[5]) * q) /
+        (((((B[0] * r + B[1]) * r + B[2]) * r + B[3]) * r + B[4]) * r + 1);
+    }
+  }
+}
+
+const one = new Float64Array(1);
+
 /** Standard normal quantile Φ⁻¹(p) for p in (0, 1). */
 export function normalQuantile(p: number): number {
-  if (p < P_LOW) {
-    const q = Math.sqrt(-2 * portableLn(p));
-    return (
-      (((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) /
-      ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1)
-    );
-  }
-  if (p > P_HIGH) {
-    const q = Math.sqrt(-2 * portableLn(1 - p));
-    return (
-      -(((((C[0] * q + C[1]) * q + C[2]) * q + C[3]) * q + C[4]) * q + C[5]) /
-      ((((D[0] * q + D[1]) * q + D[2]) * q + D[3]) * q + 1)
-    );
-  }
-  const q = p - 0.5;
-  const r = q * q;
-  return (
-    ((((((A[0] * r + A[1]) * r + A[2]) * r + A[3]) * r + A[4]) * r + A[5]) * q) /
-    (((((B[0] * r + B[1]) * r + B[2]) * r + B[3]) * r + B[4]) * r + 1)
-  );
+  one[0] = p;
+  quantilesInPlace(one);
+  return one[0];
 }
 
 /**
@@ -136,12 +146,23 @@ export function normalQuantile(p: number): number {
  * normal quantile (inverse-transform sampling).
  */
 export function fillStandardNormal(out: Float64Array, seed: number): Float64Array {
-  const rng = seededGenerator(seed);
+  fillUniforms(out, seededGenerator(seed));
+  quantilesInPlace(out);
+  return out;
+}
+
+/**
+ * 53-bit uniforms in (0, 1) into `out`. Each hot loop of the noise (this one and the quantiles)
+ * is a function of its own with nothing after the loop: V8 compiles a long loop while it runs
+ * (on-stack replacement), and code after the loop that has not run yet would make that code
+ * fall back at every call, leaving the next call's loop unoptimised (one boxed number per
+ * sample: garbage collections during a run).
+ */
+function fillUniforms(out: Float64Array, rng: ReturnType<typeof seededGenerator>): void {
   for (let i = 0; i < out.length; i++) {
     const u = uniformFloat64(rng);
-    out[i] = normalQuantile(u === 0 ? TWO_POW_M54 : u);
+    out[i] = u === 0 ? TWO_POW_M54 : u;
   }
-  return out;
 }
 
 /** Knot interval of the noise: samples at 1/(2·bandwidth) (lib/schemas/README.md § Input signal). */

@@ -29,6 +29,82 @@ function holds(
   return !trackVd || (vdSide ? lo >= 0 : hi < 0);
 }
 
+/**
+ * The knot-stepping loop of holdAtRail: from knot index k (t at or after knot k, before knot
+ * k + 1) steps knot to knot while vd at the next knot holds the rail, and returns the index of
+ * the last knot reached (k when none). A function of its own, on typed arrays and numbers only,
+ * so its optimised code is not thrown away with the rarely taken paths of holdAtRail (which
+ * left this loop running unoptimised, boxing a number per knot: garbage collections).
+ */
+function stepKnots(
+  s: ExactSolver,
+  knots: Float64Array,
+  k: number,
+  t: number,
+  end: number,
+  alpha: number,
+  c0: number,
+  margin: number,
+  high: boolean,
+  threshold: number,
+  vdSide: boolean,
+): number {
+  const sig = s.p.signal;
+  const trackVd = s.p.trackVd;
+  const dt = sig.noiseDt;
+  // The loop carries integers only (a number carried from one pass to the next may be kept
+  // boxed by the code that enters a running loop): a knot's time is (k + 1)·dt.
+  const lastK = Math.min(knots.length - 1, Math.ceil(end / dt) + 1);
+  if (!((k + 1) * dt > t)) return k;
+  const refT = sig.partsRefT;
+  const refV = sig.partsRefV;
+  const slope = sig.partsSlope;
+  const omega = sig.sineOmega;
+  const phase0 = sig.sinePhase;
+  const amp = sig.sineAmp;
+  const sineCount = amp.length;
+  const sn = s.sineSin;
+  const cs = s.sineCos;
+  const stepSin = s.stepSin;
+  const stepCos = s.stepCos;
+  const steps0 = s.steps;
+  const k0 = k;
+  let sinceSeed = RESEED;
+  while (k < lastK) {
+    const tb = (k + 1) * dt;
+    if (tb >= end) break;
+    let sines = 0;
+    if (sineCount > 0) {
+      if (sinceSeed >= RESEED) {
+        for (let j = 0; j < sineCount; j++) {
+          const phase = omega[j] * tb + phase0[j];
+          sn[j] = Math.sin(phase);
+          cs[j] = Math.cos(phase);
+        }
+        sinceSeed = 0;
+      } else {
+        for (let j = 0; j < sineCount; j++) {
+          const a = sn[j];
+          const b = cs[j];
+          sn[j] = a * stepCos[j] + b * stepSin[j];
+          cs[j] = b * stepCos[j] - a * stepSin[j];
+        }
+      }
+      sinceSeed++;
+      for (let j = 0; j < sineCount; j++) sines += amp[j] * sn[j];
+    }
+    const b = alpha * (refV + slope * (tb - refT) + knots[k + 1] + sines) + c0;
+    if (!holds(b, b, margin, high, threshold, trackVd, vdSide)) break;
+    k++;
+    if (((k - k0) & 1023) === 0) {
+      s.steps = steps0 + (k - k0);
+      s.checkIn(k * dt);
+    }
+  }
+  s.steps = steps0;
+  return k;
+}
+
 /** Hold the output at the rail from t; returns the time reached (the caller goes on from there). */
 export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
   const p = s.p;
@@ -58,46 +134,15 @@ export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
     const margin = (curvature * dt * dt) / 8;
     const v0 = alpha * m.inputAtStart() + c0;
     if (holds(v0, v0, margin, high, threshold, trackVd, vdSide)) {
-      const lastK = knots.length - 1;
       let k = Math.floor(t / dt);
       if ((k + 1) * dt <= t) k++;
-      const pEnd = Math.min(T, sig.partsTo);
-      const refT = sig.partsRefT;
-      const refV = sig.partsRefV;
-      const slope = sig.partsSlope;
-      const sn = s.sineSin;
-      const cs = s.sineCos;
-      let sinceSeed = RESEED;
-      while (k < lastK) {
-        const tb = (k + 1) * dt;
-        if (!(tb > t) || tb >= pEnd) break;
-        let sines = 0;
-        if (sineCount > 0) {
-          if (sinceSeed >= RESEED) {
-            for (let j = 0; j < sineCount; j++) {
-              const phase = omega[j] * tb + sig.sinePhase[j];
-              sn[j] = Math.sin(phase);
-              cs[j] = Math.cos(phase);
-            }
-            sinceSeed = 0;
-          } else {
-            for (let j = 0; j < sineCount; j++) {
-              const a = sn[j];
-              const b = cs[j];
-              sn[j] = a * s.stepCos[j] + b * s.stepSin[j];
-              cs[j] = b * s.stepCos[j] - a * s.stepSin[j];
-            }
-          }
-          sinceSeed++;
-          for (let j = 0; j < sineCount; j++) sines += sig.sineAmp[j] * sn[j];
-        }
-        const b = alpha * (refV + slope * (tb - refT) + knots[k + 1] + sines) + c0;
-        if (!holds(b, b, margin, high, threshold, trackVd, vdSide)) break;
-        while (s.sample < ts.length && ts[s.sample] <= tb) out[s.sample++] = V;
-        held += tb - t;
-        t = tb;
-        k++;
-        if ((++s.steps & 1023) === 0) s.checkIn(t);
+      const kEnd = stepKnots(s, knots, k, t, Math.min(T, sig.partsTo), alpha, c0, margin, high, threshold, vdSide);
+      if (kEnd > k) {
+        const reached = kEnd * dt;
+        s.steps += kEnd - k;
+        held += reached - t;
+        t = reached;
+        while (s.sample < ts.length && ts[s.sample] <= t) out[s.sample++] = V;
       }
     }
   }

@@ -176,7 +176,9 @@ export class Scanner {
     const basis = this.basis;
     basis.derivative(c, this.slope);
     if (basis.complex) {
-      this.curvE1 = Math.hypot(c[SLOT_E1], c[SLOT_E2]) * (basis.lambda1 * basis.lambda1 + basis.nu * basis.nu);
+      this.curvE1 =
+        Math.sqrt(c[SLOT_E1] * c[SLOT_E1] + c[SLOT_E2] * c[SLOT_E2]) *
+        (basis.lambda1 * basis.lambda1 + basis.nu * basis.nu);
       this.curvE2 = 0;
     } else {
       this.curvE1 = basis.useE1 ? Math.abs(c[SLOT_E1]) * basis.lambda1 * basis.lambda1 : 0;
@@ -185,7 +187,9 @@ export class Scanner {
     let sines = 0;
     for (let j = 0; j < basis.sineCount; j++) {
       const w = basis.omega[j];
-      sines += Math.hypot(c[SLOT_SINES + 2 * j], c[SLOT_SINES + 1 + 2 * j]) * w * w;
+      const sn = c[SLOT_SINES + 2 * j];
+      const cs = c[SLOT_SINES + 1 + 2 * j];
+      sines += Math.sqrt(sn * sn + cs * cs) * w * w;
     }
     this.curvSines = sines;
     const P = this.points;
@@ -213,7 +217,7 @@ export class Scanner {
     P[o + 1] = basis.dot(c);
     P[o + 2] = basis.dot(this.slope);
     if (basis.complex) {
-      P[o + 3] = this.curvE1 * Math.hypot(v[SLOT_E1], v[SLOT_E2]);
+      P[o + 3] = this.curvE1 * Math.sqrt(v[SLOT_E1] * v[SLOT_E1] + v[SLOT_E2] * v[SLOT_E2]);
       P[o + 4] = 0;
     } else {
       P[o + 3] = this.curvE1 * v[SLOT_E1];

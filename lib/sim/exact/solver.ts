@@ -236,7 +236,26 @@ export class ExactSolver {
     }
   }
 
+  /** The final state (output, capacitor), kept by the piece loop. */
+  private finalVo = 0;
+  private finalX = 0;
+
   run(): void {
+    this.pieces();
+    // Any sample left (rounding at the very end) takes the final state.
+    const p = this.p;
+    while (this.sample < p.sampleTimes.length) {
+      if (p.capacitor !== null) p.capacitor[this.sample] = this.finalX;
+      p.output[this.sample++] = this.finalVo;
+    }
+  }
+
+  /**
+   * The piece loop. Nothing follows the loop in this method: V8 compiles a long loop while it
+   * runs, and code after it that has not run yet would throw that code away at the end of every
+   * run, so the next run's loop would start unoptimised (boxing numbers: garbage collections).
+   */
+  private pieces(): void {
     const p = this.p;
     const model = this.model;
     const T = p.duration;
@@ -266,6 +285,8 @@ export class ExactSolver {
     }
     let stalled = 0;
     let previousSettledLinear = false;
+    this.finalVo = vo;
+    this.finalX = x;
     while (t < T) {
       let tb = this.pieceEnd(t, T);
       if (variableHigh) {
@@ -280,6 +301,7 @@ export class ExactSolver {
         t = holdAtRail(this, t, regime === RAIL_HIGH);
         previousSettledLinear = false;
         vo = regime === RAIL_HIGH ? Voh : Vol;
+        this.finalVo = vo;
         if (t >= T) break;
         tb = this.pieceEnd(t, T);
         regime = enterRegime(vo, model.driveOf(model.inputAtStart(), vo, x), this.levels);
@@ -367,11 +389,8 @@ export class ExactSolver {
       x = xNext;
       t = tEnd;
       if ((this.steps & 1023) === 0 || this.steps > this.maxSteps) this.checkIn(t);
-    }
-    // Any sample left (rounding at the very end) takes the final state.
-    while (this.sample < ts.length) {
-      if (cap !== null) cap[this.sample] = x;
-      out[this.sample++] = vo;
+      this.finalVo = vo;
+      this.finalX = x;
     }
   }
 
