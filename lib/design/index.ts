@@ -1,7 +1,13 @@
 // Design from spec: `design(spec)` → `railwise.design/1` (lib/schemas/README.md § Design JSON) plus extras:
 // `errors` (target vs achieved), `reference` (how the reference is made), `assumptions`,
 // `warnings` and a seeded `monteCarlo` spread. Pure TypeScript: no React, Next or database.
-import { designSpecSchema, DESIGN_SCHEMA_ID, type DesignSensor, type DesignSpec } from "@/lib/schemas/design";
+import {
+  designSpecSchema,
+  DESIGN_SCHEMA_ID,
+  type DesignSensor,
+  type DesignSpec,
+  thresholdsOf,
+} from "@/lib/schemas/design";
 import { describeIssues, type Stage } from "@/lib/schemas/scenario";
 import { SERIES_TOLERANCE, seriesInRange, snapToSeries, type SeriesName } from "./eseries";
 import { formatQuantity, formatRkm } from "./notation";
@@ -432,14 +438,18 @@ export interface SensorReport {
 
 /** Thresholds in sensor units → stage-input volts → design → back to sensor units. */
 function designWithSensor(spec: DesignSpec, sensor: DesignSensor): DesignResult {
+  // The schema gives a sensor to the threshold kinds only.
+  if (spec.kind !== "comparator" && spec.kind !== "schmitt-inverting" && spec.kind !== "schmitt-noninverting")
+    throw new DesignError("sensor", `a sensor applies to threshold stages only, not to ${spec.kind}`);
   const fe = sensorFrontEnd(sensor as SensorSpec, spec.supply.positive);
-  const t = spec.target;
-  const upper = (t.threshold ?? t.upperThreshold)!;
-  const lower = (t.threshold ?? t.lowerThreshold)!;
+  const { upper, lower } = thresholdsOf(spec.target);
   const vUpper = fe.toVolts(upper);
   const vLower = fe.toVolts(lower);
   const voltageTarget = { upperThreshold: Math.max(vUpper, vLower), lowerThreshold: Math.min(vUpper, vLower) };
-  const target = t.threshold !== undefined ? { threshold: voltageTarget.upperThreshold } : voltageTarget;
+  const voltsSpec: DesignSpec =
+    spec.kind === "comparator" && spec.target.threshold !== undefined
+      ? { ...spec, sensor: undefined, target: { threshold: voltageTarget.upperThreshold } }
+      : { ...spec, sensor: undefined, target: voltageTarget };
   // The stage's upper voltage threshold belongs to the lower quantity when the sensor inverts.
   const swap = (fig: string) =>
     fe.inverted
@@ -447,7 +457,7 @@ function designWithSensor(spec: DesignSpec, sensor: DesignSensor): DesignResult 
       : fig;
   let result: DesignResult;
   try {
-    result = designVolts({ ...spec, sensor: undefined, target });
+    result = designVolts(voltsSpec);
   } catch (e) {
     if (e instanceof DesignError) {
       const map = `target ${upper} / ${lower} ${fe.unit} is ${fmtV(vUpper)} / ${fmtV(vLower)} at the stage input`;
@@ -548,7 +558,7 @@ function designVolts(spec: DesignSpec): DesignResult {
 
   const warnings = [...ctx.warnings];
   const notes: string[] = [];
-  if (spec.kind === "inverting-amplifier" && spec.target.gain! > 0)
+  if (spec.kind === "inverting-amplifier" && spec.target.gain > 0)
     notes.push(
       `target.gain ${spec.target.gain} read as the magnitude of an inverting gain: vo/vin = −${spec.target.gain}`,
     );

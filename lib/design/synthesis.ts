@@ -3,7 +3,9 @@
 // figure and why), then searches the series over decades around the ideal values and keeps the
 // combination with the smallest worst error; ties go to impedances near the middle of the range.
 import type { OpAmp, Stage, Supply } from "@/lib/schemas/scenario";
-import type { DesignSpec } from "@/lib/schemas/design";
+import { type DesignSpec, type DesignSpecOf, thresholdsOf } from "@/lib/schemas/design";
+
+type ThresholdPair = DesignSpecOf<"schmitt-inverting">["target"];
 import { seriesInRange, type SeriesName } from "./eseries";
 import {
   conditionsOf,
@@ -259,8 +261,8 @@ function requireConsistent(bestContinuous: number, figure: string, why: string, 
 
 // ---------------------------------------------------------------------------------------------
 
-function comparator(ctx: SynthesisContext): Candidate {
-  const t = ctx.targets.upperThreshold!.value;
+function comparator(ctx: SynthesisContext, target: DesignSpecOf<"comparator">["target"]): Candidate {
+  const t = thresholdsOf(target).upper;
   const inputAt = ctx.spec.inputAt ?? "noninverting";
   const needed = inputAt === "inverting" ? t - ctx.cond.offset : t + ctx.cond.offset;
   const stageOf = (reference: number): Stage => ({ kind: "comparator", reference, inputAt });
@@ -291,9 +293,8 @@ function comparator(ctx: SynthesisContext): Candidate {
   return best;
 }
 
-function schmittNoninverting(ctx: SynthesisContext): Candidate {
-  const U = ctx.targets.upperThreshold!.value;
-  const L = ctx.targets.lowerThreshold!.value;
+function schmittNoninverting(ctx: SynthesisContext, target: ThresholdPair): Candidate {
+  const { upperThreshold: U, lowerThreshold: L } = target;
   const { high, low, offset } = ctx.cond;
   const rIdeal = (U - L) / (high - low);
   requireRatio(rIdeal, "rInput/rFeedback", "lowerThreshold", ctx);
@@ -343,9 +344,8 @@ function schmittNoninverting(ctx: SynthesisContext): Candidate {
   return best;
 }
 
-function schmittInverting(ctx: SynthesisContext): Candidate {
-  const U = ctx.targets.upperThreshold!.value;
-  const L = ctx.targets.lowerThreshold!.value;
+function schmittInverting(ctx: SynthesisContext, target: ThresholdPair): Candidate {
+  const { upperThreshold: U, lowerThreshold: L } = target;
   const { high, low, offset } = ctx.cond;
   const k = (U - L) / (high - low);
   if (k >= 1) {
@@ -419,11 +419,15 @@ function schmittInverting(ctx: SynthesisContext): Candidate {
   return best;
 }
 
-function amplifier(ctx: SynthesisContext): Candidate {
+function amplifier(
+  ctx: SynthesisContext,
+  kind: "noninverting-amplifier" | "inverting-amplifier",
+  gain: number,
+): Candidate {
   const A0 = ctx.cond.openLoopGain;
   const ref = referenceSetting(ctx);
-  if (ctx.spec.kind === "noninverting-amplifier") {
-    const g = ctx.targets.gain!.value;
+  if (kind === "noninverting-amplifier") {
+    const g = gain;
     if (g >= A0) throw new DesignError("gain", `gain ${g} is not below the open-loop gain ${A0}`);
     const ideal = g / (1 - g / A0); // 1 + rF/rG before the finite-A0 loss
     requireRatio(ideal - 1, "rFeedback/rGround", "gain", ctx);
@@ -439,7 +443,7 @@ function amplifier(ctx: SynthesisContext): Candidate {
       ),
     )!;
   }
-  const g = Math.abs(ctx.targets.gain!.value);
+  const g = Math.abs(gain);
   if (g >= A0) throw new DesignError("gain", `gain magnitude ${g} is not below the open-loop gain ${A0}`);
   const ratio = (g * (1 + 1 / A0)) / (1 - g / A0);
   requireRatio(ratio, "rFeedback/rInput", "gain", ctx);
@@ -481,9 +485,8 @@ function amplifier(ctx: SynthesisContext): Candidate {
   return pick(cands)!;
 }
 
-function oscillator(ctx: SynthesisContext): Candidate {
-  const f = ctx.targets.frequency!.value;
-  const duty = ctx.spec.target.duty;
+function oscillator(ctx: SynthesisContext, target: DesignSpecOf<"relaxation-oscillator">["target"]): Candidate {
+  const { frequency: f, duty } = target;
   const { high, low, offset } = ctx.cond;
   const { positive, negative } = ctx.supply;
   const ref = referenceSetting(ctx);
@@ -647,18 +650,19 @@ function oscillator(ctx: SynthesisContext): Candidate {
 }
 
 export function synthesize(ctx: SynthesisContext): Candidate {
-  switch (ctx.spec.kind) {
+  const spec = ctx.spec;
+  switch (spec.kind) {
     case "comparator":
-      return comparator(ctx);
+      return comparator(ctx, spec.target);
     case "schmitt-noninverting":
-      return schmittNoninverting(ctx);
+      return schmittNoninverting(ctx, spec.target);
     case "schmitt-inverting":
-      return schmittInverting(ctx);
+      return schmittInverting(ctx, spec.target);
     case "noninverting-amplifier":
     case "inverting-amplifier":
-      return amplifier(ctx);
+      return amplifier(ctx, spec.kind, spec.target.gain);
     case "relaxation-oscillator":
-      return oscillator(ctx);
+      return oscillator(ctx, spec.target);
   }
 }
 
@@ -671,12 +675,11 @@ export function contextOf(spec: DesignSpec): SynthesisContext {
       "range",
       `fewer than two ${spec.series} values lie between ${range.min} Ω and ${range.max} Ω`,
     );
-  const t = spec.target;
   const targets: SynthesisContext["targets"] = {};
   const span = spec.supply.positive - spec.supply.negative;
   switch (spec.kind) {
     case "comparator": {
-      const v = (t.threshold ?? t.upperThreshold)!;
+      const v = thresholdsOf(spec.target).upper;
       const scale = Math.max(Math.abs(v), 0.01 * span);
       targets.upperThreshold = { value: v, scale };
       targets.lowerThreshold = { value: v, scale };
@@ -684,23 +687,26 @@ export function contextOf(spec: DesignSpec): SynthesisContext {
     }
     case "schmitt-inverting":
     case "schmitt-noninverting": {
-      const h = t.upperThreshold! - t.lowerThreshold!;
+      const { upperThreshold: U, lowerThreshold: L } = spec.target;
+      const h = U - L;
       // Relative error, never stricter than relative to the deadband (thresholds near 0 V).
-      targets.upperThreshold = { value: t.upperThreshold!, scale: Math.max(Math.abs(t.upperThreshold!), h) };
-      targets.lowerThreshold = { value: t.lowerThreshold!, scale: Math.max(Math.abs(t.lowerThreshold!), h) };
+      targets.upperThreshold = { value: U, scale: Math.max(Math.abs(U), h) };
+      targets.lowerThreshold = { value: L, scale: Math.max(Math.abs(L), h) };
       break;
     }
     case "noninverting-amplifier":
-      targets.gain = { value: t.gain!, scale: Math.abs(t.gain!) };
+      targets.gain = { value: spec.target.gain, scale: Math.abs(spec.target.gain) };
       break;
     case "inverting-amplifier":
       // Documented choice: the inverting gain may be given signed (−10) or as a magnitude (10); both mean vo/vin = −10.
-      targets.gain = { value: -Math.abs(t.gain!), scale: Math.abs(t.gain!) };
+      targets.gain = { value: -Math.abs(spec.target.gain), scale: Math.abs(spec.target.gain) };
       break;
-    case "relaxation-oscillator":
-      targets.frequency = { value: t.frequency!, scale: t.frequency! };
-      if (t.duty !== undefined) targets.dutyCycle = { value: t.duty, scale: t.duty };
+    case "relaxation-oscillator": {
+      const { frequency, duty } = spec.target;
+      targets.frequency = { value: frequency, scale: frequency };
+      if (duty !== undefined) targets.dutyCycle = { value: duty, scale: duty };
       break;
+    }
   }
   return {
     spec,

@@ -9,6 +9,11 @@ export {
   DESIGN_SPEC_SCHEMA_ID,
   DESIGN_SCHEMA_ID,
   designTargetSchema,
+  comparatorTargetSchema,
+  thresholdPairTargetSchema,
+  gainTargetSchema,
+  oscillatorTargetSchema,
+  thresholdsOf,
   ntcModelSchema,
   sensorSchema,
   designSpecSchema,
@@ -16,5 +21,10 @@ export {
 
 export type DesignSpec = z.infer<typeof designSpecSchema>;
 export type DesignSpecInput = z.input<typeof designSpecSchema>;
+/** The target of any kind (a union: each kind has its own fields). */
 export type DesignTarget = DesignSpec["target"];
+/** The spec of one stage kind, with that kind's target. */
+export type DesignSpecOf<K extends DesignSpec["kind"]> = Extract<DesignSpec, { kind: K }>;
+/** The kinds that switch at thresholds (and may take a sensor). */
+export type ThresholdKind = "comparator" | "schmitt-inverting" | "schmitt-noninverting";
 export type DesignSensor = NonNullable<DesignSpec["sensor"]>;

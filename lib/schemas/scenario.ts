@@ -333,188 +333,234 @@ export const sensorSchema = z.discriminatedUnion(
   { error: 'sensor.kind must be "ntc", "linear" or "divider"' },
 );
 
-export const designSpecSchema = z
-  .strictObject({
-    schema: z.literal(DESIGN_SPEC_SCHEMA_ID, { error: `schema must be "${DESIGN_SPEC_SCHEMA_ID}"` }),
-    name: z.string().max(200, { message: "name must be at most 200 characters" }).optional(),
-    kind: z.enum(STAGE_KINDS, {
-      error: `kind must be one of ${STAGE_KINDS.join(", ")}`,
-    }),
-    supply: supplySchema,
-    opamp: opampSchema,
-    target: designTargetSchema,
-    series: z.enum(SERIES, { error: `series must be one of ${SERIES.join(", ")}` }),
-    /** Resistor tolerance; defaults to the series' usual tolerance. */
-    tolerance: fraction("tolerance", 0.2).optional(),
-    reference: z
-      .union([volts("reference"), z.literal("auto")], { error: 'reference must be a voltage or "auto"' })
-      .optional(),
-    /** Comparator only: the pin the input drives. */
-    inputAt: z
-      .enum(["noninverting", "inverting"], { error: 'inputAt must be "noninverting" or "inverting"' })
-      .optional(),
-    /** Practical resistor range (Ω); default 1 kΩ–1 MΩ. */
-    range: rangeSchema("range", "Ω", 0.1, 1e9).optional(),
-    /** Oscillator timing capacitor: series (default E6), range (default 100 pF–10 µF), tolerance (default 0.05). */
-    capacitorSeries: z.enum(SERIES, { error: `capacitorSeries must be one of ${SERIES.join(", ")}` }).optional(),
-    capacitorRange: rangeSchema("capacitorRange", "F", 1e-13, 1).optional(),
-    capacitorTolerance: fraction("capacitorTolerance", 0.5).optional(),
-    /** Largest relative error accepted for an ideal (continuous) solution, and the spec window ± for the spread. */
-    maxError: finite("maxError")
-      .refine((v) => v > 0 && v <= 0.5, { message: "maxError must be above 0 and at most 0.5" })
-      .optional(),
-    /** Share of each nominal output headroom that the worst case sweeps (± this fraction); default 0.2. */
-    headroomSpread: fraction("headroomSpread", 1).optional(),
-    sensor: sensorSchema.optional(),
-    /** RC filter suggestion: the input must not reach the switching point within `bounceTime` of a step of `step` volts at the stage input (default the positive supply). */
-    filter: z
-      .strictObject({
-        bounceTime: positive("filter.bounceTime (s)").refine((v) => v <= 100, {
-          message: "filter.bounceTime must be at most 100 s",
-        }),
-        step: volts("filter.step").optional(),
-      })
-      .optional(),
-    /** Open-drain output: the pull-up (chosen from the series unless given) and the load; thresholds are designed with the loaded high level. */
-    output: z
-      .strictObject({
-        kind: z.literal("open-drain", { error: 'output.kind must be "open-drain" (push-pull is the default)' }),
-        pullUp: positive("output.pullUp (Ω)").optional(),
-        pullUpTo: z
-          .union([z.literal("positive"), volts("output.pullUpTo")], {
-            error: 'output.pullUpTo must be "positive" or a voltage',
-          })
+/** The spec as written: one flat target object whatever the kind (what the wire carries). */
+const designSpecFields = z.strictObject({
+  schema: z.literal(DESIGN_SPEC_SCHEMA_ID, { error: `schema must be "${DESIGN_SPEC_SCHEMA_ID}"` }),
+  name: z.string().max(200, { message: "name must be at most 200 characters" }).optional(),
+  kind: z.enum(STAGE_KINDS, {
+    error: `kind must be one of ${STAGE_KINDS.join(", ")}`,
+  }),
+  supply: supplySchema,
+  opamp: opampSchema,
+  target: designTargetSchema,
+  series: z.enum(SERIES, { error: `series must be one of ${SERIES.join(", ")}` }),
+  /** Resistor tolerance; defaults to the series' usual tolerance. */
+  tolerance: fraction("tolerance", 0.2).optional(),
+  reference: z
+    .union([volts("reference"), z.literal("auto")], { error: 'reference must be a voltage or "auto"' })
+    .optional(),
+  /** Comparator only: the pin the input drives. */
+  inputAt: z.enum(["noninverting", "inverting"], { error: 'inputAt must be "noninverting" or "inverting"' }).optional(),
+  /** Practical resistor range (Ω); default 1 kΩ–1 MΩ. */
+  range: rangeSchema("range", "Ω", 0.1, 1e9).optional(),
+  /** Oscillator timing capacitor: series (default E6), range (default 100 pF–10 µF), tolerance (default 0.05). */
+  capacitorSeries: z.enum(SERIES, { error: `capacitorSeries must be one of ${SERIES.join(", ")}` }).optional(),
+  capacitorRange: rangeSchema("capacitorRange", "F", 1e-13, 1).optional(),
+  capacitorTolerance: fraction("capacitorTolerance", 0.5).optional(),
+  /** Largest relative error accepted for an ideal (continuous) solution, and the spec window ± for the spread. */
+  maxError: finite("maxError")
+    .refine((v) => v > 0 && v <= 0.5, { message: "maxError must be above 0 and at most 0.5" })
+    .optional(),
+  /** Share of each nominal output headroom that the worst case sweeps (± this fraction); default 0.2. */
+  headroomSpread: fraction("headroomSpread", 1).optional(),
+  sensor: sensorSchema.optional(),
+  /** RC filter suggestion: the input must not reach the switching point within `bounceTime` of a step of `step` volts at the stage input (default the positive supply). */
+  filter: z
+    .strictObject({
+      bounceTime: positive("filter.bounceTime (s)").refine((v) => v <= 100, {
+        message: "filter.bounceTime must be at most 100 s",
+      }),
+      step: volts("filter.step").optional(),
+    })
+    .optional(),
+  /** Open-drain output: the pull-up (chosen from the series unless given) and the load; thresholds are designed with the loaded high level. */
+  output: z
+    .strictObject({
+      kind: z.literal("open-drain", { error: 'output.kind must be "open-drain" (push-pull is the default)' }),
+      pullUp: positive("output.pullUp (Ω)").optional(),
+      pullUpTo: z
+        .union([z.literal("positive"), volts("output.pullUpTo")], {
+          error: 'output.pullUpTo must be "positive" or a voltage',
+        })
+        .optional(),
+      load: z.strictObject({ r: positive("output.load.r (Ω)"), to: volts("output.load.to").optional() }).optional(),
+    })
+    .optional(),
+  monteCarlo: z
+    .union([
+      z.literal(false),
+      z.strictObject({
+        draws: z
+          .number({ error: "monteCarlo.draws must be a whole number" })
+          .int({ message: "monteCarlo.draws must be a whole number" })
+          .min(1, { message: "monteCarlo.draws must be at least 1" })
+          .max(100_000, { message: "monteCarlo.draws must be at most 100,000" })
           .optional(),
-        load: z.strictObject({ r: positive("output.load.r (Ω)"), to: volts("output.load.to").optional() }).optional(),
-      })
-      .optional(),
-    monteCarlo: z
-      .union([
-        z.literal(false),
-        z.strictObject({
-          draws: z
-            .number({ error: "monteCarlo.draws must be a whole number" })
-            .int({ message: "monteCarlo.draws must be a whole number" })
-            .min(1, { message: "monteCarlo.draws must be at least 1" })
-            .max(100_000, { message: "monteCarlo.draws must be at most 100,000" })
-            .optional(),
-          seed: z
-            .number({ error: "monteCarlo.seed must be a whole number" })
-            .int({ message: "monteCarlo.seed must be a whole number" })
-            .min(0, { message: "monteCarlo.seed must not be negative" })
-            .max(4294967295, { message: "monteCarlo.seed must fit in 32 bits" })
-            .optional(),
-          distribution: z
-            .enum(["uniform", "normal"], { error: 'monteCarlo.distribution must be "uniform" or "normal"' })
-            .optional(),
-          bins: z.number().int().min(1).max(200, { message: "monteCarlo.bins must be at most 200" }).optional(),
-        }),
-      ])
-      .optional(),
-  })
-  .superRefine((s, ctx) => {
-    const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: "custom", path, message });
-    const span = s.supply.positive - s.supply.negative;
-    if (s.opamp.outputHeadroomHigh + s.opamp.outputHeadroomLow >= span) {
-      issue(
-        ["opamp", "outputHeadroomHigh"],
-        `outputHeadroomHigh + outputHeadroomLow must be smaller than the supply span (${span} V)`,
-      );
+        seed: z
+          .number({ error: "monteCarlo.seed must be a whole number" })
+          .int({ message: "monteCarlo.seed must be a whole number" })
+          .min(0, { message: "monteCarlo.seed must not be negative" })
+          .max(4294967295, { message: "monteCarlo.seed must fit in 32 bits" })
+          .optional(),
+        distribution: z
+          .enum(["uniform", "normal"], { error: 'monteCarlo.distribution must be "uniform" or "normal"' })
+          .optional(),
+        bins: z.number().int().min(1).max(200, { message: "monteCarlo.bins must be at most 200" }).optional(),
+      }),
+    ])
+    .optional(),
+});
+
+/** Every rule across fields, each issue naming its field (the per-kind union below only narrows the type). */
+const designSpecChecked = designSpecFields.superRefine((s, ctx) => {
+  const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: "custom", path, message });
+  const span = s.supply.positive - s.supply.negative;
+  if (s.opamp.outputHeadroomHigh + s.opamp.outputHeadroomLow >= span) {
+    issue(
+      ["opamp", "outputHeadroomHigh"],
+      `outputHeadroomHigh + outputHeadroomLow must be smaller than the supply span (${span} V)`,
+    );
+  }
+  if (typeof s.reference === "number" && (s.reference > s.supply.positive || s.reference < s.supply.negative)) {
+    issue(
+      ["reference"],
+      `reference (${s.reference} V) must lie within the supplies (${s.supply.negative} V … ${s.supply.positive} V)`,
+    );
+  }
+  const t = s.target;
+  const has = (k: keyof typeof t) => t[k] !== undefined;
+  const only = (allowed: (keyof typeof t)[]) => {
+    for (const k of Object.keys(t) as (keyof typeof t)[]) {
+      if (!allowed.includes(k))
+        issue(["target", k], `target.${k} does not apply to ${s.kind} (use ${allowed.join(", ")})`);
     }
-    if (typeof s.reference === "number" && (s.reference > s.supply.positive || s.reference < s.supply.negative)) {
-      issue(
-        ["reference"],
-        `reference (${s.reference} V) must lie within the supplies (${s.supply.negative} V … ${s.supply.positive} V)`,
-      );
-    }
-    const t = s.target;
-    const has = (k: keyof typeof t) => t[k] !== undefined;
-    const only = (allowed: (keyof typeof t)[]) => {
-      for (const k of Object.keys(t) as (keyof typeof t)[]) {
-        if (!allowed.includes(k))
-          issue(["target", k], `target.${k} does not apply to ${s.kind} (use ${allowed.join(", ")})`);
+  };
+  switch (s.kind) {
+    case "schmitt-inverting":
+    case "schmitt-noninverting":
+      only(["upperThreshold", "lowerThreshold"]);
+      if (!has("upperThreshold"))
+        issue(["target", "upperThreshold"], "target.upperThreshold is required for a Schmitt trigger");
+      if (!has("lowerThreshold"))
+        issue(["target", "lowerThreshold"], "target.lowerThreshold is required for a Schmitt trigger");
+      if (has("upperThreshold") && has("lowerThreshold") && t.upperThreshold! <= t.lowerThreshold!) {
+        issue(
+          ["target", "upperThreshold"],
+          `target.upperThreshold (${t.upperThreshold} V) must be above target.lowerThreshold (${t.lowerThreshold} V): the deadband needs a positive width`,
+        );
       }
-    };
-    switch (s.kind) {
-      case "schmitt-inverting":
-      case "schmitt-noninverting":
-        only(["upperThreshold", "lowerThreshold"]);
-        if (!has("upperThreshold"))
-          issue(["target", "upperThreshold"], "target.upperThreshold is required for a Schmitt trigger");
-        if (!has("lowerThreshold"))
-          issue(["target", "lowerThreshold"], "target.lowerThreshold is required for a Schmitt trigger");
-        if (has("upperThreshold") && has("lowerThreshold") && t.upperThreshold! <= t.lowerThreshold!) {
-          issue(
-            ["target", "upperThreshold"],
-            `target.upperThreshold (${t.upperThreshold} V) must be above target.lowerThreshold (${t.lowerThreshold} V): the deadband needs a positive width`,
-          );
-        }
-        break;
-      case "comparator":
-        only(["threshold", "upperThreshold", "lowerThreshold"]);
-        if (has("threshold")) {
-          for (const k of ["upperThreshold", "lowerThreshold"] as const)
-            if (has(k) && t[k] !== t.threshold)
-              issue(["target", k], `target.${k} must equal target.threshold for a comparator`);
-        } else if (!has("upperThreshold") || !has("lowerThreshold")) {
-          issue(
-            ["target", "threshold"],
-            "target.threshold (or equal upperThreshold and lowerThreshold) is required for a comparator",
-          );
-        } else if (t.upperThreshold !== t.lowerThreshold) {
-          issue(
-            ["target", "upperThreshold"],
-            "a comparator has no hysteresis: target.upperThreshold must equal target.lowerThreshold (use schmitt-noninverting or schmitt-inverting for a deadband)",
-          );
-        }
-        break;
-      case "noninverting-amplifier":
-        only(["gain"]);
-        if (!has("gain")) issue(["target", "gain"], "target.gain is required for an amplifier");
-        else if (!(t.gain! > 1 && t.gain! <= 1e5))
-          issue(
-            ["target", "gain"],
-            `target.gain (${t.gain}) must be above 1 and at most 100000 for a non-inverting amplifier (a gain of 1 is a follower and needs no resistors)`,
-          );
-        if (s.reference === "auto")
-          issue(
-            ["reference"],
-            'reference "auto" is not offered for the non-inverting amplifier: rGround returns its current into the reference, so give a buffered reference voltage',
-          );
-        break;
-      case "inverting-amplifier":
-        only(["gain"]);
-        if (!has("gain")) issue(["target", "gain"], "target.gain is required for an amplifier");
-        else if (!(Math.abs(t.gain!) > 0 && Math.abs(t.gain!) <= 1e5))
-          issue(
-            ["target", "gain"],
-            `target.gain (${t.gain}) must be non-zero with a magnitude of at most 100000 (−10 and 10 both mean an inverting gain of −10)`,
-          );
-        break;
-      case "relaxation-oscillator":
-        only(["frequency", "duty"]);
-        if (!has("frequency"))
-          issue(["target", "frequency"], "target.frequency is required for a relaxation oscillator");
-        break;
-    }
-    if (s.inputAt !== undefined && s.kind !== "comparator")
-      issue(["inputAt"], "inputAt applies to the comparator only");
-    if (s.filter && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
-      issue(
-        ["filter"],
-        "a filter suggestion applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)",
-      );
-    if (s.output && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
-      issue(
-        ["output"],
-        "an open-drain output applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)",
-      );
-    if (s.sensor && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
-      issue(
-        ["sensor"],
-        "a sensor applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)",
-      );
-  });
+      break;
+    case "comparator":
+      only(["threshold", "upperThreshold", "lowerThreshold"]);
+      if (has("threshold")) {
+        for (const k of ["upperThreshold", "lowerThreshold"] as const)
+          if (has(k) && t[k] !== t.threshold)
+            issue(["target", k], `target.${k} must equal target.threshold for a comparator`);
+      } else if (!has("upperThreshold") || !has("lowerThreshold")) {
+        issue(
+          ["target", "threshold"],
+          "target.threshold (or equal upperThreshold and lowerThreshold) is required for a comparator",
+        );
+      } else if (t.upperThreshold !== t.lowerThreshold) {
+        issue(
+          ["target", "upperThreshold"],
+          "a comparator has no hysteresis: target.upperThreshold must equal target.lowerThreshold (use schmitt-noninverting or schmitt-inverting for a deadband)",
+        );
+      }
+      break;
+    case "noninverting-amplifier":
+      only(["gain"]);
+      if (!has("gain")) issue(["target", "gain"], "target.gain is required for an amplifier");
+      else if (!(t.gain! > 1 && t.gain! <= 1e5))
+        issue(
+          ["target", "gain"],
+          `target.gain (${t.gain}) must be above 1 and at most 100000 for a non-inverting amplifier (a gain of 1 is a follower and needs no resistors)`,
+        );
+      if (s.reference === "auto")
+        issue(
+          ["reference"],
+          'reference "auto" is not offered for the non-inverting amplifier: rGround returns its current into the reference, so give a buffered reference voltage',
+        );
+      break;
+    case "inverting-amplifier":
+      only(["gain"]);
+      if (!has("gain")) issue(["target", "gain"], "target.gain is required for an amplifier");
+      else if (!(Math.abs(t.gain!) > 0 && Math.abs(t.gain!) <= 1e5))
+        issue(
+          ["target", "gain"],
+          `target.gain (${t.gain}) must be non-zero with a magnitude of at most 100000 (−10 and 10 both mean an inverting gain of −10)`,
+        );
+      break;
+    case "relaxation-oscillator":
+      only(["frequency", "duty"]);
+      if (!has("frequency")) issue(["target", "frequency"], "target.frequency is required for a relaxation oscillator");
+      break;
+  }
+  if (s.inputAt !== undefined && s.kind !== "comparator") issue(["inputAt"], "inputAt applies to the comparator only");
+  if (s.filter && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
+    issue(
+      ["filter"],
+      "a filter suggestion applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)",
+    );
+  if (s.output && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
+    issue(
+      ["output"],
+      "an open-drain output applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)",
+    );
+  if (s.sensor && !["comparator", "schmitt-inverting", "schmitt-noninverting"].includes(s.kind))
+    issue(
+      ["sensor"],
+      "a sensor applies to threshold stages only (comparator, schmitt-inverting, schmitt-noninverting)",
+    );
+});
+
+// A target per kind (lib/schemas/README.md § Design spec JSON). The wire keeps one `target` key;
+// these only say which of its fields each kind has, so the design code needs no `!`.
+const tf = designTargetSchema.shape;
+// Fields of other kinds are typed as absent, so `target.gain` reads as undefined on a Schmitt
+// trigger's spec instead of failing to compile; the flat parse has refused them by name already.
+const none = z.undefined().optional();
+const absent = { upperThreshold: none, lowerThreshold: none, threshold: none, gain: none, frequency: none, duty: none };
+const thresholdPair = { upperThreshold: tf.upperThreshold.unwrap(), lowerThreshold: tf.lowerThreshold.unwrap() };
+/** Schmitt triggers: both switching points (upper above lower). */
+export const thresholdPairTargetSchema = z.strictObject({ ...absent, ...thresholdPair });
+/** Comparator: `{ threshold }` (upper and lower may repeat it) or equal `{ upperThreshold, lowerThreshold }`. */
+export const comparatorTargetSchema = z.union([
+  z.strictObject({
+    ...absent,
+    threshold: tf.threshold.unwrap(),
+    upperThreshold: tf.upperThreshold,
+    lowerThreshold: tf.lowerThreshold,
+  }),
+  thresholdPairTargetSchema,
+]);
+/** Amplifiers: the gain (an inverting gain may be written −10 or 10). */
+export const gainTargetSchema = z.strictObject({ ...absent, gain: tf.gain.unwrap() });
+/** Relaxation oscillator: the frequency and an optional duty cycle. */
+export const oscillatorTargetSchema = z.strictObject({ ...absent, frequency: tf.frequency.unwrap(), duty: tf.duty });
+
+const specOf = <K extends (typeof STAGE_KINDS)[number], T extends z.ZodType>(kind: K, target: T) =>
+  designSpecFields.extend({ kind: z.literal(kind), target });
+const byKind = z.discriminatedUnion("kind", [
+  specOf("comparator", comparatorTargetSchema),
+  specOf("schmitt-inverting", thresholdPairTargetSchema),
+  specOf("schmitt-noninverting", thresholdPairTargetSchema),
+  specOf("noninverting-amplifier", gainTargetSchema),
+  specOf("inverting-amplifier", gainTargetSchema),
+  specOf("relaxation-oscillator", oscillatorTargetSchema),
+]);
+
+/**
+ * `railwise.design-spec/1`. Parsed flat first, so every refusal names its field in words; the
+ * result is then a union on `kind` with that kind's target (the values are not changed).
+ */
+export const designSpecSchema = designSpecChecked.pipe(byKind);
+
+/** The input-referred switching points of a threshold kind's target (a comparator's are equal). */
+export function thresholdsOf(target: z.infer<typeof comparatorTargetSchema>): { upper: number; lower: number } {
+  if (target.threshold !== undefined) return { upper: target.threshold, lower: target.threshold };
+  return { upper: target.upperThreshold, lower: target.lowerThreshold };
+}
 
 export const SCENARIO_SCHEMA_ID = "railwise.scenario/1";
 
