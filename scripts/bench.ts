@@ -26,7 +26,8 @@ import os from "node:os";
 import path from "node:path";
 import { constants, PerformanceObserver } from "node:perf_hooks";
 import { parseScenario, type Scenario } from "@/lib/schemas/scenario";
-import { outputLimits, SimFailed, simulate } from "@/lib/sim";
+import { buildSync } from "esbuild";
+import { outputLimits } from "@/lib/sim";
 import type { SimOptions, SimResult } from "@/lib/sim/types";
 import { noiseSegmentCount } from "@/lib/sim/noise";
 
@@ -110,6 +111,30 @@ const SINE_LIGHT = sineSchmitt(0.02);
 
 const ODEX_BUDGET = 100_000;
 const ROOT = path.resolve(__dirname, "..");
+
+/**
+ * The simulation core as it ships: lib/sim bundled by esbuild into one file, as the railwise
+ * bin and the browser's worker run it. Under tsx each module's exports are getter functions,
+ * and the solver's hot loops read their slot and regime constants through them (a sixth to a
+ * third of a sine run in a CPU profile), a cost no shipped build has. Rebuilt on every bench
+ * run (a fraction of a second).
+ */
+function bundledCore(): typeof import("@/lib/sim") {
+  const outfile = path.join(ROOT, "build/bench/sim-core.cjs");
+  buildSync({
+    absWorkingDir: ROOT,
+    entryPoints: ["lib/sim/index.ts"],
+    outfile,
+    bundle: true,
+    platform: "node",
+    format: "cjs",
+    target: "node20",
+    tsconfig: "tsconfig.json",
+    logLevel: "warning",
+  });
+  return require(outfile);
+}
+const { SimFailed, simulate } = bundledCore();
 const flag = (name: string) => process.argv.includes(name);
 
 interface Timing {
