@@ -393,3 +393,43 @@ describe("exports stand on their own (#16 items 8 and 9)", () => {
     }
   });
 });
+
+describe("input rows keep their own text; the saved mark follows the edits (#16 item 10)", () => {
+  it("removing a middle row or adding a capture keeps the other rows' text; Save clears the mark, an edit sets it", async () => {
+    const { ctx, page } = await designer();
+    try {
+      await openWorkbench(page, scenarioId(/status-lamp|blinker/i));
+      await page.getByRole("tab", { name: "Signal" }).click();
+      const panel = page.getByTestId("signal-panel");
+      await panel.getByLabel("Component to add").selectOption("dc");
+      await panel.getByRole("button", { name: "Add", exact: true }).click();
+      await panel.getByRole("button", { name: "Add", exact: true }).click();
+      await typeField(page, "input.1.level", "1.25");
+      // Text that does not parse never reaches the store: only the row's own field holds it.
+      await typeField(page, "input.2.level", "2.5x");
+      await panel.getByRole("button", { name: "Remove component 2" }).click();
+      const level = (i: number) => page.locator(`input[name="input.${i}.level"]`);
+      await expect.poll(() => page.locator('input[name^="input."][name$=".level"]').count()).toBe(2);
+      expect(await level(0).inputValue()).toBe("0");
+      expect(await level(1).inputValue()).toBe("2.5x");
+      expect(await level(1).getAttribute("aria-invalid")).toBe("true");
+
+      // A capture picked from the team's list is added below; the rows above keep their text.
+      await panel.getByLabel("Capture").selectOption({ index: 1 });
+      await panel.getByRole("button", { name: "Use capture" }).click();
+      await expect.poll(() => panel.getByText(/measured samples from/).count()).toBe(1);
+      expect(await level(1).inputValue()).toBe("2.5x");
+
+      // Saved: the mark clears; the next edit sets it again.
+      await typeField(page, "input.1.level", "1.5");
+      await expect.poll(() => page.getByTestId("save-state").textContent()).toBe("unsaved edits");
+      await page.getByTestId("save-button").click();
+      await expect.poll(() => page.getByTestId("save-state").textContent(), { timeout: 15_000 }).toBe("saved");
+      await expect.poll(() => page.getByTestId("workbench-notice").textContent()).toMatch(/Saved as version/);
+      await typeField(page, "input.0.level", "0.1");
+      await expect.poll(() => page.getByTestId("save-state").textContent()).toBe("unsaved edits");
+    } finally {
+      await ctx.close();
+    }
+  });
+});
