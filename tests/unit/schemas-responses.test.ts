@@ -15,6 +15,13 @@ import type { PersonJson as IdsPersonJson } from "@/lib/server/ids";
 import type { StoredResultJson as SimStoredResult } from "@/lib/server/sim-worker";
 import type { ResultJson } from "@/lib/sim/types";
 import { GENERAL_PURPOSE_BIPOLAR } from "@/lib/demo/parts";
+import type { useBoards } from "@/lib/client/boards";
+import type { useScenarios, useScenarioVersion } from "@/lib/client/scenarios";
+import type { useRun } from "@/lib/client/runs";
+import type { useSignoffs } from "@/lib/client/signoffs";
+import type { useReviewQueue } from "@/lib/client/review-requests";
+import type { useMembers } from "@/lib/client/members";
+import type { useCaptures } from "@/lib/client/captures";
 import type { SavedStudy } from "@/lib/studies";
 import {
   type AuditJson,
@@ -32,6 +39,9 @@ import {
   type PersonJson,
   type ResultJsonShape,
   type ReviewQueueJson,
+  type ScenarioVersionDocJson,
+  type SignoffListJson,
+  boardSchema,
   type RunJson,
   type RunLinkCreatedJson,
   type RunSummaryJson,
@@ -233,5 +243,21 @@ describe("response schemas of the other resources", () => {
     type SpreadJson = NonNullable<SavedStudyJson["toleranceSpread"]>;
     expectTypeOf<Omit<SpreadJson, "summary">>().toEqualTypeOf<Omit<Spread, "summary">>();
     expectTypeOf<SpreadJson["summary"]>().toEqualTypeOf<Spread["summary"]>();
+  });
+});
+
+describe("SWR hooks (one module per resource in lib/client)", () => {
+  type Data<H extends (...args: never[]) => { data?: unknown }> = NonNullable<ReturnType<H>["data"]>;
+  it("answer the schema types", () => {
+    expectTypeOf<Data<typeof useBoards>>().toEqualTypeOf<{ items: BoardJson[] }>();
+    expectTypeOf<Data<typeof useScenarios>>().toEqualTypeOf<{ items: ScenarioSummaryJson[] }>();
+    expectTypeOf<Data<typeof useScenarioVersion>>().toEqualTypeOf<ScenarioVersionDocJson>();
+    expectTypeOf<Data<typeof useRun>>().toEqualTypeOf<RunJson>();
+    expectTypeOf<Data<typeof useSignoffs>>().toEqualTypeOf<SignoffListJson>();
+    expectTypeOf<Data<typeof useReviewQueue>>().toEqualTypeOf<ReviewQueueJson>();
+    expectTypeOf<Data<typeof useMembers>>().toEqualTypeOf<{ items: MemberJson[] }>();
+    expectTypeOf<Data<typeof useCaptures>>().toEqualTypeOf<{ items: CaptureSummaryJson[] }>();
+    // A value check so the test asserts at run time too: the schema list wrapper is strict.
+    expect(listOf(boardSchema).safeParse({ items: [], extra: 1 }).success).toBe(false);
   });
 });
