@@ -12,7 +12,7 @@ import { LoadError, LoadingRows, NotFoundCard } from "@/components/ui/load-state
 import { PageHeader } from "@/components/ui/page-header";
 import { Table, TBody, TD, TH, THead, TR } from "@/components/ui/table";
 import { useToast } from "@/components/ui/toast";
-import { STAGE_KIND_LABEL, STAGE_KIND_SHORT } from "@/components/scenario/stage-labels";
+import { STAGE_KIND_LABEL, STAGE_KIND_SHORT } from "@/lib/workbench/stage-labels";
 import { HttpError, errorMessage } from "@/lib/client/fetcher";
 import { personName, useBoard, useScenarios, type LatestDecision, type ScenarioRecord } from "@/lib/client/hooks";
 import type { Supply } from "@/lib/schemas/scenario";

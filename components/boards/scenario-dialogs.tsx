@@ -3,7 +3,7 @@
 import { useEffect, useState } from "react";
 import { FormDialog } from "@/components/ui/dialog";
 import { Field, Select, TextInput } from "@/components/ui/field";
-import { STAGE_KIND_LABEL } from "@/components/scenario/stage-labels";
+import { STAGE_KIND_LABEL } from "@/lib/workbench/stage-labels";
 import { fetchJson, sendJson } from "@/lib/client/fetcher";
 import type { ScenarioRecord } from "@/lib/client/hooks";
 import { blankScenario } from "@/lib/client/scenario-templates";

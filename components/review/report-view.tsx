@@ -10,7 +10,7 @@ import { formatDate } from "@/components/ui/format";
 import { LoadingRows } from "@/components/ui/load-state";
 import { PLOT_COLORS } from "@/components/plots/use-uplot";
 import { SafetyCaution, suggestsLoadSwitching } from "@/components/safety-caution";
-import { STAGE_KIND_LABEL } from "@/components/scenario/stage-labels";
+import { STAGE_KIND_LABEL } from "@/lib/workbench/stage-labels";
 import { StageDiagram } from "@/components/workbench/stage-diagram";
 import {
   buildChecks,

@@ -10,7 +10,7 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { SafetyCaution } from "@/components/safety-caution";
 import { ScenarioTables } from "@/components/scenario/scenario-tables";
-import { STAGE_KIND_LABEL } from "@/components/scenario/stage-labels";
+import { STAGE_KIND_LABEL } from "@/lib/workbench/stage-labels";
 import { TimePlot } from "@/components/plots/time-plot";
 import { LoopPlot } from "@/components/plots/loop-plot";
 import { StageDiagram } from "@/components/workbench/stage-diagram";

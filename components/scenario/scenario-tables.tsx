@@ -16,7 +16,7 @@ import {
   inputWhere,
   roleWhere,
   type StageRole,
-} from "./stage-labels";
+} from "@/lib/workbench/stage-labels";
 import { contentKeys } from "@/lib/workbench/row-ids";
 
 const q = (v: number, unit: string, digits = 4) => formatQuantity(v, unit, digits);

@@ -1,7 +1,7 @@
 // Which fields of a railwise.scenario/1 document changed between two versions, old → new, in
 // the UI's units and notation (engineering prefixes, RKM codes beside resistances).
 import { formatQuantity, formatRkm } from "@/lib/design/notation";
-import { STAGE_ROLE_LABEL, type StageRole } from "./stage-labels";
+import { STAGE_ROLE_LABEL, type StageRole } from "@/lib/workbench/stage-labels";
 
 export interface FieldChange {
   /** Dotted path in the document, e.g. "stage.rFeedback", "input.components.0.amplitude". */

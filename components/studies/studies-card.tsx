@@ -8,7 +8,7 @@ import { Card } from "@/components/ui/card";
 import { Button } from "@/components/ui/button";
 import { Section, SelectRow, Tabs } from "@/components/workbench/controls";
 import { QuantityField } from "@/components/workbench/quantity-field";
-import { errorMessage } from "@/lib/client/fetcher";
+import { screenError } from "@/components/workbench/api";
 import { runStudyInPool, StudyCancelled, defaultPoolSize } from "@/lib/client/study-pool";
 import type { Scenario } from "@/lib/schemas/scenario";
 import { estimateCaptureNoise, type CaptureNoiseEstimate } from "@/lib/studies/capture-noise";
@@ -31,8 +31,17 @@ import {
   studySaveBlocked,
   type StudyTab,
 } from "@/lib/workbench/studies-state";
-import { MEASURE_LABEL, MEASURE_UNIT } from "./study-plots";
-import { inputRange, studyIssueText, suggestNoise, suggestTolerance } from "@/lib/workbench/study-suggest";
+import {
+  inputRange,
+  MEASURE_LABEL,
+  MEASURE_UNIT,
+  STUDY_FIELD_LABEL,
+  studyIssueText,
+  studyRule,
+  SUGGESTED_WINDOW,
+  suggestNoise,
+  suggestTolerance,
+} from "@/lib/workbench/study-suggest";
 import { NoiseMarginResult, ToleranceSpreadResult, fmtV } from "./study-readouts";
 
 export interface StudiesCardProps {
@@ -178,7 +187,7 @@ export function StudiesCard({ scenario, revision, saveBlocked, onSave, beforeRun
         message:
           e instanceof StudyCancelled
             ? "Study cancelled; every worker was stopped."
-            : `Study failed — ${errorMessage(e)}`,
+            : `Study failed — ${screenError(e)}`,
       });
     } finally {
       dispatch({ type: "stopped" });
@@ -203,7 +212,7 @@ export function StudiesCard({ scenario, revision, saveBlocked, onSave, beforeRun
     try {
       dispatch({ type: "saved", runId: await onSave(upload) });
     } catch (e) {
-      dispatch({ type: "saveFailed", message: `Not saved — ${errorMessage(e)}` });
+      dispatch({ type: "saveFailed", message: `Not saved — ${screenError(e)}` });
     }
   };
 
@@ -363,21 +372,24 @@ function NoiseForm({
       <Section title="Sweep">
         <QuantityField
           name="noise-rms-from"
-          label="rms from"
+          label={STUDY_FIELD_LABEL.rmsFrom}
+          validate={(v) => studyRule("rmsFrom", v)}
           unit="V"
           value={f.rmsFrom}
           onCommit={(v) => set({ rmsFrom: v })}
         />
         <QuantityField
           name="noise-rms-to"
-          label="rms to"
+          label={STUDY_FIELD_LABEL.rmsTo}
+          validate={(v) => studyRule("rmsTo", v)}
           unit="V"
           value={f.rmsTo}
           onCommit={(v) => set({ rmsTo: v })}
         />
         <QuantityField
           name="noise-levels"
-          label="levels"
+          label={STUDY_FIELD_LABEL.levels}
+          validate={(v) => studyRule("levels", v)}
           unit=""
           plain
           value={f.levels}
@@ -385,7 +397,8 @@ function NoiseForm({
         />
         <QuantityField
           name="noise-seeds"
-          label="seeds per level"
+          label={STUDY_FIELD_LABEL.seedsPerLevel}
+          validate={(v) => studyRule("seedsPerLevel", v)}
           unit=""
           plain
           value={f.seedsPerLevel}
@@ -393,14 +406,16 @@ function NoiseForm({
         />
         <QuantityField
           name="noise-bandwidth"
-          label="bandwidth"
+          label={STUDY_FIELD_LABEL.bandwidth}
+          validate={(v) => studyRule("bandwidth", v)}
           unit="Hz"
           value={f.bandwidth}
           onCommit={(v) => set({ bandwidth: v })}
         />
         <QuantityField
           name="noise-limit"
-          label="chatter limit"
+          label={STUDY_FIELD_LABEL.limit}
+          validate={(v) => studyRule("limit", v)}
           unit="%"
           plain
           value={f.limit * 100}
@@ -408,7 +423,8 @@ function NoiseForm({
         />
         <QuantityField
           name="noise-seed"
-          label="study seed"
+          label={STUDY_FIELD_LABEL.seed}
+          validate={(v) => studyRule("seed", v)}
           unit=""
           plain
           value={f.seed}
@@ -511,7 +527,8 @@ function ToleranceForm({
       <Section title="Draws">
         <QuantityField
           name="tol-draws"
-          label="draws"
+          label={STUDY_FIELD_LABEL.draws}
+          validate={(v) => studyRule("draws", v)}
           unit=""
           plain
           value={f.draws}
@@ -519,7 +536,8 @@ function ToleranceForm({
         />
         <QuantityField
           name="tol-resistors"
-          label="resistors ±"
+          label={STUDY_FIELD_LABEL.resistorTolerance}
+          validate={(v) => studyRule("resistorTolerance", v)}
           unit="%"
           plain
           value={f.resistorTolerance * 100}
@@ -527,14 +545,16 @@ function ToleranceForm({
         />
         <QuantityField
           name="tol-offset"
-          label="offset ±"
+          label={STUDY_FIELD_LABEL.offsetTolerance}
+          validate={(v) => studyRule("offsetTolerance", v)}
           unit="V"
           value={f.offsetTolerance}
           onCommit={(v) => set({ offsetTolerance: v })}
         />
         <QuantityField
           name="tol-headroom"
-          label="headroom ±"
+          label={STUDY_FIELD_LABEL.headroomSpread}
+          validate={(v) => studyRule("headroomSpread", v)}
           unit="%"
           plain
           value={f.headroomSpread * 100}
@@ -560,7 +580,8 @@ function ToleranceForm({
         </SelectRow>
         <QuantityField
           name="tol-seed"
-          label="study seed"
+          label={STUDY_FIELD_LABEL.seed}
+          validate={(v) => studyRule("seed", v)}
           unit=""
           plain
           value={f.seed}
@@ -568,6 +589,10 @@ function ToleranceForm({
         />
       </Section>
       <Section title="Spec window">
+        <p className="pb-1 text-[12px] text-ink-mute" data-testid="spec-window-source">
+          Starts at ±{SUGGESTED_WINDOW * 100} % around each figure designed from this stage's parts (a suggestion, not
+          your spec): enter your own limits.
+        </p>
         {f.measures.map((m) => (
           <div key={m}>
             <QuantityField
@@ -582,6 +607,10 @@ function ToleranceForm({
               label={`${MEASURE_LABEL[m]} max`}
               unit={MEASURE_UNIT[m]}
               value={f.window[m]?.[1]}
+              validate={(v) => {
+                const lo = f.window[m]?.[0];
+                return lo === undefined || v > lo ? null : `must be above “${MEASURE_LABEL[m]} min”`;
+              }}
               onCommit={(v) => setWindow(m, 1, v)}
             />
           </div>

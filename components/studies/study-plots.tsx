@@ -8,6 +8,7 @@ import { useUPlot, siTicks, axis, hLine, vLine, PLOT_COLORS } from "@/components
 import { exportPlotPng } from "@/components/plots/export";
 import type { NoiseMarginSummary } from "@/lib/studies/noise-margin";
 import type { MeasureSpread } from "@/lib/studies/tolerance-spread";
+import { MEASURE_LABEL, MEASURE_UNIT } from "@/lib/workbench/study-suggest";
 
 export const STUDY_COLORS = {
   estimate: PLOT_COLORS.output, // copper
@@ -127,19 +128,6 @@ export function ChatterPlot({
     </div>
   );
 }
-
-export const MEASURE_LABEL: Record<MeasureSpread["measure"], string> = {
-  upperThreshold: "Upper threshold",
-  lowerThreshold: "Lower threshold",
-  gain: "Gain",
-  period: "Period",
-};
-export const MEASURE_UNIT: Record<MeasureSpread["measure"], string> = {
-  upperThreshold: "V",
-  lowerThreshold: "V",
-  gain: "",
-  period: "s",
-};
 
 export function SpreadHistogram({
   spread,

@@ -4,7 +4,8 @@
 import { formatQuantity } from "@/lib/design/notation";
 import type { NoiseMarginSummary } from "@/lib/studies/noise-margin";
 import type { ToleranceSpreadSummary, MeasureSpread } from "@/lib/studies/tolerance-spread";
-import { ChatterPlot, SpreadHistogram, MEASURE_LABEL, MEASURE_UNIT, STUDY_COLORS } from "./study-plots";
+import { ChatterPlot, SpreadHistogram, STUDY_COLORS } from "./study-plots";
+import { MEASURE_LABEL, MEASURE_UNIT } from "@/lib/workbench/study-suggest";
 
 export const fmtV = (v: number | null | undefined, digits = 3) =>
   v === null || v === undefined ? "—" : formatQuantity(v, "V", digits);

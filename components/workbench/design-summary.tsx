@@ -9,7 +9,7 @@ import { LoadError, LoadingRows } from "@/components/ui/load-state";
 import { Button } from "@/components/ui/button";
 import { SafetyCaution, suggestsLoadSwitching, SAFETY_CAUTION_TEXT } from "@/components/safety-caution";
 import { StageTable, SupplyTable, PartProfileTable, InputTable } from "@/components/scenario/scenario-tables";
-import { STAGE_KIND_LABEL } from "@/components/scenario/stage-labels";
+import { STAGE_KIND_LABEL } from "@/lib/workbench/stage-labels";
 import { errorMessage } from "@/lib/client/fetcher";
 import { personName, useBoard, useRun, useRuns, useScenario } from "@/lib/client/hooks";
 import type { FigureName } from "@/lib/design/analysis";

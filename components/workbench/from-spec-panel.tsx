@@ -8,7 +8,7 @@ import { STAGE_KINDS } from "@/lib/schemas/scenario";
 import { design, type DesignResult } from "@/lib/design";
 import { SERIES_NAMES, SERIES_TOLERANCE, type SeriesName } from "@/lib/design/eseries";
 import { formatQuantity } from "@/lib/design/notation";
-import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL } from "@/components/scenario/stage-labels";
+import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL } from "@/lib/workbench/stage-labels";
 import { Button } from "@/components/ui/button";
 import { QuantityField } from "./quantity-field";
 import { MiniButton, Section, SelectRow } from "./controls";

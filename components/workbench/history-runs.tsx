@@ -10,7 +10,7 @@ import { fetchJson, errorMessage } from "@/lib/client/fetcher";
 import { personName, useRuns, type ListResponse } from "@/lib/client/hooks";
 import { ScenarioTables } from "@/components/scenario/scenario-tables";
 import { parseScenario } from "@/lib/schemas/scenario";
-import { fetchVersion, restoreVersion, scenarioKey, versionsKey, type VersionRecord } from "./api";
+import { fetchVersion, restoreVersion, scenarioKey, screenError, versionsKey, type VersionRecord } from "./api";
 import { MiniButton } from "./controls";
 import { useWb } from "./store";
 
@@ -42,7 +42,7 @@ export function HistoryCard({ canEdit }: { canEdit: boolean }) {
     try {
       setViewing(v.scenario ? v : await fetchVersion(scenarioId, v.version));
     } catch (e) {
-      setNotice({ tone: "error", text: errorMessage(e) });
+      setNotice({ tone: "error", text: screenError(e) });
     }
   };
   const restore = async (v: number) => {
@@ -53,7 +53,7 @@ export function HistoryCard({ canEdit }: { canEdit: boolean }) {
       await Promise.all([reload(), mutate(scenarioKey(scenarioId))]);
       setNotice({ tone: "ok", text: `Version ${v} restored as version ${rec.version}.` });
     } catch (e) {
-      setNotice({ tone: "error", text: errorMessage(e) });
+      setNotice({ tone: "error", text: screenError(e) });
     } finally {
       setBusy(null);
     }

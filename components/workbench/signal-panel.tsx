@@ -9,6 +9,7 @@ import { QuantityField } from "./quantity-field";
 import { MiniButton, Section, SelectRow } from "./controls";
 import { useWb, useWbApi } from "./store";
 import { CapturePicker } from "@/components/captures/capture-picker";
+import { INPUT_FIELD_LABEL } from "@/lib/workbench/screen-words";
 
 type Kind = InputComponent["kind"];
 
@@ -157,17 +158,11 @@ function ComponentFields({ index, c, readOnly }: { index: number; c: InputCompon
     edit((d) => {
       (d.input.components[index] as unknown as Record<string, number>)[key] = v;
     });
-  const q = (
-    key: string,
-    label: string,
-    unit: string,
-    value: number | undefined,
-    rule?: (v: number) => string | null,
-  ) => (
+  const q = (key: string, unit: string, value: number | undefined, rule?: (v: number) => string | null) => (
     <QuantityField
       key={key}
       name={`input.${index}.${key}`}
-      label={label}
+      label={INPUT_FIELD_LABEL[key] ?? key}
       unit={unit}
       value={value ?? 0}
       onCommit={set(key)}
@@ -179,36 +174,36 @@ function ComponentFields({ index, c, readOnly }: { index: number; c: InputCompon
   const nonNeg = (v: number) => (v >= 0 ? null : "not negative");
   switch (c.kind) {
     case "dc":
-      return q("level", "Level", "V", c.level);
+      return q("level", "V", c.level);
     case "sine":
     case "triangle":
       return (
         <>
-          {q("amplitude", "Amplitude (peak)", "V", c.amplitude, nonNeg)}
-          {q("frequency", "Frequency", "Hz", c.frequency, pos)}
-          {q("offset", "Offset", "V", c.offset)}
-          {q("phase", "Phase (°)", "", c.phase)}
+          {q("amplitude", "V", c.amplitude, nonNeg)}
+          {q("frequency", "Hz", c.frequency, pos)}
+          {q("offset", "V", c.offset)}
+          {q("phase", "", c.phase)}
         </>
       );
     case "ramp":
       return (
         <>
-          {q("from", "From", "V", c.from)}
-          {q("to", "To", "V", c.to)}
-          {q("start", "Starts at", "s", c.start, nonNeg)}
-          {q("duration", "Lasting", "s", c.duration, nonNeg)}
+          {q("from", "V", c.from)}
+          {q("to", "V", c.to)}
+          {q("start", "s", c.start, nonNeg)}
+          {q("duration", "s", c.duration, nonNeg)}
         </>
       );
     case "pulse":
       return (
         <>
-          {q("low", "Low", "V", c.low)}
-          {q("high", "High", "V", c.high)}
-          {q("period", "Period", "s", c.period, pos)}
-          {q("duty", "Duty (0…1)", "", c.duty, (v) => (v >= 0 && v <= 1 ? null : "0 … 1"))}
-          {q("rise", "Rise", "s", c.rise, nonNeg)}
-          {q("fall", "Fall", "s", c.fall, nonNeg)}
-          {q("delay", "Delay", "s", c.delay, nonNeg)}
+          {q("low", "V", c.low)}
+          {q("high", "V", c.high)}
+          {q("period", "s", c.period, pos)}
+          {q("duty", "", c.duty, (v) => (v >= 0 && v <= 1 ? null : "0 … 1"))}
+          {q("rise", "s", c.rise, nonNeg)}
+          {q("fall", "s", c.fall, nonNeg)}
+          {q("delay", "s", c.delay, nonNeg)}
         </>
       );
     case "pwl":

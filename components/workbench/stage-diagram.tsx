@@ -3,7 +3,7 @@
 // copper, the reference as a moss tab. Pure SVG, server- and client-safe.
 import type { Scenario } from "@/lib/schemas/scenario";
 import { formatQuantity } from "@/lib/design/notation";
-import { STAGE_KIND_LABEL } from "@/components/scenario/stage-labels";
+import { STAGE_KIND_LABEL } from "@/lib/workbench/stage-labels";
 
 const INK = "#3b4556";
 const MUTE = "#6b7587";

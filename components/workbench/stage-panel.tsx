@@ -7,13 +7,14 @@ import { STAGE_KINDS } from "@/lib/schemas/scenario";
 import { OPAMP_PARAMS, OPAMP_PARAM_INFO, type OpampParam } from "@/lib/schemas/part";
 import { DEMO_PART_PROFILES } from "@/lib/demo/parts";
 import { fetchJson } from "@/lib/client/fetcher";
-import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL } from "@/components/scenario/stage-labels";
+import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL } from "@/lib/workbench/stage-labels";
 import { QuantityField } from "./quantity-field";
 import { Section, SelectRow, MiniButton } from "./controls";
 import { StageDiagram } from "./stage-diagram";
 import { KIND_INFO, roleValue, stageRoles, switchStageKind, type ResistorRole } from "@/lib/workbench/stage-kinds";
 import { useWb, useWbShallow } from "./store";
 import { CircuitSections, ReferenceSection, syncReferenceDivider } from "@/components/circuit/circuit-sections";
+import { OPAMP_LABEL } from "@/lib/workbench/screen-words";
 
 export interface PartOption {
   id: string;
@@ -197,14 +198,32 @@ const PARAM_DISPLAY: Record<
   OpampParam,
   { label: string; unit: string; rule?: (v: number) => string | null; show?: (v: number) => string }
 > = {
-  openLoopGain: { label: "A0", unit: "V/V", rule: (v) => (v >= 1 ? null : "at least 1") },
-  gainBandwidth: { label: "GBW", unit: "Hz", rule: (v) => (v > 0 ? null : "must be above 0") },
-  slewRate: { label: "Slew rate ↑", unit: "V/s", rule: (v) => (v > 0 ? null : "must be above 0"), show: perMicro },
-  slewRateFall: { label: "Slew rate ↓", unit: "V/s", rule: (v) => (v > 0 ? null : "must be above 0"), show: perMicro },
-  outputHeadroomHigh: { label: "Headroom V+", unit: "V", rule: (v) => (v >= 0 ? null : "not negative") },
-  outputHeadroomLow: { label: "Headroom V−", unit: "V", rule: (v) => (v >= 0 ? null : "not negative") },
-  inputOffset: { label: "Offset", unit: "V", rule: (v) => (Math.abs(v) <= 1 ? null : "within ±1 V") },
-  propagationDelay: { label: "Delay", unit: "s", rule: (v) => (v >= 0 && v <= 1 ? null : "0 … 1 s") },
+  openLoopGain: { label: OPAMP_LABEL.openLoopGain, unit: "V/V", rule: (v) => (v >= 1 ? null : "at least 1") },
+  gainBandwidth: { label: OPAMP_LABEL.gainBandwidth, unit: "Hz", rule: (v) => (v > 0 ? null : "must be above 0") },
+  slewRate: {
+    label: OPAMP_LABEL.slewRate,
+    unit: "V/s",
+    rule: (v) => (v > 0 ? null : "must be above 0"),
+    show: perMicro,
+  },
+  slewRateFall: {
+    label: OPAMP_LABEL.slewRateFall,
+    unit: "V/s",
+    rule: (v) => (v > 0 ? null : "must be above 0"),
+    show: perMicro,
+  },
+  outputHeadroomHigh: {
+    label: OPAMP_LABEL.outputHeadroomHigh,
+    unit: "V",
+    rule: (v) => (v >= 0 ? null : "not negative"),
+  },
+  outputHeadroomLow: { label: OPAMP_LABEL.outputHeadroomLow, unit: "V", rule: (v) => (v >= 0 ? null : "not negative") },
+  inputOffset: { label: OPAMP_LABEL.inputOffset, unit: "V", rule: (v) => (Math.abs(v) <= 1 ? null : "within ±1 V") },
+  propagationDelay: {
+    label: OPAMP_LABEL.propagationDelay,
+    unit: "s",
+    rule: (v) => (v >= 0 && v <= 1 ? null : "0 … 1 s"),
+  },
 };
 
 function PartSection({ readOnly }: { readOnly: boolean }) {

@@ -3,7 +3,8 @@
 // store, cancel through an AbortSignal (the client terminates and respawns its worker), and the
 // waveforms into the bank — never into immer state.
 import { useCallback, useEffect, useRef } from "react";
-import { scenarioSchema, describeIssues } from "@/lib/schemas/scenario";
+import { scenarioSchema } from "@/lib/schemas/scenario";
+import { scenarioIssuesText } from "@/lib/workbench/screen-words";
 import type { SimResult } from "@/lib/sim/types";
 import type { SimWorkerClient } from "@/lib/client/sim-client";
 import { minMax } from "@/lib/workbench/readings-logic";
@@ -95,7 +96,7 @@ export function useRunner() {
     const revision = st.revision;
     const parsed = scenarioSchema.safeParse(st.draft);
     if (!parsed.success) {
-      st.runFailed("error", `Fix these fields first — ${describeIssues(parsed.error).join("; ")}`);
+      st.runFailed("error", `Fix these fields first — ${scenarioIssuesText(parsed.error.issues)}`);
       return;
     }
     const tm = timings();

@@ -11,10 +11,11 @@ import { Badge } from "@/components/ui/badge";
 import { Button, buttonClasses } from "@/components/ui/button";
 import { SafetyCaution } from "@/components/safety-caution";
 import { ScenarioHeading } from "@/components/scenario/scenario-read-view";
-import { HttpError, errorMessage } from "@/lib/client/fetcher";
+import { HttpError } from "@/lib/client/fetcher";
 import { runsKey, useBoard, useScenario, type ScenarioRecord } from "@/lib/client/hooks";
-import { parseScenario, scenarioSchema, describeIssues, type Scenario } from "@/lib/schemas/scenario";
-import { saveRun, saveScenario, scenarioKey, versionsKey } from "./api";
+import { parseScenario, scenarioSchema, type Scenario } from "@/lib/schemas/scenario";
+import { scenarioIssuesText } from "@/lib/workbench/screen-words";
+import { saveRun, saveScenario, scenarioKey, screenError, versionsKey } from "./api";
 import { Tabs } from "./controls";
 import { FromSpecPanel } from "./from-spec-panel";
 import { HistoryCard, RunsCard } from "./history-runs";
@@ -284,7 +285,7 @@ function useSave() {
     const fromRevision = st.revision;
     const parsed = scenarioSchema.safeParse(st.draft);
     if (!parsed.success) {
-      st.setNotice({ tone: "error", text: `Not saved — ${describeIssues(parsed.error).join("; ")}` });
+      st.setNotice({ tone: "error", text: `Not saved — ${scenarioIssuesText(parsed.error.issues)}` });
       return false;
     }
     try {
@@ -308,7 +309,7 @@ function useSave() {
         tone: "error",
         text: conflict
           ? "Someone saved this scenario after you opened it. Reload to see their version (your edits stay here until you do)."
-          : `Not saved — ${errorMessage(e)}`,
+          : `Not saved — ${screenError(e)}`,
       });
       return false;
     }
@@ -479,7 +480,7 @@ function SaveRunControl() {
           setLabel("");
           api.getState().setNotice({ tone: "ok", text: `Run saved: /runs/${rec.id}` });
         } catch (err) {
-          api.getState().setNotice({ tone: "error", text: `Run not saved — ${errorMessage(err)}` });
+          api.getState().setNotice({ tone: "error", text: `Run not saved — ${screenError(err)}` });
         } finally {
           setBusy(false);
         }
