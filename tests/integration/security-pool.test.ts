@@ -128,3 +128,42 @@ describe("simulation worker pool", () => {
     expect(p99).toBeLessThan(1000);
   });
 });
+
+describe("simulation worker heap limit", () => {
+  let small: TestServer | null = null;
+  afterAll(async () => {
+    await small?.stop();
+  });
+
+  it("a run past the worker's heap answers 422 over_memory; the next run gets a fresh worker", async () => {
+    // 24 MB of old generation per worker and a budget long enough that memory, not time, ends
+    // the 920,000-edge run (its edge list alone is far past 24 MB).
+    small = await startServer({
+      env: { RAILWISE_SIM_MEMORY_MB: "24", RAILWISE_SIM_BUDGET_MS: "120000", RAILWISE_SIM_THREADS: "1" },
+    });
+    const me = await signIn(small.url, EMAILS.designer, DEMO_PASSWORD);
+    const board = ((await (await me.fetch("/api/boards")).json()) as { items: { id: string }[] }).items[0].id;
+    const create = async (scenario: Scenario) => {
+      const res = await me.fetch("/api/scenarios", {
+        method: "POST",
+        body: JSON.stringify({ boardId: board, scenario }),
+      });
+      expect(res.status).toBe(201);
+      return ((await res.json()) as { id: string }).id;
+    };
+    const heavy = await me.fetch("/api/runs", {
+      method: "POST",
+      body: JSON.stringify({ scenarioId: await create(oscillator(300)) }),
+    });
+    const body = (await heavy.json()) as { error: string; message: string };
+    expect(heavy.status).toBe(422);
+    expect(body.error).toBe("over_memory");
+    expect(body.message).toMatch(/more than the server's 24 MB per run/);
+    expect((await fetch(`${small.url}/api/health`)).status).toBe(200);
+    const next = await me.fetch("/api/runs", {
+      method: "POST",
+      body: JSON.stringify({ scenarioId: await create(oscillator(0.05)) }),
+    });
+    expect(next.status).toBe(201);
+  });
+});
