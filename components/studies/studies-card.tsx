@@ -466,7 +466,9 @@ function NoiseForm({
           {parsed.success ? (
             `${(1 + f.levels * f.seedsPerLevel).toLocaleString("en")} runs`
           ) : (
-            <span className="text-alert">{studyIssueText(parsed.error.issues)}</span>
+            <span className="text-alert" data-testid="study-form-problem">
+              {studyIssueText(parsed.error.issues)}
+            </span>
           )}
         </span>
         <Button
@@ -621,7 +623,9 @@ function ToleranceForm({
           {parsed.success ? (
             `${(1 + f.draws).toLocaleString("en")} runs`
           ) : (
-            <span className="text-alert">{studyIssueText(parsed.error.issues)}</span>
+            <span className="text-alert" data-testid="study-form-problem">
+              {studyIssueText(parsed.error.issues)}
+            </span>
           )}
         </span>
         <Button

@@ -433,3 +433,55 @@ describe("input rows keep their own text; the saved mark follows the edits (#16 
     }
   });
 });
+
+describe("messages use the labels on the screen (#16 item 6)", () => {
+  /** A camelCase word or a dotted path: what a code field name looks like. */
+  const CODE_NAME = /\b[a-z]+[A-Z]\w*\b|\b[a-z]+\.[a-z]+\b/;
+
+  it("names the fields of a refused run and of the study forms by their labels, and says where the spec window came from", async () => {
+    const { ctx, page } = await designer();
+    try {
+      await openWorkbench(page, scenarioId(/battery/i));
+      // Each headroom is valid alone; together they exceed the 5 V supply (a rule of the contract).
+      const high = page.locator('input[name="opamp.outputHeadroomHigh"]');
+      const low = page.locator('input[name="opamp.outputHeadroomLow"]');
+      const [highWas, lowWas] = [await high.inputValue(), await low.inputValue()];
+      await high.fill("3");
+      await low.fill("3");
+      await page.getByTestId("run-button").click();
+      const alert = page.locator("[data-testid=run-bar] [role=alert]");
+      await expect.poll(() => alert.textContent()).toMatch(/“Headroom V\+” \+ “Headroom V−” \(6 V\) must be smaller/);
+      expect(await alert.textContent()).not.toMatch(CODE_NAME);
+      await high.fill(highWas);
+      await low.fill(lowWas);
+
+      const card = page.getByTestId("studies-card");
+      await card.waitFor({ timeout: 60_000 });
+      const form = page.getByTestId("noise-form");
+      // Order of two fields: the form's own labels.
+      await form.locator('input[name="noise-rms-from"]').fill("1");
+      await expect
+        .poll(() => form.getByTestId("study-form-problem").textContent())
+        .toBe("“rms to” must be above “rms from”");
+      await form.locator('input[name="noise-rms-from"]').fill("1m");
+      // A count past its bound: refused by the field itself, listed by its label when Run study is pressed.
+      await form.locator('input[name="noise-seeds"]').fill("20000");
+      await expect.poll(() => form.locator('[data-parsed="noise-seeds"]').textContent()).toMatch(/1 … 10,000/);
+      await form.locator('input[name="noise-limit"]').fill("150");
+      await expect.poll(() => form.locator('[data-parsed="noise-limit"]').textContent()).toMatch(/below 100 %/);
+      await page.getByTestId("run-noise-study").click();
+      const fields = page.getByTestId("fields-at-fault");
+      await expect.poll(() => fields.textContent()).toMatch(/seeds per level: a whole number 1 … 10,000/);
+      const listed = await fields.textContent();
+      expect(listed).toMatch(/chatter limit: above 0 % and below 100 %/);
+      expect(listed).not.toMatch(CODE_NAME);
+
+      await card.getByRole("tab", { name: "Tolerance spread" }).click();
+      await expect
+        .poll(() => page.getByTestId("spec-window-source").textContent())
+        .toMatch(/±2 % around each figure designed from this stage's parts/);
+    } finally {
+      await ctx.close();
+    }
+  });
+});
