@@ -16,6 +16,7 @@ import {
 } from "@/lib/captures/parse";
 import { CaptureSparkline } from "./capture-sparkline";
 import { contentKeys } from "@/lib/workbench/row-ids";
+import { screenError } from "@/components/ui/screen-error";
 
 interface Loaded {
   file: File;
@@ -115,7 +116,7 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
       setLoaded(null);
       onUploaded();
     } catch (err) {
-      setServerProblem(errorMessage(err));
+      setServerProblem(screenError(err));
     } finally {
       setBusy(false);
     }

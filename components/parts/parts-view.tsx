@@ -14,6 +14,8 @@ import { partsKey, useParts, type PartProfileRecord } from "@/lib/client/team-ho
 import { formatQuantity, parseQuantity } from "@/lib/design/notation";
 import { OPAMP_PARAMS, OPAMP_PARAM_INFO, partProfileSchema, partsToCsv, type OpampParam } from "@/lib/schemas/part";
 import { contentKeys } from "@/lib/workbench/row-ids";
+import { screenError } from "@/components/ui/screen-error";
+import { scenarioIssueText } from "@/lib/workbench/screen-words";
 
 // Slew rates are typed and shown in V/µs (the unit every datasheet-reader thinks in); data stays SI.
 const UI_SCALE: Partial<Record<OpampParam, { unit: string; factor: number }>> = {
@@ -88,7 +90,7 @@ export function PartsView({ canEdit }: { canEdit: boolean }) {
       await sendJson(`${partsKey}/${p.id}`, "DELETE");
       await mutate();
     } catch (err) {
-      setProblem(errorMessage(err));
+      setProblem(screenError(err));
     }
   }
 
@@ -237,7 +239,7 @@ function PartDialog({
       await sendJson(part ? `${partsKey}/${part.id}` : partsKey, part ? "PUT" : "POST", body);
       await onSaved();
     } catch (err) {
-      setProblem(errorMessage(err));
+      setProblem(screenError(err));
       setBusy(false);
     }
   }
@@ -319,7 +321,9 @@ function ImportDialog({ onClose, onImported }: { onClose: () => void; onImported
         err instanceof HttpError && typeof err.body === "object" && err.body?.message
           ? err.body.message
           : errorMessage(err),
-        ...issues.map((i: { message?: string }) => i.message ?? String(i)),
+        ...issues.map((i: { message?: string; path?: PropertyKey[] }) =>
+          typeof i === "string" ? i : scenarioIssueText({ message: i.message ?? "", path: i.path }),
+        ),
       ]);
       setBusy(false);
     }

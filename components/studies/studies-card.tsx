@@ -8,7 +8,7 @@ import { Card } from "@/components/ui/card";
 import { Button } from "@/components/ui/button";
 import { Section, SelectRow, Tabs } from "@/components/workbench/controls";
 import { QuantityField } from "@/components/workbench/quantity-field";
-import { screenError } from "@/components/workbench/api";
+import { screenError } from "@/components/ui/screen-error";
 import { runStudyInPool, StudyCancelled, defaultPoolSize } from "@/lib/client/study-pool";
 import type { Scenario } from "@/lib/schemas/scenario";
 import { estimateCaptureNoise, type CaptureNoiseEstimate } from "@/lib/studies/capture-noise";

@@ -12,6 +12,7 @@ import { useAudit, useInvitations, useMembers } from "@/lib/client/team-hooks";
 import { ROLE_NAMES, type RoleName } from "@/lib/schemas/team";
 import { formatDate } from "@/components/ui/format";
 import { describeAction, describeDetails, describeTarget } from "./format";
+import { screenError } from "@/components/ui/screen-error";
 
 const ROLE_HELP: Record<RoleName, string> = {
   owner: "everything, plus members and boards",
@@ -45,7 +46,7 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
         isOwner ? invitations.mutate() : undefined,
       ]);
     } catch (err) {
-      setError(errorMessage(err));
+      setError(screenError(err));
     } finally {
       setBusy(null);
     }
@@ -257,7 +258,7 @@ function InviteCard({ onInvited }: { onInvited: () => Promise<unknown> }) {
       setEmail("");
       await onInvited();
     } catch (err) {
-      setStatus({ tone: "error", text: errorMessage(err) });
+      setStatus({ tone: "error", text: screenError(err) });
     } finally {
       setSending(false);
     }

@@ -1,13 +1,7 @@
 // The workbench's calls to the route handlers, in one place.
-import { HttpError, errorMessage, fetchJson, sendJson } from "@/lib/client/fetcher";
+import { fetchJson, sendJson } from "@/lib/client/fetcher";
 import { runsKey, scenarioKey, type PersonRef, type RunRecord, type ScenarioRecord } from "@/lib/client/hooks";
 import type { Scenario } from "@/lib/schemas/scenario";
-import { apiIssuesText } from "@/lib/workbench/screen-words";
-
-/** A failed request in the words of the screen: a 400's zod issues name the fields by their labels. */
-export function screenError(e: unknown): string {
-  return (e instanceof HttpError && apiIssuesText(e.body)) || errorMessage(e);
-}
 
 export interface VersionRecord {
   version: number;

@@ -10,9 +10,10 @@ import { fetchJson, errorMessage } from "@/lib/client/fetcher";
 import { personName, useRuns, type ListResponse } from "@/lib/client/hooks";
 import { ScenarioTables } from "@/components/scenario/scenario-tables";
 import { parseScenario } from "@/lib/schemas/scenario";
-import { fetchVersion, restoreVersion, scenarioKey, screenError, versionsKey, type VersionRecord } from "./api";
+import { fetchVersion, restoreVersion, scenarioKey, versionsKey, type VersionRecord } from "./api";
 import { MiniButton } from "./controls";
 import { useWb } from "./store";
+import { screenError } from "@/components/ui/screen-error";
 
 function when(iso: string): string {
   const d = new Date(iso);

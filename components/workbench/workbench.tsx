@@ -15,7 +15,7 @@ import { HttpError } from "@/lib/client/fetcher";
 import { runsKey, useBoard, useScenario, type ScenarioRecord } from "@/lib/client/hooks";
 import { parseScenario, scenarioSchema, type Scenario } from "@/lib/schemas/scenario";
 import { scenarioIssuesText } from "@/lib/workbench/screen-words";
-import { saveRun, saveScenario, scenarioKey, screenError, versionsKey } from "./api";
+import { saveRun, saveScenario, scenarioKey, versionsKey } from "./api";
 import { Tabs } from "./controls";
 import { FromSpecPanel } from "./from-spec-panel";
 import { HistoryCard, RunsCard } from "./history-runs";
@@ -27,6 +27,7 @@ import { useRunner } from "./use-runner";
 import { FieldScopeProvider, refuseIfInvalid } from "./field-problems";
 import { clearDraft, readDraft, writeDraft, type StoredDraft } from "@/lib/workbench/drafts";
 import { WorkbenchStudies } from "@/components/studies/workbench-studies";
+import { screenError } from "@/components/ui/screen-error";
 
 /** Loads the scenario and mounts one workbench store for it. */
 export function ScenarioWorkbench({ scenarioId }: { scenarioId: string }) {
