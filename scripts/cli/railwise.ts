@@ -2,7 +2,13 @@
 // bundled by scripts/build-cli.mjs into build/cli/railwise.cjs. Each subcommand is imported
 // only when it is asked for, so `design` does not evaluate the solver and `simulate` does not
 // evaluate the synthesis code.
+import { config as zodConfig } from "zod/v4/core";
 import { fail } from "./io";
+
+// One process parses one document: zod's compiled fast path (generated with new Function on
+// the first parse of each object schema) costs more to build than it saves here, so the CLI
+// parses without it (same checks, same messages).
+zodConfig({ jitless: true });
 
 const USAGE = [
   "usage: railwise <command> [arguments]",
