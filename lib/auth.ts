@@ -4,9 +4,10 @@
 //
 // Ending sessions: a JWT cannot be recalled, so every token carries the user's
 // `sessionGeneration` (users table, migration 0003) and the role it was issued for. Each
-// request re-reads both in one indexed query (primary key of users joined with the unique
-// (userId, teamId) index of memberships); sign-out, role change and removal bump the generation,
-// so a copied cookie stops working at once instead of at the 12 h expiry.
+// request re-reads both in one indexed query, prepared once (models/prepared.ts): the primary
+// key of users joined with the unique (userId, teamId) index of memberships. Sign-out, role
+// change and removal bump the generation, so a copied cookie stops working at once instead of
+// at the 12 h expiry.
 import type { NextAuthOptions } from "next-auth";
 import type { JWT } from "next-auth/jwt";
 import CredentialsProvider from "next-auth/providers/credentials";
@@ -14,6 +15,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { verifyCredentials } from "@/lib/server/accounts";
 import type { Role } from "@/lib/schemas/roles";
 import { getSequelize } from "@/models";
+import { selectOnePrepared } from "@/models/prepared";
 
 /** Used only outside production so `npm run dev` and tests work without configuration. */
 export const DEV_AUTH_SECRET = "railwise-development-secret-not-for-production";
@@ -42,15 +44,16 @@ export interface SessionState {
 
 /** The user's current generation and membership in one query; null when the membership is gone. */
 export async function readSessionState(userId: string, teamId: string): Promise<SessionState | null> {
-  const rows = await getSequelize().query<SessionState>(
+  const row = await selectOnePrepared<SessionState>(
+    getSequelize(),
+    "railwise_session_state",
     `SELECT u."sessionGeneration" AS "generation", m."role" AS "role", u."name" AS "name", u."email" AS "email", t."name" AS "teamName"
        FROM "memberships" m
        JOIN "users" u ON u."id" = m."userId"
        JOIN "teams" t ON t."id" = m."teamId"
-      WHERE m."userId" = :userId AND m."teamId" = :teamId`,
-    { replacements: { userId, teamId }, type: QueryTypes.SELECT },
+      WHERE m."userId" = $1 AND m."teamId" = $2`,
+    [userId, teamId],
   );
-  const row = rows[0];
   return row ? { ...row, generation: Number(row.generation) } : null;
 }
 
