@@ -29,12 +29,19 @@ function holds(
   return !trackVd || (vdSide ? lo >= 0 : hi < 0);
 }
 
+/** Knots per block of the knot-stepping loop (the sines are bounded over a block). */
+export const KNOT_BLOCK = 32;
+
 /**
  * The knot-stepping loop of holdAtRail: from knot index k (t at or after knot k, before knot
  * k + 1) steps knot to knot while vd at the next knot holds the rail, and returns the index of
- * the last knot reached (k when none). A function of its own, on typed arrays and numbers only,
- * so its optimised code is not thrown away with the rarely taken paths of holdAtRail (which
- * left this loop running unoptimised, boxing a number per knot: garbage collections).
+ * the last knot reached (k when none). The sines are evaluated once per block of KNOT_BLOCK
+ * knots: within a block they move by at most Σ|A_j·ω_j| times the time since the block's start,
+ * so a knot whose vd clears the limit by that much more holds whatever the sines do, and only a
+ * knot near the limit gets its sines (from the block's phases by one rotation each).
+ * A function of its own, on typed arrays and numbers only, so its optimised code is not thrown
+ * away with the rarely taken paths of holdAtRail (which left this loop running unoptimised,
+ * boxing a number per knot: garbage collections).
  */
 function stepKnots(
   s: ExactSolver,
@@ -62,44 +69,72 @@ function stepKnots(
   const omega = sig.sineOmega;
   const phase0 = sig.sinePhase;
   const amp = sig.sineAmp;
-  const sineCount = amp.length;
+  const m = amp.length;
   const sn = s.sineSin;
   const cs = s.sineCos;
-  const stepSin = s.stepSin;
-  const stepCos = s.stepCos;
+  const offSin = s.stepSin;
+  const offCos = s.stepCos;
+  let sineRate = 0;
+  for (let j = 0; j < m; j++) sineRate += Math.abs(amp[j] * omega[j]);
+  // how far vd can move with the sines over a block, beyond the knots' own margin
+  const widened = margin + Math.abs(alpha) * sineRate * (KNOT_BLOCK - 1) * dt;
   const steps0 = s.steps;
   const k0 = k;
-  let sinceSeed = RESEED;
+  let blocks = RESEED; // blocks since the phases were last taken from Math.sin/cos
   while (k < lastK) {
-    const tb = (k + 1) * dt;
-    if (tb >= end) break;
-    let sines = 0;
-    if (sineCount > 0) {
-      if (sinceSeed >= RESEED) {
-        for (let j = 0; j < sineCount; j++) {
+    // a block starts at knot k + 1: its phases, and the sines' sum there
+    let s0 = 0;
+    if (m > 0) {
+      if (blocks * KNOT_BLOCK >= RESEED) {
+        const tb = (k + 1) * dt;
+        for (let j = 0; j < m; j++) {
           const phase = omega[j] * tb + phase0[j];
           sn[j] = Math.sin(phase);
           cs[j] = Math.cos(phase);
         }
-        sinceSeed = 0;
+        blocks = 0;
       } else {
-        for (let j = 0; j < sineCount; j++) {
+        const o = KNOT_BLOCK * m;
+        for (let j = 0; j < m; j++) {
           const a = sn[j];
           const b = cs[j];
-          sn[j] = a * stepCos[j] + b * stepSin[j];
-          cs[j] = b * stepCos[j] - a * stepSin[j];
+          sn[j] = a * offCos[o + j] + b * offSin[o + j];
+          cs[j] = b * offCos[o + j] - a * offSin[o + j];
         }
       }
-      sinceSeed++;
-      for (let j = 0; j < sineCount; j++) sines += amp[j] * sn[j];
+      blocks++;
+      for (let j = 0; j < m; j++) s0 += amp[j] * sn[j];
     }
-    const b = alpha * (refV + slope * (tb - refT) + knots[k + 1] + sines) + c0;
-    if (!holds(b, b, margin, high, threshold, trackVd, vdSide)) break;
-    k++;
-    if (((k - k0) & 1023) === 0) {
-      s.steps = steps0 + (k - k0);
-      s.checkIn(k * dt);
+    const kBlock = k;
+    let failed = false;
+    for (let i = 0; i < KNOT_BLOCK && k < lastK; i++) {
+      const tb = (k + 1) * dt;
+      if (tb >= end) {
+        failed = true;
+        break;
+      }
+      const affine = refV + slope * (tb - refT) + knots[k + 1];
+      const loose = alpha * (affine + s0) + c0;
+      if (!holds(loose, loose, widened, high, threshold, trackVd, vdSide)) {
+        // near the limit: the sines at this knot, rotated from the block's start
+        let sines = 0;
+        const o = (k - kBlock) * m;
+        for (let j = 0; j < m; j++) sines += amp[j] * (sn[j] * offCos[o + j] + cs[j] * offSin[o + j]);
+        const b = alpha * (affine + sines) + c0;
+        if (!holds(b, b, margin, high, threshold, trackVd, vdSide)) {
+          failed = true;
+          break;
+        }
+      }
+      k++;
+      if (((k - k0) & 1023) === 0) {
+        s.steps = steps0 + (k - k0);
+        s.checkIn(k * dt);
+      }
     }
+    if (failed) break;
+    // the next block starts KNOT_BLOCK knots on; a block cut short by lastK ends the loop
+    if (k - kBlock < KNOT_BLOCK) break;
   }
   s.steps = steps0;
   return k;

@@ -31,7 +31,7 @@ import {
   type Regime,
 } from "./regimes";
 import { Scanner } from "./scan";
-import { holdAtRail } from "./rail-hold";
+import { KNOT_BLOCK, holdAtRail } from "./rail-hold";
 
 export interface ExactParams {
   net: Network;
@@ -69,7 +69,7 @@ export class ExactSolver {
   readonly scan: Scanner;
   readonly delay: number;
   readonly sides = new Uint8Array(4);
-  /** Σ A_j·ω_j² of the sines, and per-sine rotation by ω_j·noiseDt (rail-hold.ts). */
+  /** Σ A_j·ω_j² of the sines, and the sines' phases along a block of noise knots (rail-hold.ts). */
   readonly sineCurvature: number;
   readonly sineSin: Float64Array;
   readonly sineCos: Float64Array;
@@ -117,12 +117,14 @@ export class ExactSolver {
     this.pieceCapSine = wMax > 0 ? (2 * Math.PI) / wMax / 8 : Infinity;
     this.sineSin = new Float64Array(m);
     this.sineCos = new Float64Array(m);
-    this.stepSin = new Float64Array(m);
-    this.stepCos = new Float64Array(m);
-    for (let j = 0; j < m; j++) {
-      this.stepSin[j] = Math.sin(omega[j] * p.signal.noiseDt);
-      this.stepCos[j] = Math.cos(omega[j] * p.signal.noiseDt);
-    }
+    // sin/cos of ω_j·i·noiseDt for i = 0 … KNOT_BLOCK, at [i·m + j] (rail-hold.ts)
+    this.stepSin = new Float64Array(m * (KNOT_BLOCK + 1));
+    this.stepCos = new Float64Array(m * (KNOT_BLOCK + 1));
+    for (let i = 0; i <= KNOT_BLOCK; i++)
+      for (let j = 0; j < m; j++) {
+        this.stepSin[i * m + j] = Math.sin(omega[j] * i * p.signal.noiseDt);
+        this.stepCos[i * m + j] = Math.cos(omega[j] * i * p.signal.noiseDt);
+      }
     this.G = new Float64Array(this.model.size);
     this.scratch = new Float64Array(this.model.size);
   }
