@@ -152,6 +152,21 @@ async function main() {
   }
 
   if (built) {
+    // One migrated and seeded SQLite file for this run; every SQLite test server starts from its
+    // own copy (tests/helpers/server.ts). A failed setup just leaves each server to run db:setup.
+    const template = path.join(outDir, "template.sqlite");
+    for (const suffix of ["", "-wal", "-shm"]) fs.rmSync(template + suffix, { force: true });
+    const setup = spawnSync(
+      process.execPath,
+      [path.join(ROOT, "node_modules/tsx/dist/cli.mjs"), "scripts/db-setup.ts", "--quiet"],
+      {
+        cwd: ROOT,
+        env: { ...process.env, DATABASE_URL: `sqlite:${template}` },
+        encoding: "utf8",
+      },
+    );
+    if (setup.status === 0 && !fs.existsSync(`${template}-wal`)) process.env.RAILWISE_TEST_SQLITE_TEMPLATE = template;
+    else console.log(`(no SQLite template: db:setup exit ${setup.status}; each server sets up its own database)`);
     // The two integration passes run side by side: their servers mostly wait on loopback and the
     // database (one pass keeps about 1.1 of the 2 cores busy), and each has its own databases,
     // ports and temp folders. The browser tests come after, alone: they measure responsiveness.
