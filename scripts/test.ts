@@ -125,6 +125,24 @@ function vitestInBackground(
   });
 }
 
+/** One migrated and seeded PostgreSQL database for the PostgreSQL pass to copy, or null. */
+async function pgTemplateDatabase(pg: string) {
+  try {
+    const { createPgDatabase, setupDatabase } = await import("@/tests/helpers/server");
+    const db = await createPgDatabase(pg);
+    try {
+      setupDatabase(db.url);
+      return db;
+    } catch (err) {
+      await db.drop();
+      throw err;
+    }
+  } catch (err) {
+    console.log(`(no PostgreSQL template: ${err instanceof Error ? err.message.split("\n")[0] : String(err)})`);
+    return null;
+  }
+}
+
 async function main() {
   fs.mkdirSync(outDir, { recursive: true });
   const total: Tally = { passed: 0, failed: 0, skipped: 0 };
@@ -172,10 +190,17 @@ async function main() {
     // ports and temp folders. The browser tests come after, alone: they measure responsiveness.
     // The first pass always runs on SQLite, even if the caller's shell has RAILWISE_TEST_PG.
     const pg = process.env.RAILWISE_TEST_PG?.trim();
-    const pgPass = pg ? vitestInBackground(["integration"], "integration-postgres", { RAILWISE_TEST_PG: pg }) : null;
+    const pgTemplate = pg ? await pgTemplateDatabase(pg) : null;
+    const pgPass = pg
+      ? vitestInBackground(["integration"], "integration-postgres", {
+          RAILWISE_TEST_PG: pg,
+          RAILWISE_TEST_PG_TEMPLATE: pgTemplate?.name,
+        })
+      : null;
     add(vitest(["integration"], "integration", { RAILWISE_TEST_PG: "" }));
     if (pgPass) add(await pgPass);
     else console.log("(RAILWISE_TEST_PG not set: integration tests ran on SQLite only)");
+    await pgTemplate?.drop();
     add(vitest(["e2e"], "e2e", { RAILWISE_TEST_PG: "" }));
   } else {
     console.error("integration and e2e tests not run: the build failed (counted as one failure)");

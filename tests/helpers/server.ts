@@ -70,8 +70,21 @@ async function onPgServer(serverUrl: string, statement: string): Promise<void> {
 }
 
 /** A fresh, empty database on the RAILWISE_TEST_PG server: its URL and a function that drops it. */
-export async function createPgDatabase(serverUrl: string): Promise<{ url: string; drop(): Promise<void> }> {
+export async function createPgDatabase(
+  serverUrl: string,
+  { template }: { template?: string } = {},
+): Promise<{ name: string; url: string; drop(): Promise<void> }> {
   const name = `railwise_test_${randomBytes(6).toString("hex")}`;
+  const done = {
+    name,
+    url: pgUrlFor(serverUrl, name),
+    drop: () => onPgServer(serverUrl, `DROP DATABASE IF EXISTS ${name} WITH (FORCE)`),
+  };
+  if (template && /^[a-z0-9_]+$/.test(template)) {
+    // A copy of a migrated and seeded database (its collation comes with it).
+    await onPgServer(serverUrl, `CREATE DATABASE ${name} TEMPLATE ${template}`);
+    return done;
+  }
   // A linguistic (ICU en-US) default collation on purpose, unlike the C.UTF-8 the README
   // recommends: lists must come out in code-point order whatever the database's locale.
   // Servers built without ICU (or older than 15) get the cluster's default instead.
@@ -83,10 +96,7 @@ export async function createPgDatabase(serverUrl: string): Promise<{ url: string
   } catch {
     await onPgServer(serverUrl, `CREATE DATABASE ${name} TEMPLATE template0 ENCODING 'UTF8'`);
   }
-  return {
-    url: pgUrlFor(serverUrl, name),
-    drop: () => onPgServer(serverUrl, `DROP DATABASE IF EXISTS ${name} WITH (FORCE)`),
-  };
+  return done;
 }
 
 /** Migrates and seeds a database by running scripts/db-setup.ts in a child process. */
@@ -126,15 +136,16 @@ export async function startServer({ env = {} }: { env?: Record<string, string> }
   }
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "railwise-test-"));
   const pgServer = env.DATABASE_URL ? null : testPgServer();
-  const pgDb = pgServer ? await createPgDatabase(pgServer) : null;
+  // npm test prepares one migrated and seeded database of each kind per run (scripts/test.ts);
+  // each server gets its own fresh copy instead of running db:setup again (about 2.3 s each).
+  const pgTemplate = process.env.RAILWISE_TEST_PG_TEMPLATE;
+  const pgDb = pgServer ? await createPgDatabase(pgServer, { template: pgTemplate }) : null;
   const dbPath = pgDb ? "" : path.join(dir, "railwise.sqlite");
   const databaseUrl = env.DATABASE_URL ?? (pgDb ? pgDb.url : `sqlite:${dbPath}`);
   try {
     const template = process.env.RAILWISE_TEST_SQLITE_TEMPLATE;
-    // npm test migrates and seeds one SQLite template per run (scripts/test.ts); each server
-    // gets its own fresh copy of it instead of running db:setup again (about 2.3 s each).
     if (dbPath && !env.DATABASE_URL && template && fs.existsSync(template)) fs.copyFileSync(template, dbPath);
-    else setupDatabase(databaseUrl);
+    else if (!(pgDb && pgTemplate)) setupDatabase(databaseUrl);
   } catch (err) {
     await pgDb?.drop();
     throw err;
