@@ -41,7 +41,7 @@ function TextRow({
 }) {
   return (
     <label className="grid grid-cols-[7.5rem_minmax(0,1fr)] items-center gap-x-2 py-0.5">
-      <span className="truncate text-[13px] text-ink-soft">{label}</span>
+      <span className="text-[13px] leading-tight break-words text-ink-soft">{label}</span>
       <input
         name={name}
         className="min-w-0 rounded border border-paper-line bg-white px-1.5 py-0.5 text-[13px]"

@@ -575,9 +575,9 @@ function ToleranceForm({
           value={f.probe}
           onChange={(e) => set({ probe: e.target.value as "scenario" | "triangle" })}
         >
-          <option value="scenario">the scenario's own (no noise)</option>
+          <option value="scenario">scenario's, no noise</option>
           <option value="triangle">
-            slow triangle {fmtV(probeLo)} … {fmtV(probeHi)}
+            triangle {fmtV(probeLo)} … {fmtV(probeHi)}
           </option>
         </SelectRow>
         <QuantityField

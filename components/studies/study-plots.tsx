@@ -24,23 +24,48 @@ export const STUDY_COLORS = {
   nominal: "#1d2430",
 };
 
-function tag(u: uPlot, x: number, text: string, color: string, row: number, side?: "left" | "right") {
+const TAG_FONT = (dpr: number) => `${10 * dpr}px var(--font-jb), ui-monospace, monospace`;
+
+/**
+ * Where the label of the vertical line at `x` goes: on `side` of the line (by default right of
+ * it, left near the right edge), flipped when it would leave the plotting area. Null off the plot.
+ */
+function placeTag(u: uPlot, x: number, text: string, side?: "left" | "right") {
   const px = u.valToPos(x, "x", true);
-  if (px < u.bbox.left || px > u.bbox.left + u.bbox.width) return;
+  if (px < u.bbox.left || px > u.bbox.left + u.bbox.width) return null;
+  const dpr = devicePixelRatio;
+  u.ctx.save();
+  u.ctx.font = TAG_FONT(dpr);
+  const w = u.ctx.measureText(text).width + 4 * dpr;
+  u.ctx.restore();
+  let right = side ? side === "left" : px > u.bbox.left + u.bbox.width * 0.7;
+  if (right && px - w < u.bbox.left) right = false;
+  else if (!right && px + w > u.bbox.left + u.bbox.width) right = true;
+  const at = px + (right ? -4 : 4) * dpr;
+  return { at, right, span: (right ? [at - w, at] : [at, at + w]) as [number, number] };
+}
+
+/** Draws the label; answers the span of canvas x it covers (null when off the plot). */
+function tag(
+  u: uPlot,
+  x: number,
+  text: string,
+  color: string,
+  row: number,
+  side?: "left" | "right",
+): [number, number] | null {
+  const place = placeTag(u, x, text, side);
+  if (!place) return null;
   const ctx = u.ctx;
   const dpr = devicePixelRatio;
   ctx.save();
-  ctx.font = `${10 * dpr}px var(--font-jb), ui-monospace, monospace`;
+  ctx.font = TAG_FONT(dpr);
   ctx.fillStyle = color;
-  let right = side ? side === "left" : px > u.bbox.left + u.bbox.width * 0.7;
-  // Keep the label inside the plotting area: flip it to the other side of its line if needed.
-  const w = ctx.measureText(text).width + 4 * dpr;
-  if (right && px - w < u.bbox.left) right = false;
-  else if (!right && px + w > u.bbox.left + u.bbox.width) right = true;
-  ctx.textAlign = right ? "right" : "left";
+  ctx.textAlign = place.right ? "right" : "left";
   ctx.textBaseline = "top";
-  ctx.fillText(text, px + (right ? -4 : 4) * dpr, u.bbox.top + (4 + row * 13) * dpr);
+  ctx.fillText(text, place.at, u.bbox.top + (4 + row * 13) * dpr);
   ctx.restore();
+  return place.span;
 }
 
 export function ChatterPlot({
@@ -193,8 +218,12 @@ export function SpreadHistogram({
                 vLine(u, spread.worstCase[0], STUDY_COLORS.corner, [5, 3]);
                 vLine(u, spread.worstCase[1], STUDY_COLORS.corner, [5, 3]);
                 // Labels point away from each other so close corners stay readable.
-                tag(u, spread.worstCase[0], "worst case", STUDY_COLORS.corner, row, "left");
-                tag(u, spread.worstCase[1], "worst case", STUDY_COLORS.corner, row, "right");
+                const a = tag(u, spread.worstCase[0], "worst case", STUDY_COLORS.corner, row, "left");
+                // Both labels flipped inwards (corners near the plot's edges) and meeting: the
+                // second one goes a row lower.
+                const b = placeTag(u, spread.worstCase[1], "worst case", "right")?.span;
+                const clash = a && b && a[0] < b[1] && b[0] < a[1];
+                tag(u, spread.worstCase[1], "worst case", STUDY_COLORS.corner, clash ? row + 1 : row, "right");
               }
             },
           ],

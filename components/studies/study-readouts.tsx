@@ -118,7 +118,8 @@ export function ToleranceSpreadResult({ summary, meta }: { summary: ToleranceSpr
           spec window
         </span>
       </div>
-      <div className="grid min-w-0 gap-3 xl:grid-cols-2">
+      {/* Two histograms side by side only where each keeps room for its readouts (the card is wide at 1536 px and up). */}
+      <div className="grid min-w-0 gap-3 2xl:grid-cols-2">
         {summary.measures.map((m) => (
           <figure key={m.measure} className="min-w-0">
             <figcaption className="mb-0.5 flex flex-wrap items-baseline justify-between gap-x-3 text-[12.5px]">
@@ -134,14 +135,14 @@ export function ToleranceSpreadResult({ summary, meta }: { summary: ToleranceSpr
             <table className="w-full font-mono text-[11.5px]">
               <tbody>
                 <tr className="text-ink-mute">
-                  <td>draws min … max</td>
-                  <td className="text-right text-ink">
+                  <td className="pr-2 whitespace-nowrap">draws min … max</td>
+                  <td className="text-right whitespace-nowrap text-ink">
                     {fmtFigure(m.measure, m.summary.min)} … {fmtFigure(m.measure, m.summary.max)}
                   </td>
                 </tr>
                 <tr className="text-ink-mute">
-                  <td>worst case</td>
-                  <td className="text-right text-ink">
+                  <td className="pr-2 whitespace-nowrap">worst case</td>
+                  <td className="text-right whitespace-nowrap text-ink">
                     {m.worstCase
                       ? `${fmtFigure(m.measure, m.worstCase[0])} … ${fmtFigure(m.measure, m.worstCase[1])}`
                       : "—"}
@@ -149,16 +150,16 @@ export function ToleranceSpreadResult({ summary, meta }: { summary: ToleranceSpr
                 </tr>
                 {m.window ? (
                   <tr className="text-ink-mute">
-                    <td>spec window</td>
-                    <td className="text-right text-ink">
+                    <td className="pr-2 whitespace-nowrap">spec window</td>
+                    <td className="text-right whitespace-nowrap text-ink">
                       {fmtFigure(m.measure, m.window[0])} … {fmtFigure(m.measure, m.window[1])}
                     </td>
                   </tr>
                 ) : null}
                 {m.missing ? (
                   <tr className="text-caution">
-                    <td>not measured</td>
-                    <td className="text-right">{m.missing} draws</td>
+                    <td className="pr-2 whitespace-nowrap">not measured</td>
+                    <td className="text-right whitespace-nowrap">{m.missing} draws</td>
                   </tr>
                 ) : null}
               </tbody>

@@ -34,8 +34,9 @@ export function SelectRow({
 }: { label: string; children: ReactNode } & ComponentProps<"select">) {
   const id = useId();
   return (
-    <label htmlFor={id} className="grid grid-cols-[7.5rem_minmax(0,1fr)] items-center gap-x-2 py-0.5">
-      <span className="truncate text-[13px] text-ink-soft">{label}</span>
+    // On a phone the label sits above the list, so the options' words are not cut off.
+    <label htmlFor={id} className="grid grid-cols-1 items-center gap-x-2 py-0.5 sm:grid-cols-[7.5rem_minmax(0,1fr)]">
+      <span className="text-[13px] leading-tight break-words text-ink-soft">{label}</span>
       <select
         id={id}
         {...rest}

@@ -131,8 +131,7 @@ export function RunsCard({ action }: { action?: React.ReactNode }) {
           <table className="w-full border-collapse text-[13px]" data-testid="runs-table">
             <thead className="sticky top-0 bg-paper-card">
               <tr className="border-b border-paper-line text-left text-[11.5px] text-ink-mute">
-                <th className="px-4 py-1.5 font-medium">run</th>
-                <th className="px-2 py-1.5 font-medium">saved</th>
+                <th className="px-4 py-1.5 font-medium">run · saved</th>
                 <th className="px-2 py-1.5 text-right font-medium">upper</th>
                 <th className="px-2 py-1.5 text-right font-medium">lower</th>
                 <th className="py-1.5 pl-2 pr-4 text-right font-medium">edges</th>
@@ -141,13 +140,14 @@ export function RunsCard({ action }: { action?: React.ReactNode }) {
             <tbody>
               {items.map((r) => (
                 <tr key={r.id} className="border-b border-paper-line/70 last:border-0 hover:bg-paper/60">
-                  <td className="max-w-[14rem] break-words px-4 py-1.5">
+                  <td className="break-words px-4 py-1.5">
                     <Link href={`/runs/${r.id}`} className="text-copper-deep hover:underline">
                       {r.label || `Run ${r.id.slice(0, 8)}`}
                     </Link>
-                  </td>
-                  <td className="px-2 py-1.5 text-ink-mute">
-                    {when(r.createdAt)} · {personName(r.createdBy)}
+                    {/* When and by whom, under the name: a column of its own wrapped to four lines. */}
+                    <span className="block text-[11.5px] text-ink-mute">
+                      <span className="whitespace-nowrap">{when(r.createdAt)}</span> · {personName(r.createdBy)}
+                    </span>
                   </td>
                   <td className="whitespace-nowrap px-2 py-1.5 text-right font-mono">
                     {r.result?.metrics.upperThreshold == null

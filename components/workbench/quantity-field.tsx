@@ -89,7 +89,10 @@ export function QuantityField({
 
   return (
     <label htmlFor={id} className="grid grid-cols-[7.5rem_minmax(0,1fr)] items-center gap-x-2 py-0.5">
-      <span className="truncate text-[13px] text-ink-soft" title={hint ? `${label}: ${hint}` : undefined}>
+      <span
+        className="text-[13px] leading-tight break-words text-ink-soft"
+        title={hint ? `${label}: ${hint}` : undefined}
+      >
         {label}
       </span>
       <span className="flex min-w-0 flex-wrap items-center gap-x-2">

@@ -3,7 +3,7 @@
 // copper, the reference as a moss tab. Pure SVG, server- and client-safe.
 import type { Scenario } from "@/lib/schemas/scenario";
 import { formatQuantity } from "@/lib/design/notation";
-import { STAGE_KIND_LABEL } from "@/lib/workbench/stage-labels";
+import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL } from "@/lib/workbench/stage-labels";
 
 const INK = "#3b4556";
 const MUTE = "#6b7587";
@@ -29,19 +29,27 @@ function Dot({ at }: { at: Pt }) {
   return <circle cx={at[0]} cy={at[1]} r={3} fill={INK} />;
 }
 
+const DIAGRAM_LABEL: Record<string, string> = {
+  ...Object.fromEntries(Object.entries(STAGE_ROLE_LABEL).map(([k, v]) => [k, v.name])),
+  rTop: "R top",
+  rBottom: "R bottom",
+};
+
 /** Horizontal or vertical resistor centred on `c`, 46 × 14, label and value outside it. */
 function Resistor({ c, vertical = false, role, ohms }: { c: Pt; vertical?: boolean; role: string; ohms: number }) {
   const [x, y] = c;
   const w = vertical ? 14 : 46;
   const h = vertical ? 46 : 14;
   const value = formatQuantity(ohms, "Ω", 3);
+  // The label the Stage tab gives the part; the divider's two ends are "R top" and "R bottom".
+  const label = DIAGRAM_LABEL[role] ?? role;
   return (
     <g data-role={role}>
       <rect x={x - w / 2} y={y - h / 2} width={w} height={h} rx={4} fill="#eceee8" stroke={INK} strokeWidth={1.4} />
       {vertical ? (
         <>
           <text x={x + 12} y={y - 4} fontSize={12.5} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
-            {role}
+            {label}
           </text>
           <text x={x + 12} y={y + 12} fontSize={13.5} fill={INK} fontFamily="var(--font-jb), monospace">
             {value}
@@ -57,7 +65,7 @@ function Resistor({ c, vertical = false, role, ohms }: { c: Pt; vertical?: boole
             textAnchor="middle"
             fontFamily="var(--font-plex), sans-serif"
           >
-            {role}
+            {label}
           </text>
           <text x={x} y={y + 24} fontSize={13.5} fill={INK} textAnchor="middle" fontFamily="var(--font-jb), monospace">
             {value}
@@ -75,7 +83,7 @@ function Capacitor({ c, farads }: { c: Pt; farads: number }) {
       <line x1={x - 11} y1={y - 4} x2={x + 11} y2={y - 4} stroke={INK} strokeWidth={2.4} />
       <line x1={x - 11} y1={y + 4} x2={x + 11} y2={y + 4} stroke={INK} strokeWidth={2.4} />
       <text x={x + 16} y={y - 3} fontSize={12.5} fill={MUTE} fontFamily="var(--font-plex), sans-serif">
-        cTiming
+        {STAGE_ROLE_LABEL.cTiming.name}
       </text>
       <text x={x + 16} y={y + 13} fontSize={13.5} fill={INK} fontFamily="var(--font-jb), monospace">
         {formatQuantity(farads, "F", 3)}

@@ -86,7 +86,7 @@ export function StagePanel({ readOnly = false }: { readOnly?: boolean }) {
             </option>
           ))}
         </SelectRow>
-        <p className="mb-1 ml-[8rem] text-[11.5px] leading-snug text-ink-mute">{info.blurb}</p>
+        <p className="mb-1 sm:ml-[8rem] text-[11.5px] leading-snug text-ink-mute">{info.blurb}</p>
         {stage.kind === "comparator" ? (
           <SelectRow
             label="Input on"
@@ -262,7 +262,7 @@ function PartSection({ readOnly }: { readOnly: boolean }) {
           </option>
         ))}
       </SelectRow>
-      <p className="mb-1 ml-[8rem] text-[11.5px] text-ink-mute">
+      <p className="mb-1 sm:ml-[8rem] text-[11.5px] text-ink-mute">
         {base && changed.length ? (
           <>
             Overridden here:{" "}

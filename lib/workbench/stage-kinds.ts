@@ -15,13 +15,13 @@ export interface KindInfo {
 
 export const KIND_INFO: Record<StageKind, KindInfo> = {
   "noninverting-amplifier": {
-    blurb: "Input on v+, feedback divider to the reference. Gain 1 + rFeedback/rGround.",
+    blurb: "Input on v+, feedback divider to the reference. Gain 1 + R feedback / R ground.",
     roles: ["rGround", "rFeedback"],
     capacitor: false,
     switching: false,
   },
   "inverting-amplifier": {
-    blurb: "Input through rInput to v−, v+ at the reference. Gain −rFeedback/rInput.",
+    blurb: "Input through R input to v−, v+ at the reference. Gain −R feedback / R input.",
     roles: ["rInput", "rFeedback"],
     capacitor: false,
     switching: false,
@@ -33,19 +33,19 @@ export const KIND_INFO: Record<StageKind, KindInfo> = {
     switching: true,
   },
   "schmitt-noninverting": {
-    blurb: "Input through rInput to v+, positive feedback through rFeedback; v− at the reference.",
+    blurb: "Input through R input to v+, positive feedback through R feedback; v− at the reference.",
     roles: ["rInput", "rFeedback"],
     capacitor: false,
     switching: true,
   },
   "schmitt-inverting": {
-    blurb: "Input on v−; v+ set by rReference from the reference and rFeedback from the output.",
+    blurb: "Input on v−; v+ set by R reference from the reference and R feedback from the output.",
     roles: ["rReference", "rFeedback"],
     capacitor: false,
     switching: true,
   },
   "relaxation-oscillator": {
-    blurb: "An inverting hysteresis trigger whose v− is a capacitor charged from the output through rTiming.",
+    blurb: "An inverting hysteresis trigger whose v− is a capacitor charged from the output through R timing.",
     roles: ["rReference", "rFeedback", "rTiming"],
     capacitor: true,
     switching: true,
