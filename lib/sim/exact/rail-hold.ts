@@ -160,28 +160,33 @@ export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
   let held = 0;
   const sig = p.signal;
   const knots = sig.noise;
-  if (knots !== null && s.delay === 0) {
-    // Knot-stepping: between noise knots the rest of the input is affine (plus the sines), so
-    // checking vd at each knot is the whole test. Stops at the first knot that fails, at a
-    // breakpoint of the other components, or at the end; the per-piece loop below goes on.
-    s.pieceEnd(t, T); // validates the cache of the other components at t
-    const dt = sig.noiseDt;
-    const margin = (curvature * dt * dt) / 8;
-    const v0 = alpha * m.inputAtStart() + c0;
-    if (holds(v0, v0, margin, high, threshold, trackVd, vdSide)) {
-      let k = Math.floor(t / dt);
-      if ((k + 1) * dt <= t) k++;
-      const kEnd = stepKnots(s, knots, k, t, Math.min(T, sig.partsTo), alpha, c0, margin, high, threshold, vdSide);
-      if (kEnd > k) {
-        const reached = kEnd * dt;
-        s.steps += kEnd - k;
-        held += reached - t;
-        t = reached;
-        while (s.sample < ts.length && ts[s.sample] <= t) out[s.sample++] = V;
-      }
-    }
-  }
+  const stepping = knots !== null && s.delay === 0;
   while (t < T) {
+    if (stepping) {
+      // Knot-stepping: between noise knots the rest of the input is affine (plus the sines),
+      // so checking vd at each knot is the whole test. Stops at the first knot that fails, at a
+      // breakpoint of the other components, or at the end.
+      s.pieceEnd(t, T); // validates the cache of the other components at t
+      const dt = sig.noiseDt;
+      const margin = (curvature * dt * dt) / 8;
+      const v0 = alpha * m.inputAtStart() + c0;
+      if (holds(v0, v0, margin, high, threshold, trackVd, vdSide)) {
+        let k = Math.floor(t / dt);
+        if ((k + 1) * dt <= t) k++;
+        const kEnd = stepKnots(s, knots, k, t, Math.min(T, sig.partsTo), alpha, c0, margin, high, threshold, vdSide);
+        if (kEnd > k) {
+          const reached = kEnd * dt;
+          s.steps += kEnd - k;
+          held += reached - t;
+          t = reached;
+          while (s.sample < ts.length && ts[s.sample] <= t) out[s.sample++] = V;
+        }
+      }
+      if (!(t < T)) break;
+    }
+    // One piece by its own check: the whole hold without noise; with noise the piece across a
+    // breakpoint of the other components, after which the knot stepping resumes (a knot that
+    // failed there fails this stricter check too, and the hold ends).
     let tb = s.pieceEnd(t, T);
     if (sineCount > 0) tb = Math.min(tb, t + s.scan.chunkSine);
     const h = tb - t;
