@@ -67,7 +67,12 @@ export function CommentsPanel({ runId, canComment }: { runId: string; canComment
             <span className="font-mono text-[11px] text-ink-faint">
               {body.length}/{COMMENT_MAX}
             </span>
-            <Button type="submit" size="sm" disabled={busy || !body.trim()}>
+            <Button
+              type="submit"
+              size="sm"
+              disabled={busy || !body.trim()}
+              title={!body.trim() ? "Write the comment first" : undefined}
+            >
               {busy ? "Posting…" : "Post comment"}
             </Button>
           </div>

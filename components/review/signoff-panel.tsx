@@ -203,7 +203,12 @@ export function SignoffPanel({
               }}
             />
           </Field>
-          <div className="flex justify-end">
+          <div className="flex items-center justify-end gap-2">
+            {!decision ? (
+              <span className="text-[12px] text-ink-mute" data-testid="signoff-blocked">
+                Choose a decision above first.
+              </span>
+            ) : null}
             <Button type="submit" variant="primary" size="sm" disabled={busy || !decision}>
               {busy
                 ? "Saving…"

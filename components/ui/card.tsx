@@ -19,7 +19,7 @@ export interface CardProps {
 export function Card({ title, description, actions, padded = true, className, id, children }: CardProps) {
   const hasHead = title !== undefined || actions !== undefined || description !== undefined;
   return (
-    <section id={id} className={cx("rounded-lg border border-paper-line bg-paper-card", className)}>
+    <section id={id} className={cx("min-w-0 rounded-lg border border-paper-line bg-paper-card", className)}>
       {hasHead && (
         <header className="flex flex-wrap items-start justify-between gap-x-4 gap-y-2 border-b border-paper-line px-4 py-2.5">
           <div className="min-w-0">

@@ -56,6 +56,27 @@ async function clipped(page: Page, selector: string): Promise<string[]> {
   }, selector);
 }
 
+/** Drop-down lists inside `root` whose chosen option's words are wider than the list shows. */
+async function cutSelects(page: Page, selector: string): Promise<string[]> {
+  return page.evaluate((sel) => {
+    const out: string[] = [];
+    const ctx = document.createElement("canvas").getContext("2d")!;
+    for (const root of Array.from(document.querySelectorAll(sel))) {
+      for (const el of Array.from(root.querySelectorAll<HTMLSelectElement>("select"))) {
+        if (el.offsetParent === null) continue;
+        const text = el.selectedOptions[0]?.text ?? "";
+        const cs = getComputedStyle(el);
+        ctx.font = `${cs.fontWeight} ${cs.fontSize} ${cs.fontFamily}`;
+        // The box minus its padding and the arrow (about 20 px in Chromium).
+        const room = el.clientWidth - parseFloat(cs.paddingLeft) - parseFloat(cs.paddingRight) - 20;
+        if (ctx.measureText(text).width > room + 1)
+          out.push(`select: "${text}" (${Math.round(ctx.measureText(text).width)} > ${Math.round(room)})`);
+      }
+    }
+    return out;
+  }, selector);
+}
+
 async function shot(page: Page, name: string, selector: string) {
   const el = page.locator(selector).first();
   if ((await el.count()) === 0) return;
@@ -100,6 +121,7 @@ describe("workbench panels at three widths", () => {
             }
             await shot(page, `${tag}-editor-${tab.replace(" ", "").toLowerCase()}`, "section[aria-label=Editor]");
             problems.push(...(await clipped(page, "section[aria-label=Editor]")).map((p) => `${tag} ${tab}: ${p}`));
+            problems.push(...(await cutSelects(page, "section[aria-label=Editor]")).map((p) => `${tag} ${tab}: ${p}`));
           }
           await shot(page, `${tag}-runbar`, "[data-testid=run-bar]");
           for (const [name, sel] of [
@@ -112,6 +134,10 @@ describe("workbench panels at three widths", () => {
           ] as const) {
             await shot(page, `${tag}-${name}`, sel);
           }
+          // The tolerance form too: its spec-window labels are the longest of the studies.
+          await page.getByTestId("studies-card").getByRole("tab", { name: "Tolerance spread" }).click();
+          await shot(page, `${tag}-studies-tolerance`, "[data-testid=studies-card]");
+          problems.push(...(await cutSelects(page, "[data-testid=studies-card]")).map((p) => `${tag} studies: ${p}`));
           problems.push(...(await clipped(page, "[data-testid=workbench]")).map((p) => `${tag}: ${p}`));
           if (width < 640) {
             // No keyboard-shortcut hint on a phone.
