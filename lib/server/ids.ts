@@ -30,7 +30,9 @@ export async function routeIds<P extends Record<string, string>, K extends keyof
 
 export const iso = (d: Date | string | null | undefined): string | null => (d ? new Date(d).toISOString() : null);
 
-export type PersonJson = { id: string; name: string } | null;
+import type { PersonJson } from "@/lib/schemas/responses";
+
+export type { PersonJson };
 
 export function person(id: unknown, row: { name?: string | null } | null | undefined): PersonJson {
   if (typeof id !== "string") return null;
