@@ -118,9 +118,20 @@ export function ChatterPlot({
             (u) => {
               hLine(u, summary.limit, STUDY_COLORS.limit, [5, 4]);
               let row = 0;
+              // The rule-of-thumb and the largest-safe-rms lines are often close: their tags point
+              // away from each other so neither prints across the other's line.
+              const both = summary.deadband > 0 && summary.safeRms !== null;
+              const safeLeft = both && summary.safeRms! < summary.ruleOfThumbRms;
               if (summary.deadband > 0) {
                 vLine(u, summary.ruleOfThumbRms, STUDY_COLORS.rule, [4, 3]);
-                tag(u, summary.ruleOfThumbRms, "deadband / 6.6", STUDY_COLORS.rule, row++);
+                tag(
+                  u,
+                  summary.ruleOfThumbRms,
+                  "deadband / 6.6",
+                  STUDY_COLORS.rule,
+                  row++,
+                  both ? (safeLeft ? "right" : "left") : undefined,
+                );
               }
               if (summary.safeRms !== null) {
                 vLine(u, summary.safeRms, STUDY_COLORS.safe, []);
@@ -130,6 +141,7 @@ export function ChatterPlot({
                   `≤ ${(summary.limit * 100).toFixed(summary.limit < 0.01 ? 1 : 0)} % chatter`,
                   STUDY_COLORS.safe,
                   row++,
+                  both ? (safeLeft ? "left" : "right") : undefined,
                 );
               }
               if (summary.measured) {
