@@ -54,6 +54,16 @@ export async function selectOnePrepared<Row>(
   sql: string,
   params: unknown[],
 ): Promise<Row | undefined> {
+  return (await selectPrepared<Row>(sequelize, name, sql, params))[0];
+}
+
+/** Every row of the named query. `sql` uses $1, $2, … for `params`. */
+export async function selectPrepared<Row>(
+  sequelize: Sequelize,
+  name: string,
+  sql: string,
+  params: unknown[],
+): Promise<Row[]> {
   const manager = sequelize.connectionManager as unknown as Connections;
   const connection = await manager.getConnection({ type: "SELECT" });
   try {
@@ -61,12 +71,12 @@ export async function selectOnePrepared<Row>(
       const statement = sqliteStatement(sequelize, connection as SqliteDatabase, name, sql);
       // `all`, not `get`: get leaves the statement open (a read transaction that would pin this
       // connection to an old snapshot) until it is reset; all steps to the end and resets.
-      return await new Promise<Row | undefined>((resolve, reject) =>
-        statement.all(params, (err, rows) => (err ? reject(err) : resolve(rows?.[0] as Row | undefined))),
+      return await new Promise<Row[]>((resolve, reject) =>
+        statement.all(params, (err, rows) => (err ? reject(err) : resolve((rows ?? []) as Row[]))),
       );
     }
     const result = await (connection as PgClient).query({ name, text: sql, values: params });
-    return result.rows[0] as Row | undefined;
+    return result.rows as Row[];
   } finally {
     await manager.releaseConnection(connection);
   }

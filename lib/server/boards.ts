@@ -1,7 +1,7 @@
 import "server-only";
 // Boards: a team's design folders. Every lookup is scoped by teamId (another team's id → 404).
 import { getModels, getSequelize } from "@/models";
-import { byText } from "@/models/transactions";
+import { selectPrepared } from "@/models/prepared";
 import type { BoardCreate, BoardPatch } from "@/lib/schemas/api";
 import type { BoardJson } from "@/lib/schemas/responses";
 import { recordAudit } from "./audit";
@@ -10,7 +10,13 @@ import { isId, iso } from "./ids";
 
 export type { BoardJson };
 
-type BoardRowLike = { id: string; name: string; description: string; createdAt: Date; updatedAt: Date };
+type BoardRowLike = {
+  id: string;
+  name: string;
+  description: string;
+  createdAt: Date | string;
+  updatedAt: Date | string;
+};
 
 function boardJson(row: BoardRowLike, scenarioCount: number): BoardJson {
   return {
@@ -31,10 +37,25 @@ async function countScenarios(boardIds: string[]): Promise<Map<string, number>> 
   return new Map(rows.map((r) => [String(r.boardId), Number(r.count)]));
 }
 
+/**
+ * The team's boards with their scenario counts: one query, prepared once (models/prepared.ts),
+ * names in code-point order on both databases (COLLATE "C" on PostgreSQL; SQLite compares
+ * UTF-8 bytes, the same order).
+ */
 export async function listBoards({ teamId }: { teamId: string }): Promise<BoardJson[]> {
-  const rows = await getModels().Board.findAll({ where: { teamId }, order: [byText("boards", "name"), ["id", "ASC"]] });
-  const counts = await countScenarios(rows.map((r) => r.id));
-  return rows.map((r) => boardJson(r, counts.get(r.id) ?? 0));
+  const sequelize = getSequelize();
+  const collate = sequelize.getDialect() === "postgres" ? ' COLLATE "C"' : "";
+  const rows = await selectPrepared<BoardRowLike & { scenarioCount: number | string }>(
+    sequelize,
+    "railwise_list_boards",
+    `SELECT b."id", b."name", b."description", b."createdAt", b."updatedAt",
+            (SELECT COUNT(*) FROM "scenarios" s WHERE s."boardId" = b."id") AS "scenarioCount"
+       FROM "boards" b
+      WHERE b."teamId" = $1
+      ORDER BY b."name"${collate} ASC, b."id" ASC`,
+    [teamId],
+  );
+  return rows.map((r) => boardJson(r, Number(r.scenarioCount)));
 }
 
 export async function getBoardRowOrThrow({ id, teamId }: { id: string; teamId: string }) {
