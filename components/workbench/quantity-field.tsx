@@ -24,6 +24,8 @@ export interface QuantityFieldProps {
   placeholder?: string;
   /** Friendlier readout than SI with a prefix (e.g. slew rate in V/µs). */
   display?: (v: number) => string;
+  /** The field's name in a "fix these fields" list when the label alone is ambiguous ("Component 2 Level"). */
+  listLabel?: string;
 }
 
 function show(v: number | undefined, plain: boolean, digits: number): string {
@@ -46,6 +48,7 @@ export function QuantityField({
   onClear,
   placeholder,
   display,
+  listLabel,
 }: QuantityFieldProps) {
   const id = useId();
   const [text, setText] = useState(() => show(value, plain, digits));
@@ -78,7 +81,7 @@ export function QuantityField({
           ? validate(parsed)
           : null;
   // Run, Save and Apply refuse while this is set (see field-problems.tsx).
-  useReportFieldProblem(id, label, disabled ? null : problem, id);
+  useReportFieldProblem(id, listLabel ?? label, disabled ? null : problem, id);
   useEffect(() => {
     if (pending.current && !problem && valid && !disabled) {
       pending.current = false;

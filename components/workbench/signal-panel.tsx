@@ -163,6 +163,7 @@ function ComponentFields({ index, c, readOnly }: { index: number; c: InputCompon
       key={key}
       name={`input.${index}.${key}`}
       label={INPUT_FIELD_LABEL[key] ?? key}
+      listLabel={`Component ${index + 1} ${INPUT_FIELD_LABEL[key] ?? key}`}
       unit={unit}
       value={value ?? 0}
       onCommit={set(key)}

@@ -413,6 +413,9 @@ describe("input rows keep their own text; the saved mark follows the edits (#16 
       expect(await level(0).inputValue()).toBe("0");
       expect(await level(1).inputValue()).toBe("2.5x");
       expect(await level(1).getAttribute("aria-invalid")).toBe("true");
+      // A refused run names the row as well as the field: several rows have a "Level".
+      await page.getByTestId("run-button").click();
+      await expect.poll(() => page.getByTestId("fields-at-fault").textContent()).toMatch(/Component 2 Level: /);
 
       // A capture picked from the team's list is added below; the rows above keep their text.
       await panel.getByLabel("Capture").selectOption({ index: 1 });
