@@ -39,7 +39,10 @@ function placeTag(u: uPlot, x: number, text: string, side?: "left" | "right") {
   const w = u.ctx.measureText(text).width + 4 * dpr;
   u.ctx.restore();
   let right = side ? side === "left" : px > u.bbox.left + u.bbox.width * 0.7;
-  if (right && px - w < u.bbox.left) right = false;
+  // A tag asked to sit left of its line may reach a little into the y-axis gutter (between tick
+  // labels) before it flips: flipped, it would print across the line it was turned away from.
+  const slack = side ? 24 * dpr : 0;
+  if (right && px - w < u.bbox.left - slack) right = false;
   else if (!right && px + w > u.bbox.left + u.bbox.width) right = true;
   const at = px + (right ? -4 : 4) * dpr;
   return { at, right, span: (right ? [at - w, at] : [at, at + w]) as [number, number] };
