@@ -12,11 +12,12 @@ import { PageHeader } from "@/components/ui/page-header";
 import { PLOT_COLORS } from "@/components/plots/use-uplot";
 import { VersionDiffTable } from "@/components/scenario/version-diff-table";
 import { useRun, useRuns, useScenario, useScenarios, type RunRecord } from "@/lib/client/hooks";
+import type { RunSummary } from "@/lib/client/runs";
 import { NotFoundNote } from "./not-found-note";
 import { PlotImage, type PlotSpec } from "./plot-image";
 import { ReadingsCompare } from "./readings-compare";
 
-type Versioned = RunRecord & { scenarioVersion?: number | null };
+type Versioned = Pick<RunSummary, "label" | "scenarioVersion">;
 
 const OTHER = { input: "#8fa0d8", output: "#d9a27f" };
 
@@ -89,12 +90,12 @@ export function loopOverlay(a: RunRecord, b: RunRecord): PlotSpec {
 }
 
 /** Choose the run to compare with: another run of this scenario, or a run of another scenario on the board. */
-function ComparePicker({ run, withId }: { run: Versioned; withId: string | null }) {
+function ComparePicker({ run, withId }: { run: RunRecord; withId: string | null }) {
   const router = useRouter();
   const scenario = useScenario(run.scenarioId).data;
   const scenarios = useScenarios(scenario?.boardId ?? null).data?.items ?? [];
   const [scenarioId, setScenarioId] = useState(run.scenarioId);
-  const runs = (useRuns(scenarioId).data?.items ?? []) as Versioned[];
+  const runs = useRuns(scenarioId).data?.items ?? [];
   return (
     <div className="flex flex-wrap items-center gap-2 text-[13px]">
       <label htmlFor="compare-scenario" className="text-ink-soft">
@@ -136,8 +137,8 @@ function ComparePicker({ run, withId }: { run: Versioned; withId: string | null 
 
 export function CompareView({ runId, withId }: { runId: string; withId: string | null }) {
   const aState = useRun(runId);
-  const a = aState.data as Versioned | undefined;
-  const siblings = (useRuns(a?.scenarioId ?? null).data?.items ?? []) as Versioned[];
+  const a = aState.data;
+  const siblings = useRuns(a?.scenarioId ?? null).data?.items ?? [];
   // Default: the newest earlier run of the same scenario.
   const fallback = useMemo(() => {
     if (!a) return null;
@@ -145,7 +146,7 @@ export function CompareView({ runId, withId }: { runId: string; withId: string |
     return (older[0] ?? siblings.find((r) => r.id !== a.id))?.id ?? null;
   }, [a, siblings]);
   const otherId = withId ?? fallback;
-  const b = useRun(otherId).data as Versioned | undefined;
+  const b = useRun(otherId).data;
   const trace = useMemo(() => (a && b ? traceOverlay(a, b) : null), [a, b]);
   const loop = useMemo(() => (a && b ? loopOverlay(a, b) : null), [a, b]);
 

@@ -24,7 +24,7 @@ import { KIND_INFO } from "@/lib/workbench/stage-kinds";
 import { billOfMaterials } from "@/lib/design/bom";
 import { type CircuitWorstCase, circuitWorstCase } from "@/lib/design/spread";
 import { formatQuantity } from "@/lib/design/notation";
-import { personName, useRun, useScenario, type RunRecord } from "@/lib/client/hooks";
+import { personName, useRun, useScenario } from "@/lib/client/hooks";
 import { useComments, useRunLinks } from "@/lib/client/team-hooks";
 import { useReviewRequests, useSignoffList } from "@/lib/client/review-hooks";
 import { DECISION_LABEL } from "@/lib/schemas/team";
@@ -32,8 +32,6 @@ import type { SavedStudy } from "@/lib/studies/saved";
 import { NotFoundNote } from "./not-found-note";
 import { PlotImage, type PlotSpec } from "./plot-image";
 import { contentKeys } from "@/lib/workbench/row-ids";
-
-type Versioned = RunRecord & { scenarioVersion?: number | null };
 
 const PRINT_CSS = `
 @page { margin: 13mm 12mm 14mm; }
@@ -133,7 +131,7 @@ function studyVerdicts(study: SavedStudy | null | undefined): string[] {
 
 export function ReportView({ runId }: { runId: string }) {
   const runState = useRun(runId);
-  const run = runState.data as Versioned | undefined;
+  const run = runState.data;
   const scenarioRow = useScenario(run?.scenarioId || null).data;
   const signoffs = useSignoffList(runId).data;
   const comments = useComments(runId).data;

@@ -3,7 +3,7 @@
 export type { ListOf } from "@/lib/schemas/responses";
 export { type Board, boardKey, boardsKey, useBoard, useBoards } from "./boards";
 export { personName, type PersonRef } from "./people";
-export { type RunListItem, type RunRecord, type RunSummary, runKey, runsKey, useRun, useRuns } from "./runs";
+export { type RunRecord, type RunSummary, runKey, runsKey, useRun, useRuns } from "./runs";
 export {
   type LatestDecision,
   type ScenarioRecord,

@@ -31,6 +31,7 @@ export default async function SharedRunPage({ params }: { params: Promise<{ toke
     run = {
       id: shared.id,
       scenarioId: "",
+      scenarioVersion: null,
       label: shared.label,
       createdAt: shared.createdAt,
       createdBy: null,
