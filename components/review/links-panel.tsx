@@ -6,10 +6,9 @@ import { Badge } from "@/components/ui/badge";
 import { Select, TextInput } from "@/components/ui/field";
 import { errorMessage, sendJson } from "@/lib/client/fetcher";
 import { runLinksKey, useRunLinks } from "@/lib/client/team-hooks";
-import type { RunLinkJson } from "@/lib/schemas/team";
+import type { RunLinkCreatedJson } from "@/lib/schemas/responses";
 import { LINK_LABEL_MAX } from "@/lib/schemas/review";
 
-type LinkRecord = RunLinkJson & { label?: string | null; lastUsedAt?: string | null; useCount?: number };
 import { formatDate } from "@/components/ui/format";
 
 const EXPIRY_CHOICES = [
@@ -24,7 +23,7 @@ export function LinksPanel({ runId }: { runId: string }) {
   const { data, error, mutate } = useRunLinks(runId);
   const [days, setDays] = useState("7");
   const [label, setLabel] = useState("");
-  const [fresh, setFresh] = useState<RunLinkJson | null>(null);
+  const [fresh, setFresh] = useState<RunLinkCreatedJson | null>(null);
   const [copied, setCopied] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
@@ -34,13 +33,13 @@ export function LinksPanel({ runId }: { runId: string }) {
     setProblem(null);
     setCopied(false);
     try {
-      const link = await sendJson<RunLinkJson>(runLinksKey(runId), "POST", {
+      const link = await sendJson<RunLinkCreatedJson>(runLinksKey(runId), "POST", {
         ...(days ? { expiresInDays: Number(days) } : {}),
         ...(label.trim() ? { label: label.trim() } : {}),
       });
       setLabel("");
       // The server knows its public origin only from config; the browser's origin is what the user shares.
-      setFresh({ ...link, url: link.token ? `${window.location.origin}/share/${link.token}` : link.url });
+      setFresh({ ...link, url: `${window.location.origin}/share/${link.token}` });
       await mutate();
     } catch (err) {
       setProblem(errorMessage(err));
@@ -63,7 +62,7 @@ export function LinksPanel({ runId }: { runId: string }) {
     }
   }
 
-  const items = (data?.items ?? []) as LinkRecord[];
+  const items = data?.items ?? [];
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center gap-2">
@@ -115,7 +114,7 @@ export function LinksPanel({ runId }: { runId: string }) {
             <Button
               size="sm"
               onClick={() => {
-                void navigator.clipboard?.writeText(fresh.url!).then(() => setCopied(true));
+                void navigator.clipboard?.writeText(fresh.url).then(() => setCopied(true));
               }}
             >
               {copied ? "Copied" : "Copy"}

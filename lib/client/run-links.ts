@@ -1,7 +1,6 @@
 // Run links: GET /api/runs/:id/links (owner/designer; never a token).
 import useSWR from "swr";
-import type { ListOf } from "@/lib/schemas/responses";
-import type { RunLinkJson } from "@/lib/schemas/team";
+import type { ListOf, RunLinkJson } from "@/lib/schemas/responses";
 import { enc, get, quiet } from "./swr";
 
 export const runLinksKey = (runId: string) => `/api/runs/${enc(runId)}/links`;

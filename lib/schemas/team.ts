@@ -1,7 +1,6 @@
 // Request bodies of the team side (members, invitations, run links, comments, sign-offs).
 // Shared by the route handlers and the client forms.
 import { z } from "zod";
-import type { RunLinkJson as ListedRunLinkJson, RunLinkCreatedJson } from "./responses";
 import { DECISIONS, ROLES, roleSchema, type Decision, type Role } from "./roles";
 
 export { roleSchema };
@@ -104,13 +103,6 @@ export const linkCreateSchema = z
 // The answers (members, invitations, run links, comments, sign-offs) are declared once, as zod
 // schemas in ./responses; their types are re-exported here under the names the UI uses.
 export type { CommentJson, InvitationJson, InvitationPreviewJson, MemberJson, SignoffJson } from "./responses";
-
-/**
- * A listed run link, or the answer to its create with `token` and `url` (shown once). Kept for
- * the links panel, which holds both in one state; the exact shapes are `RunLinkJson` and
- * `RunLinkCreatedJson` of ./responses.
- */
-export type RunLinkJson = ListedRunLinkJson & Partial<Pick<RunLinkCreatedJson, "token" | "url">>;
 
 export const DECISION_LABEL: Record<DecisionName, string> = {
   approved: "Approved",
