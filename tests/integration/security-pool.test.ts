@@ -13,7 +13,7 @@ let server: TestServer;
 let designer: SignedIn;
 let boardId: string;
 
-const BUDGET_MS = 3000;
+const BUDGET_MS = 2000;
 
 beforeAll(async () => {
   server = await startServer({ env: { RAILWISE_SIM_BUDGET_MS: String(BUDGET_MS), RAILWISE_SIM_THREADS: "1" } });
@@ -112,7 +112,7 @@ describe("simulation worker pool", () => {
     for (const a of answers) {
       expect(a.status).toBe(422);
       expect(a.body.error).toBe("over_budget");
-      expect(a.body.message).toMatch(/budget of 3 s/);
+      expect(a.body.message).toMatch(/budget of 2 s/);
     }
     const sorted = [...times].sort((a, b) => a - b);
     const p50 = quantile(sorted, 0.5);
