@@ -1,6 +1,7 @@
 import "server-only";
 import { Op } from "sequelize";
 import { getModels, getSequelize } from "@/models";
+import { selectPrepared } from "@/models/prepared";
 import type { Transaction } from "sequelize";
 import { badRequest, conflict, forbidden, gone, notFound } from "@/lib/server/errors";
 import { isId } from "@/lib/server/ids";
@@ -490,38 +491,45 @@ export async function latestDecisionsByScenario({
 }): Promise<Map<string, LatestDecisionJson>> {
   const out = new Map<string, LatestDecisionJson>();
   if (scenarioIds.length === 0) return out;
-  const { Run, Signoff, User, Scenario } = getModels();
-  const runs = await Run.findAll({
-    where: { teamId, scenarioId: { [Op.in]: scenarioIds } },
-    attributes: ["id", "scenarioId", "scenarioVersion"],
-  });
-  if (runs.length === 0) return out;
-  const runById = new Map(runs.map((r) => [r.id, r]));
-  const versions = new Map(
-    (await Scenario.findAll({ where: { teamId, id: { [Op.in]: scenarioIds } }, attributes: ["id", "version"] })).map(
-      (s) => [s.id, s.version],
-    ),
+  // One query, prepared once (models/prepared.ts): every standing sign-off on a run of these
+  // scenarios, newest first; the first per scenario is its latest decision.
+  const sequelize = getSequelize();
+  const ids = sequelize.getDialect() === "postgres" ? `= ANY($2::uuid[])` : `IN (SELECT "value" FROM json_each($2))`;
+  const rows = await selectPrepared<{
+    scenarioId: string;
+    current: number;
+    runVersion: number | null;
+    signoffVersion: number | null;
+    decision: LatestDecisionJson["decision"];
+    createdAt: Date | string;
+    reviewerId: string | null;
+    reviewerName: string | null;
+    runId: string;
+    note: string;
+  }>(
+    sequelize,
+    "railwise_latest_decisions",
+    `SELECT r."scenarioId" AS "scenarioId", s."version" AS "current", r."scenarioVersion" AS "runVersion",
+            g."scenarioVersion" AS "signoffVersion", g."decision" AS "decision", g."createdAt" AS "createdAt",
+            g."reviewerId" AS "reviewerId", u."name" AS "reviewerName", g."runId" AS "runId", g."note" AS "note"
+       FROM "signoffs" g
+       JOIN "runs" r ON r."id" = g."runId" AND r."teamId" = $1
+       JOIN "scenarios" s ON s."id" = r."scenarioId" AND s."teamId" = $1
+       LEFT JOIN "users" u ON u."id" = g."reviewerId"
+      WHERE g."teamId" = $1 AND g."withdrawnAt" IS NULL AND r."scenarioId" ${ids}
+      ORDER BY g."createdAt" DESC, g."id" DESC`,
+    [teamId, sequelize.getDialect() === "postgres" ? scenarioIds : JSON.stringify(scenarioIds)],
   );
-  const signoffs = await Signoff.findAll({
-    where: { teamId, runId: { [Op.in]: [...runById.keys()] }, withdrawnAt: null },
-    include: [{ model: User, as: "reviewer", attributes: ["id", "name"] }],
-    order: [
-      ["createdAt", "DESC"],
-      ["id", "DESC"],
-    ],
-  });
-  for (const s of signoffs) {
-    const run = runById.get(s.runId as string);
-    const scenarioId = run?.scenarioId as string | undefined;
-    if (!run || !scenarioId || out.has(scenarioId)) continue;
-    const appliesTo = s.scenarioVersion ?? run.scenarioVersion ?? null;
-    const current = versions.get(scenarioId) ?? null;
-    out.set(scenarioId, {
-      decision: s.decision,
-      at: iso(s.createdAt)!,
-      by: { id: (s.reviewerId as string | null) ?? null, name: reviewerOf(s) ?? "(removed account)" },
-      runId: s.runId as string,
-      note: s.note,
+  for (const g of rows) {
+    if (out.has(g.scenarioId)) continue;
+    const appliesTo = g.signoffVersion ?? g.runVersion ?? null;
+    const current = g.current ?? null;
+    out.set(g.scenarioId, {
+      decision: g.decision,
+      at: iso(g.createdAt)!,
+      by: { id: g.reviewerId ?? null, name: g.reviewerName ?? "(removed account)" },
+      runId: g.runId,
+      note: g.note,
       scenarioVersion: appliesTo,
       outOfDate: appliesTo !== null && current !== null && current > appliesTo,
     });

@@ -3,7 +3,8 @@ import "server-only";
 // scenario's current data forward; a restore is a save of an old version's data.
 import type { Transaction } from "sequelize";
 import { getModels, getSequelize } from "@/models";
-import { byText, lockRow, withWriteTransaction } from "@/models/transactions";
+import { lockRow, withWriteTransaction } from "@/models/transactions";
+import { selectPrepared } from "@/models/prepared";
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { ScenarioCreate, ScenarioUpdate } from "@/lib/schemas/api";
 import { recordAudit } from "./audit";
@@ -48,15 +49,47 @@ export async function listScenarios({
   teamId: string;
 }): Promise<ScenarioSummaryJson[]> {
   if (!isId(boardId)) throw notFound("No such board in your team.");
-  const rows = await getModels().Scenario.findAll({
-    where: { boardId, teamId },
-    order: [byText("scenarios", "name"), ["id", "ASC"]],
-    include: withUpdater(),
-  });
+  // One query, prepared once (models/prepared.ts), names in code-point order on both databases.
+  const sequelize = getSequelize();
+  const collate = sequelize.getDialect() === "postgres" ? ' COLLATE "C"' : "";
+  const rows = await selectPrepared<{
+    id: string;
+    boardId: string;
+    name: string;
+    version: number;
+    data: unknown;
+    createdAt: Date | string;
+    updatedAt: Date | string;
+    updatedBy: string | null;
+    updaterName: string | null;
+  }>(
+    sequelize,
+    "railwise_list_scenarios",
+    `SELECT s."id", s."boardId", s."name", s."version", s."data", s."createdAt", s."updatedAt", s."updatedBy",
+            u."name" AS "updaterName"
+       FROM "scenarios" s
+       LEFT JOIN "users" u ON u."id" = s."updatedBy"
+      WHERE s."boardId" = $1 AND s."teamId" = $2
+      ORDER BY s."name"${collate} ASC, s."id" ASC`,
+    [boardId, teamId],
+  );
   // Rows of this team prove the board is the team's; only an empty answer needs the check (404).
   if (rows.length === 0) await getBoardRowOrThrow({ id: boardId, teamId });
   const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: rows.map((r) => r.id) });
-  return rows.map((r) => leanScenarioJson(scenarioJson(r, decisions.get(r.id) ?? null)));
+  return rows.map((r) =>
+    leanScenarioJson({
+      id: r.id,
+      boardId: r.boardId,
+      name: r.name,
+      version: Number(r.version),
+      // SQLite keeps JSON as text; node-postgres parses json columns itself.
+      scenario: (typeof r.data === "string" ? JSON.parse(r.data) : r.data) as Scenario,
+      createdAt: iso(r.createdAt)!,
+      updatedAt: iso(r.updatedAt)!,
+      updatedBy: person(r.updatedBy, r.updatedBy ? { name: r.updaterName } : null),
+      latestDecision: decisions.get(r.id) ?? null,
+    }),
+  );
 }
 
 /**
