@@ -1,5 +1,6 @@
 // Client-side JSON over fetch. Every non-2xx becomes an HttpError so SWR's `error` and
 // form handlers see the server's message instead of a half-parsed body.
+import { apiIssuesText } from "@/lib/workbench/screen-words";
 
 export interface ApiErrorBody {
   error?: string;
@@ -19,29 +20,14 @@ export class HttpError extends Error {
 
 function describeError(status: number, body: ApiErrorBody | string | null): string {
   if (body && typeof body === "object") {
-    const lines = issueLines(body.issues);
-    const head = body.message ?? body.error ?? `Request failed (${status})`;
-    return lines.length ? `${head}: ${lines.join("; ")}` : head;
+    // A 400's zod issues name the fields by the labels on the screen (lib/workbench/screen-words.ts).
+    return apiIssuesText(body) ?? body.message ?? body.error ?? `Request failed (${status})`;
   }
   if (typeof body === "string" && body.trim() && body.length < 300) return body.trim();
   if (status === 401) return "Your session has ended; sign in again.";
   if (status === 403) return "Your role does not allow this.";
   if (status === 404) return "Not found.";
   return `Request failed (${status})`;
-}
-
-/** zod issues as "path: message" lines, whether the server sent strings or issue objects. */
-function issueLines(issues: unknown): string[] {
-  if (!Array.isArray(issues)) return [];
-  return issues.slice(0, 5).map((i) => {
-    if (typeof i === "string") return i;
-    if (i && typeof i === "object") {
-      const { path, message } = i as { path?: unknown; message?: unknown };
-      const p = Array.isArray(path) && path.length ? `${path.join(".")}: ` : "";
-      return `${p}${String(message ?? "")}`;
-    }
-    return String(i);
-  });
 }
 
 /** GET (or any method) returning parsed JSON; throws HttpError on non-2xx. 204 → null. */
