@@ -125,7 +125,27 @@ function vitestInBackground(
   });
 }
 
-/** One migrated and seeded PostgreSQL database for the PostgreSQL pass to copy, or null. */
+/**
+ * Databases migrated and seeded once per run for the test servers to copy (tests/helpers/server.ts):
+ * a SQLite file, and on the PostgreSQL pass a template database. A failed setup only means each
+ * server sets up its own database, as a single test file run by hand does.
+ */
+const firstLine = (err: unknown) => (err instanceof Error ? err.message.split("\n")[0] : String(err));
+
+async function sqliteTemplate(): Promise<string | null> {
+  const file = path.join(outDir, "template.sqlite");
+  for (const suffix of ["", "-wal", "-shm"]) fs.rmSync(file + suffix, { force: true });
+  try {
+    const { setupDatabase } = await import("@/tests/helpers/server");
+    setupDatabase(`sqlite:${file}`);
+    if (fs.existsSync(`${file}-wal`)) throw new Error("the template kept a write-ahead log");
+    return file;
+  } catch (err) {
+    console.log(`(no SQLite template: ${firstLine(err)})`);
+    return null;
+  }
+}
+
 async function pgTemplateDatabase(pg: string) {
   try {
     const { createPgDatabase, setupDatabase } = await import("@/tests/helpers/server");
@@ -138,7 +158,7 @@ async function pgTemplateDatabase(pg: string) {
       throw err;
     }
   } catch (err) {
-    console.log(`(no PostgreSQL template: ${err instanceof Error ? err.message.split("\n")[0] : String(err)})`);
+    console.log(`(no PostgreSQL template: ${firstLine(err)})`);
     return null;
   }
 }
@@ -170,21 +190,8 @@ async function main() {
   }
 
   if (built) {
-    // One migrated and seeded SQLite file for this run; every SQLite test server starts from its
-    // own copy (tests/helpers/server.ts). A failed setup just leaves each server to run db:setup.
-    const template = path.join(outDir, "template.sqlite");
-    for (const suffix of ["", "-wal", "-shm"]) fs.rmSync(template + suffix, { force: true });
-    const setup = spawnSync(
-      process.execPath,
-      [path.join(ROOT, "node_modules/tsx/dist/cli.mjs"), "scripts/db-setup.ts", "--quiet"],
-      {
-        cwd: ROOT,
-        env: { ...process.env, DATABASE_URL: `sqlite:${template}` },
-        encoding: "utf8",
-      },
-    );
-    if (setup.status === 0 && !fs.existsSync(`${template}-wal`)) process.env.RAILWISE_TEST_SQLITE_TEMPLATE = template;
-    else console.log(`(no SQLite template: db:setup exit ${setup.status}; each server sets up its own database)`);
+    const template = await sqliteTemplate();
+    if (template) process.env.RAILWISE_TEST_SQLITE_TEMPLATE = template;
     // The two integration passes run side by side: their servers mostly wait on loopback and the
     // database (one pass keeps about 1.1 of the 2 cores busy), and each has its own databases,
     // ports and temp folders. The browser tests come after, alone: they measure responsiveness.

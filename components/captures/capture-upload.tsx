@@ -16,7 +16,6 @@ import {
 } from "@/lib/captures/parse";
 import { CaptureSparkline } from "./capture-sparkline";
 import { contentKeys } from "@/lib/workbench/row-ids";
-import { screenError } from "@/components/ui/screen-error";
 
 interface Loaded {
   file: File;
@@ -116,7 +115,7 @@ export function CaptureUpload({ onUploaded }: { onUploaded: () => void }) {
       setLoaded(null);
       onUploaded();
     } catch (err) {
-      setServerProblem(screenError(err));
+      setServerProblem(errorMessage(err));
     } finally {
       setBusy(false);
     }

@@ -13,7 +13,6 @@ import { captureKey, useCapture, useCaptures } from "@/lib/client/team-hooks";
 import { formatQuantity } from "@/lib/design/notation";
 import { CaptureSparkline } from "./capture-sparkline";
 import { CaptureUpload } from "./capture-upload";
-import { screenError } from "@/components/ui/screen-error";
 
 /** The team's measured waveforms: upload (owner/designer), preview, delete. */
 export function CapturesView({ canEdit }: { canEdit: boolean }) {
@@ -30,7 +29,7 @@ export function CapturesView({ canEdit }: { canEdit: boolean }) {
       if (openId === id) setOpenId(null);
       await mutate();
     } catch (err) {
-      setProblem(screenError(err));
+      setProblem(errorMessage(err));
     }
   }
 

@@ -14,7 +14,6 @@ import { partsKey, useParts, type PartProfileRecord } from "@/lib/client/team-ho
 import { formatQuantity, parseQuantity } from "@/lib/design/notation";
 import { OPAMP_PARAMS, OPAMP_PARAM_INFO, partProfileSchema, partsToCsv, type OpampParam } from "@/lib/schemas/part";
 import { contentKeys } from "@/lib/workbench/row-ids";
-import { screenError } from "@/components/ui/screen-error";
 import { scenarioIssueText } from "@/lib/workbench/screen-words";
 
 // Slew rates are typed and shown in V/µs (the unit every datasheet-reader thinks in); data stays SI.
@@ -90,7 +89,7 @@ export function PartsView({ canEdit }: { canEdit: boolean }) {
       await sendJson(`${partsKey}/${p.id}`, "DELETE");
       await mutate();
     } catch (err) {
-      setProblem(screenError(err));
+      setProblem(errorMessage(err));
     }
   }
 
@@ -239,7 +238,7 @@ function PartDialog({
       await sendJson(part ? `${partsKey}/${part.id}` : partsKey, part ? "PUT" : "POST", body);
       await onSaved();
     } catch (err) {
-      setProblem(screenError(err));
+      setProblem(errorMessage(err));
       setBusy(false);
     }
   }

@@ -2,13 +2,13 @@
 // "Noise margin study" and "Tolerance spread" on the Workbench: a form each, run in the study
 // worker pool (one worker per core, progress over the whole study, Cancel stops every worker),
 // the answer as a chart and a number, and "Save with a new run" so reviewers can open it by link.
+import { errorMessage } from "@/lib/client/fetcher";
 import Link from "next/link";
 import { memo, useCallback, useEffect, useMemo, useReducer, useRef, useState, useSyncExternalStore } from "react";
 import { Card } from "@/components/ui/card";
 import { Button } from "@/components/ui/button";
 import { Section, SelectRow, Tabs } from "@/components/workbench/controls";
 import { QuantityField } from "@/components/workbench/quantity-field";
-import { screenError } from "@/components/ui/screen-error";
 import { runStudyInPool, StudyCancelled, defaultPoolSize } from "@/lib/client/study-pool";
 import type { Scenario } from "@/lib/schemas/scenario";
 import { estimateCaptureNoise, type CaptureNoiseEstimate } from "@/lib/studies/capture-noise";
@@ -187,7 +187,7 @@ export function StudiesCard({ scenario, revision, saveBlocked, onSave, beforeRun
         message:
           e instanceof StudyCancelled
             ? "Study cancelled; every worker was stopped."
-            : `Study failed — ${screenError(e)}`,
+            : `Study failed — ${errorMessage(e)}`,
       });
     } finally {
       dispatch({ type: "stopped" });
@@ -212,7 +212,7 @@ export function StudiesCard({ scenario, revision, saveBlocked, onSave, beforeRun
     try {
       dispatch({ type: "saved", runId: await onSave(upload) });
     } catch (e) {
-      dispatch({ type: "saveFailed", message: `Not saved — ${screenError(e)}` });
+      dispatch({ type: "saveFailed", message: `Not saved — ${errorMessage(e)}` });
     }
   };
 

@@ -12,7 +12,6 @@ import { useAudit, useInvitations, useMembers } from "@/lib/client/team-hooks";
 import { ROLE_NAMES, type RoleName } from "@/lib/schemas/team";
 import { formatDate } from "@/components/ui/format";
 import { describeAction, describeDetails, describeTarget } from "./format";
-import { screenError } from "@/components/ui/screen-error";
 
 const ROLE_HELP: Record<RoleName, string> = {
   owner: "everything, plus members and boards",
@@ -46,7 +45,7 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
         isOwner ? invitations.mutate() : undefined,
       ]);
     } catch (err) {
-      setError(screenError(err));
+      setError(errorMessage(err));
     } finally {
       setBusy(null);
     }
@@ -258,7 +257,7 @@ function InviteCard({ onInvited }: { onInvited: () => Promise<unknown> }) {
       setEmail("");
       await onInvited();
     } catch (err) {
-      setStatus({ tone: "error", text: screenError(err) });
+      setStatus({ tone: "error", text: errorMessage(err) });
     } finally {
       setSending(false);
     }

@@ -13,7 +13,6 @@ import { parseScenario } from "@/lib/schemas/scenario";
 import { fetchVersion, restoreVersion, scenarioKey, versionsKey, type VersionRecord } from "./api";
 import { MiniButton } from "./controls";
 import { useWb } from "./store";
-import { screenError } from "@/components/ui/screen-error";
 
 function when(iso: string): string {
   const d = new Date(iso);
@@ -43,7 +42,7 @@ export function HistoryCard({ canEdit }: { canEdit: boolean }) {
     try {
       setViewing(v.scenario ? v : await fetchVersion(scenarioId, v.version));
     } catch (e) {
-      setNotice({ tone: "error", text: screenError(e) });
+      setNotice({ tone: "error", text: errorMessage(e) });
     }
   };
   const restore = async (v: number) => {
@@ -54,7 +53,7 @@ export function HistoryCard({ canEdit }: { canEdit: boolean }) {
       await Promise.all([reload(), mutate(scenarioKey(scenarioId))]);
       setNotice({ tone: "ok", text: `Version ${v} restored as version ${rec.version}.` });
     } catch (e) {
-      setNotice({ tone: "error", text: screenError(e) });
+      setNotice({ tone: "error", text: errorMessage(e) });
     } finally {
       setBusy(null);
     }

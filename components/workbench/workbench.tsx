@@ -11,7 +11,7 @@ import { Badge } from "@/components/ui/badge";
 import { Button, buttonClasses } from "@/components/ui/button";
 import { SafetyCaution } from "@/components/safety-caution";
 import { ScenarioHeading } from "@/components/scenario/scenario-read-view";
-import { HttpError } from "@/lib/client/fetcher";
+import { HttpError, errorMessage } from "@/lib/client/fetcher";
 import { runsKey, useBoard, useScenario, type ScenarioRecord } from "@/lib/client/hooks";
 import { parseScenario, scenarioSchema, type Scenario } from "@/lib/schemas/scenario";
 import { scenarioIssuesText } from "@/lib/workbench/screen-words";
@@ -27,7 +27,6 @@ import { useRunner } from "./use-runner";
 import { FieldScopeProvider, refuseIfInvalid } from "./field-problems";
 import { clearDraft, readDraft, writeDraft, type StoredDraft } from "@/lib/workbench/drafts";
 import { WorkbenchStudies } from "@/components/studies/workbench-studies";
-import { screenError } from "@/components/ui/screen-error";
 
 /** Loads the scenario and mounts one workbench store for it. */
 export function ScenarioWorkbench({ scenarioId }: { scenarioId: string }) {
@@ -310,7 +309,7 @@ function useSave() {
         tone: "error",
         text: conflict
           ? "Someone saved this scenario after you opened it. Reload to see their version (your edits stay here until you do)."
-          : `Not saved — ${screenError(e)}`,
+          : `Not saved — ${errorMessage(e)}`,
       });
       return false;
     }
@@ -481,7 +480,7 @@ function SaveRunControl() {
           setLabel("");
           api.getState().setNotice({ tone: "ok", text: `Run saved: /runs/${rec.id}` });
         } catch (err) {
-          api.getState().setNotice({ tone: "error", text: `Run not saved — ${screenError(err)}` });
+          api.getState().setNotice({ tone: "error", text: `Run not saved — ${errorMessage(err)}` });
         } finally {
           setBusy(false);
         }

@@ -24,20 +24,46 @@ import { latestDecisionsByScenario } from "./review";
 
 export type { ScenarioJson, ScenarioSummaryJson, ScenarioVersionDocJson, ScenarioVersionJson };
 
-function scenarioJson(row: import("@/models").ScenarioRow, latest: LatestDecisionJson | null): ScenarioJson {
-  const updater = row.updater;
+/** A scenario row as the model or the list query reads it; `updaterName` is the updater's name. */
+interface ScenarioFields {
+  id: string;
+  boardId: string | null;
+  name: string;
+  version: number | string;
+  data: unknown;
+  createdAt: Date | string;
+  updatedAt: Date | string;
+  updatedBy: string | null;
+  updaterName: string | null | undefined;
+}
+
+function scenarioJson(row: ScenarioFields, latest: LatestDecisionJson | null): ScenarioJson {
   return {
     id: row.id,
     boardId: row.boardId as string,
     name: row.name,
-    version: row.version,
-    scenario: row.data as Scenario,
+    version: Number(row.version),
+    // SQLite keeps JSON as text in a raw query; the model and node-postgres parse it themselves.
+    scenario: (typeof row.data === "string" ? JSON.parse(row.data) : row.data) as Scenario,
     createdAt: iso(row.createdAt)!,
     updatedAt: iso(row.updatedAt)!,
-    updatedBy: person(row.updatedBy, updater),
+    updatedBy: person(row.updatedBy, { name: row.updaterName }),
     latestDecision: latest,
   };
 }
+
+/** The model row in the shape scenarioJson takes. */
+const modelFields = (row: import("@/models").ScenarioRow): ScenarioFields => ({
+  id: row.id,
+  boardId: row.boardId,
+  name: row.name,
+  version: row.version,
+  data: row.data,
+  createdAt: row.createdAt,
+  updatedAt: row.updatedAt,
+  updatedBy: row.updatedBy,
+  updaterName: row.updater?.name,
+});
 
 const withUpdater = () => [{ model: getModels().User, as: "updater", attributes: ["name"] }];
 
@@ -52,17 +78,7 @@ export async function listScenarios({
   // One query, prepared once (models/prepared.ts), names in code-point order on both databases.
   const sequelize = getSequelize();
   const collate = sequelize.getDialect() === "postgres" ? ' COLLATE "C"' : "";
-  const rows = await selectPrepared<{
-    id: string;
-    boardId: string;
-    name: string;
-    version: number;
-    data: unknown;
-    createdAt: Date | string;
-    updatedAt: Date | string;
-    updatedBy: string | null;
-    updaterName: string | null;
-  }>(
+  const rows = await selectPrepared<ScenarioFields>(
     sequelize,
     "railwise_list_scenarios",
     `SELECT s."id", s."boardId", s."name", s."version", s."data", s."createdAt", s."updatedAt", s."updatedBy",
@@ -76,20 +92,7 @@ export async function listScenarios({
   // Rows of this team prove the board is the team's; only an empty answer needs the check (404).
   if (rows.length === 0) await getBoardRowOrThrow({ id: boardId, teamId });
   const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: rows.map((r) => r.id) });
-  return rows.map((r) =>
-    leanScenarioJson({
-      id: r.id,
-      boardId: r.boardId,
-      name: r.name,
-      version: Number(r.version),
-      // SQLite keeps JSON as text; node-postgres parses json columns itself.
-      scenario: (typeof r.data === "string" ? JSON.parse(r.data) : r.data) as Scenario,
-      createdAt: iso(r.createdAt)!,
-      updatedAt: iso(r.updatedAt)!,
-      updatedBy: person(r.updatedBy, r.updatedBy ? { name: r.updaterName } : null),
-      latestDecision: decisions.get(r.id) ?? null,
-    }),
-  );
+  return rows.map((r) => leanScenarioJson(scenarioJson(r, decisions.get(r.id) ?? null)));
 }
 
 /**
@@ -127,7 +130,7 @@ async function scenarioRowOrThrow({
 export async function getScenarioOrThrow({ id, teamId }: { id: string; teamId: string }): Promise<ScenarioJson> {
   const row = await scenarioRowOrThrow({ id, teamId });
   const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: [row.id] });
-  return scenarioJson(row, decisions.get(row.id) ?? null);
+  return scenarioJson(modelFields(row), decisions.get(row.id) ?? null);
 }
 
 /** The scenario's current document, for the server-side run. */
@@ -207,7 +210,7 @@ async function saveVersion({
   });
   const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: [written.row.id] });
   written.row.updater = written.updater;
-  return scenarioJson(written.row, decisions.get(written.row.id) ?? null);
+  return scenarioJson(modelFields(written.row), decisions.get(written.row.id) ?? null);
 }
 
 export function updateScenario({

@@ -56,8 +56,8 @@ function oscillator(duration: number): Scenario {
   } as unknown as Scenario;
 }
 
-async function createScenario(scenario: Scenario): Promise<string> {
-  const res = await designer.fetch("/api/scenarios", { method: "POST", body: JSON.stringify({ boardId, scenario }) });
+async function createScenario(scenario: Scenario, as = designer, board = boardId): Promise<string> {
+  const res = await as.fetch("/api/scenarios", { method: "POST", body: JSON.stringify({ boardId: board, scenario }) });
   expect(res.status, await res.clone().text()).toBe(201);
   return ((await res.json()) as { id: string }).id;
 }
@@ -143,14 +143,7 @@ describe("simulation worker heap limit", () => {
     });
     const me = await signIn(small.url, EMAILS.designer, DEMO_PASSWORD);
     const board = ((await (await me.fetch("/api/boards")).json()) as { items: { id: string }[] }).items[0].id;
-    const create = async (scenario: Scenario) => {
-      const res = await me.fetch("/api/scenarios", {
-        method: "POST",
-        body: JSON.stringify({ boardId: board, scenario }),
-      });
-      expect(res.status).toBe(201);
-      return ((await res.json()) as { id: string }).id;
-    };
+    const create = (scenario: Scenario) => createScenario(scenario, me, board);
     const heavy = await me.fetch("/api/runs", {
       method: "POST",
       body: JSON.stringify({ scenarioId: await create(oscillator(300)) }),
