@@ -10,7 +10,9 @@
 //  3. a non-stiff Schmitt run, exact vs odex, for context.
 //  4. a sine-driven Schmitt trigger with heavy (0.3 V rms) and light (0.02 V rms) noise,
 //     1,000,000 noise segments each, beside the same model's C loop (scripts/bench/model-loop.c,
-//     compiled here with gcc -O2 and run by this bench) and the ratio; target ≤ 3× on each.
+//     compiled here with gcc -O2 and run by this bench: the same regimes located inside each
+//     segment and the same noise bit for bit) and the ratio; target ≤ 3× on each, and the C
+//     loop's edge count equal to the solver's.
 //  5. start time of the compiled `railwise` bin (`node build/cli/railwise.cjs simulate -` with
 //     a small scenario on stdin): median of 20 runs after 3 warm-ups, and hyperfine's figure
 //     when hyperfine is installed; `node -e 0` beside it for Node's own start.
@@ -29,7 +31,7 @@ import { parseScenario, type Scenario } from "@/lib/schemas/scenario";
 import { buildSync } from "esbuild";
 import { outputLimits } from "@/lib/sim";
 import type { SimOptions, SimResult } from "@/lib/sim/types";
-import { noiseSegmentCount } from "@/lib/sim/noise";
+import { noiseKnots, noiseSegmentCount } from "@/lib/sim/noise";
 
 const NOISY: Scenario = parseScenario({
   schema: "railwise.scenario/1",
@@ -401,15 +403,23 @@ interface CLoop {
   minMs: number;
   edges: number;
   finalOutput: number;
+  /** segments the C loop cut short (its piece guard); 0 expected */
+  stalls: number;
+  /** its first three noise knots, compared bit for bit with lib/sim/noise.ts */
+  knots: number[];
 }
 
-/** Compile scripts/bench/model-loop.c with gcc -O2 (when missing or older than the source). */
+/**
+ * Compile scripts/bench/model-loop.c with gcc -O2 (when missing or older than the source);
+ * -ffp-contract=off keeps gcc from fusing a multiply and an add, which would change the noise's
+ * last bits on a machine with FMA.
+ */
 function buildCLoop(): { exe: string } | { problem: string } {
   const source = path.join(ROOT, "scripts/bench/model-loop.c");
   const exe = path.join(ROOT, "build/bench/model-loop");
   if (existsSync(exe) && statSync(exe).mtimeMs >= statSync(source).mtimeMs) return { exe };
   mkdirSync(path.dirname(exe), { recursive: true });
-  const r = spawnSync("gcc", ["-O2", "-o", exe, source, "-lm"], { encoding: "utf8" });
+  const r = spawnSync("gcc", ["-O2", "-ffp-contract=off", "-o", exe, source, "-lm"], { encoding: "utf8" });
   if (r.error || r.status !== 0) return { problem: `gcc -O2 failed: ${r.error?.message ?? r.stderr.trim()}` };
   return { exe };
 }
@@ -439,6 +449,7 @@ function runCLoop(exe: string, s: Scenario, repeats = 7): CLoop | { problem: str
     sine.frequency,
     sine.offset ?? 0,
     s.input.noise.rms,
+    s.input.noise.seed,
     noiseSegmentCount(s.input.noise, s.run.duration),
     s.run.duration,
     s.run.points,
@@ -447,6 +458,15 @@ function runCLoop(exe: string, s: Scenario, repeats = 7): CLoop | { problem: str
   const r = spawnSync(exe, args, { encoding: "utf8", timeout: 120_000 });
   if (r.status !== 0) return { problem: `C loop failed: ${r.stderr.trim() || r.error?.message}` };
   return JSON.parse(r.stdout) as CLoop;
+}
+
+/** Whether the C loop's first noise knots are lib/sim/noise.ts's, bit for bit. */
+function knotsCheck(c: CLoop, s: Scenario): string {
+  const ours = noiseKnots(s.input.noise!, s.run.duration);
+  const same = c.knots.length === 3 && c.knots.every((k, i) => Object.is(k, ours[i]));
+  return same
+    ? "same noise knots"
+    : `noise knots DIFFER (${c.knots.join(", ")} vs ${Array.from(ours.subarray(0, 3)).join(", ")})`;
 }
 
 async function sineRows(): Promise<void> {
@@ -483,9 +503,23 @@ async function sineRows(): Promise<void> {
         "",
         segments.toLocaleString("en"),
         "",
-        "medianMs" in c ? `median of 7 after 2 warm-ups (min ${ms(c.minMs)}); ${c.edges} edges` : c.problem,
+        "medianMs" in c
+          ? `median of 7 after 2 warm-ups (min ${ms(c.minMs)}); ${c.edges} edges${c.stalls ? `, ${c.stalls} stalled segments` : ""}; ${knotsCheck(c, scenario)}`
+          : c.problem,
         "",
         "",
+      ],
+      [
+        "  edges, exact vs C loop",
+        "",
+        "",
+        "",
+        "",
+        "",
+        "",
+        "medianMs" in c && r ? `${r.metrics.transitions} vs ${c.edges}` : "n/a",
+        "equal",
+        "medianMs" in c && r ? (r.metrics.transitions === c.edges && c.stalls === 0 ? "yes" : "NO") : "?",
       ],
       [
         "  ratio exact / C loop",

@@ -206,3 +206,34 @@ describe("fuzz finds (tests/unit/sim-fuzz-gen.ts seeds)", () => {
       expectAgreesWithOdex(a, b, scenario.run.duration, { edges: true });
     });
 });
+
+describe("the bench's sine + heavy-noise Schmitt row (scripts/bench.ts SINE_HEAVY)", () => {
+  // Its C loop once counted 1,913 edges over 1 s where the solver counted 2,288: the loop took
+  // one clamped exponential step per noise segment and missed switching inside a segment
+  // (scripts/bench/model-loop.c). odex, an independent adaptive integrator, decides which is
+  // right on the first 10 ms of the same scenario and noise seed.
+  const row = (duration: number, solver?: "odex") =>
+    parseScenario({
+      schema: "railwise.scenario/1",
+      supply: { positive: 5, negative: 0 },
+      opamp: { ...PART, gainBandwidth: 10e6, slewRate: 10e6 },
+      stage: { kind: "schmitt-noninverting", rInput: 10e3, rFeedback: 50e3, reference: 2.5 },
+      input: {
+        components: [{ kind: "sine", amplitude: 2, frequency: 3, offset: 2.5 }],
+        noise: { rms: 0.3, bandwidth: 500e3, seed: 7 },
+      },
+      run: { duration, points: 1001, ...(solver ? { solver } : {}) },
+    });
+
+  it("first 10 ms: the exact solver lists odex's edges, each within 1 ns", () => {
+    const a = simulate(row(0.01), { maxSteps: 100_000 });
+    const b = simulate(row(0.01, "odex"), { maxSteps: 200_000 });
+    // The noise drives this row into heavy chatter: well over a hundred edges in 10 ms.
+    expect(b.events.length).toBeGreaterThan(100);
+    expect(a.events.length).toBe(b.events.length);
+    for (let i = 0; i < a.events.length; i++) {
+      expect(a.events[i].edge).toBe(b.events[i].edge);
+      expect(Math.abs(a.events[i].time - b.events[i].time)).toBeLessThan(1e-9);
+    }
+  });
+});
