@@ -1,12 +1,10 @@
 // Client-side JSON over fetch. Every non-2xx becomes an HttpError so SWR's `error` and
 // form handlers see the server's message instead of a half-parsed body.
+import type { ApiErrorJson } from "@/lib/schemas/responses";
 import { apiIssuesText } from "@/lib/workbench/screen-words";
 
-export interface ApiErrorBody {
-  error?: string;
-  message?: string;
-  issues?: unknown;
-}
+/** An error answer as it arrives: the API's shape (ApiErrorJson), unchecked, so every part may be missing. */
+export type ApiErrorBody = Partial<ApiErrorJson>;
 
 export class HttpError extends Error {
   constructor(

@@ -5,13 +5,35 @@
 import { z } from "zod";
 import { DECISIONS, roleSchema } from "./roles";
 import { opampSchema, type Scenario, scenarioSchema } from "./scenario";
-import { noiseMarginConfigSchema, studyUploadSchema } from "./study";
+import { savedStudySchema } from "./study";
+import { storedResultSchema } from "./result";
 import { finite, nonNegative } from "./units";
 
 const isoTime = z.iso.datetime({ offset: true });
 const id = z.string().min(1);
 const count = z.number().int().nonnegative();
-const maybe = z.number().nullable();
+
+// ---- Errors ----
+
+/** One problem with a request: `path` names the field (as the request spells it). */
+export const issueSchema = z.strictObject({
+  path: z.array(z.union([z.string(), z.number()])),
+  message: z.string(),
+  code: z.string().optional(),
+});
+
+/**
+ * Every refusal and failure: `{ error: code, message, issues? }`. The codes and their one HTTP
+ * status are lib/server/error-codes.ts; `issues` comes with a 400 that names fields.
+ */
+export const apiErrorSchema = z.strictObject({
+  error: z.string().regex(/^[a-z_]+$/),
+  message: z.string().min(1),
+  issues: z.array(issueSchema).optional(),
+});
+
+export type IssueJson = z.infer<typeof issueSchema>;
+export type ApiErrorJson = z.infer<typeof apiErrorSchema>;
 
 /** Every list route answers `{ items: [...] }`. */
 export const listOf = <T extends z.ZodType>(item: T) => z.strictObject({ items: z.array(item) });
@@ -144,115 +166,11 @@ export const scenarioVersionDocSchema = scenarioVersionSchema.extend({ scenario:
 
 // ---- Runs and results ----
 
-const simEventSchema = z.strictObject({
-  time: finite("time"),
-  edge: z.enum(["rising", "falling"]),
-  input: finite("input"),
-  source: finite("source").optional(),
-});
-
-const metricsSchema = z.strictObject({
-  transitions: z.number().int().nonnegative().nullable(),
-  upperThreshold: maybe,
-  lowerThreshold: maybe,
-  hysteresis: maybe,
-  chatter: z.number().int().nonnegative().nullable(),
-  clippedFraction: z.number().min(0).max(1),
-  maxSlewRate: nonNegative("maxSlewRate"),
-  period: maybe,
-  dutyCycle: maybe,
-  amplifier: z.strictObject({ gain: maybe, clipInputHigh: maybe, clipInputLow: maybe }).optional(),
-  source: z
-    .strictObject({ unit: z.string(), upperThreshold: maybe, lowerThreshold: maybe, hysteresis: maybe })
-    .optional(),
-  propagationDelay: maybe.optional(),
-  riseTime: maybe.optional(),
-  fallTime: maybe.optional(),
-  holdOff: z.number().positive().optional(),
-});
-
-const series = z.array(z.number());
-
-/** `railwise.result/1` (lib/schemas/README.md § Result JSON); its type equals lib/sim's ResultJson. */
-export const resultJsonSchema = z.strictObject({
-  schema: z.literal("railwise.result/1"),
-  rails: z.strictObject({ high: finite("rails.high"), low: finite("rails.low") }),
-  samples: z.strictObject({
-    t: series,
-    input: series,
-    output: series,
-    capacitor: series.optional(),
-    filtered: series.optional(),
-    source: series.optional(),
-  }),
-  events: z.array(simEventSchema),
-  metrics: metricsSchema,
-  solver: z.strictObject({ name: z.string(), steps: count, evaluations: count, wallMs: z.number().nonnegative() }),
-});
-
-/** A stored result: samples thinned to at most 4,000 points say so in `decimation`. */
-export const storedResultSchema = resultJsonSchema.extend({
-  decimation: z.strictObject({ from: count, kept: count, method: z.literal("min-max") }).optional(),
-});
+// The result shapes live in ./result (lib/sim takes its types from there).
 
 // ---- Studies (`railwise.study/1` as stored) ----
 
-const noiseLevelSummarySchema = z.strictObject({
-  rms: z.number(),
-  seeds: count,
-  failed: count,
-  chattered: count,
-  probability: z.number(),
-  low: z.number(),
-  high: z.number(),
-});
-
-const noiseMarginSummarySchema = z.strictObject({
-  referenceTransitions: count,
-  deadband: z.number(),
-  ruleOfThumbRms: z.number(),
-  levels: z.array(noiseLevelSummarySchema),
-  safeRms: maybe,
-  safeRmsConfident: maybe,
-  limit: z.number(),
-  measured: noiseMarginConfigSchema.shape.measured.unwrap().nullable(),
-  measuredVerdict: z.enum(["inside", "outside", "beyond-sweep"]).nullable(),
-});
-
-const spreadSummary = z.strictObject({ count, mean: maybe, std: maybe, min: maybe, max: maybe });
-const pair = z.tuple([z.number(), z.number()]);
-
-const toleranceSpreadSummarySchema = z.strictObject({
-  draws: count,
-  failed: count,
-  measures: z.array(
-    z.strictObject({
-      measure: z.enum(["upperThreshold", "lowerThreshold", "gain", "period"]),
-      nominal: maybe,
-      summary: spreadSummary,
-      missing: count,
-      histogram: z.strictObject({ edges: z.array(z.number()), counts: z.array(count) }),
-      worstCase: pair.nullable(),
-      window: pair.nullable(),
-      inside: count.nullable(),
-    }),
-  ),
-  inside: count.nullable(),
-  insideShare: maybe,
-  insideLow: maybe,
-  insideHigh: maybe,
-});
-
-const uploaded = studyUploadSchema.shape;
-
-/** A study as stored with its run: the uploaded parts plus the summaries the server computed. */
-export const savedStudySchema = z.strictObject({
-  schema: z.literal("railwise.study/1"),
-  noiseMargin: z.strictObject({ ...uploaded.noiseMargin.unwrap().shape, summary: noiseMarginSummarySchema }).optional(),
-  toleranceSpread: z
-    .strictObject({ ...uploaded.toleranceSpread.unwrap().shape, summary: toleranceSpreadSummarySchema })
-    .optional(),
-});
+// The stored study shape (savedStudySchema) lives in ./study beside the upload it extends.
 
 /** GET /api/runs/:id/study */
 export const runStudySchema = z.strictObject({ study: savedStudySchema.nullable() });
@@ -464,8 +382,7 @@ export type ScenarioJson = z.infer<typeof scenarioRecordSchema>;
 export type ScenarioSummaryJson = z.infer<typeof scenarioSummarySchema>;
 export type ScenarioVersionJson = z.infer<typeof scenarioVersionSchema>;
 export type ScenarioVersionDocJson = z.infer<typeof scenarioVersionDocSchema>;
-export type ResultJsonShape = z.infer<typeof resultJsonSchema>;
-export type StoredResultJson = z.infer<typeof storedResultSchema>;
+export type { ResultJson, StoredResultJson } from "./result";
 export type SavedStudyJson = z.infer<typeof savedStudySchema>;
 export type RunJson = z.infer<typeof runSchema>;
 export type RunSummaryJson = z.infer<typeof runSummarySchema>;

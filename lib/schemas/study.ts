@@ -138,8 +138,10 @@ export const noiseTaskOutputSchema = z.object({
   hysteresis: nullableNumber,
   upperThreshold: nullableNumber,
   lowerThreshold: nullableNumber,
+  /** The solver gave up on this run: left out of its level's count, and reported. */
   failed: z.literal(true).optional(),
 });
+export type NoiseTaskOutput = z.infer<typeof noiseTaskOutputSchema>;
 
 /**
  * What a client sends to save a study with a run: the configurations and the raw per-task
@@ -169,3 +171,90 @@ export const studyUploadSchema = z
   .refine((s) => s.noiseMargin || s.toleranceSpread, { message: "a study needs noiseMargin or toleranceSpread" });
 export type StudyUpload = z.infer<typeof studyUploadSchema>;
 export type StudyUploadInput = z.input<typeof studyUploadSchema>;
+
+// ---- A study as stored with its run (`runs.study`, `railwise.study/1`) ----
+// The one declaration of these shapes: lib/studies computes them, the run routes answer them.
+
+const tally = z.number().int().nonnegative();
+const maybeNumber = z.number().nullable();
+
+export const noiseLevelSummarySchema = z.strictObject({
+  rms: z.number(),
+  /** Seeds that ran to the end (failed runs are left out). */
+  seeds: tally,
+  failed: tally,
+  chattered: tally,
+  probability: z.number(),
+  low: z.number(),
+  high: z.number(),
+});
+
+export const noiseMarginSummarySchema = z.strictObject({
+  referenceTransitions: tally,
+  /** Deadband measured on the noise-free run (upper − lower threshold); 0 when it has none. */
+  deadband: z.number(),
+  /** deadband / 6.6: the largest rms the rule of thumb accepts. */
+  ruleOfThumbRms: z.number(),
+  levels: z.array(noiseLevelSummarySchema),
+  /** Largest swept rms whose estimate — and every lower level's — stays at or under the limit. */
+  safeRms: maybeNumber,
+  /** The same, but on the upper end of the Wilson interval (null when the seeds are too few). */
+  safeRmsConfident: maybeNumber,
+  limit: z.number(),
+  measured: noiseMarginConfigSchema.shape.measured.unwrap().nullable(),
+  /** Chatter estimate at the swept level nearest above the measured rms, if any. */
+  measuredVerdict: z.enum(["inside", "outside", "beyond-sweep"]).nullable(),
+});
+
+export const spreadSummarySchema = z.strictObject({
+  count: tally,
+  mean: maybeNumber,
+  std: maybeNumber,
+  min: maybeNumber,
+  max: maybeNumber,
+});
+const pair = z.tuple([z.number(), z.number()]);
+
+export const toleranceSpreadSummarySchema = z.strictObject({
+  draws: tally,
+  /** Draws the solver gave up on (their figures count as missing). */
+  failed: tally,
+  measures: z.array(
+    z.strictObject({
+      measure: z.enum(MEASURES),
+      nominal: maybeNumber,
+      summary: spreadSummarySchema,
+      /** Draws where the figure could not be measured (e.g. the stage never switched). */
+      missing: tally,
+      /** bins + 1 edges, ascending; `counts` per bin. */
+      histogram: z.strictObject({ edges: z.array(z.number()), counts: z.array(tally) }),
+      /** Worst-case corners [min, max] from lib/design, when the caller supplies them. */
+      worstCase: pair.nullable(),
+      window: pair.nullable(),
+      inside: tally.nullable(),
+    }),
+  ),
+  /** Draws with every windowed figure measured and inside its window (null: no window set). */
+  inside: tally.nullable(),
+  insideShare: maybeNumber,
+  insideLow: maybeNumber,
+  insideHigh: maybeNumber,
+});
+
+const uploaded = studyUploadSchema.shape;
+
+/** A study as stored with its run: the uploaded parts plus the summaries the server computed. */
+export const savedStudySchema = z.strictObject({
+  schema: z.literal("railwise.study/1"),
+  noiseMargin: z.strictObject({ ...uploaded.noiseMargin.unwrap().shape, summary: noiseMarginSummarySchema }).optional(),
+  toleranceSpread: z
+    .strictObject({ ...uploaded.toleranceSpread.unwrap().shape, summary: toleranceSpreadSummarySchema })
+    .optional(),
+});
+
+export type NoiseLevelSummary = z.infer<typeof noiseLevelSummarySchema>;
+export type NoiseMarginSummary = z.infer<typeof noiseMarginSummarySchema>;
+export type SpreadSummary = z.infer<typeof spreadSummarySchema>;
+export type ToleranceSpreadSummary = z.infer<typeof toleranceSpreadSummarySchema>;
+export type MeasureSpread = ToleranceSpreadSummary["measures"][number];
+export type SavedStudy = z.infer<typeof savedStudySchema>;

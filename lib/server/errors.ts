@@ -6,12 +6,9 @@ import { describeIssues } from "@/lib/schemas/scenario";
 import { maskSecrets } from "@/models/db";
 import { stripNul } from "@/models/text";
 import { ERROR_STATUS, type ErrorCode } from "./error-codes";
+import type { ApiErrorJson, IssueJson } from "@/lib/schemas/responses";
 
-export interface IssueJson {
-  path: (string | number)[];
-  message: string;
-  code?: string;
-}
+export type { IssueJson };
 
 /** A user-facing refusal: its HTTP status follows from its code (ERROR_STATUS, one table). */
 export class AppError extends Error {
@@ -19,7 +16,8 @@ export class AppError extends Error {
   constructor(
     readonly code: ErrorCode,
     message: string,
-    readonly details?: unknown,
+    /** The fields at fault, answered as `issues` (a 400 that names fields). */
+    readonly issues?: IssueJson[],
   ) {
     super(message);
     this.name = "AppError";
@@ -51,8 +49,8 @@ function logText(err: unknown): string {
 /** Maps any thrown value to a JSON response. Use once, at the edge of each handler. */
 export function errorResponse(err: unknown): Response {
   if (err instanceof AppError) {
-    const body: Record<string, unknown> = { error: err.code, message: err.message };
-    if (err.details !== undefined) body.issues = err.details;
+    const body: ApiErrorJson = { error: err.code, message: err.message };
+    if (err.issues !== undefined) body.issues = err.issues;
     return Response.json(body, { status: err.status });
   }
   if (err instanceof ZodError) {

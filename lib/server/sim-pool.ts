@@ -12,7 +12,7 @@ import path from "node:path";
 import { AppError } from "./errors";
 import type { SimAnswer, SimTask } from "./sim-worker";
 
-export type { SimAnswer, SimTask, StoredResultJson } from "./sim-worker";
+export type { SimAnswer, SimTask } from "./sim-worker";
 
 const num = (name: string, fallback: number) => {
   const v = Number(process.env[name]);

@@ -5,7 +5,9 @@
 // errors), because only plain data survives the trip back to the main thread intact.
 import { setPriority } from "node:os";
 import { checkRunBounds, simulate, toResultJson, type SimResult } from "@/lib/sim";
-import type { SimOptions, ResultJson } from "@/lib/sim/types";
+import type { SimOptions } from "@/lib/sim/types";
+import type { StoredResultJson } from "@/lib/schemas/result";
+import type { IssueJson } from "@/lib/schemas/responses";
 import { describeIssues, scenarioSchema, type Scenario } from "@/lib/schemas/scenario";
 import {
   buildSavedStudy,
@@ -36,16 +38,6 @@ try {
 
 /** Stored waveforms are thinned to at most this many points (the plots decimate anyway). */
 export const MAX_STORED_POINTS = 4000;
-
-export interface StoredResultJson extends ResultJson {
-  /** Present when the samples were thinned: how many points the run produced and the method. */
-  decimation?: { from: number; kept: number; method: "min-max" };
-}
-
-export interface IssueJson {
-  path: (string | number)[];
-  message: string;
-}
 
 export type SimTask =
   | { kind: "run"; scenario: unknown; budgetMs: number }

@@ -1,5 +1,6 @@
 // Public types of the simulation core. `railwise.result/1` is the JSON contract (lib/schemas/README.md § Result JSON);
 // `SimResult` is the in-memory form with typed arrays (transferable from the worker).
+import type { SimEvent, SimMetrics, SolverStats } from "@/lib/schemas/result";
 import type { Scenario } from "@/lib/schemas/scenario";
 
 export type SolverName = "exact" | "odex";
@@ -20,52 +21,9 @@ export interface SimOptions {
   maxSteps?: number;
 }
 
-export interface SimEvent {
-  time: number;
-  edge: "rising" | "falling";
-  /** Input (signal incl. noise) at the moment the output crossed mid-level. */
-  input: number;
-  /** The source value at the edge, when the scenario has a source (lib/sim/circuit). */
-  source?: number;
-}
-
-/** Readings of an amplifier stage (lib/schemas/README.md § The circuit as built). */
-export interface AmplifierMetrics {
-  /** Measured vo/vin slope while the output is in its linear region. */
-  gain: number | null;
-  /** Input where the output first reaches Voh / Vol; null if it never does. */
-  clipInputHigh: number | null;
-  clipInputLow: number | null;
-}
-
-/** Switching metrics are null for the amplifier kinds (they do not switch). */
-export interface SimMetrics {
-  transitions: number | null;
-  upperThreshold: number | null;
-  lowerThreshold: number | null;
-  hysteresis: number | null;
-  chatter: number | null;
-  clippedFraction: number;
-  maxSlewRate: number;
-  period: number | null;
-  dutyCycle: number | null;
-  /** Amplifier kinds only. */
-  amplifier?: AmplifierMetrics;
-  /** Thresholds in source units, when the scenario has a source (lib/sim/circuit). */
-  source?: { unit: string; upperThreshold: number | null; lowerThreshold: number | null; hysteresis: number | null };
-  /** Extras beyond the contract. */
-  propagationDelay?: number | null;
-  riseTime?: number | null;
-  fallTime?: number | null;
-  holdOff?: number;
-}
-
-export interface SolverStats {
-  name: string;
-  steps: number;
-  evaluations: number;
-  wallMs: number;
-}
+// The JSON-facing shapes are declared once, as schemas in lib/schemas/result.ts; type-only, so
+// the core never builds those schemas.
+export type { AmplifierMetrics, ResultJson, SimEvent, SimMetrics, SolverStats } from "@/lib/schemas/result";
 
 export interface SimResult {
   rails: { high: number; low: number };
@@ -78,22 +36,6 @@ export interface SimResult {
   filtered?: Float64Array;
   /** The input in source units, when the scenario has a source (lib/sim/circuit). */
   source?: Float64Array;
-  events: SimEvent[];
-  metrics: SimMetrics;
-  solver: SolverStats;
-}
-
-export interface ResultJson {
-  schema: "railwise.result/1";
-  rails: { high: number; low: number };
-  samples: {
-    t: number[];
-    input: number[];
-    output: number[];
-    capacitor?: number[];
-    filtered?: number[];
-    source?: number[];
-  };
   events: SimEvent[];
   metrics: SimMetrics;
   solver: SolverStats;

@@ -12,47 +12,13 @@ import type { NoiseMarginConfig } from "@/lib/schemas/study";
 import { taskSeed } from "./random";
 import { wilsonInterval } from "./stats";
 import { studyRunSettings } from "./grid";
+import type { NoiseLevelSummary, NoiseMarginSummary, NoiseTaskOutput } from "@/lib/schemas/study";
+
+export type { NoiseLevelSummary, NoiseMarginSummary, NoiseTaskOutput } from "@/lib/schemas/study";
 
 /** Rule of thumb: a deadband of at least 6.6 × rms keeps ~0.1 % of noise samples outside it
  * (tests/REFERENCES.md, "Noise and hysteresis": erfc(6.6/(2√2)) = 0.097 %; common practice). */
 export const RULE_OF_THUMB_FACTOR = 6.6;
-
-export interface NoiseTaskOutput {
-  transitions: number;
-  hysteresis: number | null;
-  upperThreshold: number | null;
-  lowerThreshold: number | null;
-  /** The solver gave up on this run: left out of its level's count, and reported. */
-  failed?: true;
-}
-
-export interface NoiseLevelSummary {
-  rms: number;
-  /** Seeds that ran to the end (failed runs are left out). */
-  seeds: number;
-  failed: number;
-  chattered: number;
-  probability: number;
-  low: number;
-  high: number;
-}
-
-export interface NoiseMarginSummary {
-  referenceTransitions: number;
-  /** Deadband measured on the noise-free run (upper − lower threshold); 0 when it has none. */
-  deadband: number;
-  /** deadband / 6.6: the largest rms the rule of thumb accepts. */
-  ruleOfThumbRms: number;
-  levels: NoiseLevelSummary[];
-  /** Largest swept rms whose estimate — and every lower level's — stays at or under the limit. */
-  safeRms: number | null;
-  /** The same, but on the upper end of the Wilson interval (null when the seeds are too few). */
-  safeRmsConfident: number | null;
-  limit: number;
-  measured: NoiseMarginConfig["measured"] | null;
-  /** Chatter estimate at the swept level nearest above the measured rms, if any. */
-  measuredVerdict: "inside" | "outside" | "beyond-sweep" | null;
-}
 
 export function noiseTaskCount(config: NoiseMarginConfig): number {
   return 1 + config.levels * config.seedsPerLevel;

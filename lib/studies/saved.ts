@@ -2,27 +2,11 @@
 // recomputed here — on the server — so a saved figure is never one the client made up.
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { SimulateFn } from "@/lib/sim/types";
-import type { DrawOutput, StudyUpload } from "@/lib/schemas/study";
-import {
-  noiseTaskCount,
-  runNoiseTask,
-  summarizeNoiseMargin,
-  type NoiseMarginSummary,
-  type NoiseTaskOutput,
-} from "./noise-margin";
-import {
-  runToleranceTask,
-  summarizeToleranceSpread,
-  toleranceTaskCount,
-  type Corners,
-  type ToleranceSpreadSummary,
-} from "./tolerance-spread";
+import type { DrawOutput, SavedStudy, StudyUpload } from "@/lib/schemas/study";
+import { noiseTaskCount, runNoiseTask, summarizeNoiseMargin, type NoiseTaskOutput } from "./noise-margin";
+import { runToleranceTask, summarizeToleranceSpread, toleranceTaskCount, type Corners } from "./tolerance-spread";
 
-export interface SavedStudy {
-  schema: "railwise.study/1";
-  noiseMargin?: StudyUpload["noiseMargin"] & { summary: NoiseMarginSummary };
-  toleranceSpread?: StudyUpload["toleranceSpread"] & { summary: ToleranceSpreadSummary };
-}
+export type { SavedStudy } from "@/lib/schemas/study";
 
 export class StudyMismatch extends Error {
   constructor(

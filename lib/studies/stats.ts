@@ -1,4 +1,9 @@
 // Small statistics used by the studies: Wilson score interval, summary and histogram.
+import type { MeasureSpread, SpreadSummary } from "@/lib/schemas/study";
+
+/** One figure's spread and histogram, in their stored shapes (lib/schemas/study.ts). */
+export type Summary = SpreadSummary;
+export type Histogram = MeasureSpread["histogram"];
 
 /** z for a two-sided 95 % interval (Φ⁻¹(0.975)). */
 export const Z95 = 1.959963984540054;
@@ -17,14 +22,6 @@ export function wilsonInterval(k: number, n: number, z = Z95): { low: number; hi
   return { low: Math.max(0, centre - half), high: Math.min(1, centre + half) };
 }
 
-export interface Summary {
-  count: number;
-  mean: number | null;
-  std: number | null;
-  min: number | null;
-  max: number | null;
-}
-
 export function summarize(values: readonly number[]): Summary {
   const n = values.length;
   if (n === 0) return { count: 0, mean: null, std: null, min: null, max: null };
@@ -40,12 +37,6 @@ export function summarize(values: readonly number[]): Summary {
   let ss = 0;
   for (const v of values) ss += (v - mean) * (v - mean);
   return { count: n, mean, std: n > 1 ? Math.sqrt(ss / (n - 1)) : 0, min, max };
-}
-
-export interface Histogram {
-  /** bins + 1 edges, ascending. */
-  edges: number[];
-  counts: number[];
 }
 
 /** Equal-width histogram over [lo, hi]; values outside are clamped into the end bins. */

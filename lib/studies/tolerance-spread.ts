@@ -7,9 +7,12 @@ import type { SimResult, SimulateFn } from "@/lib/sim/types";
 import type { DrawOutput, Measure, ToleranceSpreadConfig } from "@/lib/schemas/study";
 import { createStream, drawDeviation, taskSeed } from "./random";
 import { studyRunSettings } from "./grid";
-import { histogram, summarize, wilsonInterval, type Histogram, type Summary } from "./stats";
+import { histogram, summarize, wilsonInterval } from "./stats";
 import { perturbScenario, spreadVariables, type CircuitSpreadOptions } from "@/lib/design/spread";
 import { sourceMap } from "@/lib/sim/circuit";
+import type { MeasureSpread, ToleranceSpreadSummary } from "@/lib/schemas/study";
+
+export type { MeasureSpread, ToleranceSpreadSummary } from "@/lib/schemas/study";
 
 // The spread model is lib/design/spread's (so its corners bracket these draws): every resistor
 // and capacitor of the circuit as built — stage, reference divider, source divider or NTC (R25,
@@ -178,31 +181,6 @@ export function defaultMeasures(stage: Stage): Measure[] {
     default:
       return ["upperThreshold", "lowerThreshold"];
   }
-}
-
-export interface MeasureSpread {
-  measure: Measure;
-  nominal: number | null;
-  summary: Summary;
-  /** Draws where the figure could not be measured (e.g. the stage never switched). */
-  missing: number;
-  histogram: Histogram;
-  /** Worst-case corners [min, max] from lib/design, when the caller supplies them. */
-  worstCase: [number, number] | null;
-  window: [number, number] | null;
-  inside: number | null;
-}
-
-export interface ToleranceSpreadSummary {
-  draws: number;
-  /** Draws the solver gave up on (their figures count as missing). */
-  failed: number;
-  measures: MeasureSpread[];
-  /** Draws with every windowed figure measured and inside its window (null: no window set). */
-  inside: number | null;
-  insideShare: number | null;
-  insideLow: number | null;
-  insideHigh: number | null;
 }
 
 export type Corners = Partial<Record<Measure, [number, number]>>;

@@ -9,6 +9,7 @@
 import fs from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { apiErrorSchema } from "@/lib/schemas/responses";
 import { createStream } from "@/lib/studies/random";
 import { startServer, type TestServer } from "@/tests/helpers/server";
 import { setupTeam, type TeamFixture } from "@/tests/helpers/team";
@@ -139,6 +140,10 @@ describe("fuzz: 10,000 malformed requests", () => {
 
     const counts = new Map<number, number>();
     const fiveHundreds: string[] = [];
+    // Every JSON refusal of an API route has the one error shape (lib/schemas/responses.ts,
+    // apiErrorSchema); next-auth's own routes answer in next-auth's shape and are left out.
+    const offShape: string[] = [];
+    let errorBodies = 0;
     let done = 0;
     const deadline = Date.now() + WALL_MS;
 
@@ -165,7 +170,19 @@ describe("fuzz: 10,000 malformed requests", () => {
           signal: AbortSignal.timeout(30_000),
         });
         status = res.status;
-        await res.arrayBuffer().catch(() => undefined);
+        const text = await res.text().catch(() => "");
+        const json = (res.headers.get("content-type") ?? "").includes("application/json");
+        const api = target.startsWith("/api/") && !target.startsWith("/api/auth/");
+        if (status >= 400 && json && api && method !== "HEAD") {
+          errorBodies++;
+          let parsed = false;
+          try {
+            parsed = apiErrorSchema.safeParse(JSON.parse(text)).success;
+          } catch {
+            // not JSON at all: off shape
+          }
+          if (!parsed) offShape.push(`${method} ${target.slice(0, 120)} → ${status} ${text.slice(0, 160)}`);
+        }
       } catch (err) {
         // A refused URL (e.g. an invalid escape the client itself rejects) is not a server answer.
         status = -1;
@@ -192,6 +209,9 @@ describe("fuzz: 10,000 malformed requests", () => {
     if (fiveHundreds.length) console.log(`[fuzz] 5xx answers (first 20):\n${fiveHundreds.slice(0, 20).join("\n")}`);
     expect(done).toBe(REQUESTS);
     expect(fiveHundreds).toEqual([]);
+    console.log(`[fuzz] ${errorBodies} JSON error answers checked against the error schema`);
+    expect(errorBodies).toBeGreaterThan(1000);
+    expect(offShape.slice(0, 20)).toEqual([]);
     // The server still answers normally after the fuzz.
     expect((await fetch(`${server.url}/api/health`)).status).toBe(200);
   });
