@@ -15,6 +15,8 @@ import { getSequelize } from "./db";
 import { stripNul } from "./text";
 
 import { DECISIONS, ROLES, type Decision, type Role } from "@/lib/schemas/roles";
+import { leanScenarioOf } from "@/lib/schemas/responses";
+import type { Scenario } from "@/lib/schemas/scenario";
 
 export { DECISIONS, ROLES, type Decision, type Role };
 
@@ -70,6 +72,8 @@ export interface ScenarioRow extends Model<Attrs<ScenarioRow>, Creation<Scenario
   version: number;
   /** The current railwise.scenario/1 document (same as the latest scenario_versions row). */
   data: unknown;
+  /** The document's list form (leanScenarioOf), kept in step with `data` by a hook (0005). */
+  summary?: unknown;
   updatedBy: ForeignKey<string | null>;
   createdAt: CreationOptional<Date>;
   updatedAt: CreationOptional<Date>;
@@ -262,9 +266,14 @@ export function defineModels(sequelize: Sequelize) {
     name: text(),
     version: { type: DataTypes.INTEGER, allowNull: false },
     data: json(),
+    summary: json(true),
     updatedBy: ref(true),
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,
+  });
+  // Every writer (API, seed, scripts) keeps the list form in step with the document.
+  Scenario.addHook("beforeSave", (row: ScenarioRow) => {
+    if (row.isNewRecord || row.changed("data")) row.summary = leanScenarioOf(row.data as Scenario);
   });
   const ScenarioVersion = sequelize.define<ScenarioVersionRow>(
     "scenario_versions",

@@ -117,6 +117,20 @@ export type LeanScenario = Omit<Scenario, "input"> & {
   input: Omit<Scenario["input"], "components"> & { components: LeanComponent[] };
 };
 
+/**
+ * The list form of a scenario: pwl points and capture samples left out and counted. Stored
+ * beside the document (scenarios.summary, models/index.ts), so a list never reads waveforms.
+ */
+export function leanScenarioOf(scenario: Scenario): LeanScenario {
+  const input = scenario.input;
+  const components = (input?.components ?? []).map((c): LeanComponent => {
+    if (c.kind === "pwl") return { ...c, points: [], pointCount: c.points.length };
+    if (c.kind === "capture") return { ...c, samples: [], pointCount: c.samples.length };
+    return c;
+  });
+  return { ...scenario, input: { ...input, components } };
+}
+
 const LEAN_PLACEHOLDER: [number, number][] = [
   [0, 0],
   [1, 0],

@@ -12,17 +12,20 @@ import { getBoardRowOrThrow } from "./boards";
 import { conflict, notFound } from "./errors";
 import type {
   LatestDecisionJson,
-  LeanComponent,
   LeanScenario,
   ScenarioJson,
   ScenarioSummaryJson,
   ScenarioVersionDocJson,
   ScenarioVersionJson,
 } from "@/lib/schemas/responses";
+import { leanScenarioOf } from "@/lib/schemas/responses";
 import { isId, iso, person } from "./ids";
 import { latestDecisionsByScenario } from "./review";
 
 export type { ScenarioJson, ScenarioSummaryJson, ScenarioVersionDocJson, ScenarioVersionJson };
+
+/** SQLite keeps JSON as text in a raw query; the model and node-postgres parse it themselves. */
+const parsedJson = (value: unknown): unknown => (typeof value === "string" ? JSON.parse(value) : value);
 
 /** A scenario row as the model or the list query reads it; `updaterName` is the updater's name. */
 interface ScenarioFields {
@@ -37,19 +40,22 @@ interface ScenarioFields {
   updaterName: string | null | undefined;
 }
 
-function scenarioJson(row: ScenarioFields, latest: LatestDecisionJson | null): ScenarioJson {
+/** Everything of a scenario's answer but the document itself. */
+function recordJson(row: ScenarioFields, latest: LatestDecisionJson | null): Omit<ScenarioJson, "scenario"> {
   return {
     id: row.id,
     boardId: row.boardId as string,
     name: row.name,
     version: Number(row.version),
-    // SQLite keeps JSON as text in a raw query; the model and node-postgres parse it themselves.
-    scenario: (typeof row.data === "string" ? JSON.parse(row.data) : row.data) as Scenario,
     createdAt: iso(row.createdAt)!,
     updatedAt: iso(row.updatedAt)!,
     updatedBy: person(row.updatedBy, { name: row.updaterName }),
     latestDecision: latest,
   };
+}
+
+function scenarioJson(row: ScenarioFields, latest: LatestDecisionJson | null): ScenarioJson {
+  return { ...recordJson(row, latest), scenario: parsedJson(row.data) as Scenario };
 }
 
 /** The model row in the shape scenarioJson takes. */
@@ -78,11 +84,13 @@ export async function listScenarios({
   // One query, prepared once (models/prepared.ts), names in code-point order on both databases.
   const sequelize = getSequelize();
   const collate = sequelize.getDialect() === "postgres" ? ' COLLATE "C"' : "";
-  const rows = await selectPrepared<ScenarioFields>(
+  // The stored list form (summary, migration 0005); the document only for a row that lacks it.
+  const rows = await selectPrepared<ScenarioFields & { summary: unknown }>(
     sequelize,
     "railwise_list_scenarios",
-    `SELECT s."id", s."boardId", s."name", s."version", s."data", s."createdAt", s."updatedAt", s."updatedBy",
-            u."name" AS "updaterName"
+    `SELECT s."id", s."boardId", s."name", s."version", s."summary",
+            CASE WHEN s."summary" IS NULL THEN s."data" END AS "data",
+            s."createdAt", s."updatedAt", s."updatedBy", u."name" AS "updaterName"
        FROM "scenarios" s
        LEFT JOIN "users" u ON u."id" = s."updatedBy"
       WHERE s."boardId" = $1 AND s."teamId" = $2
@@ -92,7 +100,11 @@ export async function listScenarios({
   // Rows of this team prove the board is the team's; only an empty answer needs the check (404).
   if (rows.length === 0) await getBoardRowOrThrow({ id: boardId, teamId });
   const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: rows.map((r) => r.id) });
-  return rows.map((r) => leanScenarioJson(scenarioJson(r, decisions.get(r.id) ?? null)));
+  return rows.map((r) => {
+    const latest = decisions.get(r.id) ?? null;
+    if (r.summary == null) return leanScenarioJson(scenarioJson(r, latest));
+    return { ...recordJson(r, latest), scenario: parsedJson(r.summary) as LeanScenario, lean: true };
+  });
 }
 
 /**
@@ -101,14 +113,7 @@ export async function listScenarios({
  * (`pointCount`) and `lean: true` marks the item. GET /api/scenarios/:id has the whole document.
  */
 export function leanScenarioJson(item: ScenarioJson): ScenarioSummaryJson {
-  const input = item.scenario.input;
-  const components = (input?.components ?? []).map((c): LeanComponent => {
-    if (c.kind === "pwl") return { ...c, points: [], pointCount: c.points.length };
-    if (c.kind === "capture") return { ...c, samples: [], pointCount: c.samples.length };
-    return c;
-  });
-  const scenario: LeanScenario = { ...item.scenario, input: { ...input, components } };
-  return { ...item, scenario, lean: true };
+  return { ...item, scenario: leanScenarioOf(item.scenario), lean: true };
 }
 
 async function scenarioRowOrThrow({

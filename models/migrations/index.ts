@@ -5,6 +5,7 @@ import * as m0001 from "./0001-initial";
 import * as m0003 from "./0003-sessions-and-limits";
 import * as m0002 from "./0002-text-columns";
 import * as m0004 from "./0004-review";
+import * as m0005 from "./0005-scenario-summary";
 
 export interface Migration {
   name: string;
@@ -17,4 +18,5 @@ export const MIGRATIONS: Migration[] = [
   { name: "0002-text-columns", ...m0002 },
   { name: "0003-sessions-and-limits", ...m0003 },
   { name: "0004-review", ...m0004 },
+  { name: "0005-scenario-summary", ...m0005 },
 ];

@@ -103,3 +103,87 @@ describe("migrations and seed", () => {
     await expect(m.Membership.create({ userId: user!.id, teamId: team!.id, role: "admin" as never })).rejects.toThrow();
   });
 });
+
+describe("migration 0005: the scenario list form", () => {
+  const pwl = {
+    kind: "pwl",
+    points: [
+      [0, 0],
+      [0.5, 2],
+      [1, 0],
+    ],
+  };
+  const doc = (points: unknown) => ({
+    schema: "railwise.scenario/1",
+    supply: { positive: 5, negative: 0 },
+    stage: { kind: "comparator", reference: 1 },
+    input: { components: [{ kind: "dc", level: 1 }, points] },
+    run: { duration: 1, points: 11 },
+  });
+  const summaryOf = async (db: Sequelize, id: string) => {
+    const [row] = await db.query<{ summary: string }>(`SELECT "summary" FROM "scenarios" WHERE "id" = $1`, {
+      bind: [id],
+      type: QueryTypes.SELECT,
+    });
+    return JSON.parse(row.summary);
+  };
+
+  it("fills rows written before it, and the model keeps the column in step on every save", async () => {
+    const file = path.join(dir, "before-0005.sqlite");
+    const db = createSequelize(`sqlite:${file}`);
+    try {
+      const { migrator } = await import("@/models/migrate");
+      await migrator(db).up({ to: "0004-review" });
+      const now = new Date().toISOString();
+      await db.query(`INSERT INTO "teams" ("id", "name", "createdAt", "updatedAt") VALUES ($1, 't', $2, $2)`, {
+        bind: ["00000000-0000-4000-8000-000000000001", now],
+      });
+      await db.query(
+        `INSERT INTO "boards" ("id", "teamId", "name", "description", "createdAt", "updatedAt")
+         VALUES ($1, $2, 'b', '', $3, $3)`,
+        { bind: ["00000000-0000-4000-8000-000000000002", "00000000-0000-4000-8000-000000000001", now] },
+      );
+      const id = "00000000-0000-4000-8000-000000000003";
+      await db.query(
+        `INSERT INTO "scenarios" ("id", "teamId", "boardId", "name", "version", "data", "createdAt", "updatedAt")
+         VALUES ($1, $2, $3, 's', 1, $4, $5, $5)`,
+        {
+          bind: [
+            id,
+            "00000000-0000-4000-8000-000000000001",
+            "00000000-0000-4000-8000-000000000002",
+            JSON.stringify(doc(pwl)),
+            now,
+          ],
+        },
+      );
+      expect(await migrate(db)).toEqual(["0005-scenario-summary"]);
+      // The pwl keeps its kind and says how many points it had; the dc component is unchanged.
+      const filled = await summaryOf(db, id);
+      expect(filled.input.components).toEqual([
+        { kind: "dc", level: 1 },
+        { kind: "pwl", points: [], pointCount: 3 },
+      ]);
+      expect(filled.stage).toEqual({ kind: "comparator", reference: 1 });
+
+      const row = await getModels(db).Scenario.findByPk(id);
+      row!.set({
+        data: doc({
+          kind: "pwl",
+          points: [
+            [0, 0],
+            [1, 1],
+          ],
+        }),
+      });
+      await row!.save();
+      expect((await summaryOf(db, id)).input.components[1]).toEqual({ kind: "pwl", points: [], pointCount: 2 });
+      // A save that leaves the document alone leaves the list form alone.
+      row!.set({ name: "renamed" });
+      await row!.save();
+      expect((await summaryOf(db, id)).input.components[1].pointCount).toBe(2);
+    } finally {
+      await db.close();
+    }
+  });
+});
