@@ -8,8 +8,8 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   return (
     <div className="flex min-h-screen flex-col">
       <AppHeader user={user} />
-      <main className="mx-auto w-full max-w-7xl flex-1 px-4 py-5 sm:px-6">{children}</main>
-      <footer className="mx-auto w-full max-w-7xl px-4 pb-5 text-[12px] text-ink-faint sm:px-6">
+      <main className="rw-shell flex-1 px-4 py-5 sm:px-6">{children}</main>
+      <footer className="rw-shell px-4 pb-5 text-[12px] text-ink-faint sm:px-6">
         Railwise · behavioural simulation of op-amp stages; confirm on the bench before a board is built.
       </footer>
     </div>

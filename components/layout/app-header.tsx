@@ -22,13 +22,17 @@ const NAV: NavItem[] = [
 export function AppHeader({ user }: { user: HeaderUser }) {
   return (
     <header className="border-b border-paper-line bg-paper-card">
-      <div className="mx-auto flex max-w-7xl items-center gap-x-3 px-4 py-2 sm:px-6 md:gap-x-5">
+      <div className="rw-shell flex items-center gap-x-3 px-4 py-2 sm:px-6 md:gap-x-5" data-testid="app-header-row">
         <div className="flex min-w-0 flex-1 items-center gap-3 md:flex-none">
           <Link href="/boards" aria-label="Railwise home" className="shrink-0">
             <Wordmark />
           </Link>
           <span aria-hidden className="h-5 w-px shrink-0 bg-paper-line" />
-          <span className="min-w-0 truncate text-[12px] text-ink-soft sm:text-[13px]" title={`Team: ${user.teamName}`}>
+          {/* A long team name wraps onto a second line on a phone rather than losing its end. */}
+          <span
+            className="min-w-0 text-[12px] leading-tight break-words text-ink-soft sm:text-[13px]"
+            title={`Team: ${user.teamName}`}
+          >
             {user.teamName}
           </span>
         </div>

@@ -63,16 +63,15 @@ function LoadedWorkbench({ record }: { record: ScenarioRecord }) {
   );
 }
 
-/** Full-bleed: the app shell caps pages at 1280 px, plots deserve the whole window. */
-const bleed = "relative w-[calc(100vw-2rem)] max-w-[1840px] left-1/2 -translate-x-1/2 sm:w-[calc(100vw-3rem)]";
-
 function WorkbenchBody({ record }: { record: ScenarioRecord }) {
   const board = useBoard(record.boardId);
   const tab = useWb((s) => s.tab);
   const setTab = useWb((s) => s.setTab);
   const name = useWb((s) => s.draft.name);
   return (
-    <div className={bleed} data-testid="workbench">
+    // The page marks itself wide (app/(app)/scenarios/[id]/page.tsx): the app column, header
+    // included, then spans the window up to 1840 px, so this fills its parent.
+    <div data-testid="workbench">
       <ScenarioHeading
         record={{ ...record, version: useWb((s) => s.version) }}
         boardName={board.data?.name}

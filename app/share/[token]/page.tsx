@@ -49,7 +49,7 @@ export default async function SharedRunPage({ params }: { params: Promise<{ toke
   return (
     <div className="flex min-h-screen flex-col">
       <header className="border-b border-paper-line bg-paper-card">
-        <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-2 px-4 py-2 sm:px-6">
+        <div className="rw-shell flex flex-wrap items-center justify-between gap-2 px-4 py-2 sm:px-6">
           <Wordmark />
           <div className="flex flex-wrap items-center gap-x-4 gap-y-1 text-[12px]">
             <span className="text-ink-mute">
@@ -71,7 +71,7 @@ export default async function SharedRunPage({ params }: { params: Promise<{ toke
           </div>
         </div>
       </header>
-      <main className="mx-auto w-full max-w-7xl flex-1 px-4 py-5 sm:px-6">
+      <main className="rw-shell flex-1 px-4 py-5 sm:px-6">
         {scenarioName && (
           <p className="mb-1 text-[13px] text-ink-mute" data-testid="shared-scenario-name">
             Scenario: <span className="font-medium text-ink">{scenarioName}</span>
@@ -79,7 +79,7 @@ export default async function SharedRunPage({ params }: { params: Promise<{ toke
         )}
         <SharedRun run={run} />
       </main>
-      <footer className="mx-auto w-full max-w-7xl px-4 pb-5 text-[12px] text-ink-faint sm:px-6">
+      <footer className="rw-shell px-4 pb-5 text-[12px] text-ink-faint sm:px-6">
         Railwise · behavioural simulation of op-amp stages; confirm on the bench before a board is built.
       </footer>
     </div>

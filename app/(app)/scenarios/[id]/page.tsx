@@ -11,5 +11,12 @@ export const metadata: Metadata = { title: "Scenario" };
 export default async function ScenarioPage({ params }: { params: Promise<{ id: string }> }) {
   const [{ id }, user] = await Promise.all([params, requirePageUser()]);
   await requireTeamItemOr404("scenario", id, user.teamId);
-  return canEdit(user.role) ? <ScenarioWorkbench scenarioId={id} /> : <ScenarioReadOnly scenarioId={id} />;
+  // The Workbench takes the whole window (the header widens with it: app/globals.css .rw-shell).
+  return canEdit(user.role) ? (
+    <div data-page-width="wide">
+      <ScenarioWorkbench scenarioId={id} />
+    </div>
+  ) : (
+    <ScenarioReadOnly scenarioId={id} />
+  );
 }
