@@ -30,27 +30,44 @@ export function ReviewPanel({ runId, role, userId }: { runId: string; role: Role
         currentVersion: scenario?.version ?? null,
       }
     : null;
+  const signoff = (
+    <Card title="Sign-off">
+      <SignoffPanel runId={runId} canSignOff={canSignOff} userId={userId} subject={subject} />
+    </Card>
+  );
+  const requests = (
+    <Card title="Review requests" description="Who was asked to review this run.">
+      <RequestReviewPanel runId={runId} canRequest={canShare} userId={userId} />
+    </Card>
+  );
+  const comments = (
+    <Card title="Comments">
+      <CommentsPanel runId={runId} canComment={canComment} />
+    </Card>
+  );
+  const links = canShare ? (
+    <Card title="Run links" description="Read-only view of this run for anyone holding the link.">
+      <LinksPanel runId={runId} />
+    </Card>
+  ) : null;
+  // Two stacks of cards side by side from 1024 px (one column below, in reading order), so a
+  // card never sits alone in a grid row beside an empty cell. Roles that cannot share get no
+  // links card: their requests card moves under the comments to keep the stacks even.
   return (
-    <div className="grid items-start gap-3 lg:grid-cols-2 xl:grid-cols-3" data-testid="review-panel">
-      <Card title="Sign-off">
-        <SignoffPanel runId={runId} canSignOff={canSignOff} userId={userId} subject={subject} />
-      </Card>
-      <Card title="Review requests" description="Who was asked to review this run.">
-        <RequestReviewPanel runId={runId} canRequest={canShare} userId={userId} />
-      </Card>
-      <Card title="Comments">
-        <CommentsPanel runId={runId} canComment={canComment} />
-      </Card>
+    <div className="grid items-start gap-3 lg:grid-cols-2" data-testid="review-panel">
+      <div className="grid min-w-0 content-start gap-3" data-testid="review-stack">
+        {signoff}
+        {links ? requests : null}
+      </div>
+      <div className="grid min-w-0 content-start gap-3" data-testid="review-stack">
+        {comments}
+        {links ?? requests}
+      </div>
       {run?.scenarioId && subject?.scenarioVersion ? (
-        <Card title="Changes since the previous version" className="lg:col-span-2 xl:col-span-3" id="version-changes">
+        <Card title="Changes since the previous version" className="lg:col-span-2" id="version-changes">
           <VersionChanges scenarioId={run.scenarioId} version={subject.scenarioVersion} />
         </Card>
       ) : null}
-      {canShare && (
-        <Card title="Run links" description="Read-only view of this run for anyone holding the link.">
-          <LinksPanel runId={runId} />
-        </Card>
-      )}
     </div>
   );
 }
