@@ -25,50 +25,81 @@ export const STUDY_COLORS = {
 };
 
 const TAG_FONT = (dpr: number) => `${10 * dpr}px var(--font-jb), ui-monospace, monospace`;
+/** One tag row in the strip above the plotting area, CSS px. */
+const TAG_ROW = 13;
 
 /**
- * Where the label of the vertical line at `x` goes: on `side` of the line (by default right of
- * it, left near the right edge), flipped when it would leave the plotting area. Null off the plot.
+ * Room above the plotting area for `rows` line tags (CSS px, as uPlot's top padding). The tags
+ * live there, outside the plotting area, so they can never print across the curve, the bars or
+ * one another, wherever the data puts its lines.
  */
-function placeTag(u: uPlot, x: number, text: string, side?: "left" | "right") {
-  const px = u.valToPos(x, "x", true);
-  if (px < u.bbox.left || px > u.bbox.left + u.bbox.width) return null;
-  const dpr = devicePixelRatio;
-  u.ctx.save();
-  u.ctx.font = TAG_FONT(dpr);
-  const w = u.ctx.measureText(text).width + 4 * dpr;
-  u.ctx.restore();
-  let right = side ? side === "left" : px > u.bbox.left + u.bbox.width * 0.7;
-  // A tag asked to sit left of its line may reach a little into the y-axis gutter (between tick
-  // labels) before it flips: flipped, it would print across the line it was turned away from.
-  const slack = side ? 24 * dpr : 0;
-  if (right && px - w < u.bbox.left - slack) right = false;
-  else if (!right && px + w > u.bbox.left + u.bbox.width) right = true;
-  const at = px + (right ? -4 : 4) * dpr;
-  return { at, right, span: (right ? [at - w, at] : [at, at + w]) as [number, number] };
+function tagStrip(rows: number): number {
+  return rows > 0 ? 6 + rows * TAG_ROW : 10;
 }
 
-/** Draws the label; answers the span of canvas x it covers (null when off the plot). */
-function tag(
-  u: uPlot,
-  x: number,
-  text: string,
-  color: string,
-  row: number,
-  side?: "left" | "right",
-): [number, number] | null {
-  const place = placeTag(u, x, text, side);
-  if (!place) return null;
+interface LineTag {
+  x: number;
+  text: string;
+  color: string;
+}
+
+/**
+ * Draws each tag in its own row of the strip above the plot, starting at its line's x and running
+ * right, or ending there when it would pass the plot's right edge; a short tick from the plot's
+ * top edge up to the row ties the words to their line. Rows are ordered so that no tick runs
+ * through another tag's words where that can be avoided (at most three tags: every order is
+ * tried). The boxes drawn (CSS px, relative to the plot) are kept on the chart's root as
+ * data-tag-boxes, with the plotting area, so a browser test can check that no tag reaches into
+ * the plot.
+ */
+function tagsAbove(u: uPlot, tags: LineTag[]): void {
   const ctx = u.ctx;
   const dpr = devicePixelRatio;
+  const { left, top, width } = u.bbox;
   ctx.save();
   ctx.font = TAG_FONT(dpr);
-  ctx.fillStyle = color;
-  ctx.textAlign = place.right ? "right" : "left";
-  ctx.textBaseline = "top";
-  ctx.fillText(text, place.at, u.bbox.top + (4 + row * 13) * dpr);
+  const placed = tags.flatMap((t) => {
+    const px = u.valToPos(t.x, "x", true);
+    if (!Number.isFinite(px) || px < left || px > left + width) return [];
+    const w = ctx.measureText(t.text).width;
+    const x0 = px + 3 * dpr + w <= left + width ? px + 3 * dpr : Math.max(left, px - 3 * dpr - w);
+    return [{ ...t, px, x0, x1: x0 + w }];
+  });
+  // A tick of the tag in row r passes every row below r: count the words it would cross.
+  const crossings = (order: typeof placed) =>
+    order.reduce(
+      (n, a, ra) => n + order.filter((b, rb) => rb > ra && b.x0 - 2 * dpr <= a.px && a.px <= b.x1 + 2 * dpr).length,
+      0,
+    );
+  let best = placed;
+  for (const order of permutations(placed)) if (crossings(order) < crossings(best)) best = order;
+  const boxes: number[][] = [];
+  best.forEach((t, row) => {
+    const y0 = top - (tagStrip(tags.length) - 3 - row * TAG_ROW) * dpr;
+    ctx.fillStyle = t.color;
+    ctx.textAlign = "left";
+    ctx.textBaseline = "top";
+    ctx.fillText(t.text, t.x0, y0);
+    ctx.strokeStyle = t.color;
+    ctx.lineWidth = Math.max(1, dpr);
+    ctx.beginPath();
+    ctx.moveTo(Math.round(t.px) + 0.5, top);
+    ctx.lineTo(Math.round(t.px) + 0.5, y0 + 11 * dpr);
+    ctx.stroke();
+    boxes.push([t.x0 / dpr, y0 / dpr, t.x1 / dpr, (y0 + 10 * dpr) / dpr]);
+  });
   ctx.restore();
-  return place.span;
+  u.root.dataset.tagBoxes = JSON.stringify({
+    plot: [left / dpr, top / dpr, (left + width) / dpr, (top + u.bbox.height) / dpr],
+    tags: boxes,
+  });
+}
+
+function permutations<T>(items: T[]): T[][] {
+  if (items.length <= 1) return [items];
+  return items.flatMap((first, i) =>
+    permutations([...items.slice(0, i), ...items.slice(i + 1)]).map((rest) => [first, ...rest]),
+  );
 }
 
 export function ChatterPlot({
@@ -89,9 +120,12 @@ export function ChatterPlot({
       const lo = Float64Array.from(summary.levels, (l) => l.low);
       const hi = Float64Array.from(summary.levels, (l) => l.high);
       const xMax = Math.max(x[x.length - 1], summary.ruleOfThumbRms, summary.measured?.rms ?? 0) * 1.04;
+      const rows = Number(summary.deadband > 0) + Number(summary.safeRms !== null) + Number(!!summary.measured);
+      const strip = tagStrip(rows);
       const opts: uPlot.Options = {
         width,
-        height,
+        height: height + strip,
+        padding: [strip, null, null, null],
         legend: { show: false },
         cursor: { drag: { x: false, y: false } },
         scales: { x: { time: false, range: [0, xMax] }, y: { range: [0, 1] } },
@@ -120,37 +154,28 @@ export function ChatterPlot({
           draw: [
             (u) => {
               hLine(u, summary.limit, STUDY_COLORS.limit, [5, 4]);
-              let row = 0;
-              // The rule-of-thumb and the largest-safe-rms lines are often close: their tags point
-              // away from each other so neither prints across the other's line.
-              const both = summary.deadband > 0 && summary.safeRms !== null;
-              const safeLeft = both && summary.safeRms! < summary.ruleOfThumbRms;
+              const tags: LineTag[] = [];
               if (summary.deadband > 0) {
                 vLine(u, summary.ruleOfThumbRms, STUDY_COLORS.rule, [4, 3]);
-                tag(
-                  u,
-                  summary.ruleOfThumbRms,
-                  "deadband / 6.6",
-                  STUDY_COLORS.rule,
-                  row++,
-                  both ? (safeLeft ? "right" : "left") : undefined,
-                );
+                tags.push({ x: summary.ruleOfThumbRms, text: "deadband / 6.6", color: STUDY_COLORS.rule });
               }
               if (summary.safeRms !== null) {
                 vLine(u, summary.safeRms, STUDY_COLORS.safe, []);
-                tag(
-                  u,
-                  summary.safeRms,
-                  `≤ ${(summary.limit * 100).toFixed(summary.limit < 0.01 ? 1 : 0)} % chatter`,
-                  STUDY_COLORS.safe,
-                  row++,
-                  both ? (safeLeft ? "left" : "right") : undefined,
-                );
+                tags.push({
+                  x: summary.safeRms,
+                  text: `≤ ${(summary.limit * 100).toFixed(summary.limit < 0.01 ? 1 : 0)} % chatter`,
+                  color: STUDY_COLORS.safe,
+                });
               }
               if (summary.measured) {
                 vLine(u, summary.measured.rms, STUDY_COLORS.measured, [2, 3]);
-                tag(u, summary.measured.rms, summary.measured.label ?? "measured", STUDY_COLORS.measured, row++);
+                tags.push({
+                  x: summary.measured.rms,
+                  text: summary.measured.label ?? "measured",
+                  color: STUDY_COLORS.measured,
+                });
               }
+              tagsAbove(u, tags);
             },
           ],
         },
@@ -187,9 +212,11 @@ export function SpreadHistogram({
       const y = Float64Array.from(counts);
       const maxCount = Math.max(1, ...counts);
       const unit = MEASURE_UNIT[spread.measure];
+      const strip = tagStrip(Number(spread.nominal !== null) + (spread.worstCase ? 2 : 0));
       const opts: uPlot.Options = {
         width,
-        height,
+        height: height + strip,
+        padding: [strip, null, null, null],
         legend: { show: false },
         cursor: { drag: { x: false, y: false } },
         scales: { x: { time: false, range: [edges[0], edges[edges.length - 1]] }, y: { range: [0, maxCount * 1.12] } },
@@ -224,22 +251,18 @@ export function SpreadHistogram({
           ],
           draw: [
             (u) => {
-              let row = 0;
+              const tags: LineTag[] = [];
               if (spread.nominal !== null) {
                 vLine(u, spread.nominal, STUDY_COLORS.nominal, [1, 2]);
-                tag(u, spread.nominal, "nominal", STUDY_COLORS.nominal, row++);
+                tags.push({ x: spread.nominal, text: "nominal", color: STUDY_COLORS.nominal });
               }
               if (spread.worstCase) {
                 vLine(u, spread.worstCase[0], STUDY_COLORS.corner, [5, 3]);
                 vLine(u, spread.worstCase[1], STUDY_COLORS.corner, [5, 3]);
-                // Labels point away from each other so close corners stay readable.
-                const a = tag(u, spread.worstCase[0], "worst case", STUDY_COLORS.corner, row, "left");
-                // Both labels flipped inwards (corners near the plot's edges) and meeting: the
-                // second one goes a row lower.
-                const b = placeTag(u, spread.worstCase[1], "worst case", "right")?.span;
-                const clash = a && b && a[0] < b[1] && b[0] < a[1];
-                tag(u, spread.worstCase[1], "worst case", STUDY_COLORS.corner, clash ? row + 1 : row, "right");
+                tags.push({ x: spread.worstCase[0], text: "worst case (low)", color: STUDY_COLORS.corner });
+                tags.push({ x: spread.worstCase[1], text: "worst case (high)", color: STUDY_COLORS.corner });
               }
+              tagsAbove(u, tags);
             },
           ],
         },
