@@ -95,16 +95,23 @@ export function HistoryCard({ canEdit }: { canEdit: boolean }) {
                   ) : null}
                 </span>
               </div>
-              {viewing?.version === v.version && viewing.scenario ? (
-                <div className="mt-2 max-h-[360px] overflow-auto rounded border border-paper-line bg-paper/40 p-2 text-[12px]">
-                  <ScenarioTables scenario={viewing.scenario} />
-                </div>
-              ) : null}
             </li>
           ))}
           {!items.length ? <li className="px-4 py-3 text-[13px] text-ink-mute">No versions yet.</li> : null}
         </ul>
       )}
+      {/* The version viewed, below the list at the card's full width (the card spans both columns
+          then) and its full height: not a scroll box inside the list's own scroll box. */}
+      {viewing?.scenario ? (
+        <section
+          className="border-t border-paper-line px-4 pt-2 pb-3 text-[12px]"
+          aria-label={`Version ${viewing.version} as saved`}
+          data-testid="history-snapshot"
+        >
+          <h3 className="mb-1.5 text-[12px] font-semibold text-ink-soft">Version {viewing.version} as saved</h3>
+          <ScenarioTables scenario={viewing.scenario} />
+        </section>
+      ) : null}
     </Card>
   );
 }
