@@ -11,10 +11,10 @@ import { PageHeader } from "@/components/ui/page-header";
 import { Table, TBody, TD, TH, THead, TR } from "@/components/ui/table";
 import { HttpError, errorMessage, sendJson } from "@/lib/client/fetcher";
 import { partsKey, useParts, type PartProfileRecord } from "@/lib/client/team-hooks";
-import { formatQuantity, parseQuantity } from "@/lib/design/notation";
+import { formatQuantity, parseQuantity, quantityProblem } from "@/lib/design/notation";
 import { OPAMP_PARAMS, OPAMP_PARAM_INFO, partProfileSchema, partsToCsv, type OpampParam } from "@/lib/schemas/part";
 import { contentKeys } from "@/lib/workbench/row-ids";
-import { scenarioIssueText } from "@/lib/workbench/screen-words";
+import { fieldIssueText, scenarioIssueText, type FieldWords } from "@/lib/workbench/screen-words";
 
 // Slew rates are typed and shown in V/µs (the unit every datasheet-reader thinks in); data stays SI.
 const UI_SCALE: Partial<Record<OpampParam, { unit: string; factor: number }>> = {
@@ -44,6 +44,12 @@ function show(key: OpampParam, value: number | undefined): string {
 
 type Draft = { name: string } & Record<OpampParam, string>;
 
+/** Each form field's screen label, for the schema's messages (which name the contract's keys). */
+function fieldWords(key: keyof Draft): FieldWords {
+  if (key === "name") return { code: "name", label: "Name" };
+  return { code: key, label: OPAMP_PARAM_INFO[key].label, scale: UI_SCALE[key] };
+}
+
 function draftOf(part?: PartProfileRecord): Draft {
   const d = { name: part?.name ?? "" } as Draft;
   for (const k of OPAMP_PARAMS) d[k] = part ? toText(k, part.opamp[k]) : "";
@@ -56,20 +62,26 @@ function readDraft(d: Draft): { body?: unknown; errors: Partial<Record<keyof Dra
   const opamp: Record<string, number> = {};
   for (const k of OPAMP_PARAMS) {
     const text = d[k].trim();
+    const label = OPAMP_PARAM_INFO[k].label;
     if (!text) {
-      if (!OPAMP_PARAM_INFO[k].optional) errors[k] = "required";
+      if (!OPAMP_PARAM_INFO[k].optional) errors[k] = `${label} is required`;
       continue;
     }
     const v = parseQuantity(text);
-    if (v === null) errors[k] = "not a value (e.g. 200k, 1M, 0.5)";
-    else opamp[k] = v * (UI_SCALE[k]?.factor ?? 1);
+    if (v === null) {
+      const why = quantityProblem(text);
+      errors[k] =
+        why === "not a value" ? `${label}: “${text}” is not a value (write e.g. 200k, 1M, 0.5)` : `${label}: ${why}`;
+    } else opamp[k] = v * (UI_SCALE[k]?.factor ?? 1);
   }
   const body = { name: d.name, opamp };
   const r = partProfileSchema.safeParse(body);
   if (!r.success) {
     for (const issue of r.error.issues) {
-      const key = (issue.path[0] === "opamp" ? issue.path[1] : issue.path[0]) as keyof Draft;
-      if (!errors[key]) errors[key] = issue.message;
+      const at = issue.path[0] === "opamp" ? issue.path[1] : issue.path[0];
+      // A message the schema gives the whole profile goes beside the name (nothing else fits).
+      const key = (typeof at === "string" && at in d ? at : "name") as keyof Draft;
+      if (!errors[key]) errors[key] = fieldIssueText(issue.message, fieldWords(key));
     }
   }
   return Object.keys(errors).length ? { errors } : { body, errors };

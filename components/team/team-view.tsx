@@ -9,7 +9,8 @@ import { Field, Select, TextInput } from "@/components/ui/field";
 import { Table, TBody, TD, TH, THead, TR } from "@/components/ui/table";
 import { errorMessage, sendJson } from "@/lib/client/fetcher";
 import { useAudit, useInvitations, useMembers } from "@/lib/client/team-hooks";
-import { ROLE_NAMES, type RoleName } from "@/lib/schemas/team";
+import { ROLE_NAMES, emailSchema, type RoleName } from "@/lib/schemas/team";
+import { fieldIssueText } from "@/lib/workbench/screen-words";
 import { formatDate } from "@/components/ui/format";
 import { describeAction, describeDetails, describeTarget } from "./format";
 
@@ -236,11 +237,22 @@ function InviteCard({ onInvited }: { onInvited: () => Promise<unknown> }) {
   const [role, setRole] = useState<RoleName>("designer");
   const [status, setStatus] = useState<{ tone: "ok" | "error"; text: string } | null>(null);
   const [sending, setSending] = useState(false);
+  const [emailError, setEmailError] = useState<string | null>(null);
 
   async function submit(e: FormEvent) {
     e.preventDefault();
-    setSending(true);
     setStatus(null);
+    // The same check as the server's, said with the field's label (the schema says "email").
+    const checked = emailSchema.safeParse(email);
+    if (!checked.success) {
+      setEmailError(
+        `${fieldIssueText(checked.error.issues[0]?.message ?? "is not an e-mail address", { code: "email", label: "E-mail" })}, such as name@company.example.`,
+      );
+      document.getElementById("invite-email")?.focus();
+      return;
+    }
+    setEmailError(null);
+    setSending(true);
     try {
       const res = await sendJson<{ email: string; mailSent?: boolean }>("/api/team/invitations", "POST", {
         email,
@@ -265,14 +277,19 @@ function InviteCard({ onInvited }: { onInvited: () => Promise<unknown> }) {
 
   return (
     <Card title="Invite by e-mail" description="A single-use link, valid for 72 hours.">
-      <form onSubmit={submit} className="flex flex-col gap-3">
-        <Field label="E-mail" htmlFor="invite-email">
+      {/* noValidate: the form says what is wrong in its own words, beside the field. */}
+      <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
+        <Field label="E-mail" htmlFor="invite-email" error={emailError}>
           <TextInput
             id="invite-email"
             type="email"
             required
+            aria-invalid={!!emailError}
             value={email}
-            onChange={(e) => setEmail(e.target.value)}
+            onChange={(e) => {
+              setEmail(e.target.value);
+              setEmailError(null);
+            }}
             placeholder="name@company.example"
           />
         </Field>

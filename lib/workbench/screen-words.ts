@@ -2,6 +2,7 @@
 // code path ("opamp.outputHeadroomHigh", "stage.rReference"); the Workbench shows the label of
 // that field instead ("Headroom V+", "R reference"), and writes other code names inside the
 // message the same way. Pure, no React; the panels take their labels from these tables too.
+import { formatQuantity } from "../design/notation";
 import { STAGE_KIND_LABEL, STAGE_ROLE_LABEL } from "./stage-labels";
 
 /** Labels of the op-amp parameter fields (Stage tab, "Part"). */
@@ -158,4 +159,42 @@ export function apiIssuesText(body: unknown): string | null {
   });
   const head = typeof message === "string" && message ? inScreenWords(message) : "Refused";
   return `${head}: ${scenarioIssuesText(list)}`;
+}
+
+/** How a form field is named on screen, and the unit its value is typed in when it is not SI. */
+export interface FieldWords {
+  /** The field's name in the contract ("slewRate", "email"). */
+  code: string;
+  /** The label on the screen ("Slew rate (rising)", "E-mail"). */
+  label: string;
+  /** Typed in `unit`, stored as value × factor in SI (V/µs ↔ V/s). */
+  scale?: { unit: string; factor: number };
+}
+
+/**
+ * A schema message for one form field, said with the field's screen label: the code name at the
+ * start ("slewRate (V/s) must be at most 1000000000000", "email must be an e-mail address") is
+ * replaced by the label, and a limit is restated in the unit the field is typed in ("at most
+ * 1000000 V/µs"). Used by forms whose messages come from lib/schemas (parts, invitations).
+ */
+export function fieldIssueText(message: string, field: FieldWords): string {
+  const head = new RegExp(`^${escapeRegExp(field.code)}(?: \\(([^)]*)\\))?\\s+`);
+  const m = head.exec(message);
+  if (!m) return `${field.label}: ${inScreenWords(message)}`;
+  let rest = message.slice(m[0].length);
+  const siUnit = m[1];
+  if (field.scale) {
+    const { unit, factor } = field.scale;
+    rest = rest.replace(
+      /\b(at (?:most|least)|above|below) (-?\d+(?:\.\d+)?(?:e[+-]?\d+)?)(?: ?[^\s,;.]*\/[^\s,;.]*)?/,
+      (_all, words: string, n: string) =>
+        `${words} ${Number((Number(n) / factor).toPrecision(6)).toLocaleString("en")} ${unit}`,
+    );
+  } else if (siUnit) {
+    rest = rest.replace(
+      /\b(at (?:most|least)) (-?\d+(?:\.\d+)?(?:e[+-]?\d+)?)$/,
+      (_all, words: string, n: string) => `${words} ${formatQuantity(Number(n), siUnit)}`,
+    );
+  }
+  return `${field.label} ${rest}`;
 }

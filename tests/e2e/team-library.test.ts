@@ -117,8 +117,8 @@ describe("team library and invitations in the browser", () => {
     await page.getByLabel("Headroom to V− (V)").fill("10m");
     await page.getByLabel("Input offset (V)").fill("-3");
     await page.getByRole("button", { name: "Save" }).click();
-    // The form names the field and keeps the dialog open.
-    await page.getByText("inputOffset must be within ±1 V").waitFor();
+    // The form names the field by its label (not the contract's "inputOffset") and keeps the dialog open.
+    await page.getByText("Input offset must be within ±1 V").waitFor();
     await page.getByLabel("Input offset (V)").fill("3m");
     await page.getByRole("button", { name: "Save" }).click();
     const part = page
