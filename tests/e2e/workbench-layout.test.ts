@@ -7,6 +7,7 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import { launchBrowser, signInPage, SCREENSHOT_DIR } from "../helpers/browser";
 import { signIn, startServer, type TestServer } from "../helpers/server";
+import { clipped, cutSelects } from "./layout-probes";
 
 const DESIGNER = "designer@fjordline.example";
 const PASSWORD = "railwise-demo";
@@ -33,49 +34,6 @@ afterAll(async () => {
   await browser?.close();
   await server?.stop();
 });
-
-/** Text elements inside `root` whose content is wider than their box (cut off or ellipsised). */
-async function clipped(page: Page, selector: string): Promise<string[]> {
-  return page.evaluate((sel) => {
-    const out: string[] = [];
-    for (const root of Array.from(document.querySelectorAll(sel))) {
-      for (const el of Array.from(
-        root.querySelectorAll<HTMLElement>("span, td, th, label, p, h2, h3, option, button, a"),
-      )) {
-        if (el.offsetParent === null) continue; // hidden
-        const cs = getComputedStyle(el);
-        const clips = cs.overflowX === "hidden" || cs.overflowX === "clip" || cs.textOverflow === "ellipsis";
-        if (!clips) continue;
-        if (el.scrollWidth > el.clientWidth + 1 && (el.textContent ?? "").trim())
-          out.push(
-            `${el.tagName.toLowerCase()}: "${(el.textContent ?? "").trim().slice(0, 60)}" (${el.scrollWidth} > ${el.clientWidth})`,
-          );
-      }
-    }
-    return out;
-  }, selector);
-}
-
-/** Drop-down lists inside `root` whose chosen option's words are wider than the list shows. */
-async function cutSelects(page: Page, selector: string): Promise<string[]> {
-  return page.evaluate((sel) => {
-    const out: string[] = [];
-    const ctx = document.createElement("canvas").getContext("2d")!;
-    for (const root of Array.from(document.querySelectorAll(sel))) {
-      for (const el of Array.from(root.querySelectorAll<HTMLSelectElement>("select"))) {
-        if (el.offsetParent === null) continue;
-        const text = el.selectedOptions[0]?.text ?? "";
-        const cs = getComputedStyle(el);
-        ctx.font = `${cs.fontWeight} ${cs.fontSize} ${cs.fontFamily}`;
-        // The box minus its padding and the arrow (about 20 px in Chromium).
-        const room = el.clientWidth - parseFloat(cs.paddingLeft) - parseFloat(cs.paddingRight) - 20;
-        if (ctx.measureText(text).width > room + 1)
-          out.push(`select: "${text}" (${Math.round(ctx.measureText(text).width)} > ${Math.round(room)})`);
-      }
-    }
-    return out;
-  }, selector);
-}
 
 async function shot(page: Page, name: string, selector: string) {
   const el = page.locator(selector).first();
