@@ -48,7 +48,24 @@ export function simulate(asBuilt: Scenario, options: SimOptions = {}): SimResult
   const scenario = circuit.scenario;
   const solverName: SolverName = options.solver ?? scenario.run.solver ?? "exact";
   const duration = scenario.run.duration;
-  const signal = new InputSignal(scenario, duration);
+  // The signal lives only inside this call, so its noise knots go back for the next run.
+  const signal = new InputSignal(scenario, duration, true);
+  try {
+    return simulateWith(circuit, scenario, signal, solverName, options, started);
+  } finally {
+    signal.release();
+  }
+}
+
+function simulateWith(
+  circuit: ReturnType<typeof lowerCircuit>,
+  scenario: Scenario,
+  signal: InputSignal,
+  solverName: SolverName,
+  options: SimOptions,
+  started: number,
+): SimResult {
+  const duration = scenario.run.duration;
   const plainNet = buildNetwork(scenario);
   const net = circuit.filter ? withFilter(plainNet, scenario, circuit.filter) : plainNet;
   const rails = outputLimits(scenario);

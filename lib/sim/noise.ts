@@ -175,10 +175,38 @@ export function noiseSegmentCount(noise: Noise, duration: number): number {
   return Math.max(1, Math.ceil(duration / noiseInterval(noise) - 1e-9));
 }
 
-/** Noise knot values (volts) covering [0, duration]: segments + 1 knots, scaled by rms. */
-export function noiseKnots(noise: Noise, duration: number): Float64Array {
-  const knots = fillStandardNormal(new Float64Array(noiseSegmentCount(noise, duration) + 1), noise.seed);
+/**
+ * The knot buffer a finished run gave back (releaseKnots), for the next run to fill again: a
+ * million-segment run needs 8 MB, and a new buffer per run makes the engine collect garbage
+ * for the memory outside its heap. Held weakly, so an idle process keeps nothing: the
+ * collector may take it whenever it runs, and a run then allocates a new one.
+ */
+let spareKnots: WeakRef<Float64Array> | null = null;
+
+/**
+ * Noise knot values (volts) covering [0, duration]: segments + 1 knots, scaled by rms. With
+ * `reuse`, the values go into the buffer a finished run released, when there is one large
+ * enough; the caller then owns it until it calls releaseKnots (no two runs share one).
+ */
+export function noiseKnots(noise: Noise, duration: number, reuse = false): Float64Array {
+  const n = noiseSegmentCount(noise, duration) + 1;
+  let knots: Float64Array | null = null;
+  if (reuse) {
+    const spare = spareKnots?.deref();
+    if (spare !== undefined && spare.length >= n) {
+      knots = spare.length === n ? spare : spare.subarray(0, n);
+      spareKnots = null;
+    }
+  }
+  knots = fillStandardNormal(knots ?? new Float64Array(n), noise.seed);
   const rms = noise.rms;
   for (let i = 0; i < knots.length; i++) knots[i] *= rms;
   return knots;
+}
+
+/** Give a run's knot buffer back for the next run (the caller must not read it afterwards). */
+export function releaseKnots(knots: Float64Array): void {
+  const whole = knots.byteLength === knots.buffer.byteLength ? knots : new Float64Array(knots.buffer);
+  const spare = spareKnots?.deref();
+  if (spare === undefined || spare.length < whole.length) spareKnots = new WeakRef(whole);
 }

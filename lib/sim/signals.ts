@@ -10,7 +10,7 @@
 // Pulse duty: the high part runs from the start of the rise to the start of the fall and lasts
 // duty·period (so with rise = fall the duty is also the share of time above half amplitude).
 import type { InputComponent, Scenario } from "@/lib/schemas/scenario";
-import { noiseInterval, noiseKnots } from "./noise";
+import { noiseInterval, noiseKnots, releaseKnots } from "./noise";
 
 type Compiled =
   | { kind: "const"; level: number }
@@ -101,7 +101,11 @@ export class InputSignal {
   value = 0;
   slope = 0;
 
-  constructor(scenario: Scenario, duration: number) {
+  /**
+   * `reuseNoise`: fill a knot buffer an earlier run released (noise.ts), for a caller that
+   * calls `release()` once it is done with this signal.
+   */
+  constructor(scenario: Scenario, duration: number, reuseNoise = false) {
     const comps = scenario.input.components;
     this.parts = comps.map(compile);
     const sines = comps.filter((c) => c.kind === "sine");
@@ -116,12 +120,17 @@ export class InputSignal {
     this.longestPeriod = longest;
     const noise = scenario.input.noise;
     if (noise && noise.rms > 0) {
-      this.noise = noiseKnots(noise, duration);
+      this.noise = noiseKnots(noise, duration, reuseNoise);
       this.noiseDt = noiseInterval(noise);
     } else {
       this.noise = null;
       this.noiseDt = Infinity;
     }
+  }
+
+  /** Hand the noise knots back for the next run; this signal must not be read afterwards. */
+  release(): void {
+    if (this.noise !== null) releaseKnots(this.noise);
   }
 
   // Cache of the non-noise part: affine on [partsFrom, partsTo) through (partsRefT, partsRefV).

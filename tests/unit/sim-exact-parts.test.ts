@@ -2,7 +2,7 @@
 // closed form of a piece (lib/sim/exact/).
 import { describe, expect, it } from "vitest";
 import { Basis, SLOT_E1, SLOT_E2, SLOT_ONE, SLOT_SINES, SLOT_TAU, solveScalar } from "@/lib/sim/exact/basis";
-import { bracketRoot, ulp } from "@/lib/sim/exact/bracket";
+import { BRACKET_B, bracketRoot, ulp, type Evaluator } from "@/lib/sim/exact/bracket";
 import { PieceModel } from "@/lib/sim/exact/pieces";
 import { Scanner } from "@/lib/sim/exact/scan";
 import { Recorder } from "@/lib/sim/measure";
@@ -19,6 +19,12 @@ import {
 import type { Network } from "@/lib/sim/network";
 
 describe("bracketRoot", () => {
+  /** The root of c on [a, b] (values ga, gb at the ends), through the typed-array bracket. */
+  const rootOf = (f: Evaluator, c: Float64Array, a: number, b: number, ga: number, gb: number, t0: number) => {
+    const bracket = Float64Array.of(a, b, ga, gb);
+    bracketRoot(f, c, t0, bracket);
+    return bracket[BRACKET_B];
+  };
   const basisOf = (omega: number[]) => new Basis(Float64Array.from(omega));
 
   it("finds the zero of cos at π/2 to the time resolution, from the far side", () => {
@@ -26,7 +32,7 @@ describe("bracketRoot", () => {
     const b = basisOf([1]);
     const c = new Float64Array(b.size);
     c[SLOT_SINES + 1] = 1;
-    const root = bracketRoot(b, c, 0, 3, 1, Math.cos(3), 0);
+    const root = rootOf(b, c, 0, 3, 1, Math.cos(3), 0);
     expect(Math.cos(root)).toBeLessThan(0); // on b's side
     expect(Math.abs(root - Math.PI / 2)).toBeLessThanOrEqual(4 * ulp(Math.PI / 2));
   });
@@ -38,11 +44,11 @@ describe("bracketRoot", () => {
     const c = new Float64Array(b.size);
     c[SLOT_ONE] = -2;
     c[SLOT_E1] = 1;
-    const up = bracketRoot(b, c, 0, 2, -1, Math.exp(2) - 2, 0);
+    const up = rootOf(b, c, 0, 2, -1, Math.exp(2) - 2, 0);
     expect(Math.abs(up - Math.LN2)).toBeLessThanOrEqual(4 * ulp(Math.LN2));
     expect(b.valueAt(c, up)).toBeGreaterThanOrEqual(0);
     const neg = Float64Array.from(c, (v) => -v);
-    const down = bracketRoot(b, neg, 0, 2, 1, 2 - Math.exp(2), 0);
+    const down = rootOf(b, neg, 0, 2, 1, 2 - Math.exp(2), 0);
     expect(Math.abs(down - Math.LN2)).toBeLessThanOrEqual(4 * ulp(Math.LN2));
     expect(b.valueAt(neg, down)).toBeLessThan(0);
   });
@@ -53,7 +59,7 @@ describe("bracketRoot", () => {
     const c = new Float64Array(b.size);
     c[SLOT_ONE] = -1e-9;
     c[SLOT_TAU] = 1; // zero at τ = 1e-9
-    const root = bracketRoot(b, c, 0, 1, -1e-9, 1 - 1e-9, 1000);
+    const root = rootOf(b, c, 0, 1, -1e-9, 1 - 1e-9, 1000);
     expect(root).toBeGreaterThanOrEqual(1e-9);
     expect(root - 1e-9).toBeLessThanOrEqual(4 * ulp(1001));
   });

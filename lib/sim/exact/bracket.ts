@@ -8,24 +8,36 @@ export interface Evaluator {
 /** Spacing of doubles near x (at least the smallest subnormal). */
 export const ulp = (x: number): number => Math.max(Math.abs(x) * 2.220446049250313e-16, 5e-324);
 
+/** Slots of a bracket: its ends a < b and the values there, on different sides (≥ 0 or not). */
+export const BRACKET_A = 0;
+export const BRACKET_B = 1;
+export const BRACKET_GA = 2;
+export const BRACKET_GB = 3;
+
+/** A bracket's four numbers in a typed array (the callers each keep one). */
+export const newBracket = (): Float64Array => new Float64Array(4);
+
 /**
- * Sign change of c inside [a, b], where ga = c(a) and gb = c(b) lie on different sides
- * (side = value ≥ 0). Narrows the bracket until it is two time resolutions wide at the absolute
- * time t0 + b and returns its far end: the first point found on b's side of the crossing.
+ * Sign change of c inside the bracket [a, b] (slots above). Narrows it in place until it is two
+ * time resolutions wide at the absolute time t0 + b; the root is then `bracket[BRACKET_B]`, the
+ * first point found on b's side of the crossing.
+ *
+ * The numbers go in and out through the typed array because of how V8 compiles this loop: a
+ * double passed to or returned from a call that is not inlined is boxed into a new heap number,
+ * and a loop variable that the function returns is boxed on every iteration (with the four
+ * ends as arguments this took about 500 bytes per call, the garbage collections of a noisy run).
+ * Read from and written to a Float64Array, they stay plain doubles.
  */
-export function bracketRoot(
-  f: Evaluator,
-  c: Float64Array,
-  a: number,
-  b: number,
-  ga: number,
-  gb: number,
-  t0: number,
-): number {
+export function bracketRoot(f: Evaluator, c: Float64Array, t0: number, bracket: Float64Array): void {
+  let a = bracket[BRACKET_A];
+  let b = bracket[BRACKET_B];
+  let ga = bracket[BRACKET_GA];
+  let gb = bracket[BRACKET_GB];
+  const time = +t0; // unary plus: a plain double inside the loop, whatever the caller passed
   const sideB = gb >= 0;
   let stuck = 0; // +1: a moved last, −1: b moved last
   for (let it = 0; it < 200; it++) {
-    if (b - a <= 2 * ulp(t0 + b) || b - a <= 1e-300) break;
+    if (b - a <= 2 * ulp(time + b) || b - a <= 1e-300) break;
     let x = (a * gb - b * ga) / (gb - ga);
     if (!(x > a && x < b) || it % 4 === 3) x = 0.5 * (a + b);
     const gx = f.valueAt(c, x);
@@ -41,5 +53,8 @@ export function bracketRoot(
       stuck = 1;
     }
   }
-  return b;
+  bracket[BRACKET_A] = a;
+  bracket[BRACKET_B] = b;
+  bracket[BRACKET_GA] = ga;
+  bracket[BRACKET_GB] = gb;
 }

@@ -7,7 +7,7 @@
 // monotone, and halved otherwise. No fixed chunk can miss a hump between two samples, and a
 // piece far from the level costs one evaluation.
 import { SLOT_E1, SLOT_E2, SLOT_SINES, SLOT_TAU, type Basis } from "./basis";
-import { bracketRoot, ulp } from "./bracket";
+import { BRACKET_A, BRACKET_B, BRACKET_GA, BRACKET_GB, bracketRoot, newBracket, ulp } from "./bracket";
 import type { Recorder } from "../measure";
 
 /** Deepest halving of one interval in the bounded walk (2⁻⁶⁰ of a piece is below any time resolution). */
@@ -26,6 +26,8 @@ export class Scanner {
   private readonly slope: Float64Array;
   /** Points of the walk: the left end at 0, pending right ends stacked above it (top = depth). */
   private readonly points = new Float64Array(POINT * (MAX_DEPTH + 2));
+  /** The bracket handed to bracketRoot (numbers in a typed array, not arguments: see there). */
+  private readonly bracket = newBracket();
   private depth = 0;
   /** |c''| factors: of E1 (a complex pair: of the pair), of E2, and of the sines together. */
   private curvE1 = 0;
@@ -44,6 +46,17 @@ export class Scanner {
 
   valueAt(c: Float64Array, tau: number): number {
     return this.basis.valueAt(c, tau);
+  }
+
+  /** bracketRoot on [a, b] (small enough for V8 to inline, so its numbers are never boxed). */
+  private root(c: Float64Array, a: number, b: number, ga: number, gb: number, t0: number): number {
+    const B = this.bracket;
+    B[BRACKET_A] = a;
+    B[BRACKET_B] = b;
+    B[BRACKET_GA] = ga;
+    B[BRACKET_GB] = gb;
+    bracketRoot(this, c, t0, B);
+    return B[BRACKET_B];
   }
 
   /**
@@ -97,7 +110,8 @@ export class Scanner {
     let ga = Math.min(this.basis.valueAtStart(c), -Number.MIN_VALUE);
     if (!(ga < 0)) ga = -Number.MIN_VALUE;
     if (chunk === 0) {
-      this.startWalk(c, 0, ga);
+      this.startWalk(c, 0);
+      this.points[1] = ga;
       return this.walk(c, tMax, t0, false, FIRST_EXIT, 0, null, null);
     }
     const ext = chunk === Infinity ? this.basis.extremum(c, tMax) : NaN;
@@ -105,7 +119,7 @@ export class Scanner {
     while (a < tMax) {
       const b = this.nextPoint(c, a, chunk, ext, tMax);
       const gb = this.valueAt(c, b);
-      if (gb >= 0) return bracketRoot(this, c, a, b, ga, gb, t0);
+      if (gb >= 0) return this.root(c, a, b, ga, gb, t0);
       a = b;
       ga = gb;
     }
@@ -121,7 +135,8 @@ export class Scanner {
     if (chunk === 0) {
       // The start counts on its given side (a value across by rounding is not a crossing).
       const g0 = this.basis.valueAtStart(c);
-      this.startWalk(c, 0, side ? (g0 >= 0 ? g0 : 0) : g0 < 0 ? g0 : -Number.MIN_VALUE);
+      this.startWalk(c, 0);
+      this.points[1] = side ? (g0 >= 0 ? g0 : 0) : g0 < 0 ? g0 : -Number.MIN_VALUE;
       this.walk(c, tEnd, t0, side, CROSSINGS, monitor, recorder, null);
       return this.walkSide;
     }
@@ -134,7 +149,7 @@ export class Scanner {
       const sb = gb >= 0;
       if (sb !== side) {
         if (Number.isNaN(ga)) ga = this.valueAt(c, a);
-        const root = ga >= 0 === sb ? a : bracketRoot(this, c, a, b, ga, gb, t0);
+        const root = ga >= 0 === sb ? a : this.root(c, a, b, ga, gb, t0);
         recorder.push(t0 + root, monitor, sb);
         side = sb;
       }
@@ -156,7 +171,7 @@ export class Scanner {
     // The extrema are the sign changes of the derivative, found by the bounded walk.
     const D = scratch;
     basis.derivative(c, D);
-    this.startWalk(D, tMin, NaN);
+    this.startWalk(D, tMin);
     this.walkBest = best;
     this.walk(D, tMax, t0, this.points[1] >= 0, EXTREMA, 0, null, c);
     return this.walkBest;
@@ -172,7 +187,7 @@ export class Scanner {
    * the interval's larger end (a complex pair: |A + iB|·(μ² + ν²)·e^{μτ}) and the sines'
    * |A_j|·ω_j², common practice, no source.
    */
-  private startWalk(c: Float64Array, tau: number, value: number): void {
+  private startWalk(c: Float64Array, tau: number): void {
     const basis = this.basis;
     basis.derivative(c, this.slope);
     if (basis.complex) {
@@ -196,14 +211,11 @@ export class Scanner {
     if (tau === 0) {
       // τ = 0 needs no evaluation: every exponential is 1 there.
       P[0] = 0;
-      P[1] = Number.isNaN(value) ? basis.valueAtStart(c) : value;
+      P[1] = basis.valueAtStart(c);
       P[2] = basis.valueAtStart(this.slope);
       P[3] = this.curvE1;
       P[4] = this.curvE2;
-    } else {
-      this.setPoint(0, tau, c);
-      if (!Number.isNaN(value)) P[1] = value;
-    }
+    } else this.setPoint(0, tau, c);
   }
 
   /** Evaluate c at τ into point k. */
@@ -293,7 +305,7 @@ export class Scanner {
         const ga = P[1];
         const gb = P[o + 1];
         const sb = gb >= 0;
-        const root = ga >= 0 === sb ? a : bracketRoot(this, c, a, b, ga, gb, t0);
+        const root = ga >= 0 === sb ? a : this.root(c, a, b, ga, gb, t0);
         if (mode === FIRST_EXIT) return root;
         if (mode === CROSSINGS) recorder!.push(t0 + root, monitor, sb);
         else this.walkBest = Math.max(this.walkBest, Math.abs(this.valueAt(target!, root)));
