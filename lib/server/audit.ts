@@ -1,9 +1,10 @@
 import "server-only";
 // Audit log of membership, link, sign-off and delete actions (readable by the owner).
-import type { Transaction } from "sequelize";
+import type { Model, Transaction } from "sequelize";
 import { Op } from "sequelize";
-import { getModels } from "@/models";
+import { getModels, getSequelize } from "@/models";
 import type { AuditJson } from "@/lib/schemas/responses";
+import { notFound } from "./errors";
 export type { AuditJson };
 
 export interface AuditEntry {
@@ -27,6 +28,38 @@ export async function recordAudit(entry: AuditEntry, transaction?: Transaction):
     },
     { transaction },
   );
+}
+
+/**
+ * Deletes one row of a team and records it, in one transaction: `find` reads the row (null when
+ * it is not the team's, answered 404 "No such <what> in your team."), `details` names it in the
+ * audit log so the entry survives the row. Foreign keys cascade to what the row owns.
+ */
+export async function deleteAudited<R extends Model>({
+  find,
+  what,
+  action,
+  targetType,
+  id,
+  teamId,
+  actorId,
+  details,
+}: {
+  find: (transaction: Transaction) => Promise<R | null> | null;
+  what: string;
+  action: string;
+  targetType: string;
+  id: string;
+  teamId: string;
+  actorId: string;
+  details: (row: R) => Record<string, unknown>;
+}): Promise<void> {
+  await getSequelize().transaction(async (transaction) => {
+    const row = await find(transaction);
+    if (!row) throw notFound(`No such ${what} in your team.`);
+    await row.destroy({ transaction });
+    await recordAudit({ teamId, actorId, action, targetType, targetId: id, details: details(row) }, transaction);
+  });
 }
 
 export async function listAudit({ teamId, limit = 200 }: { teamId: string; limit?: number }): Promise<AuditJson[]> {

@@ -4,7 +4,7 @@ import { getModels, getSequelize } from "@/models";
 import { selectPrepared } from "@/models/prepared";
 import type { BoardCreate, BoardPatch } from "@/lib/schemas/api";
 import type { BoardJson } from "@/lib/schemas/responses";
-import { recordAudit } from "./audit";
+import { deleteAudited, recordAudit } from "./audit";
 import { notFound } from "./errors";
 import { isId, iso } from "./ids";
 
@@ -125,13 +125,14 @@ export async function deleteBoard({
   teamId: string;
   actorId: string;
 }): Promise<void> {
-  await getSequelize().transaction(async (transaction) => {
-    const row = isId(id) ? await getModels().Board.findOne({ where: { id, teamId }, transaction }) : null;
-    if (!row) throw notFound("No such board in your team.");
-    await row.destroy({ transaction });
-    await recordAudit(
-      { teamId, actorId, action: "board.deleted", targetType: "board", targetId: id, details: { name: row.name } },
-      transaction,
-    );
+  await deleteAudited({
+    id,
+    teamId,
+    actorId,
+    what: "board",
+    action: "board.deleted",
+    targetType: "board",
+    find: (transaction) => (isId(id) ? getModels().Board.findOne({ where: { id, teamId }, transaction }) : null),
+    details: (row) => ({ name: row.name }),
   });
 }

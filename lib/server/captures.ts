@@ -1,8 +1,8 @@
 import "server-only";
-import { getModels, getSequelize } from "@/models";
+import { getModels } from "@/models";
 import { notFound } from "@/lib/server/errors";
 import { isId } from "@/lib/server/ids";
-import { recordAudit } from "@/lib/server/audit";
+import { deleteAudited } from "@/lib/server/audit";
 import type { ParsedCapture } from "@/lib/captures/parse";
 import type { CaptureJson, CaptureSummaryJson } from "@/lib/schemas/responses";
 export type { CaptureJson, CaptureSummaryJson };
@@ -116,15 +116,15 @@ export async function deleteCapture({
   teamId: string;
   actorId: string;
 }): Promise<void> {
-  await getSequelize().transaction(async (transaction) => {
-    const row = isId(id)
-      ? await getModels().Capture.findOne({ where: { id, teamId }, attributes: ["id", "name"], transaction })
-      : null;
-    if (!row) throw notFound("No such capture in your team.");
-    await row.destroy({ transaction });
-    await recordAudit(
-      { teamId, actorId, action: "capture.deleted", targetType: "capture", targetId: id, details: { name: row.name } },
-      transaction,
-    );
+  await deleteAudited({
+    id,
+    teamId,
+    actorId,
+    what: "capture",
+    action: "capture.deleted",
+    targetType: "capture",
+    find: (transaction) =>
+      isId(id) ? getModels().Capture.findOne({ where: { id, teamId }, attributes: ["id", "name"], transaction }) : null,
+    details: (row) => ({ name: row.name }),
   });
 }

@@ -1,12 +1,12 @@
 import "server-only";
 import { UniqueConstraintError } from "sequelize";
 import type { Transaction } from "sequelize";
-import { getModels, getSequelize } from "@/models";
+import { getModels } from "@/models";
 import { byText, withWriteTransaction } from "@/models/transactions";
 import { lockTeam } from "@/lib/server/team";
 import { isId } from "@/lib/server/ids";
 import { conflict, notFound } from "@/lib/server/errors";
-import { recordAudit } from "@/lib/server/audit";
+import { deleteAudited, recordAudit } from "@/lib/server/audit";
 import type { PartProfileInput } from "@/lib/schemas/part";
 import type { OpAmp } from "@/lib/schemas/scenario";
 import type { PartProfileJson } from "@/lib/schemas/responses";
@@ -110,21 +110,15 @@ export async function deletePart({
   teamId: string;
   actorId: string;
 }): Promise<void> {
-  await getSequelize().transaction(async (transaction) => {
-    const row = isId(id) ? await getModels().PartProfile.findOne({ where: { id, teamId }, transaction }) : null;
-    if (!row) throw notFound("No such part profile in your team.");
-    await row.destroy({ transaction });
-    await recordAudit(
-      {
-        teamId,
-        actorId,
-        action: "part.deleted",
-        targetType: "part_profile",
-        targetId: id,
-        details: { name: row.name },
-      },
-      transaction,
-    );
+  await deleteAudited({
+    id,
+    teamId,
+    actorId,
+    what: "part profile",
+    action: "part.deleted",
+    targetType: "part_profile",
+    find: (transaction) => (isId(id) ? getModels().PartProfile.findOne({ where: { id, teamId }, transaction }) : null),
+    details: (row) => ({ name: row.name }),
   });
 }
 

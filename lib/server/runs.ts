@@ -4,8 +4,8 @@ import "server-only";
 // budget and a heap limit) and stores the snapshot, events, metrics and decimated samples.
 // Runs are immutable.
 import type { Scenario } from "@/lib/schemas/scenario";
-import { getModels, getSequelize, type RunRow } from "@/models";
-import { recordAudit } from "./audit";
+import { getModels, type RunRow } from "@/models";
+import { deleteAudited } from "./audit";
 import { notFound } from "./errors";
 import type { RunJson, RunSummaryJson, SavedStudyJson, StoredResultJson } from "@/lib/schemas/responses";
 import { isId, iso, person } from "./ids";
@@ -106,15 +106,15 @@ export async function deleteRun({
   teamId: string;
   actorId: string;
 }): Promise<void> {
-  await getSequelize().transaction(async (transaction) => {
-    const row = isId(id)
-      ? await getModels().Run.findOne({ where: { id, teamId }, attributes: ["id", "label"], transaction })
-      : null;
-    if (!row) throw notFound("No such run in your team.");
-    await row.destroy({ transaction });
-    await recordAudit(
-      { teamId, actorId, action: "run.deleted", targetType: "run", targetId: id, details: { label: row.label } },
-      transaction,
-    );
+  await deleteAudited({
+    id,
+    teamId,
+    actorId,
+    what: "run",
+    action: "run.deleted",
+    targetType: "run",
+    find: (transaction) =>
+      isId(id) ? getModels().Run.findOne({ where: { id, teamId }, attributes: ["id", "label"], transaction }) : null,
+    details: (row) => ({ label: row.label }),
   });
 }

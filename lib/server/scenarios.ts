@@ -7,7 +7,7 @@ import { lockRow, withWriteTransaction } from "@/models/transactions";
 import { selectPrepared } from "@/models/prepared";
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { ScenarioCreate, ScenarioUpdate } from "@/lib/schemas/api";
-import { recordAudit } from "./audit";
+import { deleteAudited } from "./audit";
 import { getBoardRowOrThrow } from "./boards";
 import { conflict, notFound } from "./errors";
 import type {
@@ -249,20 +249,15 @@ export async function deleteScenario({
   teamId: string;
   actorId: string;
 }): Promise<void> {
-  await getSequelize().transaction(async (transaction) => {
-    const row = await scenarioRowOrThrow({ id, teamId, transaction });
-    await row.destroy({ transaction });
-    await recordAudit(
-      {
-        teamId,
-        actorId,
-        action: "scenario.deleted",
-        targetType: "scenario",
-        targetId: id,
-        details: { name: row.name },
-      },
-      transaction,
-    );
+  await deleteAudited({
+    id,
+    teamId,
+    actorId,
+    what: "scenario",
+    action: "scenario.deleted",
+    targetType: "scenario",
+    find: (transaction) => scenarioRowOrThrow({ id, teamId, transaction }),
+    details: (row) => ({ name: row.name }),
   });
 }
 
