@@ -125,7 +125,7 @@ function resolveColumn(ref: ColumnRef, names: string[], field: string, hasHeader
     return index;
   }
   const name = String(ref).trim();
-  const index = names.findIndex((n) => n === name);
+  const index = names.indexOf(name);
   if (index < 0) {
     const known = names.map((n) => `"${n}"`).join(", ");
     throw new CaptureError(

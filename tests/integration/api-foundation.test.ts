@@ -417,7 +417,12 @@ describe("concurrent saves", () => {
         }),
       ),
     );
-    const statuses = await Promise.all(results.map(async (r) => (await r.text(), r.status)));
+    const statuses = await Promise.all(
+      results.map(async (r) => {
+        await r.text();
+        return r.status;
+      }),
+    );
     expect(statuses.filter((s) => s === 200)).toHaveLength(50);
     const versions = (await expectStatus(await as.viewer.fetch(`/api/scenarios/${id}/versions`), 200)) as {
       items: { version: number; name: string }[];
