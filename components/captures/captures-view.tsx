@@ -62,7 +62,7 @@ export function CapturesView({ canEdit }: { canEdit: boolean }) {
             {canEdit ? "Upload a CSV above." : "Designers upload them from the bench."}
           </EmptyState>
         ) : (
-          <Table aria-label="Captures">
+          <Table aria-label="Captures" stack>
             <THead>
               <TR>
                 <TH>Name</TH>
@@ -83,15 +83,21 @@ export function CapturesView({ canEdit }: { canEdit: boolean }) {
                       <div className="text-[12px] font-normal text-ink-faint">{c.sourceFilename}</div>
                     )}
                   </TD>
-                  <TD className="font-mono text-[12px] text-ink-soft">
+                  <TD className="font-mono text-[12px] text-ink-soft" label="Columns">
                     {c.columns.time}, {c.columns.value}
                   </TD>
-                  <TD numeric>{c.points.toLocaleString("en")}</TD>
-                  <TD numeric>{formatQuantity(c.duration, "s")}</TD>
-                  <TD numeric>
+                  <TD numeric label="Points">
+                    {c.points.toLocaleString("en")}
+                  </TD>
+                  <TD numeric label="Duration">
+                    {formatQuantity(c.duration, "s")}
+                  </TD>
+                  <TD numeric label="Range">
                     {formatQuantity(c.min, "V")} … {formatQuantity(c.max, "V")}
                   </TD>
-                  <TD className="text-[12px] text-ink-soft">{formatDate(c.createdAt)}</TD>
+                  <TD className="text-[12px] text-ink-soft" label="Uploaded">
+                    {formatDate(c.createdAt)}
+                  </TD>
                   <TD className="text-right whitespace-nowrap">
                     <Button size="sm" variant="ghost" onClick={() => setOpenId(openId === c.id ? null : c.id)}>
                       {openId === c.id ? "Hide" : "Preview"}

@@ -155,7 +155,7 @@ export function PartsView({ canEdit }: { canEdit: boolean }) {
             {canEdit ? "Add one or import a CSV." : "Designers add them."}
           </EmptyState>
         ) : (
-          <Table aria-label="Part profiles">
+          <Table aria-label="Part profiles" stack>
             <THead>
               <TR>
                 <TH>Name</TH>
@@ -172,20 +172,28 @@ export function PartsView({ canEdit }: { canEdit: boolean }) {
               {items.map((p) => (
                 <TR key={p.id}>
                   <TD className="font-medium">{p.name}</TD>
-                  <TD numeric>{show("openLoopGain", p.opamp.openLoopGain)}</TD>
-                  <TD numeric>{show("gainBandwidth", p.opamp.gainBandwidth)}</TD>
-                  <TD numeric>
+                  <TD numeric label="Gain">
+                    {show("openLoopGain", p.opamp.openLoopGain)}
+                  </TD>
+                  <TD numeric label="GBW">
+                    {show("gainBandwidth", p.opamp.gainBandwidth)}
+                  </TD>
+                  <TD numeric label="Slew">
                     {show("slewRate", p.opamp.slewRate)}
                     {p.opamp.slewRateFall !== undefined && (
                       <span className="text-ink-mute"> / {show("slewRateFall", p.opamp.slewRateFall)}</span>
                     )}
                   </TD>
-                  <TD numeric>
+                  <TD numeric label="Headroom +/−">
                     {show("outputHeadroomHigh", p.opamp.outputHeadroomHigh)} /{" "}
                     {show("outputHeadroomLow", p.opamp.outputHeadroomLow)}
                   </TD>
-                  <TD numeric>{show("inputOffset", p.opamp.inputOffset)}</TD>
-                  <TD numeric>{show("propagationDelay", p.opamp.propagationDelay)}</TD>
+                  <TD numeric label="Offset">
+                    {show("inputOffset", p.opamp.inputOffset)}
+                  </TD>
+                  <TD numeric label="Delay">
+                    {show("propagationDelay", p.opamp.propagationDelay)}
+                  </TD>
                   {canEdit && (
                     <TD className="text-right whitespace-nowrap">
                       <Button size="sm" variant="ghost" onClick={() => setEditing(p)}>

@@ -82,7 +82,7 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
           {members.error ? (
             <p className="p-4 text-[13px] text-alert">{errorMessage(members.error)}</p>
           ) : (
-            <Table aria-label="Members">
+            <Table aria-label="Members" stack>
               <THead>
                 <TR>
                   <TH>Name</TH>
@@ -99,12 +99,14 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
                       {m.name}
                       {m.id === me.id && <span className="ml-1.5 text-[12px] font-normal text-ink-faint">(you)</span>}
                     </TD>
-                    <TD className="text-ink-soft">{m.email}</TD>
-                    <TD>
+                    <TD className="break-all text-ink-soft" label="E-mail">
+                      {m.email}
+                    </TD>
+                    <TD label="Role">
                       {isOwner ? (
                         <Select
                           aria-label={`Role of ${m.name}`}
-                          className="h-7! w-32 py-0 text-[13px]"
+                          className="h-7! w-32 min-w-32 py-0 text-[13px]"
                           value={m.role}
                           disabled={busy !== null}
                           onChange={(e) =>
@@ -123,7 +125,9 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
                         <RoleBadge role={m.role} />
                       )}
                     </TD>
-                    <TD className="font-mono text-[12px] text-ink-soft">{formatDate(m.joinedAt).slice(0, 10)}</TD>
+                    <TD className="font-mono text-[12px] text-ink-soft" label="Joined">
+                      {formatDate(m.joinedAt).slice(0, 10)}
+                    </TD>
                     {isOwner && (
                       <TD className="text-right">
                         <Button
@@ -155,7 +159,7 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
           {(invitations.data?.items ?? []).length === 0 ? (
             <p className="px-4 py-3 text-[13px] text-ink-mute">No invitation is waiting for an answer.</p>
           ) : (
-            <Table aria-label="Pending invitations">
+            <Table aria-label="Pending invitations" stack>
               <THead>
                 <TR>
                   <TH>E-mail</TH>
@@ -169,11 +173,15 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
                 {invitations.data!.items.map((inv) => (
                   <TR key={inv.id}>
                     <TD>{inv.email}</TD>
-                    <TD>
+                    <TD label="Role">
                       <RoleBadge role={inv.role} />
                     </TD>
-                    <TD className="font-mono text-[12px] text-ink-soft">{formatDate(inv.createdAt)}</TD>
-                    <TD className="font-mono text-[12px] text-ink-soft">{formatDate(inv.expiresAt)}</TD>
+                    <TD className="font-mono text-[12px] text-ink-soft" label="Sent">
+                      {formatDate(inv.createdAt)}
+                    </TD>
+                    <TD className="font-mono text-[12px] text-ink-soft" label="Expires">
+                      {formatDate(inv.expiresAt)}
+                    </TD>
                     <TD className="text-right">
                       <Button
                         size="sm"
@@ -203,7 +211,7 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
           {(audit.data?.items ?? []).length === 0 ? (
             <p className="px-4 py-3 text-[13px] text-ink-mute">Nothing recorded yet.</p>
           ) : (
-            <Table aria-label="Audit log">
+            <Table aria-label="Audit log" stack>
               <THead>
                 <TR>
                   <TH>When</TH>
@@ -217,10 +225,14 @@ export function TeamView({ me, mailboxHref }: TeamViewProps) {
                 {audit.data!.items.map((e) => (
                   <TR key={e.id}>
                     <TD className="whitespace-nowrap font-mono text-[12px] text-ink-soft">{formatDate(e.createdAt)}</TD>
-                    <TD>{e.actorName ?? "(removed account)"}</TD>
-                    <TD>{describeAction(e.action)}</TD>
-                    <TD className="max-w-[22rem] break-words">{describeTarget(e)}</TD>
-                    <TD className="text-ink-soft">{describeDetails(e.details)}</TD>
+                    <TD label="Who">{e.actorName ?? "(removed account)"}</TD>
+                    <TD label="What">{describeAction(e.action)}</TD>
+                    <TD className="max-w-[22rem] break-words" label="About">
+                      {describeTarget(e)}
+                    </TD>
+                    <TD className="text-ink-soft" label="Details">
+                      {describeDetails(e.details)}
+                    </TD>
                   </TR>
                 ))}
               </TBody>

@@ -2,11 +2,15 @@ import type { ComponentProps, ReactNode } from "react";
 import { cx } from "./cx";
 import { contentKeys } from "@/lib/workbench/row-ids";
 
-/** Scrolls sideways on narrow screens instead of squeezing columns. */
-export function Table({ className, children, ...rest }: ComponentProps<"table">) {
+/**
+ * Scrolls sideways on narrow screens instead of squeezing columns; with `stack`, each row becomes
+ * a block on a phone instead (first cell as its title, the others as "label … value" lines, the
+ * label from each TD's `label`; app/globals.css .rw-stack).
+ */
+export function Table({ className, children, stack, ...rest }: ComponentProps<"table"> & { stack?: boolean }) {
   return (
     <div className="w-full overflow-x-auto">
-      <table className={cx("w-full border-collapse text-left text-[13px]", className)} {...rest}>
+      <table className={cx("w-full border-collapse text-left text-[13px]", stack && "rw-stack", className)} {...rest}>
         {children}
       </table>
     </div>
@@ -41,8 +45,20 @@ export function TH({ numeric, className, ...rest }: ComponentProps<"th"> & CellE
   );
 }
 
-export function TD({ numeric, className, ...rest }: ComponentProps<"td"> & CellExtras) {
-  return <td className={cx("px-3 py-2", numeric && "text-right font-mono whitespace-nowrap", className)} {...rest} />;
+export function TD({
+  numeric,
+  label,
+  className,
+  ...rest
+}: ComponentProps<"td"> &
+  CellExtras & { /** The column's heading, shown beside the value when a `stack` table stacks. */ label?: string }) {
+  return (
+    <td
+      data-label={label}
+      className={cx("px-3 py-2", numeric && "text-right font-mono whitespace-nowrap", className)}
+      {...rest}
+    />
+  );
 }
 
 export interface KeyValueRow {
