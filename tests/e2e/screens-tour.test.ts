@@ -10,7 +10,7 @@ import { launchBrowser, screenshot, signInPage, SCREENSHOT_DIR } from "../helper
 import { signIn, startServer, type TestServer } from "../helpers/server";
 import { EMAILS, createRun, firstScenarioId } from "../helpers/team";
 import { DEMO_PASSWORD } from "@/lib/demo/accounts";
-import { clipped, contentEdges, gridHoles, sidewaysOverflow, spanOfChildren } from "./layout-probes";
+import { clipped, contentEdges, cutSelects, gridHoles, sidewaysOverflow, spanOfChildren } from "./layout-probes";
 
 let server: TestServer;
 let browser: Browser;
@@ -29,6 +29,27 @@ beforeAll(async () => {
   const link = await designer.fetch(`/api/runs/${runId}/links`, { method: "POST", body: "{}" });
   expect(link.status).toBe(201);
   linkToken = ((await link.json()) as { token: string }).token;
+  // Something in every list: a review request (the queue), a comment, a pending invitation.
+  const members = (await (await designer.fetch("/api/team/members")).json()) as {
+    items: { id: string; role: string }[];
+  };
+  const reviewer = members.items.find((m) => m.role === "reviewer")!;
+  const asked = await designer.fetch(`/api/runs/${runId}/review-requests`, {
+    method: "POST",
+    body: JSON.stringify({ reviewerIds: [reviewer.id], note: "Check the lower switching point at the cold end." }),
+  });
+  expect(asked.status).toBe(201);
+  const comment = await designer.fetch(`/api/runs/${runId}/comments`, {
+    method: "POST",
+    body: JSON.stringify({ body: "Deadband looks wide enough for the 4 mV rms noise we measured at the pen." }),
+  });
+  expect(comment.status).toBe(201);
+  const owner = await signIn(server.url, EMAILS.owner, DEMO_PASSWORD);
+  const invited = await owner.fetch("/api/team/invitations", {
+    method: "POST",
+    body: JSON.stringify({ email: "kari.strand@fjordline.example", role: "reviewer" }),
+  });
+  expect(invited.status).toBe(201);
 });
 
 afterAll(async () => {
@@ -124,6 +145,7 @@ describe("every screen at three widths and four roles", () => {
             const misaligned = await headerMisalignment(page);
             if (misaligned) problems.push(`${tag}: ${misaligned}`);
             problems.push(...(await clipped(page, "body")).map((p) => `${tag}: ${p}`));
+            problems.push(...(await cutSelects(page, "main")).map((p) => `${tag}: ${p}`));
             if (s.name === "run") problems.push(...(await gridHoles(page, "main")).map((p) => `${tag}: ${p}`));
             if (s.name === "scenario" && (role === "owner" || role === "designer"))
               problems.push(...(await historySnapshot(page, `${role}-${width}`)).map((p) => `${tag}: ${p}`));
