@@ -21,8 +21,8 @@ import type { Network } from "@/lib/sim/network";
 describe("bracketRoot", () => {
   /** The root of c on [a, b] (values ga, gb at the ends), through the typed-array bracket. */
   const rootOf = (f: Evaluator, c: Float64Array, a: number, b: number, ga: number, gb: number, t0: number) => {
-    const bracket = Float64Array.of(a, b, ga, gb);
-    bracketRoot(f, c, t0, bracket);
+    const bracket = Float64Array.of(a, b, ga, gb, t0);
+    bracketRoot(f, c, bracket);
     return bracket[BRACKET_B];
   };
   const basisOf = (omega: number[]) => new Basis(Float64Array.from(omega));
@@ -100,12 +100,14 @@ describe("Scanner (bounded walk)", () => {
     expect(b.valueAt(c, 0)).toBeLessThan(0);
     expect(b.valueAt(c, 1)).toBeLessThan(0);
     const scan = new Scanner(b);
-    const exit = scan.firstExit(c, 1, 0);
-    expect(Math.abs(exit - truth[0])).toBeLessThan(1e-5);
+    scan.start = 0;
+    scan.span = 1;
+    scan.firstExit(c);
+    expect(Math.abs(scan.exit - truth[0])).toBeLessThan(1e-5);
     const pushed: number[] = [];
     const spy = new Recorder({ high: 1, low: 0 }, { valueAt: () => 0 } as never, 0);
     spy.push = (time: number) => void pushed.push(time);
-    expect(scan.crossings(c, 0, false, 1, 0, spy)).toBe(false);
+    expect(scan.crossings(c, 0, false, spy)).toBe(false);
     expect(pushed.length).toBe(2);
     expect(Math.abs(pushed[0] - truth[0])).toBeLessThan(1e-5);
     expect(Math.abs(pushed[1] - truth[1])).toBeLessThan(1e-5);
@@ -116,7 +118,10 @@ describe("Scanner (bounded walk)", () => {
     c[SLOT_ONE] -= 10; // now more than 9.9 below 0 everywhere (the hump's top is a few mV)
     const scan = new Scanner(b);
     const before = b.evaluations;
-    expect(Number.isNaN(scan.firstExit(c, 0.01, 0))).toBe(true);
+    scan.start = 0;
+    scan.span = 0.01;
+    scan.firstExit(c);
+    expect(Number.isNaN(scan.exit)).toBe(true);
     expect(b.evaluations - before).toBe(1);
   });
 });

@@ -8,14 +8,18 @@ export interface Evaluator {
 /** Spacing of doubles near x (at least the smallest subnormal). */
 export const ulp = (x: number): number => Math.max(Math.abs(x) * 2.220446049250313e-16, 5e-324);
 
-/** Slots of a bracket: its ends a < b and the values there, on different sides (≥ 0 or not). */
+/**
+ * Slots of a bracket: its ends a < b and the values there, on different sides (≥ 0 or not),
+ * and the absolute time t0 at τ = 0 (which sets the time resolution).
+ */
 export const BRACKET_A = 0;
 export const BRACKET_B = 1;
 export const BRACKET_GA = 2;
 export const BRACKET_GB = 3;
+export const BRACKET_T0 = 4;
 
-/** A bracket's four numbers in a typed array (the callers each keep one). */
-export const newBracket = (): Float64Array => new Float64Array(4);
+/** A bracket's numbers in a typed array (the callers each keep one). */
+export const newBracket = (): Float64Array => new Float64Array(5);
 
 /**
  * Sign change of c inside the bracket [a, b] (slots above). Narrows it in place until it is two
@@ -28,12 +32,12 @@ export const newBracket = (): Float64Array => new Float64Array(4);
  * ends as arguments this took about 500 bytes per call, the garbage collections of a noisy run).
  * Read from and written to a Float64Array, they stay plain doubles.
  */
-export function bracketRoot(f: Evaluator, c: Float64Array, t0: number, bracket: Float64Array): void {
+export function bracketRoot(f: Evaluator, c: Float64Array, bracket: Float64Array): void {
   let a = bracket[BRACKET_A];
   let b = bracket[BRACKET_B];
   let ga = bracket[BRACKET_GA];
   let gb = bracket[BRACKET_GB];
-  const time = +t0; // unary plus: a plain double inside the loop, whatever the caller passed
+  const time = bracket[BRACKET_T0];
   const sideB = gb >= 0;
   let stuck = 0; // +1: a moved last, −1: b moved last
   for (let it = 0; it < 200; it++) {

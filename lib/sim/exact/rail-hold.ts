@@ -140,8 +140,14 @@ function stepKnots(
   return k;
 }
 
-/** Hold the output at the rail from t; returns the time reached (the caller goes on from there). */
-export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
+/**
+ * Hold the output at the rail from s.t; leaves the time reached in s.t (the caller goes on from
+ * there). The time comes and goes through the field, and the loop's time starts from it
+ * through unary plus: a loop variable first set from an argument may stay a tagged value in
+ * V8's optimised code, and one that the function returns is boxed on every pass of the loop.
+ */
+export function holdAtRail(s: ExactSolver, high: boolean): void {
+  let t = +s.t;
   const p = s.p;
   const m = s.model;
   const T = p.duration;
@@ -166,7 +172,8 @@ export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
       // Knot-stepping: between noise knots the rest of the input is affine (plus the sines),
       // so checking vd at each knot is the whole test. Stops at the first knot that fails, at a
       // breakpoint of the other components, or at the end.
-      s.pieceEnd(t, T); // validates the cache of the other components at t
+      s.t = t;
+      s.pieceEnd(); // validates the cache of the other components at t
       const dt = sig.noiseDt;
       const margin = (curvature * dt * dt) / 8;
       const v0 = alpha * m.inputAtStart() + c0;
@@ -187,7 +194,9 @@ export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
     // One piece by its own check: the whole hold without noise; with noise the piece across a
     // breakpoint of the other components, after which the knot stepping resumes (a knot that
     // failed there fails this stricter check too, and the hold ends).
-    let tb = s.pieceEnd(t, T);
+    s.t = t;
+    s.pieceEnd();
+    let tb = s.tb;
     if (sineCount > 0) tb = Math.min(tb, t + s.scan.chunkSine);
     const h = tb - t;
     let u0 = U[SLOT_ONE];
@@ -205,5 +214,5 @@ export function holdAtRail(s: ExactSolver, t: number, high: boolean): number {
     if ((++s.steps & 1023) === 0) s.checkIn(t);
   }
   p.recorder.clippedTime += held;
-  return t;
+  s.t = t;
 }

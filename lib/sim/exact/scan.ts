@@ -7,13 +7,16 @@
 // monotone, and halved otherwise. No fixed chunk can miss a hump between two samples, and a
 // piece far from the level costs one evaluation.
 import { SLOT_E1, SLOT_E2, SLOT_SINES, SLOT_TAU, type Basis } from "./basis";
-import { BRACKET_A, BRACKET_B, BRACKET_GA, BRACKET_GB, bracketRoot, newBracket, ulp } from "./bracket";
+import { BRACKET_A, BRACKET_B, BRACKET_GA, BRACKET_GB, BRACKET_T0, bracketRoot, newBracket, ulp } from "./bracket";
 import type { Recorder } from "../measure";
 
 /** Deepest halving of one interval in the bounded walk (2⁻⁶⁰ of a piece is below any time resolution). */
 const MAX_DEPTH = 60;
 /** Numbers per point of the walk: τ, value, slope, and the two exponential curvature envelopes. */
 const POINT = 5;
+
+/** A start value at or just past the boundary by rounding, moving inward, counts as inside. */
+const insideStart = (g: number): number => (g < -Number.MIN_VALUE ? g : -Number.MIN_VALUE);
 
 const FIRST_EXIT = 0;
 const CROSSINGS = 1;
@@ -33,9 +36,19 @@ export class Scanner {
   private curvE1 = 0;
   private curvE2 = 0;
   private curvSines = 0;
-  /** Side at the end of the last CROSSINGS walk; largest |target| of the last EXTREMA walk. */
+  /** Side at the end of the last CROSSINGS walk. */
   private walkSide = false;
-  private walkBest = 0;
+
+  /**
+   * The piece searched: its absolute start time `start` and the stretch (0, `span`] searched,
+   * set by the caller before firstExit, crossings and maxAbs. firstExit leaves its answer in
+   * `exit` (NaN when there is none), maxAbs in `best`. Fields, not arguments and results: V8
+   * boxes a double that crosses a call it does not inline (see ExactSolver.t).
+   */
+  start = 0;
+  span = 0;
+  exit = Number.NaN;
+  best = 0;
 
   constructor(private readonly basis: Basis) {
     let wMax = 0;
@@ -49,25 +62,26 @@ export class Scanner {
   }
 
   /** bracketRoot on [a, b] (small enough for V8 to inline, so its numbers are never boxed). */
-  private root(c: Float64Array, a: number, b: number, ga: number, gb: number, t0: number): number {
+  private root(c: Float64Array, a: number, b: number, ga: number, gb: number): number {
     const B = this.bracket;
     B[BRACKET_A] = a;
     B[BRACKET_B] = b;
     B[BRACKET_GA] = ga;
     B[BRACKET_GB] = gb;
-    bracketRoot(this, c, t0, B);
+    B[BRACKET_T0] = this.start;
+    bracketRoot(this, c, B);
     return B[BRACKET_B];
   }
 
   /**
-   * How c is searched over (0, tMax): Infinity when one analytic split suffices, −1 when the
+   * How c is searched over (0, span]: Infinity when one analytic split suffices, −1 when the
    * scan steps from extremum to extremum of a complex pair (each step monotone), 0 for the
    * bounded walk.
    */
-  private chunkFor(c: Float64Array, tMax: number): number {
+  private chunkFor(c: Float64Array): number {
     const basis = this.basis;
     if (this.periodicExtrema(c)) return -1;
-    if (basis.sineCount > 0 || basis.complex || basis.extremum(c, tMax) === -1) return 0;
+    if (basis.sineCount > 0 || basis.complex || basis.extremum(c, this.span) === -1) return 0;
     return Infinity;
   }
 
@@ -93,63 +107,79 @@ export class Scanner {
     return tau;
   }
 
-  private nextPoint(c: Float64Array, a: number, chunk: number, extremum: number, tMax: number): number {
-    if (chunk === -1) return Math.min(tMax, this.nextComplexExtremum(c, a));
-    let b = tMax;
-    if (extremum > a && extremum < b) b = extremum;
-    return b;
+  /**
+   * The next point after a of the searches without the bounded walk (the extremum or the end;
+   * the next extremum of a complex pair) into point 1, with c's value there.
+   */
+  private nextPoint(c: Float64Array, a: number, chunk: number, extremum: number, tMax: number): void {
+    const P = this.points;
+    P[POINT] =
+      chunk === -1 ? Math.min(tMax, this.nextComplexExtremum(c, a)) : extremum > a && extremum < tMax ? extremum : tMax;
+    const basis = this.basis;
+    basis.evaluate(P[POINT]);
+    P[POINT + 1] = basis.dot(c);
   }
 
   /**
-   * First τ in (0, tMax] where c turns ≥ 0, given that the condition does not hold at τ = 0
-   * (the caller decided that from the value and slope at the start); NaN if none.
+   * First τ in (0, span] where c turns ≥ 0, into `exit` (NaN if none), given that the condition
+   * does not hold at τ = 0 (the caller decided that from the value and slope at the start).
    */
-  firstExit(c: Float64Array, tMax: number, t0: number): number {
-    const chunk = this.chunkFor(c, tMax);
-    // At or just past the boundary by rounding, moving inward: count the start as inside.
-    let ga = Math.min(this.basis.valueAtStart(c), -Number.MIN_VALUE);
-    if (!(ga < 0)) ga = -Number.MIN_VALUE;
+  firstExit(c: Float64Array): void {
+    const tMax = this.span;
+    const chunk = this.chunkFor(c);
+    this.exit = Number.NaN;
     if (chunk === 0) {
       this.startWalk(c, 0);
-      this.points[1] = ga;
-      return this.walk(c, tMax, t0, false, FIRST_EXIT, 0, null, null);
+      this.points[1] = insideStart(this.points[1]);
+      this.walk(c, false, FIRST_EXIT, 0, null, null);
+      return;
     }
-    const ext = chunk === Infinity ? this.basis.extremum(c, tMax) : NaN;
+    // Loop numbers as plain doubles (unary plus, points array): see ExactSolver.t.
+    let ga = +insideStart(this.basis.valueAtStart(c));
+    const ext = chunk === Infinity ? this.basis.extremum(c, tMax) : Number.NaN;
+    const P = this.points;
     let a = 0;
     while (a < tMax) {
-      const b = this.nextPoint(c, a, chunk, ext, tMax);
-      const gb = this.valueAt(c, b);
-      if (gb >= 0) return this.root(c, a, b, ga, gb, t0);
+      this.nextPoint(c, a, chunk, ext, tMax);
+      const b = P[POINT];
+      const gb = P[POINT + 1];
+      if (gb >= 0) {
+        this.exit = this.root(c, a, b, ga, gb);
+        return;
+      }
       a = b;
       ga = gb;
     }
-    return NaN;
   }
 
   /**
-   * Every sign change of c in (0, tEnd], pushed to the recorder as a crossing of `monitor` at
-   * t0 + τ. `side` is the side at τ = 0 (true = ≥ 0); returns the side at tEnd.
+   * Every sign change of c in (0, span], pushed to the recorder as a crossing of `monitor` at
+   * start + τ. `side` is the side at τ = 0 (true = ≥ 0); returns the side at the end.
    */
-  crossings(c: Float64Array, monitor: number, side: boolean, tEnd: number, t0: number, recorder: Recorder): boolean {
-    const chunk = this.chunkFor(c, tEnd);
+  crossings(c: Float64Array, monitor: number, side: boolean, recorder: Recorder): boolean {
+    const tEnd = this.span;
+    const t0 = this.start;
+    const chunk = this.chunkFor(c);
     if (chunk === 0) {
       // The start counts on its given side (a value across by rounding is not a crossing).
-      const g0 = this.basis.valueAtStart(c);
       this.startWalk(c, 0);
+      const g0 = this.points[1];
       this.points[1] = side ? (g0 >= 0 ? g0 : 0) : g0 < 0 ? g0 : -Number.MIN_VALUE;
-      this.walk(c, tEnd, t0, side, CROSSINGS, monitor, recorder, null);
+      this.walk(c, side, CROSSINGS, monitor, recorder, null);
       return this.walkSide;
     }
-    const ext = chunk === Infinity ? this.basis.extremum(c, tEnd) : NaN;
+    const ext = chunk === Infinity ? this.basis.extremum(c, tEnd) : Number.NaN;
+    const P = this.points;
     let a = 0;
-    let ga = NaN;
+    let ga = Number.NaN;
     while (a < tEnd) {
-      const b = this.nextPoint(c, a, chunk, ext, tEnd);
-      const gb = this.valueAt(c, b);
+      this.nextPoint(c, a, chunk, ext, tEnd);
+      const b = P[POINT];
+      const gb = P[POINT + 1];
       const sb = gb >= 0;
       if (sb !== side) {
         if (Number.isNaN(ga)) ga = this.valueAt(c, a);
-        const root = ga >= 0 === sb ? a : this.root(c, a, b, ga, gb, t0);
+        const root = ga >= 0 === sb ? a : this.root(c, a, b, ga, gb);
         recorder.push(t0 + root, monitor, sb);
         side = sb;
       }
@@ -159,22 +189,23 @@ export class Scanner {
     return side;
   }
 
-  /** max |c(τ)| over [tMin, tMax]: the ends plus interior extrema located on the derivative. */
-  maxAbs(c: Float64Array, scratch: Float64Array, tMin: number, tMax: number, t0: number): number {
+  /** max |c(τ)| over [tMin, span] into `best`: the ends plus interior extrema located on the derivative. */
+  maxAbs(c: Float64Array, scratch: Float64Array, tMin: number): void {
     const basis = this.basis;
+    const tMax = this.span;
     let best = Math.max(Math.abs(this.valueAt(c, tMin)), Math.abs(this.valueAt(c, tMax)));
+    this.best = best;
     if (basis.smooth) {
       const e = basis.extremum(c, tMax);
       if (e > tMin) best = Math.max(best, Math.abs(this.valueAt(c, e)));
-      if (e !== -1) return best;
+      this.best = best;
+      if (e !== -1) return;
     }
     // The extrema are the sign changes of the derivative, found by the bounded walk.
     const D = scratch;
     basis.derivative(c, D);
     this.startWalk(D, tMin);
-    this.walkBest = best;
-    this.walk(D, tMax, t0, this.points[1] >= 0, EXTREMA, 0, null, c);
-    return this.walkBest;
+    this.walk(D, this.points[1] >= 0, EXTREMA, 0, null, c);
   }
 
   /**
@@ -215,17 +246,19 @@ export class Scanner {
       P[2] = basis.valueAtStart(this.slope);
       P[3] = this.curvE1;
       P[4] = this.curvE2;
-    } else this.setPoint(0, tau, c);
+    } else {
+      P[0] = tau;
+      this.setPoint(0, c);
+    }
   }
 
-  /** Evaluate c at τ into point k. */
-  private setPoint(k: number, tau: number, c: Float64Array): void {
+  /** Evaluate c into point k at the τ already in its first slot (not an argument: see `start`). */
+  private setPoint(k: number, c: Float64Array): void {
     const basis = this.basis;
-    basis.evaluate(tau);
-    const v = basis.values;
     const P = this.points;
     const o = POINT * k;
-    P[o] = tau;
+    basis.evaluate(P[o]);
+    const v = basis.values;
     P[o + 1] = basis.dot(c);
     P[o + 2] = basis.dot(this.slope);
     if (basis.complex) {
@@ -238,7 +271,7 @@ export class Scanner {
   }
 
   /** 0: no sign change in (left, top]; 1: exactly one; 2: undecided (halve). */
-  private classify(sideLeft: boolean, t0: number): number {
+  private classify(sideLeft: boolean): number {
     const P = this.points;
     const o = POINT * this.depth;
     const a = P[0];
@@ -248,7 +281,7 @@ export class Scanner {
     const gb = P[o + 1];
     const db = P[o + 2];
     const h = b - a;
-    const last = h <= 2 * ulp(t0 + b) || this.depth >= MAX_DEPTH;
+    const last = h <= 2 * ulp(this.start + b) || this.depth >= MAX_DEPTH;
     const sideRight = gb >= 0;
     const M = (P[3] > P[o + 3] ? P[3] : P[o + 3]) + (P[4] > P[o + 4] ? P[4] : P[o + 4]) + this.curvSines;
     if (sideLeft === sideRight) {
@@ -272,31 +305,31 @@ export class Scanner {
   }
 
   /**
-   * Walk (left, tEnd] from the left point set by startWalk, whose side is `side`. FIRST_EXIT
-   * returns the first crossing's τ (NaN if none); CROSSINGS pushes every crossing to the
-   * recorder and leaves the final side in walkSide; EXTREMA raises walkBest to |target| at each
-   * crossing (c being the target's derivative).
+   * Walk (left, span] from the left point set by startWalk, whose side is `side`. FIRST_EXIT
+   * leaves the first crossing's τ in `exit`; CROSSINGS pushes every crossing to the recorder
+   * and leaves the final side in walkSide; EXTREMA raises `best` to |target| at each crossing
+   * (c being the target's derivative).
    */
   private walk(
     c: Float64Array,
-    tEnd: number,
-    t0: number,
     side: boolean,
     mode: number,
     monitor: number,
     recorder: Recorder | null,
     target: Float64Array | null,
-  ): number {
+  ): void {
     const P = this.points;
+    const t0 = this.start;
     this.depth = 1;
-    this.setPoint(1, tEnd, c);
+    P[POINT] = this.span;
+    this.setPoint(1, c);
     for (;;) {
-      const verdict = this.classify(side, t0);
+      const verdict = this.classify(side);
       const o = POINT * this.depth;
       if (verdict === 2) {
-        const mid = 0.5 * (P[0] + P[o]);
         this.depth++;
-        this.setPoint(this.depth, mid, c);
+        P[POINT * this.depth] = 0.5 * (P[0] + P[o]);
+        this.setPoint(this.depth, c);
         continue;
       }
       if (verdict === 1) {
@@ -305,10 +338,13 @@ export class Scanner {
         const ga = P[1];
         const gb = P[o + 1];
         const sb = gb >= 0;
-        const root = ga >= 0 === sb ? a : this.root(c, a, b, ga, gb, t0);
-        if (mode === FIRST_EXIT) return root;
+        const root = ga >= 0 === sb ? a : this.root(c, a, b, ga, gb);
+        if (mode === FIRST_EXIT) {
+          this.exit = root;
+          return;
+        }
         if (mode === CROSSINGS) recorder!.push(t0 + root, monitor, sb);
-        else this.walkBest = Math.max(this.walkBest, Math.abs(this.valueAt(target!, root)));
+        else this.best = Math.max(this.best, Math.abs(this.valueAt(target!, root)));
         side = sb;
       }
       // The right end becomes the left end.
@@ -316,6 +352,5 @@ export class Scanner {
       if (--this.depth === 0) break;
     }
     this.walkSide = side;
-    return NaN;
   }
 }

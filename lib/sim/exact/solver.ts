@@ -145,18 +145,33 @@ export class ExactSolver {
   }
 
   /**
-   * Input coefficients (model.U) of the piece starting at t, seen through the transport delay;
-   * returns the end of the input piece in solver time.
+   * Start of the current piece (`t`) and the end of its input piece (`tb`, set by pieceEnd).
+   * Times pass between the piece loop and the methods it calls in fields, not as arguments or
+   * results: V8 boxes a double into a new heap number when it crosses a call it does not
+   * inline, and a noisy run makes tens of thousands of such calls (garbage collections during
+   * the run), while a field keeps its double in place.
    */
-  private inputPiece(t: number): number {
+  t = 0;
+  tb = 0;
+
+  /**
+   * Input coefficients (model.U) of the piece starting at this.t, seen through the transport
+   * delay; sets this.tb to the end of the input piece in solver time.
+   */
+  private inputPiece(): void {
+    const t = this.t;
     const U = this.model.U;
     const sig = this.p.signal;
-    if (!this.model.inputConnected) return Infinity;
+    if (!this.model.inputConnected) {
+      this.tb = Infinity;
+      return;
+    }
     let ts = t - this.delay;
     if (ts < 0) {
       U.fill(0);
       U[SLOT_ONE] = sig.valueAt(0);
-      return this.delay;
+      this.tb = this.delay;
+      return;
     }
     sig.piece(ts);
     // t − delay can round to just before an input breakpoint that lies at t on the solver's
@@ -174,17 +189,20 @@ export class ExactSolver {
       U[SLOT_SINES + 2 * j] = sig.sineAmp[j] * Math.cos(phase);
       U[SLOT_SINES + 1 + 2 * j] = sig.sineAmp[j] * Math.sin(phase);
     }
-    return sig.pieceEnd + this.delay;
+    this.tb = sig.pieceEnd + this.delay;
   }
 
   /**
-   * Sets up the input piece at t and returns its end (≤ T). A breakpoint closer than the time
-   * resolution at t (it can round onto t after the delay shift) would give an empty piece: the
-   * piece then runs to the next representable time.
+   * Sets up the input piece at this.t and sets this.tb to its end (≤ the run's end). A
+   * breakpoint closer than the time resolution at t (it can round onto t after the delay
+   * shift) would give an empty piece: the piece then runs to the next representable time.
    */
-  pieceEnd(t: number, T: number): number {
-    const e = Math.min(T, this.inputPiece(t));
-    return e > t ? e : Math.min(T, t + ulp(t));
+  pieceEnd(): void {
+    const t = this.t;
+    const T = this.p.duration;
+    this.inputPiece();
+    const e = Math.min(T, this.tb);
+    this.tb = e > t ? e : Math.min(T, t + ulp(t));
   }
 
   /**
@@ -274,11 +292,14 @@ export class ExactSolver {
     // Sample clamp at the high side: the variable high level is met exactly by the rail pieces.
     const clampHigh = variableHigh ? Infinity : Voh;
     let atHigh = variableHigh && p.vo0 >= Voh;
+    // The loop's numbers start as plain doubles (unary plus): V8 may keep a loop variable first
+    // set from a property of unknown type tagged, boxing a heap number on every piece.
     let t = 0;
-    let vo = p.vo0;
-    let x = hasState ? p.x0 : 0;
+    let vo = +p.vo0;
+    let x = hasState ? +p.x0 : 0;
     for (let i = 0; i < 3; i++) this.sides[i] = vo >= levels[i] ? 1 : 0;
-    this.inputPiece(0);
+    this.t = 0;
+    this.inputPiece();
     {
       const f0 = model.driveOf(model.inputAtStart(), vo, x);
       const held = (vo >= Voh && f0 >= 0) || (vo <= Vol && f0 <= 0);
@@ -290,7 +311,9 @@ export class ExactSolver {
     this.finalVo = vo;
     this.finalX = x;
     while (t < T) {
-      let tb = this.pieceEnd(t, T);
+      this.t = t;
+      this.pieceEnd();
+      let tb = this.tb;
       if (variableHigh) {
         // The open drain's high level at this instant; an output held there stays on it.
         this.levels[LEVEL_HIGH] = model.highAt(model.inputAtStart(), x);
@@ -300,12 +323,16 @@ export class ExactSolver {
       if (isRail(regime)) this.noteRail(regime, t);
       if (!hasState && isRail(regime) && !(variableHigh && regime === RAIL_HIGH)) {
         if (rec.startupEnd === Infinity) rec.startupEnd = t;
-        t = holdAtRail(this, t, regime === RAIL_HIGH);
+        this.t = t;
+        holdAtRail(this, regime === RAIL_HIGH);
+        t = this.t;
         previousSettledLinear = false;
         vo = regime === RAIL_HIGH ? Voh : Vol;
         this.finalVo = vo;
         if (t >= T) break;
-        tb = this.pieceEnd(t, T);
+        this.t = t;
+        this.pieceEnd();
+        tb = this.tb;
         regime = enterRegime(vo, model.driveOf(model.inputAtStart(), vo, x), this.levels);
       }
       if (this.basis.sineCount > 0) tb = Math.min(tb, t + this.pieceCapSine);
@@ -318,8 +345,12 @@ export class ExactSolver {
       let tx = h;
       let next = -1;
       const exits = EXITS[regime];
+      const scan = this.scan;
+      scan.start = t;
       for (let i = 0; i < exits.length; i++) {
-        const tau = this.scan.firstExit(this.exitFunction(regime, i), tx, t);
+        scan.span = tx;
+        scan.firstExit(this.exitFunction(regime, i));
+        const tau = scan.exit;
         if (tau <= tx) {
           tx = tau;
           next = exits[i].to;
@@ -330,16 +361,16 @@ export class ExactSolver {
       const tEnd = next < 0 && h === tb - t ? tb : Math.min(T, t + tx);
 
       // Monitored crossings within (0, tx]
+      scan.span = tx;
       if (!isRail(regime)) {
         const G = this.G;
         for (let lv = 0; lv < 3; lv++) {
           for (let i = 0; i < G.length; i++) G[i] = VO[i];
           G[SLOT_ONE] -= levels[lv];
-          this.sides[lv] = this.scan.crossings(G, lv, this.sides[lv] === 1, tx, t, rec) ? 1 : 0;
+          this.sides[lv] = scan.crossings(G, lv, this.sides[lv] === 1, rec) ? 1 : 0;
         }
       }
-      if (p.trackVd)
-        this.sides[MONITOR_VD] = this.scan.crossings(VD, MONITOR_VD, this.sides[MONITOR_VD] === 1, tx, t, rec) ? 1 : 0;
+      if (p.trackVd) this.sides[MONITOR_VD] = scan.crossings(VD, MONITOR_VD, this.sides[MONITOR_VD] === 1, rec) ? 1 : 0;
       if (rec.startupEnd === Infinity) this.startupCheck(regime, t, tx);
       rec.flush();
 
@@ -357,11 +388,12 @@ export class ExactSolver {
       else if (t + tx > rec.startupEnd) {
         if (regime === SLEW_UP) rec.maxSlew = Math.max(rec.maxSlew, p.slewRate);
         else if (regime === SLEW_DOWN) rec.maxSlew = Math.max(rec.maxSlew, p.slewRateFall);
-        else
-          rec.maxSlew = Math.max(
-            rec.maxSlew,
-            this.scan.maxAbs(F, this.scratch, Math.max(0, rec.startupEnd - t), tx, t),
-          );
+        else {
+          scan.start = t;
+          scan.span = tx;
+          scan.maxAbs(F, this.scratch, Math.max(0, rec.startupEnd - t));
+          rec.maxSlew = Math.max(rec.maxSlew, scan.best);
+        }
       }
 
       // Advance
@@ -426,7 +458,11 @@ export class ExactSolver {
       rec.startupEnd = t0;
       return;
     }
-    const tau = this.scan.firstExit(G, tx, t0);
+    const scan = this.scan;
+    scan.start = t0;
+    scan.span = tx;
+    scan.firstExit(G);
+    const tau = scan.exit;
     if (tau === tau) rec.startupEnd = t0 + tau;
   }
 }
