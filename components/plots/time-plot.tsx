@@ -8,7 +8,7 @@ import type { SimEvent } from "@/lib/sim/types";
 import { PlotToolbar, Readout, cursorItems, type LegendItem } from "./plot-chrome";
 import { MinMaxThinner, pickAt } from "@/lib/plot/min-max";
 import { exportPlotPng } from "./export";
-import { PLOT_COLORS, axis, hLine, siTicks, tagRight, useUPlot, wheelPan } from "./use-uplot";
+import { PLOT_COLORS, axis, hLine, siTicks, tagClear, tagRight, useUPlot, wheelPan } from "./use-uplot";
 
 export interface TimePlotProps {
   t: Float64Array;
@@ -113,25 +113,24 @@ export function TimePlot(props: TimePlotProps) {
               hLine(u, rails.low, PLOT_COLORS.rail, [2, 3]);
               tagRight(u, rails.high, "Voh", PLOT_COLORS.rail);
               tagRight(u, rails.low, "Vol", PLOT_COLORS.rail);
-              if (thresholds?.upper != null) {
-                hLine(u, thresholds.upper, PLOT_COLORS.threshold, [7, 4]);
-                tagRight(u, thresholds.upper, capView ? "upper level" : "upper, designed", PLOT_COLORS.threshold);
-              }
-              if (thresholds?.lower != null && thresholds.lower !== thresholds.upper) {
+              if (thresholds?.upper != null) hLine(u, thresholds.upper, PLOT_COLORS.threshold, [7, 4]);
+              if (thresholds?.lower != null && thresholds.lower !== thresholds.upper)
                 hLine(u, thresholds.lower, PLOT_COLORS.threshold, [7, 4]);
-                tagRight(
-                  u,
-                  thresholds.lower,
-                  capView ? "lower level" : "lower, designed",
-                  PLOT_COLORS.threshold,
-                  "y",
-                  "below",
-                );
-              }
             },
           ],
           draw: [
             (u) => {
+              // Threshold tags over the series, at the end of the plot the curves leave clearer.
+              if (thresholds?.upper != null)
+                tagClear(u, thresholds.upper, capView ? "upper level" : "upper, designed", PLOT_COLORS.threshold);
+              if (thresholds?.lower != null && thresholds.lower !== thresholds.upper)
+                tagClear(
+                  u,
+                  thresholds.lower,
+                  capView ? "lower level" : "lower, designed",
+                  PLOT_COLORS.threshold,
+                  "below",
+                );
               drawEvents(u, events);
               if (first) {
                 first = false;

@@ -167,6 +167,65 @@ export function tagRight(
 }
 
 /**
+ * Small label on a horizontal mark, at whichever end of the plot the drawn series leave clearer:
+ * the right end unless more samples fall inside the label's box there than at the left end (a
+ * threshold tag printed across the very curve it marks is unreadable). Drawn over the series on
+ * a paper-coloured ground, so whatever still passes under it does not cross its letters.
+ * Call from the `draw` hook (after the series).
+ */
+export function tagClear(u: uPlot, v: number, text: string, color: string, side: "above" | "below" = "above"): void {
+  const ctx = u.ctx;
+  const dpr = devicePixelRatio;
+  const y = u.valToPos(v, "y", true);
+  const { left, top, width, height } = u.bbox;
+  if (y < top || y > top + height) return;
+  ctx.save();
+  ctx.font = monoFont(10 * dpr);
+  const w = ctx.measureText(text).width + 4 * dpr;
+  const h = 12 * dpr;
+  const y0 = side === "above" ? y - 2 * dpr - h : y + 2 * dpr;
+  const boxes = [left + width - 4 * dpr - w, left + 4 * dpr];
+  const hits = boxes.map((x0) => samplesInBox(u, x0, y0, x0 + w, y0 + h));
+  const x0 = hits[1] < hits[0] ? boxes[1] : boxes[0];
+  ctx.fillStyle = "rgba(255, 255, 255, 0.85)";
+  ctx.fillRect(x0, y0, w, h);
+  ctx.fillStyle = color;
+  ctx.textAlign = "left";
+  ctx.textBaseline = "middle";
+  ctx.fillText(text, x0 + 2 * dpr, y0 + h / 2);
+  ctx.restore();
+}
+
+/** How many drawn samples (every shown series, on its own scale) land inside a canvas box. */
+function samplesInBox(u: uPlot, x0: number, y0: number, x1: number, y1: number): number {
+  const xs = u.data[0];
+  // Samples are ordered in x: find the first inside the box, then step until past it.
+  let lo = 0;
+  let hi = xs.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (u.valToPos(xs[mid], "x", true) < x0) lo = mid + 1;
+    else hi = mid;
+  }
+  let n = 0;
+  for (let s = 1; s < u.series.length; s++) {
+    const series = u.series[s];
+    const ys = u.data[s];
+    if (!series.show || !ys) continue;
+    const scale = series.scale ?? "y";
+    for (let i = lo; i < xs.length; i++) {
+      const px = u.valToPos(xs[i], "x", true);
+      if (px > x1) break;
+      const yv = ys[i];
+      if (yv == null) continue;
+      const py = u.valToPos(yv, scale, true);
+      if (py >= y0 && py <= y1) n++;
+    }
+  }
+  return n;
+}
+
+/**
  * Wheel zooms the x scale about the pointer; Shift+drag (or middle-button drag) pans.
  * Plain drag keeps uPlot's own box zoom.
  */

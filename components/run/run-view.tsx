@@ -75,9 +75,9 @@ export function RunView({ run, shared = false, review, studies, actions }: RunVi
               {/* A link holder sees the run, not who in the team made it. */}
               {shared ? null : ` by ${personName(run.createdBy)}`}
             </span>
-            <span>
-              · re-run on the server ({result.solver.name}, {result.samples.t.length.toLocaleString("en")} stored
-              samples)
+            {/* The separator only where the two phrases share a line (a phone wraps them apart). */}
+            <span className="sm:before:mr-2 sm:before:content-['·']">
+              re-run on the server ({result.solver.name}, {result.samples.t.length.toLocaleString("en")} stored samples)
             </span>
           </p>
         </div>
