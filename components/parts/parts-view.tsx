@@ -179,10 +179,13 @@ export function PartsView({ canEdit }: { canEdit: boolean }) {
                     {show("gainBandwidth", p.opamp.gainBandwidth)}
                   </TD>
                   <TD numeric label="Slew">
-                    {show("slewRate", p.opamp.slewRate)}
-                    {p.opamp.slewRateFall !== undefined && (
-                      <span className="text-ink-mute"> / {show("slewRateFall", p.opamp.slewRateFall)}</span>
-                    )}
+                    {/* One wrapper: a stacked row (phone) lays each child out as its own item. */}
+                    <span>
+                      {show("slewRate", p.opamp.slewRate)}
+                      {p.opamp.slewRateFall !== undefined && (
+                        <span className="text-ink-mute"> / {show("slewRateFall", p.opamp.slewRateFall)}</span>
+                      )}
+                    </span>
                   </TD>
                   <TD numeric label="Headroom +/−">
                     {show("outputHeadroomHigh", p.opamp.outputHeadroomHigh)} /{" "}

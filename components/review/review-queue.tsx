@@ -25,7 +25,7 @@ function QueueTable({
 }) {
   if (items.length === 0) return <p className="px-4 py-3 text-[13px] text-ink-mute">{empty}</p>;
   return (
-    <Table aria-label={caption}>
+    <Table aria-label={caption} stack>
       <THead>
         <TR>
           <TH>Run</TH>
@@ -38,7 +38,7 @@ function QueueTable({
       <TBody>
         {items.map((item) => (
           <TR key={item.run.id}>
-            <TD className="min-w-44">
+            <TD className="sm:min-w-44">
               <Link
                 href={`/runs/${item.run.id}`}
                 className="font-medium text-ink hover:text-copper-deep hover:underline"
@@ -47,19 +47,24 @@ function QueueTable({
               </Link>
               <div className="text-[12px] text-ink-faint">{formatDate(item.run.createdAt)}</div>
             </TD>
-            <TD className="min-w-44">
-              <Link href={`/scenarios/${item.run.scenario.id}`} className="text-ink-soft hover:underline">
-                {item.run.scenario.name}
-              </Link>
-              <div className="text-[12px] text-ink-faint">{item.run.scenario.boardName}</div>
+            {/* One wrapper per cell: on a phone each cell is a "label … value" line (Table stack). */}
+            <TD className="sm:min-w-44" label="Scenario">
+              <div>
+                <Link href={`/scenarios/${item.run.scenario.id}`} className="text-ink-soft hover:underline">
+                  {item.run.scenario.name}
+                </Link>
+                <div className="text-[12px] text-ink-faint">{item.run.scenario.boardName}</div>
+              </div>
             </TD>
-            <TD numeric className="whitespace-nowrap">
-              {item.run.scenarioVersion ? `v${item.run.scenarioVersion}` : "—"}
-              {item.run.scenarioVersion && item.run.scenario.version > item.run.scenarioVersion ? (
-                <div className="text-[12px] text-ink-faint">now v{item.run.scenario.version}</div>
-              ) : null}
+            <TD numeric className="whitespace-nowrap" label="Version">
+              <div>
+                {item.run.scenarioVersion ? `v${item.run.scenarioVersion}` : "—"}
+                {item.run.scenarioVersion && item.run.scenario.version > item.run.scenarioVersion ? (
+                  <div className="text-[12px] text-ink-faint">now v{item.run.scenario.version}</div>
+                ) : null}
+              </div>
             </TD>
-            <TD className="text-[13px]">
+            <TD className="text-[13px]" label={show === "requests" ? "Asked" : "Decision"}>
               {show === "requests" ? (
                 <ul className="flex flex-col gap-0.5">
                   {item.requests.map((r) => (
@@ -82,7 +87,7 @@ function QueueTable({
                 "—"
               )}
             </TD>
-            <TD>
+            <TD label="State">
               <span className="flex flex-wrap items-center gap-1">
                 <ReviewStateBadge decision={item.decision?.decision ?? null} />
                 {item.outOfDate && (
