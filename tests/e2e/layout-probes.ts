@@ -125,3 +125,19 @@ export async function gridHoles(page: Page, selector: string): Promise<string[]>
     return out;
   }, selector);
 }
+
+/** Tables inside `selector` that are wider than their box (a sideways scroll inside a card). */
+export async function scrollingTables(page: Page, selector: string): Promise<string[]> {
+  return page.evaluate((sel) => {
+    const out: string[] = [];
+    for (const table of Array.from(document.querySelectorAll<HTMLTableElement>(`${sel} table`))) {
+      const box = table.parentElement;
+      if (!box || table.offsetParent === null) continue;
+      if (box.scrollWidth > box.clientWidth + 1) {
+        const name = table.getAttribute("aria-label") ?? table.getAttribute("data-testid") ?? "table";
+        out.push(`table "${name}" is ${box.scrollWidth} px wide in a ${box.clientWidth} px box`);
+      }
+    }
+    return out;
+  }, selector);
+}

@@ -2,15 +2,24 @@
 // its shared link, parts, team, captures and the review queue) at phone width, 1280 px and
 // 1680 px, signed in as each role. Each page is saved to test-output/screenshots/tour-*.png for a
 // person to look at, and measured: the page never scrolls sideways, the header's content edges
-// line up with the page's, no label or value is cut off, and the run page's cards leave no
-// empty grid cell beside an orphan card.
+// line up with the page's, no label, value or drop-down choice is cut off, no table scrolls
+// sideways inside its card, and the run page's cards leave no empty grid cell beside an orphan
+// card.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { launchBrowser, screenshot, signInPage, SCREENSHOT_DIR } from "../helpers/browser";
 import { signIn, startServer, type TestServer } from "../helpers/server";
 import { EMAILS, createRun, firstScenarioId } from "../helpers/team";
 import { DEMO_PASSWORD } from "@/lib/demo/accounts";
-import { clipped, contentEdges, cutSelects, gridHoles, sidewaysOverflow, spanOfChildren } from "./layout-probes";
+import {
+  clipped,
+  contentEdges,
+  cutSelects,
+  gridHoles,
+  scrollingTables,
+  sidewaysOverflow,
+  spanOfChildren,
+} from "./layout-probes";
 
 let server: TestServer;
 let browser: Browser;
@@ -146,6 +155,7 @@ describe("every screen at three widths and four roles", () => {
             if (misaligned) problems.push(`${tag}: ${misaligned}`);
             problems.push(...(await clipped(page, "body")).map((p) => `${tag}: ${p}`));
             problems.push(...(await cutSelects(page, "main")).map((p) => `${tag}: ${p}`));
+            problems.push(...(await scrollingTables(page, "main")).map((p) => `${tag}: ${p}`));
             if (s.name === "run") problems.push(...(await gridHoles(page, "main")).map((p) => `${tag}: ${p}`));
             if (s.name === "scenario" && (role === "owner" || role === "designer"))
               problems.push(...(await historySnapshot(page, `${role}-${width}`)).map((p) => `${tag}: ${p}`));
