@@ -143,8 +143,6 @@ export class Recorder {
   }
 }
 
-const mean = (xs: number[]): number | null => (xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null);
-
 export function defaultHoldOff(duration: number, longestPeriod: number | null): number {
   return longestPeriod === null ? 0.01 * duration : Math.min(0.01 * duration, 0.01 * longestPeriod);
 }
@@ -153,26 +151,49 @@ export function finishMetrics(
   rec: Recorder,
   opts: { duration: number; holdOff: number; inverting: boolean; amplifier: boolean; inputConnected: boolean },
 ): SimMetrics {
-  const ev = rec.events.slice(rec.startupEvents);
+  const events = rec.events;
+  const from = rec.startupEvents;
   // Output edges caused by the input crossing upward: rising for non-inverting stages,
   // falling for inverting ones (lib/schemas/README.md § Result JSON). A relaxation oscillator's input is
   // not connected, so no edge is caused by the input: its thresholds are null.
   const upEdge = opts.inverting ? "falling" : "rising";
-  const upper = opts.inputConnected ? mean(ev.filter((e) => e.edge === upEdge).map((e) => e.input)) : null;
-  const lower = opts.inputConnected ? mean(ev.filter((e) => e.edge !== upEdge).map((e) => e.input)) : null;
+  // One pass over the edges after the power-on transient, with no arrays in between (a noisy
+  // run has thousands of edges; the sums run in edge order, as a reduce over them would).
+  let upSum = 0;
+  let upCount = 0;
+  let downSum = 0;
+  let downCount = 0;
   let chatter = 0;
-  for (let i = 1; i < ev.length; i++) if (ev[i].time - ev[i - 1].time < opts.holdOff) chatter++;
-  const rising = ev.filter((e) => e.edge === "rising").map((e) => e.time);
+  let risingCount = 0;
+  let first = NaN;
+  let last = NaN;
+  for (let i = from; i < events.length; i++) {
+    const e = events[i];
+    if (e.edge === upEdge) {
+      upSum += e.input;
+      upCount++;
+    } else {
+      downSum += e.input;
+      downCount++;
+    }
+    if (i > from && e.time - events[i - 1].time < opts.holdOff) chatter++;
+    if (e.edge === "rising") {
+      if (risingCount === 0) first = e.time;
+      last = e.time;
+      risingCount++;
+    }
+  }
+  const upper = opts.inputConnected && upCount > 0 ? upSum / upCount : null;
+  const lower = opts.inputConnected && downCount > 0 ? downSum / downCount : null;
   let period: number | null = null;
   let dutyCycle: number | null = null;
-  if (rising.length >= 2) {
-    const first = rising[0];
-    const last = rising[rising.length - 1];
-    period = (last - first) / (rising.length - 1);
+  if (risingCount >= 2) {
+    period = (last - first) / (risingCount - 1);
     // High time of each period: from its rising edge to the first falling edge after it.
     let high = 0;
     let riseAt = NaN;
-    for (const e of ev) {
+    for (let i = from; i < events.length; i++) {
+      const e = events[i];
       if (e.time < first || e.time > last) continue;
       if (e.edge === "rising") {
         if (!Number.isNaN(riseAt)) high += e.time - riseAt;

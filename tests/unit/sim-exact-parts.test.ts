@@ -196,7 +196,9 @@ describe("PieceModel", () => {
       U[SLOT_TAU] = -0.6;
       U[SLOT_SINES] = 0.2;
       U[SLOT_SINES + 1] = -0.1;
-      model.setup(LINEAR, 0.7, -0.3);
+      model.startVo = 0.7;
+      model.startX = -0.3;
+      model.setup(LINEAR);
       const b = model.basis;
       expect(b.complex).toBe(complex);
       const u = (t: number) => 0.4 - 0.6 * t + 0.2 * Math.sin(40 * t) - 0.1 * Math.cos(40 * t);

@@ -111,10 +111,21 @@ export class PieceModel {
   }
 
   /**
-   * Fill VO, X, VD and DRIVE for a piece in `regime` starting at (vo, x), and set the basis
-   * exponents. Returns the longest piece allowed by growth (Infinity when decaying).
+   * The state a piece starts from (set before setup) and the longest piece allowed by growth
+   * (set by setup; Infinity when decaying). Fields, not arguments and a result: V8 boxes a
+   * double that crosses a call it does not inline into a new heap number, once per piece.
    */
-  setup(regime: Regime, vo: number, x: number): number {
+  startVo = 0;
+  startX = 0;
+  cap = Infinity;
+
+  /**
+   * Fill VO, X, VD and DRIVE for a piece in `regime` starting at (startVo, startX), set the
+   * basis exponents and `cap`.
+   */
+  setup(regime: Regime): void {
+    const vo = this.startVo;
+    const x = this.startX;
     const { VO, X, U, basis } = this;
     const n = this.size;
     VO.fill(0);
@@ -163,7 +174,8 @@ export class PieceModel {
         D[SLOT_SINES + 2 * j] += w * H[SLOT_SINES + 1 + 2 * j];
         D[SLOT_SINES + 1 + 2 * j] -= w * H[SLOT_SINES + 2 * j];
       }
-      return cap;
+      this.cap = cap;
+      return;
     } else {
       // The output is given: vo + S·τ while slewing, the limit at a rail.
       if (regime === SLEW_UP || regime === SLEW_DOWN) {
@@ -182,7 +194,7 @@ export class PieceModel {
       }
     }
     this.combine();
-    return cap;
+    this.cap = cap;
   }
 
   /** VD and DRIVE from U, VO and X. */

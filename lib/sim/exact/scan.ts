@@ -49,6 +49,8 @@ export class Scanner {
   span = 0;
   exit = Number.NaN;
   best = 0;
+  /** The analytic extremum found by chunkFor (NaN when none or not used). */
+  private extremum = Number.NaN;
 
   constructor(private readonly basis: Basis) {
     let wMax = 0;
@@ -74,14 +76,18 @@ export class Scanner {
   }
 
   /**
-   * How c is searched over (0, span]: Infinity when one analytic split suffices, −1 when the
-   * scan steps from extremum to extremum of a complex pair (each step monotone), 0 for the
-   * bounded walk.
+   * How c is searched over (0, span]: Infinity when one analytic split suffices (at
+   * `extremum`, NaN when there is none), −1 when the scan steps from extremum to extremum of a
+   * complex pair (each step monotone), 0 for the bounded walk.
    */
   private chunkFor(c: Float64Array): number {
     const basis = this.basis;
+    this.extremum = Number.NaN;
     if (this.periodicExtrema(c)) return -1;
-    if (basis.sineCount > 0 || basis.complex || basis.extremum(c, this.span) === -1) return 0;
+    if (basis.sineCount > 0 || basis.complex) return 0;
+    const e = basis.extremum(c, this.span);
+    if (e === -1) return 0;
+    this.extremum = e;
     return Infinity;
   }
 
@@ -115,6 +121,12 @@ export class Scanner {
     const P = this.points;
     P[POINT] =
       chunk === -1 ? Math.min(tMax, this.nextComplexExtremum(c, a)) : extremum > a && extremum < tMax ? extremum : tMax;
+    this.valueAtPoint1(c);
+  }
+
+  /** c at the τ in point 1's first slot, into its second (no argument nor result: see `start`). */
+  private valueAtPoint1(c: Float64Array): void {
+    const P = this.points;
     const basis = this.basis;
     basis.evaluate(P[POINT]);
     P[POINT + 1] = basis.dot(c);
@@ -134,10 +146,13 @@ export class Scanner {
       this.walk(c, false, FIRST_EXIT, 0, null, null);
       return;
     }
-    // Loop numbers as plain doubles (unary plus, points array): see ExactSolver.t.
-    let ga = +insideStart(this.basis.valueAtStart(c));
-    const ext = chunk === Infinity ? this.basis.extremum(c, tMax) : Number.NaN;
+    // Numbers through the points array (see `start`); the value at τ = 0 is the same sum as
+    // basis.valueAtStart, plus terms that are exactly zero there.
     const P = this.points;
+    P[POINT] = 0;
+    this.valueAtPoint1(c);
+    let ga = insideStart(P[POINT + 1]);
+    const ext = this.extremum;
     let a = 0;
     while (a < tMax) {
       this.nextPoint(c, a, chunk, ext, tMax);
@@ -168,7 +183,7 @@ export class Scanner {
       this.walk(c, side, CROSSINGS, monitor, recorder, null);
       return this.walkSide;
     }
-    const ext = chunk === Infinity ? this.basis.extremum(c, tEnd) : Number.NaN;
+    const ext = this.extremum;
     const P = this.points;
     let a = 0;
     let ga = Number.NaN;

@@ -237,12 +237,14 @@ export class ExactSolver {
    * exit whose condition already holds at the start: past its boundary by more than rounding,
    * or on the boundary (within rounding) and moving outward; the two regimes have the same
    * motion there, so the slope decides. A regime is never revisited within one instant.
-   * Leaves model coefficients and `cap` set for the regime returned.
+   * Starts from model.startVo and model.startX; leaves model coefficients and `cap` set for
+   * the regime returned.
    */
-  private resolveAtStart(regime: Regime, vo: number, x: number): Regime {
+  private resolveAtStart(regime: Regime): Regime {
     let visited = 1 << regime;
     for (;;) {
-      this.cap = this.model.setup(regime, vo, x);
+      this.model.setup(regime);
+      this.cap = this.model.cap;
       let next = -1;
       const exits = EXITS[regime];
       for (let i = 0; i < exits.length && next < 0; i++) {
@@ -336,7 +338,9 @@ export class ExactSolver {
         regime = enterRegime(vo, model.driveOf(model.inputAtStart(), vo, x), this.levels);
       }
       if (this.basis.sineCount > 0) tb = Math.min(tb, t + this.pieceCapSine);
-      regime = this.resolveAtStart(regime, vo, x);
+      model.startVo = vo;
+      model.startX = x;
+      regime = this.resolveAtStart(regime);
       if (isRail(regime)) this.noteRail(regime, t);
       const h = Math.min(tb - t, this.cap);
       this.steps++;
