@@ -210,7 +210,7 @@ describe("fuzz: 10,000 malformed requests", () => {
     expect(done).toBe(REQUESTS);
     expect(fiveHundreds).toEqual([]);
     console.log(`[fuzz] ${errorBodies} JSON error answers checked against the error schema`);
-    expect(errorBodies).toBeGreaterThan(1000);
+    expect(errorBodies).toBeGreaterThan(REQUESTS / 10);
     expect(offShape.slice(0, 20)).toEqual([]);
     // The server still answers normally after the fuzz.
     expect((await fetch(`${server.url}/api/health`)).status).toBe(200);
