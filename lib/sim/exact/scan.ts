@@ -31,6 +31,8 @@ export class Scanner {
   private readonly points = new Float64Array(POINT * (MAX_DEPTH + 2));
   /** The bracket handed to bracketRoot (numbers in a typed array, not arguments: see there). */
   private readonly bracket = newBracket();
+  /** A τ and c's value there, for probeValue. */
+  private readonly probe = new Float64Array(2);
   private depth = 0;
   /** |c''| factors: of E1 (a complex pair: of the pair), of E2, and of the sines together. */
   private curvE1 = 0;
@@ -115,21 +117,20 @@ export class Scanner {
 
   /**
    * The next point after a of the searches without the bounded walk (the extremum or the end;
-   * the next extremum of a complex pair) into point 1, with c's value there.
+   * the next extremum of a complex pair) into the probe, with c's value there.
    */
   private nextPoint(c: Float64Array, a: number, chunk: number, extremum: number, tMax: number): void {
-    const P = this.points;
-    P[POINT] =
+    this.probe[0] =
       chunk === -1 ? Math.min(tMax, this.nextComplexExtremum(c, a)) : extremum > a && extremum < tMax ? extremum : tMax;
-    this.valueAtPoint1(c);
+    this.probeValue(c);
   }
 
-  /** c at the τ in point 1's first slot, into its second (no argument nor result: see `start`). */
-  private valueAtPoint1(c: Float64Array): void {
-    const P = this.points;
+  /** c at τ = probe[0] into probe[1] (no argument nor result: see `start`). */
+  private probeValue(c: Float64Array): void {
+    const q = this.probe;
     const basis = this.basis;
-    basis.evaluate(P[POINT]);
-    P[POINT + 1] = basis.dot(c);
+    basis.evaluate(q[0]);
+    q[1] = basis.dot(c);
   }
 
   /**
@@ -148,16 +149,16 @@ export class Scanner {
     }
     // Numbers through the points array (see `start`); the value at τ = 0 is the same sum as
     // basis.valueAtStart, plus terms that are exactly zero there.
-    const P = this.points;
-    P[POINT] = 0;
-    this.valueAtPoint1(c);
-    let ga = insideStart(P[POINT + 1]);
+    const q = this.probe;
+    q[0] = 0;
+    this.probeValue(c);
+    let ga = insideStart(q[1]);
     const ext = this.extremum;
     let a = 0;
     while (a < tMax) {
       this.nextPoint(c, a, chunk, ext, tMax);
-      const b = P[POINT];
-      const gb = P[POINT + 1];
+      const b = q[0];
+      const gb = q[1];
       if (gb >= 0) {
         this.exit = this.root(c, a, b, ga, gb);
         return;
@@ -184,16 +185,20 @@ export class Scanner {
       return this.walkSide;
     }
     const ext = this.extremum;
-    const P = this.points;
+    const q = this.probe;
     let a = 0;
     let ga = Number.NaN;
     while (a < tEnd) {
       this.nextPoint(c, a, chunk, ext, tEnd);
-      const b = P[POINT];
-      const gb = P[POINT + 1];
+      const b = q[0];
+      const gb = q[1];
       const sb = gb >= 0;
       if (sb !== side) {
-        if (Number.isNaN(ga)) ga = this.valueAt(c, a);
+        if (Number.isNaN(ga)) {
+          q[0] = a;
+          this.probeValue(c);
+          ga = q[1];
+        }
         const root = ga >= 0 === sb ? a : this.root(c, a, b, ga, gb);
         recorder.push(t0 + root, monitor, sb);
         side = sb;
@@ -208,12 +213,20 @@ export class Scanner {
   maxAbs(c: Float64Array, scratch: Float64Array, tMin: number): void {
     const basis = this.basis;
     const tMax = this.span;
-    let best = Math.max(Math.abs(this.valueAt(c, tMin)), Math.abs(this.valueAt(c, tMax)));
-    this.best = best;
+    const q = this.probe;
+    q[0] = tMin;
+    this.probeValue(c);
+    this.best = Math.abs(q[1]);
+    q[0] = tMax;
+    this.probeValue(c);
+    this.best = Math.max(this.best, Math.abs(q[1]));
     if (basis.smooth) {
       const e = basis.extremum(c, tMax);
-      if (e > tMin) best = Math.max(best, Math.abs(this.valueAt(c, e)));
-      this.best = best;
+      if (e > tMin) {
+        q[0] = e;
+        this.probeValue(c);
+        this.best = Math.max(this.best, Math.abs(q[1]));
+      }
       if (e !== -1) return;
     }
     // The extrema are the sign changes of the derivative, found by the bounded walk.
@@ -359,7 +372,11 @@ export class Scanner {
           return;
         }
         if (mode === CROSSINGS) recorder!.push(t0 + root, monitor, sb);
-        else this.best = Math.max(this.best, Math.abs(this.valueAt(target!, root)));
+        else {
+          this.probe[0] = root;
+          this.probeValue(target!);
+          this.best = Math.max(this.best, Math.abs(this.probe[1]));
+        }
         side = sb;
       }
       // The right end becomes the left end.
