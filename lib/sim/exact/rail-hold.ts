@@ -29,6 +29,15 @@ function holds(
   return !trackVd || (vdSide ? lo >= 0 : hi < 0);
 }
 
+/** Slots of ExactSolver.holdNumbers: stepKnots's numbers (time, end, vd = alpha·u + c0, margin, threshold). */
+export const HOLD_T = 0;
+export const HOLD_END = 1;
+export const HOLD_ALPHA = 2;
+export const HOLD_C0 = 3;
+export const HOLD_MARGIN = 4;
+export const HOLD_THRESHOLD = 5;
+export const HOLD_SLOTS = 6;
+
 /** Knots per block of the knot-stepping loop (the sines are bounded over a block). */
 export const KNOT_BLOCK = 32;
 
@@ -43,19 +52,16 @@ export const KNOT_BLOCK = 32;
  * away with the rarely taken paths of holdAtRail (which left this loop running unoptimised,
  * boxing a number per knot: garbage collections).
  */
-function stepKnots(
-  s: ExactSolver,
-  knots: Float64Array,
-  k: number,
-  t: number,
-  end: number,
-  alpha: number,
-  c0: number,
-  margin: number,
-  high: boolean,
-  threshold: number,
-  vdSide: boolean,
-): number {
+function stepKnots(s: ExactSolver, knots: Float64Array, k: number, high: boolean, vdSide: boolean): number {
+  // The numbers come in a typed array (HOLD_* slots), not as arguments: V8 boxes each double
+  // argument of a call it does not inline into a new heap number.
+  const h = s.holdNumbers;
+  const t = h[HOLD_T];
+  const end = h[HOLD_END];
+  const alpha = h[HOLD_ALPHA];
+  const c0 = h[HOLD_C0];
+  const margin = h[HOLD_MARGIN];
+  const threshold = h[HOLD_THRESHOLD];
   const sig = s.p.signal;
   const trackVd = s.p.trackVd;
   const dt = sig.noiseDt;
@@ -180,7 +186,14 @@ export function holdAtRail(s: ExactSolver, high: boolean): void {
       if (holds(v0, v0, margin, high, threshold, trackVd, vdSide)) {
         let k = Math.floor(t / dt);
         if ((k + 1) * dt <= t) k++;
-        const kEnd = stepKnots(s, knots, k, t, Math.min(T, sig.partsTo), alpha, c0, margin, high, threshold, vdSide);
+        const h = s.holdNumbers;
+        h[HOLD_T] = t;
+        h[HOLD_END] = Math.min(T, sig.partsTo);
+        h[HOLD_ALPHA] = alpha;
+        h[HOLD_C0] = c0;
+        h[HOLD_MARGIN] = margin;
+        h[HOLD_THRESHOLD] = threshold;
+        const kEnd = stepKnots(s, knots, k, high, vdSide);
         if (kEnd > k) {
           const reached = kEnd * dt;
           s.steps += kEnd - k;

@@ -31,7 +31,7 @@ import {
   type Regime,
 } from "./regimes";
 import { Scanner } from "./scan";
-import { KNOT_BLOCK, holdAtRail } from "./rail-hold";
+import { HOLD_SLOTS, KNOT_BLOCK, holdAtRail } from "./rail-hold";
 
 export interface ExactParams {
   net: Network;
@@ -153,6 +153,8 @@ export class ExactSolver {
    */
   t = 0;
   tb = 0;
+  /** The knot-stepping loop's numbers (rail-hold.ts HOLD_* slots), for the same reason. */
+  readonly holdNumbers = new Float64Array(HOLD_SLOTS);
 
   /**
    * Input coefficients (model.U) of the piece starting at this.t, seen through the transport
