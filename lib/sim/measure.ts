@@ -62,6 +62,17 @@ export class Recorder {
     this.levels = Float64Array.of(rails.low + 0.1 * span, (rails.high + rails.low) / 2, rails.low + 0.9 * span);
   }
 
+  /**
+   * Time of the crossing pushCrossing queues. The exact solver's searches hand it over in this
+   * field: a double passed to a call V8 does not inline is boxed into a new heap number.
+   */
+  crossingTime = 0;
+
+  /** push(crossingTime, monitor, rising): small enough for V8 to inline into the searches. */
+  pushCrossing(monitor: number, rising: boolean): void {
+    this.push(this.crossingTime, monitor, rising);
+  }
+
   /** Queue a crossing: monitor 0..2 = output level, 3 = vd sign change; rising = now on the high side. */
   push(time: number, monitor: number, rising: boolean): void {
     if (this.bufLen === this.bufTime.length) this.flush();

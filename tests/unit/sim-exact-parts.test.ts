@@ -106,7 +106,7 @@ describe("Scanner (bounded walk)", () => {
     expect(Math.abs(scan.exit - truth[0])).toBeLessThan(1e-5);
     const pushed: number[] = [];
     const spy = new Recorder({ high: 1, low: 0 }, { valueAt: () => 0 } as never, 0);
-    spy.push = (time: number) => void pushed.push(time);
+    spy.pushCrossing = () => void pushed.push(spy.crossingTime);
     expect(scan.crossings(c, 0, false, spy)).toBe(false);
     expect(pushed.length).toBe(2);
     expect(Math.abs(pushed[0] - truth[0])).toBeLessThan(1e-5);

@@ -200,7 +200,8 @@ export class Scanner {
           ga = q[1];
         }
         const root = ga >= 0 === sb ? a : this.root(c, a, b, ga, gb);
-        recorder.push(t0 + root, monitor, sb);
+        recorder.crossingTime = t0 + root;
+        recorder.pushCrossing(monitor, sb);
         side = sb;
       }
       a = b;
@@ -371,8 +372,10 @@ export class Scanner {
           this.exit = root;
           return;
         }
-        if (mode === CROSSINGS) recorder!.push(t0 + root, monitor, sb);
-        else {
+        if (mode === CROSSINGS) {
+          recorder!.crossingTime = t0 + root;
+          recorder!.pushCrossing(monitor, sb);
+        } else {
           this.probe[0] = root;
           this.probeValue(target!);
           this.best = Math.max(this.best, Math.abs(this.probe[1]));
