@@ -212,7 +212,14 @@ export function SpreadHistogram({
       const y = Float64Array.from(counts);
       const maxCount = Math.max(1, ...counts);
       const unit = MEASURE_UNIT[spread.measure];
-      const strip = tagStrip(Number(spread.nominal !== null) + (spread.worstCase ? 2 : 0));
+      // Close corners share one tag: two would put a tick through the other's words (plot width
+      // taken as the chart's less the y axis, near enough to choose).
+      const span = edges[edges.length - 1] - edges[0];
+      const cornersApart = spread.worstCase
+        ? (Math.abs(spread.worstCase[1] - spread.worstCase[0]) / (span || 1)) * (width - 50)
+        : 0;
+      const oneCornerTag = cornersApart < 130;
+      const strip = tagStrip(Number(spread.nominal !== null) + (spread.worstCase ? (oneCornerTag ? 1 : 2) : 0));
       const opts: uPlot.Options = {
         width,
         height: height + strip,
@@ -259,8 +266,12 @@ export function SpreadHistogram({
               if (spread.worstCase) {
                 vLine(u, spread.worstCase[0], STUDY_COLORS.corner, [5, 3]);
                 vLine(u, spread.worstCase[1], STUDY_COLORS.corner, [5, 3]);
-                tags.push({ x: spread.worstCase[0], text: "worst case (low)", color: STUDY_COLORS.corner });
-                tags.push({ x: spread.worstCase[1], text: "worst case (high)", color: STUDY_COLORS.corner });
+                const [lo, hi] = spread.worstCase;
+                if (oneCornerTag) tags.push({ x: lo, text: "worst case", color: STUDY_COLORS.corner });
+                else {
+                  tags.push({ x: lo, text: "worst case (low)", color: STUDY_COLORS.corner });
+                  tags.push({ x: hi, text: "worst case (high)", color: STUDY_COLORS.corner });
+                }
               }
               tagsAbove(u, tags);
             },
