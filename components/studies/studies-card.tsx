@@ -225,7 +225,7 @@ export function StudiesCard({ scenario, revision, saveBlocked, onSave, beforeRun
       padded={false}
       className="min-w-0"
       actions={
-        <span className="flex items-center gap-2">
+        <span className="flex flex-wrap items-center gap-2">
           {blocked ? (
             <span
               className={`text-[12px] ${none || running ? "text-ink-mute" : "text-caution"}`}

@@ -28,7 +28,10 @@ export function Card({ title, description, actions, padded = true, className, id
             )}
             {description !== undefined && <p className="mt-0.5 text-[13px] text-ink-mute">{description}</p>}
           </div>
-          {actions !== undefined && <div className="flex shrink-0 flex-wrap items-center gap-2">{actions}</div>}
+          {/* max-w-full: on a narrow card the actions take their own line and wrap inside it. */}
+          {actions !== undefined && (
+            <div className="flex max-w-full shrink-0 flex-wrap items-center gap-2">{actions}</div>
+          )}
         </header>
       )}
       <div className={padded ? "p-4" : undefined}>{children}</div>
