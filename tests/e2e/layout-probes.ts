@@ -141,3 +141,34 @@ export async function scrollingTables(page: Page, selector: string): Promise<str
     return out;
   }, selector);
 }
+
+/**
+ * Controls and words that stick out past the right edge of the card (section) they belong to:
+ * a row that does not wrap on a narrow screen. Elements inside a sideways-scrolling box are left
+ * to scrollingTables.
+ */
+export async function spillsOut(page: Page, selector: string): Promise<string[]> {
+  // Through a locator, so Playwright selectors (section:has(h2:text-is('Trace'))) work too.
+  return page.locator(selector).evaluateAll((cards) => {
+    const out: string[] = [];
+    for (const card of cards as HTMLElement[]) {
+      const edge = card.getBoundingClientRect().right;
+      for (const el of Array.from(
+        card.querySelectorAll<HTMLElement>("button, a, span, label, input, select, textarea, p, h2, h3"),
+      )) {
+        if (el.offsetParent === null) continue;
+        const r = el.getBoundingClientRect();
+        if (r.width === 0 || r.right <= edge + 1) continue;
+        let scroller = el.parentElement;
+        while (scroller && scroller !== card && getComputedStyle(scroller).overflowX === "visible")
+          scroller = scroller.parentElement;
+        if (scroller && scroller !== card) continue;
+        const name = card.querySelector("h2")?.textContent ?? card.getAttribute("aria-label") ?? "card";
+        out.push(
+          `${el.tagName.toLowerCase()} "${(el.textContent ?? "").trim().slice(0, 40)}" sticks ${Math.round(r.right - edge)} px out of "${name}"`,
+        );
+      }
+    }
+    return out;
+  });
+}

@@ -19,6 +19,7 @@ import {
   scrollingTables,
   sidewaysOverflow,
   spanOfChildren,
+  spillsOut,
 } from "./layout-probes";
 
 let server: TestServer;
@@ -156,6 +157,7 @@ describe("every screen at three widths and four roles", () => {
             problems.push(...(await clipped(page, "body")).map((p) => `${tag}: ${p}`));
             problems.push(...(await cutSelects(page, "main")).map((p) => `${tag}: ${p}`));
             problems.push(...(await scrollingTables(page, "main")).map((p) => `${tag}: ${p}`));
+            problems.push(...(await spillsOut(page, "main section")).map((p) => `${tag}: ${p}`));
             if (s.name === "run") problems.push(...(await gridHoles(page, "main")).map((p) => `${tag}: ${p}`));
             if (s.name === "scenario" && (role === "owner" || role === "designer"))
               problems.push(...(await historySnapshot(page, `${role}-${width}`)).map((p) => `${tag}: ${p}`));

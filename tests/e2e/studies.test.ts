@@ -142,8 +142,9 @@ describe("studies in the browser", () => {
     await expect(page.getByTestId("tolerance-verdict").textContent()).resolves.toMatch(
       /of 1,000 draws inside the spec window/,
     );
-    expect(await page.getByTestId("histogram-upperThreshold").locator("canvas").count()).toBeGreaterThan(0);
-    expect(await page.getByTestId("histogram-lowerThreshold").locator("canvas").count()).toBeGreaterThan(0);
+    // The charts mount a frame after the verdict (they wait for their box's width): poll, on a loaded machine.
+    await expect.poll(() => page.getByTestId("histogram-upperThreshold").locator("canvas").count()).toBeGreaterThan(0);
+    await expect.poll(() => page.getByTestId("histogram-lowerThreshold").locator("canvas").count()).toBeGreaterThan(0);
     await screenshot(page, "studies-workbench");
     await page
       .getByTestId("studies-card")

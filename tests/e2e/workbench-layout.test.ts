@@ -7,7 +7,7 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import { launchBrowser, signInPage, SCREENSHOT_DIR } from "../helpers/browser";
 import { signIn, startServer, type TestServer } from "../helpers/server";
-import { clipped, cutSelects } from "./layout-probes";
+import { clipped, cutSelects, spillsOut } from "./layout-probes";
 
 const DESIGNER = "designer@fjordline.example";
 const PASSWORD = "railwise-demo";
@@ -91,6 +91,8 @@ describe("workbench panels at three widths", () => {
             ["history", "section:has(h2:text-is('History'))"],
           ] as const) {
             await shot(page, `${tag}-${name}`, sel);
+            // Scrolled into view, so its layout is done (the lower panels skip it offscreen).
+            problems.push(...(await spillsOut(page, sel)).map((p) => `${tag} ${name}: ${p}`));
           }
           // The tolerance form too: its spec-window labels are the longest of the studies.
           await page.getByTestId("studies-card").getByRole("tab", { name: "Tolerance spread" }).click();
