@@ -154,30 +154,6 @@ export class Basis {
       out[SLOT_SINES + 1 + 2 * j] = w * c[SLOT_SINES + 2 * j];
     }
   }
-
-  /**
-   * Interior extremum of a sine-free, real-exponent combination in (0, tMax): its τ, NaN when
-   * there is none, or −1 when it cannot be had in closed form (both exponentials and a slope).
-   */
-  extremum(c: Float64Array, tMax: number): number {
-    const slope = c[SLOT_TAU];
-    const a = this.useE1 ? c[SLOT_E1] * this.lambda1 : 0;
-    const b = this.useE2 ? c[SLOT_E2] * this.lambda2 : 0;
-    let tau = NaN;
-    if (a !== 0 && b === 0) {
-      const r = -slope / a;
-      if (r > 0) tau = Math.log(r) / this.lambda1;
-    } else if (a === 0 && b !== 0) {
-      const r = -slope / b;
-      if (r > 0) tau = Math.log(r) / this.lambda2;
-    } else if (a !== 0 && b !== 0 && slope === 0) {
-      const r = -b / a;
-      if (r > 0) tau = Math.log(r) / (this.lambda1 - this.lambda2);
-    } else if (a !== 0 && b !== 0) {
-      return -1;
-    }
-    return tau > 0 && tau < tMax ? tau : NaN;
-  }
 }
 
 /**

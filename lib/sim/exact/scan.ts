@@ -49,9 +49,11 @@ export class Scanner {
    */
   start = 0;
   span = 0;
+  /** Where maxAbs starts (τ ≥ 0; the stretch before it is skipped). */
+  from = 0;
   exit = Number.NaN;
   best = 0;
-  /** The analytic extremum found by chunkFor (NaN when none or not used). */
+  /** The analytic extremum found by findExtremum (NaN when none or not used). */
   private extremum = Number.NaN;
 
   constructor(private readonly basis: Basis) {
@@ -65,16 +67,20 @@ export class Scanner {
     return this.basis.valueAt(c, tau);
   }
 
-  /** bracketRoot on [a, b] (small enough for V8 to inline, so its numbers are never boxed). */
-  private root(c: Float64Array, a: number, b: number, ga: number, gb: number): number {
+  /**
+   * bracketRoot between point 0 and point k (their τ and values); the root is then
+   * `bracket[BRACKET_B]`. Nothing crosses the call as a number (see `start`).
+   */
+  private rootAt(c: Float64Array, k: number): void {
+    const P = this.points;
+    const o = POINT * k;
     const B = this.bracket;
-    B[BRACKET_A] = a;
-    B[BRACKET_B] = b;
-    B[BRACKET_GA] = ga;
-    B[BRACKET_GB] = gb;
+    B[BRACKET_A] = P[0];
+    B[BRACKET_B] = P[o];
+    B[BRACKET_GA] = P[1];
+    B[BRACKET_GB] = P[o + 1];
     B[BRACKET_T0] = this.start;
     bracketRoot(this, c, B);
-    return B[BRACKET_B];
   }
 
   /**
@@ -87,10 +93,39 @@ export class Scanner {
     this.extremum = Number.NaN;
     if (this.periodicExtrema(c)) return -1;
     if (basis.sineCount > 0 || basis.complex) return 0;
-    const e = basis.extremum(c, this.span);
-    if (e === -1) return 0;
-    this.extremum = e;
+    this.findExtremum(c);
+    if (this.extremum === -1) {
+      this.extremum = Number.NaN;
+      return 0;
+    }
     return Infinity;
+  }
+
+  /**
+   * Interior extremum in (0, span) of a sine-free, real-exponent combination c, into
+   * `extremum`: its τ, NaN when there is none, or −1 when it cannot be had in closed form (both
+   * exponentials and a slope).
+   */
+  private findExtremum(c: Float64Array): void {
+    const basis = this.basis;
+    const slope = c[SLOT_TAU];
+    const a = basis.useE1 ? c[SLOT_E1] * basis.lambda1 : 0;
+    const b = basis.useE2 ? c[SLOT_E2] * basis.lambda2 : 0;
+    let tau = Number.NaN;
+    if (a !== 0 && b === 0) {
+      const r = -slope / a;
+      if (r > 0) tau = Math.log(r) / basis.lambda1;
+    } else if (a === 0 && b !== 0) {
+      const r = -slope / b;
+      if (r > 0) tau = Math.log(r) / basis.lambda2;
+    } else if (a !== 0 && b !== 0 && slope === 0) {
+      const r = -b / a;
+      if (r > 0) tau = Math.log(r) / (basis.lambda1 - basis.lambda2);
+    } else if (a !== 0 && b !== 0) {
+      this.extremum = -1;
+      return;
+    }
+    this.extremum = tau > 0 && tau < this.span ? tau : Number.NaN;
   }
 
   /**
@@ -116,13 +151,24 @@ export class Scanner {
   }
 
   /**
-   * The next point after a of the searches without the bounded walk (the extremum or the end;
-   * the next extremum of a complex pair) into the probe, with c's value there.
+   * The next point after point 0 of the searches without the bounded walk (the extremum or the
+   * end of the span; the next extremum of a complex pair) into point 1, with c's value there.
    */
-  private nextPoint(c: Float64Array, a: number, chunk: number, extremum: number, tMax: number): void {
-    this.probe[0] =
-      chunk === -1 ? Math.min(tMax, this.nextComplexExtremum(c, a)) : extremum > a && extremum < tMax ? extremum : tMax;
-    this.probeValue(c);
+  private nextPoint(c: Float64Array, chunk: number): void {
+    const P = this.points;
+    const a = P[0];
+    const tMax = this.span;
+    const e = this.extremum;
+    P[POINT] = chunk === -1 ? Math.min(tMax, this.nextComplexExtremum(c, a)) : e > a && e < tMax ? e : tMax;
+    this.valueAtPoint(1, c);
+  }
+
+  /** c at point k's τ into its value slot (no argument nor result is a number: see `start`). */
+  private valueAtPoint(k: number, c: Float64Array): void {
+    const P = this.points;
+    const basis = this.basis;
+    basis.evaluate(P[POINT * k]);
+    P[POINT * k + 1] = basis.dot(c);
   }
 
   /** c at τ = probe[0] into probe[1] (no argument nor result: see `start`). */
@@ -142,29 +188,26 @@ export class Scanner {
     const chunk = this.chunkFor(c);
     this.exit = Number.NaN;
     if (chunk === 0) {
-      this.startWalk(c, 0);
+      this.points[0] = 0;
+      this.startWalk(c);
       this.points[1] = insideStart(this.points[1]);
       this.walk(c, false, FIRST_EXIT, 0, null, null);
       return;
     }
     // Numbers through the points array (see `start`); the value at τ = 0 is the same sum as
     // basis.valueAtStart, plus terms that are exactly zero there.
-    const q = this.probe;
-    q[0] = 0;
-    this.probeValue(c);
-    let ga = insideStart(q[1]);
-    const ext = this.extremum;
-    let a = 0;
-    while (a < tMax) {
-      this.nextPoint(c, a, chunk, ext, tMax);
-      const b = q[0];
-      const gb = q[1];
-      if (gb >= 0) {
-        this.exit = this.root(c, a, b, ga, gb);
+    const P = this.points;
+    P[0] = 0;
+    this.valueAtPoint(0, c);
+    P[1] = insideStart(P[1]);
+    while (P[0] < tMax) {
+      this.nextPoint(c, chunk);
+      if (P[POINT + 1] >= 0) {
+        this.rootAt(c, 1);
+        this.exit = this.bracket[BRACKET_B];
         return;
       }
-      a = b;
-      ga = gb;
+      P.copyWithin(0, POINT, POINT + 2);
     }
   }
 
@@ -178,62 +221,58 @@ export class Scanner {
     const chunk = this.chunkFor(c);
     if (chunk === 0) {
       // The start counts on its given side (a value across by rounding is not a crossing).
-      this.startWalk(c, 0);
+      this.points[0] = 0;
+      this.startWalk(c);
       const g0 = this.points[1];
       this.points[1] = side ? (g0 >= 0 ? g0 : 0) : g0 < 0 ? g0 : -Number.MIN_VALUE;
       this.walk(c, side, CROSSINGS, monitor, recorder, null);
       return this.walkSide;
     }
-    const ext = this.extremum;
-    const q = this.probe;
-    let a = 0;
-    let ga = Number.NaN;
-    while (a < tEnd) {
-      this.nextPoint(c, a, chunk, ext, tEnd);
-      const b = q[0];
-      const gb = q[1];
-      const sb = gb >= 0;
+    const P = this.points;
+    P[0] = 0;
+    P[1] = Number.NaN; // the value at τ = 0 is needed only at a crossing
+    while (P[0] < tEnd) {
+      this.nextPoint(c, chunk);
+      const sb = P[POINT + 1] >= 0;
       if (sb !== side) {
-        if (Number.isNaN(ga)) {
-          q[0] = a;
-          this.probeValue(c);
-          ga = q[1];
+        if (Number.isNaN(P[1])) this.valueAtPoint(0, c);
+        let root = P[0];
+        if (P[1] >= 0 !== sb) {
+          this.rootAt(c, 1);
+          root = this.bracket[BRACKET_B];
         }
-        const root = ga >= 0 === sb ? a : this.root(c, a, b, ga, gb);
         recorder.crossingTime = t0 + root;
         recorder.pushCrossing(monitor, sb);
         side = sb;
       }
-      a = b;
-      ga = gb;
+      P.copyWithin(0, POINT, POINT + 2);
     }
     return side;
   }
 
-  /** max |c(τ)| over [tMin, span] into `best`: the ends plus interior extrema located on the derivative. */
-  maxAbs(c: Float64Array, scratch: Float64Array, tMin: number): void {
+  /** max |c(τ)| over [from, span] into `best`: the ends plus interior extrema located on the derivative. */
+  maxAbs(c: Float64Array, scratch: Float64Array): void {
     const basis = this.basis;
-    const tMax = this.span;
+    const tMin = this.from;
+    if (basis.smooth) this.findExtremum(c);
+    else this.extremum = -1;
+    const e = this.extremum;
+    // The two ends and, when it lies after tMin, the analytic extremum; one probe site in the
+    // loop, so V8 inlines one copy of the evaluation.
     const q = this.probe;
-    q[0] = tMin;
-    this.probeValue(c);
-    this.best = Math.abs(q[1]);
-    q[0] = tMax;
-    this.probeValue(c);
-    this.best = Math.max(this.best, Math.abs(q[1]));
-    if (basis.smooth) {
-      const e = basis.extremum(c, tMax);
-      if (e > tMin) {
-        q[0] = e;
-        this.probeValue(c);
-        this.best = Math.max(this.best, Math.abs(q[1]));
-      }
-      if (e !== -1) return;
+    this.best = 0;
+    for (let i = 0; i < 3; i++) {
+      if (i === 2 && !(e > tMin)) break;
+      q[0] = i === 0 ? tMin : i === 1 ? this.span : e;
+      this.probeValue(c);
+      this.best = Math.max(this.best, Math.abs(q[1]));
     }
+    if (basis.smooth && e !== -1) return;
     // The extrema are the sign changes of the derivative, found by the bounded walk.
     const D = scratch;
     basis.derivative(c, D);
-    this.startWalk(D, tMin);
+    this.points[0] = tMin;
+    this.startWalk(D);
     this.walk(D, this.points[1] >= 0, EXTREMA, 0, null, c);
   }
 
@@ -247,7 +286,8 @@ export class Scanner {
    * the interval's larger end (a complex pair: |A + iB|·(μ² + ν²)·e^{μτ}) and the sines'
    * |A_j|·ω_j², common practice, no source.
    */
-  private startWalk(c: Float64Array, tau: number): void {
+  private startWalk(c: Float64Array): void {
+    const tau = this.points[0]; // set by the caller (no number argument: see `start`)
     const basis = this.basis;
     basis.derivative(c, this.slope);
     if (basis.complex) {
@@ -362,12 +402,12 @@ export class Scanner {
         continue;
       }
       if (verdict === 1) {
-        const a = P[0];
-        const b = P[o];
-        const ga = P[1];
-        const gb = P[o + 1];
-        const sb = gb >= 0;
-        const root = ga >= 0 === sb ? a : this.root(c, a, b, ga, gb);
+        const sb = P[o + 1] >= 0;
+        let root = P[0];
+        if (P[1] >= 0 !== sb) {
+          this.rootAt(c, this.depth);
+          root = this.bracket[BRACKET_B];
+        }
         if (mode === FIRST_EXIT) {
           this.exit = root;
           return;

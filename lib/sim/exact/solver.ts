@@ -399,7 +399,8 @@ export class ExactSolver {
         else {
           scan.start = t;
           scan.span = tx;
-          scan.maxAbs(F, this.scratch, Math.max(0, rec.startupEnd - t));
+          scan.from = Math.max(0, rec.startupEnd - t);
+          scan.maxAbs(F, this.scratch);
           rec.maxSlew = Math.max(rec.maxSlew, scan.best);
         }
       }
