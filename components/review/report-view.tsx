@@ -25,6 +25,7 @@ import { billOfMaterials } from "@/lib/design/bom";
 import { type CircuitWorstCase, circuitWorstCase } from "@/lib/design/spread";
 import { formatQuantity } from "@/lib/design/notation";
 import { personName, useRun, useScenario } from "@/lib/client/hooks";
+import { errorMessage } from "@/lib/client/fetcher";
 import { useComments, useRunLinks } from "@/lib/client/team-hooks";
 import { useReviewRequests, useSignoffList } from "@/lib/client/review-hooks";
 import { DECISION_LABEL } from "@/lib/schemas/team";
@@ -133,9 +134,12 @@ export function ReportView({ runId }: { runId: string }) {
   const runState = useRun(runId);
   const run = runState.data;
   const scenarioRow = useScenario(run?.scenarioId || null).data;
-  const signoffs = useSignoffList(runId).data;
-  const comments = useComments(runId).data;
-  const requests = useReviewRequests(runId).data;
+  const signoffState = useSignoffList(runId);
+  const commentState = useComments(runId);
+  const requestState = useReviewRequests(runId);
+  const signoffs = signoffState.data;
+  const comments = commentState.data;
+  const requests = requestState.data;
   const links = useRunLinks(runId).data; // 403 for reviewers/viewers: the section then lists the team address only
 
   const derived = useMemo(() => {
@@ -218,6 +222,12 @@ export function ReportView({ runId }: { runId: string }) {
   const switching = KIND_INFO[scenario.stage.kind].switching;
   const caution = suggestsLoadSwitching(name, run.label, scenario.source?.quantity);
   const verdicts = studyVerdicts(run.study as SavedStudy | null);
+  // Until the review lists arrive the report must not say "No standing decision": it says it is
+  // still loading, and Print waits, so a printed report never leaves out a sign-off.
+  const reviewLoaded = [signoffState, requestState, commentState].every((x) => x.data !== undefined || x.error);
+  const pending = (x: { data?: unknown; error?: unknown }) => (
+    <p className="text-[12px] text-ink-mute">{x.error ? `Could not load: ${errorMessage(x.error)}` : "Loading…"}</p>
+  );
   const standing = signoffs?.items ?? [];
   const withdrawn = signoffs?.withdrawn ?? [];
 
@@ -297,13 +307,20 @@ export function ReportView({ runId }: { runId: string }) {
     <div
       className="report-page mx-auto max-w-[820px] space-y-4 rounded-lg border border-paper-line bg-white p-6 text-ink shadow-sm"
       data-testid="review-report"
+      data-review-loaded={reviewLoaded}
     >
       <style>{PRINT_CSS}</style>
       <div className="flex flex-wrap items-center justify-between gap-2" data-print-hide>
         <Link href={`/runs/${run.id}`} className="text-[13px] text-ink-mute hover:text-ink hover:underline">
           ← Back to the run
         </Link>
-        <Button size="sm" variant="primary" onClick={() => window.print()}>
+        <Button
+          size="sm"
+          variant="primary"
+          onClick={() => window.print()}
+          disabled={!reviewLoaded}
+          title={reviewLoaded ? undefined : "Waiting for the sign-offs, review requests and comments"}
+        >
           Print or save as PDF
         </Button>
       </div>
@@ -334,7 +351,9 @@ export function ReportView({ runId }: { runId: string }) {
         <div className="grid gap-3 sm:grid-cols-2 print:grid-cols-2">
           <div>
             <h3 className="text-[12px] font-medium text-ink-soft">Sign-offs</h3>
-            {standing.length === 0 ? (
+            {signoffs === undefined ? (
+              pending(signoffState)
+            ) : standing.length === 0 ? (
               <p className="text-[12px] text-ink-mute">No standing decision.</p>
             ) : (
               <ul className="text-[12px]" aria-label="Report sign-offs">
@@ -366,7 +385,9 @@ export function ReportView({ runId }: { runId: string }) {
           </div>
           <div>
             <h3 className="text-[12px] font-medium text-ink-soft">Review requests</h3>
-            {(requests?.items ?? []).length === 0 ? (
+            {requests === undefined ? (
+              pending(requestState)
+            ) : requests.items.length === 0 ? (
               <p className="text-[12px] text-ink-mute">None.</p>
             ) : (
               <ul className="text-[12px]">
@@ -526,7 +547,9 @@ export function ReportView({ runId }: { runId: string }) {
       </Section>
 
       <Section title="Comments">
-        {(comments?.items ?? []).length === 0 ? (
+        {comments === undefined ? (
+          pending(commentState)
+        ) : comments.items.length === 0 ? (
           <p className="text-[12px] text-ink-mute">No comments.</p>
         ) : (
           <ul className="flex flex-col gap-1.5 text-[12px]" aria-label="Report comments">

@@ -215,6 +215,8 @@ describe("review you can sign", () => {
     await rPage.getByTestId("report-trace").waitFor();
     await rPage.getByTestId("report-loop").waitFor();
     const report = rPage.getByTestId("review-report");
+    // Sign-offs, requests and comments load on their own; the report says when they are in.
+    await rPage.locator('[data-testid=review-report][data-review-loaded="true"]').waitFor();
     const reportText = (await report.textContent()) ?? "";
     expect(reportText).toContain("Battery low-voltage disconnect");
     expect(reportText).toContain("Approved by Maren Lie");
