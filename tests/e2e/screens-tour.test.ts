@@ -178,6 +178,8 @@ describe("every screen at three widths and four roles", () => {
         if (over > 0) problems.push(`shared ${width}: page scrolls sideways by ${over} px`);
         problems.push(...(await clipped(page, "body")).map((p) => `shared ${width}: ${p}`));
         problems.push(...(await gridHoles(page, "main")).map((p) => `shared ${width}: ${p}`));
+        const misaligned = await headerMisalignment(page);
+        if (misaligned) problems.push(`shared ${width}: ${misaligned}`);
       } finally {
         await anon.close();
       }

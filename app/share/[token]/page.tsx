@@ -49,7 +49,10 @@ export default async function SharedRunPage({ params }: { params: Promise<{ toke
   return (
     <div className="flex min-h-screen flex-col">
       <header className="border-b border-paper-line bg-paper-card">
-        <div className="rw-shell flex flex-wrap items-center justify-between gap-2 px-4 py-2 sm:px-6">
+        <div
+          className="rw-shell flex flex-wrap items-center justify-between gap-2 px-4 py-2 sm:px-6"
+          data-testid="app-header-row"
+        >
           <Wordmark />
           <div className="flex flex-wrap items-center gap-x-4 gap-y-1 text-[12px]">
             <span className="text-ink-mute">
