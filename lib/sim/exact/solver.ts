@@ -326,7 +326,7 @@ export class ExactSolver {
       model.startVo = vo;
       model.startX = x;
       let regime = this.regimeAtStart();
-      if (isRail(regime)) this.noteRail(regime, t);
+      if (isRail(regime)) this.noteRail(regime);
       if (!hasState && isRail(regime) && !(variableHigh && regime === RAIL_HIGH)) {
         if (rec.startupEnd === Infinity) rec.startupEnd = t;
         this.t = t;
@@ -345,7 +345,7 @@ export class ExactSolver {
       if (this.basis.sineCount > 0) tb = Math.min(tb, t + this.pieceCapSine);
       model.startVo = vo;
       regime = this.resolveAtStart(regime);
-      if (isRail(regime)) this.noteRail(regime, t);
+      if (isRail(regime)) this.noteRail(regime);
       const h = Math.min(tb - t, this.cap);
       this.steps++;
 
@@ -464,7 +464,8 @@ export class ExactSolver {
   }
 
   /** First time the output reaches each limit: the input there (amplifier readings). */
-  private noteRail(regime: Regime, t: number): void {
+  private noteRail(regime: Regime): void {
+    const t = this.t;
     const rec = this.p.recorder;
     if (regime === RAIL_HIGH && this.firstHigh !== this.firstHigh)
       this.firstHigh = this.model.variableHigh ? this.levels[LEVEL_HIGH] : this.p.rails.high;
