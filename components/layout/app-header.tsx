@@ -46,7 +46,8 @@ export function AppHeader({ user }: { user: HeaderUser }) {
           <RoleBadge role={user.role} />
           <Link
             href="/signout"
-            className="rounded-md px-2 py-1 text-[13px] whitespace-nowrap text-ink-mute hover:bg-paper-sunk hover:text-ink"
+            // -mr-2: the words, not the hover box, end at the column's edge (as the page's buttons do).
+            className="-mr-2 rounded-md px-2 py-1 text-[13px] whitespace-nowrap text-ink-mute hover:bg-paper-sunk hover:text-ink"
           >
             Sign out
           </Link>
