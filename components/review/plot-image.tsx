@@ -56,7 +56,11 @@ function range(spec: PlotSpec, axis: "x" | "y"): [number, number] {
     }
   }
   if (axis === "y")
-    for (const m of spec.marks ?? []) if (Number.isFinite(m.y)) (lo = Math.min(lo, m.y)), (hi = Math.max(hi, m.y));
+    for (const m of spec.marks ?? []) {
+      if (!Number.isFinite(m.y)) continue;
+      lo = Math.min(lo, m.y);
+      hi = Math.max(hi, m.y);
+    }
   if (!Number.isFinite(lo)) return [0, 1];
   if (hi === lo) return [lo - 1, hi + 1];
   if (axis === "y") {

@@ -31,6 +31,7 @@ export function Dialog({ open, onClose, title, description, footer, children, si
   }, [open]);
 
   return (
+    // biome-ignore lint/a11y/useKeyWithClickEvents: a backdrop click is the mouse's way out; the keyboard's is Escape (the cancel event)
     <dialog
       ref={ref}
       aria-labelledby={titleId}

@@ -7,7 +7,7 @@ import { cx } from "./cx";
 /** Placeholder rows while data loads (keeps the layout from jumping). */
 export function LoadingRows({ rows = 3, className }: { rows?: number; className?: string }) {
   return (
-    <div aria-busy="true" aria-label="Loading" className={cx("flex flex-col gap-2 p-4", className)}>
+    <div role="status" aria-busy="true" aria-label="Loading" className={cx("flex flex-col gap-2 p-4", className)}>
       {Array.from({ length: rows }, (_, k) => 90 - k * 12).map((width) => (
         <div key={width} className="h-5 animate-pulse rounded bg-paper-sunk" style={{ width: `${width}%` }} />
       ))}

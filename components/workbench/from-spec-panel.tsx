@@ -166,7 +166,15 @@ export function FromSpecPanel() {
             </option>
           ))}
         </SelectRow>
-        {usesSensor ? <SensorFields sensor={sensor} onChange={(s) => (setSensor(s), setResult(null))} /> : null}
+        {usesSensor ? (
+          <SensorFields
+            sensor={sensor}
+            onChange={(s) => {
+              setSensor(s);
+              setResult(null);
+            }}
+          />
+        ) : null}
         {mode === "thresholds" ? (
           <>
             <QuantityField

@@ -121,7 +121,7 @@ export function QuantityField({
             }
             const v = plain ? (t.trim() === "" ? null : Number(t)) : parseQuantity(t);
             const ok = v !== null && Number.isFinite(v);
-            pending.current = ok && !!(validate && validate(v));
+            pending.current = ok && !!validate?.(v);
             if (ok && !pending.current) {
               committed.current = v;
               onCommit(v);

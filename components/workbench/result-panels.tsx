@@ -256,7 +256,7 @@ export function traceSource(
   scenario: Scenario | null,
   values: ArrayLike<number> | null | undefined,
 ): { values: Float64Array; unit: string; label: string } | null {
-  if (!scenario || !values || !values.length) return null;
+  if (!scenario || !values?.length) return null;
   const terms = sourceTerms(scenario);
   if (!terms) return null;
   return {

@@ -264,7 +264,6 @@ function plainStage(stage: Stage, scenario: Scenario, seriesInput: number): Stag
 /** Lower a circuit-as-built scenario to the plain scenario plus the filter, output and source mapping. */
 export function lowerCircuit(scenario: Scenario, options: LowerOptions = {}): LoweredCircuit {
   const { source: _s, filter: _f, output: _o, tolerances: _t, spec: _sp, ...rest } = scenario;
-  void _s, _f, _o, _t, _sp;
   if (scenario.filter && !options.allowFilter)
     throw new SimFailed(
       "filter: the RC filter node is not supported by the solver yet; remove filter to run this scenario",

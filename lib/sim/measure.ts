@@ -53,7 +53,7 @@ export class Recorder {
   private bufLen = 0;
 
   constructor(
-    private readonly rails: { high: number; low: number },
+    rails: { high: number; low: number },
     private readonly signal: InputSignal,
     /** Transport delay added to the measured propagation delay (see DEVELOPERS notes). */
     private readonly transportDelay: number,

@@ -53,30 +53,30 @@ export function fuzzScenario(seed: number): { raw: Record<string, unknown>; scen
   };
   if (chance(0.3)) opamp.slewRateFall = log(1e5, 1e8);
   if (switching && chance(0.25)) opamp.propagationDelay = log(1e-7, 1e-5);
-  const R = () => log(1e3, 1e6);
+  const resistor = () => log(1e3, 1e6);
   const ref = u(supply.negative + 0.1 * span, supply.positive - 0.1 * span);
   let stage: Record<string, unknown>;
   switch (kind) {
     case "noninverting-amplifier":
-      stage = { kind, rGround: R(), rFeedback: R(), reference: chance(0.5) ? 0 : ref };
+      stage = { kind, rGround: resistor(), rFeedback: resistor(), reference: chance(0.5) ? 0 : ref };
       break;
     case "inverting-amplifier":
-      stage = { kind, rInput: R(), rFeedback: R(), reference: chance(0.5) ? 0 : ref };
+      stage = { kind, rInput: resistor(), rFeedback: resistor(), reference: chance(0.5) ? 0 : ref };
       break;
     case "comparator":
       stage = { kind, reference: ref, inputAt: pick(["noninverting", "inverting"]) };
       break;
     case "schmitt-noninverting":
-      stage = { kind, rInput: R(), rFeedback: R() * 3, reference: ref };
+      stage = { kind, rInput: resistor(), rFeedback: resistor() * 3, reference: ref };
       break;
     case "schmitt-inverting":
-      stage = { kind, rReference: R(), rFeedback: R() * 3, reference: ref };
+      stage = { kind, rReference: resistor(), rFeedback: resistor() * 3, reference: ref };
       break;
     case "relaxation-oscillator":
       stage = {
         kind,
-        rReference: R(),
-        rFeedback: R(),
+        rReference: resistor(),
+        rFeedback: resistor(),
         rTiming: log(1e3, 1e6),
         cTiming: log(1e-10, 1e-6),
         reference: ref,

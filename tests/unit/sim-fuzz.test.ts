@@ -20,8 +20,7 @@ describe("differential fuzz", () => {
         const r = simulate(scenario, { maxSteps: BUDGET });
         const bad = r.output.findIndex((v) => !Number.isFinite(v));
         if (bad >= 0) failures.push(`seed ${seed}: non-finite output at sample ${bad}`);
-        if (r.capacitor && r.capacitor.some((v) => !Number.isFinite(v)))
-          failures.push(`seed ${seed}: non-finite capacitor`);
+        if (r.capacitor?.some((v) => !Number.isFinite(v))) failures.push(`seed ${seed}: non-finite capacitor`);
       } catch (e) {
         failures.push(`seed ${seed} (${scenario.stage.kind}): ${(e as Error).message}`);
       }
