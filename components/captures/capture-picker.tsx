@@ -72,7 +72,12 @@ export function CapturePicker({
             </option>
           ))}
         </Select>
-        <Button size="sm" onClick={use} disabled={disabled || busy || !id}>
+        <Button
+          size="sm"
+          onClick={use}
+          disabled={disabled || busy || !id}
+          title={!id && !disabled ? "Choose a capture first" : undefined}
+        >
           {busy ? "Loading…" : "Use capture"}
         </Button>
       </div>

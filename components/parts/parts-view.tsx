@@ -122,7 +122,12 @@ export function PartsView({ canEdit }: { canEdit: boolean }) {
         description="Behavioural op-amp parameter sets of your team. Values are typed in engineering notation (200k, 1M, 2.5m)."
         actions={
           <>
-            <Button size="sm" onClick={exportCsv} disabled={items.length === 0}>
+            <Button
+              size="sm"
+              onClick={exportCsv}
+              disabled={items.length === 0}
+              title={items.length === 0 ? "The library is empty: nothing to export yet" : undefined}
+            >
               Export CSV
             </Button>
             {canEdit && (
@@ -360,7 +365,12 @@ function ImportDialog({ onClose, onImported }: { onClose: () => void; onImported
       footer={
         <>
           <Button onClick={onClose}>Cancel</Button>
-          <Button variant="primary" onClick={() => void submit()} disabled={busy || !file}>
+          <Button
+            variant="primary"
+            onClick={() => void submit()}
+            disabled={busy || !file}
+            title={!file ? "Choose a CSV file first" : undefined}
+          >
             {busy ? "Importing…" : "Import"}
           </Button>
         </>

@@ -254,6 +254,11 @@ function InviteCard({ onInvited }: { onInvited: () => Promise<unknown> }) {
   async function submit(e: FormEvent) {
     e.preventDefault();
     setStatus(null);
+    if (!email.trim()) {
+      setEmailError("Enter the e-mail address of the person to invite.");
+      document.getElementById("invite-email")?.focus();
+      return;
+    }
     // The same check as the server's, said with the field's label (the schema says "email").
     const checked = emailSchema.safeParse(email);
     if (!checked.success) {
@@ -314,7 +319,7 @@ function InviteCard({ onInvited }: { onInvited: () => Promise<unknown> }) {
             ))}
           </Select>
         </Field>
-        <Button type="submit" variant="primary" disabled={sending || !email}>
+        <Button type="submit" variant="primary" disabled={sending}>
           {sending ? "Sending…" : "Send invitation"}
         </Button>
         {status && (

@@ -445,7 +445,15 @@ function RunBar() {
       >
         {saving ? "Saving…" : "Save"}
       </Button>
-      <Button size="sm" variant="ghost" disabled={!result} onClick={exportCsv} title="Samples of the latest run as CSV">
+      <Button
+        size="sm"
+        variant="ghost"
+        disabled={!result}
+        onClick={exportCsv}
+        title={
+          result ? "Samples of the latest run as CSV" : "Run the scenario first: the CSV holds the latest run's samples"
+        }
+      >
         CSV
       </Button>
       {runError ? (

@@ -93,10 +93,18 @@ describe("form messages in screen words", () => {
     const page = await pageAs("owner");
     const before = await count("/api/team/invitations");
     await page.goto(`${server.url}/team`);
-    await page.getByLabel("E-mail", { exact: true }).fill("rita.field-at-fjordline");
-    await page.getByRole("button", { name: "Send invitation" }).click();
+    // Empty: the button is not disabled without a reason; pressing it says what is missing.
+    const send = page.getByRole("button", { name: "Send invitation" });
+    expect(await send.isEnabled()).toBe(true);
+    await send.click();
     const message = page.locator("#invite-email-error");
     await message.waitFor();
+    expect(await message.innerText()).toBe("Enter the e-mail address of the person to invite.");
+    await page.getByLabel("E-mail", { exact: true }).fill("rita.field-at-fjordline");
+    await send.click();
+    await expect
+      .poll(() => message.innerText())
+      .toBe("E-mail must be an e-mail address, such as name@company.example.");
     await screenshot(page, "forms-invitation");
     expect(await message.innerText()).toBe("E-mail must be an e-mail address, such as name@company.example.");
     // The field at fault has the focus, and no invitation was made.
