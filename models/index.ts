@@ -15,7 +15,7 @@ import { getSequelize } from "./db";
 import { stripNul } from "./text";
 
 import { DECISIONS, ROLES, type Decision, type Role } from "@/lib/schemas/roles";
-import { leanScenarioOf } from "@/lib/schemas/responses";
+import { leanScenarioOf } from "@/lib/schemas/lean-scenario";
 import type { Scenario } from "@/lib/schemas/scenario";
 
 export { DECISIONS, ROLES, type Decision, type Role };

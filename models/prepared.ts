@@ -7,6 +7,9 @@
 // per pooled connection.
 import type { Sequelize } from "sequelize";
 
+/** A JSON column as a raw query answers it: text on SQLite, already parsed by node-postgres. */
+export const jsonColumn = (value: unknown): unknown => (typeof value === "string" ? JSON.parse(value) : value);
+
 interface SqliteStatement {
   all(params: unknown[], cb: (err: Error | null, rows?: unknown[]) => void): void;
   finalize(cb?: (err: Error | null) => void): void;

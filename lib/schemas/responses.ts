@@ -7,6 +7,7 @@ import { DECISIONS, roleSchema } from "./roles";
 import { opampSchema, type Scenario, scenarioSchema } from "./scenario";
 import { savedStudySchema } from "./study";
 import { storedResultSchema } from "./result";
+import type { LeanScenario } from "./lean-scenario";
 import { finite, nonNegative } from "./units";
 
 const isoTime = z.iso.datetime({ offset: true });
@@ -107,29 +108,7 @@ export const scenarioRecordSchema = z.strictObject({
   latestDecision: latestDecisionSchema.nullable(),
 });
 
-type Component = Scenario["input"]["components"][number];
-/** A list item's waveform component: pwl points and capture samples are left out and counted. */
-export type LeanComponent =
-  | Exclude<Component, { kind: "pwl" | "capture" }>
-  | (Extract<Component, { kind: "pwl" }> & { pointCount: number })
-  | (Extract<Component, { kind: "capture" }> & { pointCount: number });
-export type LeanScenario = Omit<Scenario, "input"> & {
-  input: Omit<Scenario["input"], "components"> & { components: LeanComponent[] };
-};
-
-/**
- * The list form of a scenario: pwl points and capture samples left out and counted. Stored
- * beside the document (scenarios.summary, models/index.ts), so a list never reads waveforms.
- */
-export function leanScenarioOf(scenario: Scenario): LeanScenario {
-  const input = scenario.input;
-  const components = (input?.components ?? []).map((c): LeanComponent => {
-    if (c.kind === "pwl") return { ...c, points: [], pointCount: c.points.length };
-    if (c.kind === "capture") return { ...c, samples: [], pointCount: c.samples.length };
-    return c;
-  });
-  return { ...scenario, input: { ...input, components } };
-}
+export type { LeanComponent, LeanScenario } from "./lean-scenario";
 
 const LEAN_PLACEHOLDER: [number, number][] = [
   [0, 0],

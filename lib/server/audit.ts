@@ -5,6 +5,7 @@ import { Op } from "sequelize";
 import { getModels, getSequelize } from "@/models";
 import type { AuditJson } from "@/lib/schemas/responses";
 import { notFound } from "./errors";
+import { isId } from "./ids";
 export type { AuditJson };
 
 export interface AuditEntry {
@@ -32,7 +33,8 @@ export async function recordAudit(entry: AuditEntry, transaction?: Transaction):
 
 /**
  * Deletes one row of a team and records it, in one transaction: `find` reads the row (null when
- * it is not the team's, answered 404 "No such <what> in your team."), `details` names it in the
+ * it is not the team's, answered 404 "No such <what> in your team."; a malformed id never
+ * reaches it), `details` names it in the
  * audit log so the entry survives the row. Foreign keys cascade to what the row owns.
  */
 export async function deleteAudited<R extends Model>({
@@ -45,7 +47,7 @@ export async function deleteAudited<R extends Model>({
   actorId,
   details,
 }: {
-  find: (transaction: Transaction) => Promise<R | null> | null;
+  find: (transaction: Transaction) => Promise<R | null>;
   what: string;
   action: string;
   targetType: string;
@@ -55,7 +57,7 @@ export async function deleteAudited<R extends Model>({
   details: (row: R) => Record<string, unknown>;
 }): Promise<void> {
   await getSequelize().transaction(async (transaction) => {
-    const row = await find(transaction);
+    const row = isId(id) ? await find(transaction) : null;
     if (!row) throw notFound(`No such ${what} in your team.`);
     await row.destroy({ transaction });
     await recordAudit({ teamId, actorId, action, targetType, targetId: id, details: details(row) }, transaction);

@@ -132,7 +132,7 @@ export async function deleteBoard({
     what: "board",
     action: "board.deleted",
     targetType: "board",
-    find: (transaction) => (isId(id) ? getModels().Board.findOne({ where: { id, teamId }, transaction }) : null),
+    find: (transaction) => getModels().Board.findOne({ where: { id, teamId }, transaction }),
     details: (row) => ({ name: row.name }),
   });
 }

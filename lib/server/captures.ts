@@ -124,7 +124,7 @@ export async function deleteCapture({
     action: "capture.deleted",
     targetType: "capture",
     find: (transaction) =>
-      isId(id) ? getModels().Capture.findOne({ where: { id, teamId }, attributes: ["id", "name"], transaction }) : null,
+      getModels().Capture.findOne({ where: { id, teamId }, attributes: ["id", "name"], transaction }),
     details: (row) => ({ name: row.name }),
   });
 }

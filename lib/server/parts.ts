@@ -117,7 +117,7 @@ export async function deletePart({
     what: "part profile",
     action: "part.deleted",
     targetType: "part_profile",
-    find: (transaction) => (isId(id) ? getModels().PartProfile.findOne({ where: { id, teamId }, transaction }) : null),
+    find: (transaction) => getModels().PartProfile.findOne({ where: { id, teamId }, transaction }),
     details: (row) => ({ name: row.name }),
   });
 }

@@ -113,8 +113,7 @@ export async function deleteRun({
     what: "run",
     action: "run.deleted",
     targetType: "run",
-    find: (transaction) =>
-      isId(id) ? getModels().Run.findOne({ where: { id, teamId }, attributes: ["id", "label"], transaction }) : null,
+    find: (transaction) => getModels().Run.findOne({ where: { id, teamId }, attributes: ["id", "label"], transaction }),
     details: (row) => ({ label: row.label }),
   });
 }

@@ -4,7 +4,7 @@ import "server-only";
 import type { Transaction } from "sequelize";
 import { getModels, getSequelize } from "@/models";
 import { lockRow, withWriteTransaction } from "@/models/transactions";
-import { selectPrepared } from "@/models/prepared";
+import { jsonColumn, selectPrepared } from "@/models/prepared";
 import type { Scenario } from "@/lib/schemas/scenario";
 import type { ScenarioCreate, ScenarioUpdate } from "@/lib/schemas/api";
 import { deleteAudited } from "./audit";
@@ -18,14 +18,10 @@ import type {
   ScenarioVersionDocJson,
   ScenarioVersionJson,
 } from "@/lib/schemas/responses";
-import { leanScenarioOf } from "@/lib/schemas/responses";
 import { isId, iso, person } from "./ids";
 import { latestDecisionsByScenario } from "./review";
 
 export type { ScenarioJson, ScenarioSummaryJson, ScenarioVersionDocJson, ScenarioVersionJson };
-
-/** SQLite keeps JSON as text in a raw query; the model and node-postgres parse it themselves. */
-const parsedJson = (value: unknown): unknown => (typeof value === "string" ? JSON.parse(value) : value);
 
 /** A scenario row as the model or the list query reads it; `updaterName` is the updater's name. */
 interface ScenarioFields {
@@ -41,7 +37,10 @@ interface ScenarioFields {
 }
 
 /** Everything of a scenario's answer but the document itself. */
-function recordJson(row: ScenarioFields, latest: LatestDecisionJson | null): Omit<ScenarioJson, "scenario"> {
+function recordJson(
+  row: Omit<ScenarioFields, "data">,
+  latest: LatestDecisionJson | null,
+): Omit<ScenarioJson, "scenario"> {
   return {
     id: row.id,
     boardId: row.boardId as string,
@@ -55,7 +54,7 @@ function recordJson(row: ScenarioFields, latest: LatestDecisionJson | null): Omi
 }
 
 function scenarioJson(row: ScenarioFields, latest: LatestDecisionJson | null): ScenarioJson {
-  return { ...recordJson(row, latest), scenario: parsedJson(row.data) as Scenario };
+  return { ...recordJson(row, latest), scenario: jsonColumn(row.data) as Scenario };
 }
 
 /** The model row in the shape scenarioJson takes. */
@@ -73,6 +72,12 @@ const modelFields = (row: import("@/models").ScenarioRow): ScenarioFields => ({
 
 const withUpdater = () => [{ model: getModels().User, as: "updater", attributes: ["name"] }];
 
+/**
+ * A board's scenarios as list items: each scenario without its waveform arrays (a pwl's points,
+ * a capture's samples), which can be megabytes; each such component keeps its kind and says how
+ * many points it has (`pointCount`), and `lean: true` marks the item. GET /api/scenarios/:id has
+ * the whole document.
+ */
 export async function listScenarios({
   boardId,
   teamId,
@@ -84,12 +89,11 @@ export async function listScenarios({
   // One query, prepared once (models/prepared.ts), names in code-point order on both databases.
   const sequelize = getSequelize();
   const collate = sequelize.getDialect() === "postgres" ? ' COLLATE "C"' : "";
-  // The stored list form (summary, migration 0005); the document only for a row that lacks it.
-  const rows = await selectPrepared<ScenarioFields & { summary: unknown }>(
+  // The stored list form (scenarios.summary, lib/schemas/lean-scenario.ts), never the document.
+  const rows = await selectPrepared<Omit<ScenarioFields, "data"> & { summary: unknown }>(
     sequelize,
     "railwise_list_scenarios",
     `SELECT s."id", s."boardId", s."name", s."version", s."summary",
-            CASE WHEN s."summary" IS NULL THEN s."data" END AS "data",
             s."createdAt", s."updatedAt", s."updatedBy", u."name" AS "updaterName"
        FROM "scenarios" s
        LEFT JOIN "users" u ON u."id" = s."updatedBy"
@@ -100,20 +104,11 @@ export async function listScenarios({
   // Rows of this team prove the board is the team's; only an empty answer needs the check (404).
   if (rows.length === 0) await getBoardRowOrThrow({ id: boardId, teamId });
   const decisions = await latestDecisionsByScenario({ teamId, scenarioIds: rows.map((r) => r.id) });
-  return rows.map((r) => {
-    const latest = decisions.get(r.id) ?? null;
-    if (r.summary == null) return leanScenarioJson(scenarioJson(r, latest));
-    return { ...recordJson(r, latest), scenario: parsedJson(r.summary) as LeanScenario, lean: true };
-  });
-}
-
-/**
- * A list item: the scenario without its waveform arrays (a pwl's points, a capture's samples),
- * which can be megabytes; each such component keeps its kind and says how many points it has
- * (`pointCount`) and `lean: true` marks the item. GET /api/scenarios/:id has the whole document.
- */
-export function leanScenarioJson(item: ScenarioJson): ScenarioSummaryJson {
-  return { ...item, scenario: leanScenarioOf(item.scenario), lean: true };
+  return rows.map((r) => ({
+    ...recordJson(r, decisions.get(r.id) ?? null),
+    scenario: jsonColumn(r.summary) as LeanScenario,
+    lean: true,
+  }));
 }
 
 async function scenarioRowOrThrow({

@@ -4,7 +4,8 @@
 // Existing rows are filled here, one at a time; the Scenario model's beforeSave hook keeps the
 // column in step from then on.
 import { DataTypes, QueryTypes, type QueryInterface } from "sequelize";
-import { leanScenarioOf } from "@/lib/schemas/responses";
+import { leanScenarioOf } from "@/lib/schemas/lean-scenario";
+import { jsonColumn } from "../prepared";
 import type { Scenario } from "@/lib/schemas/scenario";
 
 export async function up({ context: qi }: { context: QueryInterface }) {
@@ -16,7 +17,7 @@ export async function up({ context: qi }: { context: QueryInterface }) {
       bind: [id],
       type: QueryTypes.SELECT,
     });
-    const data = (typeof row.data === "string" ? JSON.parse(row.data) : row.data) as Scenario;
+    const data = jsonColumn(row.data) as Scenario;
     await sequelize.query(`UPDATE "scenarios" SET "summary" = $1 WHERE "id" = $2`, {
       bind: [JSON.stringify(leanScenarioOf(data)), id],
     });
